@@ -1,0 +1,45 @@
+//! `fivefold`: the engine on the command line, for instructors, scripts and tests.
+//!
+//! This binary is glue: it parses flags, turns them into engine values, calls the engine and
+//! prints text or JSON. Every failure is one line on stderr and a non-zero exit code.
+
+mod inspect;
+mod position;
+
+use std::process::ExitCode;
+
+use clap::{Parser, Subcommand};
+
+#[derive(Parser)]
+#[command(
+    name = "fivefold",
+    version,
+    about = "Forcing-line trainer for five-in-a-row: the engine on the command line"
+)]
+struct Cli {
+    #[command(subcommand)]
+    command: Command,
+}
+
+#[derive(Subcommand)]
+enum Command {
+    /// Describe a position: side to move, winner, forbidden points, five and four points.
+    Inspect(inspect::InspectArgs),
+    /// Print a position as a text diagram.
+    Show(position::PositionArgs),
+}
+
+fn main() -> ExitCode {
+    let cli = Cli::parse();
+    let result = match cli.command {
+        Command::Inspect(args) => inspect::run(&args),
+        Command::Show(args) => position::show(&args),
+    };
+    match result {
+        Ok(()) => ExitCode::SUCCESS,
+        Err(message) => {
+            eprintln!("fivefold: {message}");
+            ExitCode::FAILURE
+        }
+    }
+}

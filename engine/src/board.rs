@@ -1,0 +1,870 @@
+//! The board: stones on a padded grid, Zobrist hashes under all symmetries, and the incremental
+//! threat-shape state of [`crate::patterns`].
+//!
+//! Cells live in a grid with a margin of five wall cells on every side, so that every point
+//! within five steps of an on-board point has an index and no bounds check is needed on the hot
+//! path. Public methods take [`Point`]s; the `*_at` methods of the crate take padded cell indices
+//! (`usize`) for the solver.
+//!
+//! Boards are generic over the width, the height and `k`, the number in a row that wins, so the
+//! same win detection serves tic-tac-toe, small m,n,k-games and gomoku. Threat shapes are kept
+//! only when `k` is five.
+
+use std::fmt;
+
+use crate::bitset::CellSet;
+use crate::geometry::{Direction, Point, Symmetry, MAX_SIDE};
+use crate::patterns::{self, LineInfo, LineShape, ShapeTable, BLOCKED, OWN, POW3};
+use crate::rules::Rule;
+
+/// Wall cells on each side of the board.
+pub(crate) const MARGIN: usize = 5;
+
+/// A stone colour.
+#[derive(Clone, Copy, PartialEq, Eq, Hash, Debug, PartialOrd, Ord)]
+pub enum Stone {
+    /// Black, who moves first.
+    Black,
+    /// White.
+    White,
+}
+
+impl Stone {
+    /// Both colours, black first.
+    pub const ALL: [Stone; 2] = [Stone::Black, Stone::White];
+
+    /// The other colour.
+    #[inline]
+    pub const fn opponent(self) -> Stone {
+        match self {
+            Stone::Black => Stone::White,
+            Stone::White => Stone::Black,
+        }
+    }
+
+    /// 0 for black, 1 for white.
+    #[inline]
+    pub const fn index(self) -> usize {
+        self as usize
+    }
+
+    /// `"black"` or `"white"`.
+    pub const fn name(self) -> &'static str {
+        match self {
+            Stone::Black => "black",
+            Stone::White => "white",
+        }
+    }
+
+    #[inline]
+    const fn cell(self) -> u8 {
+        self as u8 + 1
+    }
+}
+
+impl fmt::Display for Stone {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(self.name())
+    }
+}
+
+const EMPTY: u8 = 0;
+const WALL: u8 = 3;
+
+/// Bit flags summing up what a stone on an empty point makes, over its four lines.
+pub mod threat {
+    /// A five (a winning one: exactly five under exact-five rules).
+    pub const FIVE: u8 = 1;
+    /// At least one four of any kind.
+    pub const FOUR: u8 = 2;
+    /// At least one three or broken three (line-local; renju's recursive test is separate).
+    pub const THREE: u8 = 4;
+    /// At least one closed three.
+    pub const CLOSED_THREE: u8 = 8;
+    /// At least one two.
+    pub const TWO: u8 = 16;
+    /// Number of flag kinds, each with its own set of points.
+    pub const KINDS: usize = 5;
+}
+
+/// Why a board could not be made.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub enum BoardError {
+    /// A gomoku board must be square, from 5x5 to 19x19.
+    BadSize(u8),
+    /// An m,n,k board must have sides from 1 to 19 and `k` from 1 to the longer side.
+    BadShape {
+        /// Columns.
+        width: u8,
+        /// Rows.
+        height: u8,
+        /// Stones in a row that win.
+        k: u8,
+    },
+}
+
+impl fmt::Display for BoardError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            BoardError::BadSize(n) => write!(
+                f,
+                "board size {n} is not supported (gomoku boards are square, from 5 to 19)"
+            ),
+            BoardError::BadShape { width, height, k } => write!(
+                f,
+                "a {width}x{height} board with {k} in a row is not supported \
+                 (sides 1 to 19, k from 1 to the longer side)"
+            ),
+        }
+    }
+}
+
+impl std::error::Error for BoardError {}
+
+/// Zobrist keys, one per (colour, point of a 19x19 grid), from a fixed splitmix64 stream so that
+/// hashes are identical on every platform.
+const ZOBRIST: [[u64; 361]; 2] = {
+    let mut keys = [[0u64; 361]; 2];
+    let mut state: u64 = 0x5EED_F1FE_F01D_0001;
+    let mut c = 0;
+    while c < 2 {
+        let mut i = 0;
+        while i < 361 {
+            state = state.wrapping_add(0x9E37_79B9_7F4A_7C15);
+            let mut z = state;
+            z = (z ^ (z >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
+            z = (z ^ (z >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
+            keys[c][i] = z ^ (z >> 31);
+            i += 1;
+        }
+        c += 1;
+    }
+    keys
+};
+
+#[derive(Clone)]
+struct Shapes {
+    tables: [&'static ShapeTable; 2],
+    /// Per colour's point of view, per cell, per direction: the ternary key of the ten
+    /// neighbours (see [`crate::patterns`]).
+    keys: [Vec<[u16; 4]>; 2],
+    /// Per colour, per cell, per direction: the table entry for the key (stale on occupied cells).
+    lines: [Vec<[LineInfo; 4]>; 2],
+    /// Per colour, per cell: the [`threat`] flags (zero on occupied cells).
+    flags: [Vec<u8>; 2],
+    /// Per colour, per flag kind: the empty points with that flag.
+    sets: [[CellSet; threat::KINDS]; 2],
+}
+
+/// A board position: stones, hashes and threat shapes. It does not know whose turn it is; see
+/// [`crate::rules::Game`] for a game with a side to move.
+#[derive(Clone)]
+pub struct Board {
+    width: u8,
+    height: u8,
+    k: u8,
+    rule: Rule,
+    stride: usize,
+    dirs: [isize; 4],
+    cells: Vec<u8>,
+    /// On-board point index (`y * 19 + x`) of each symmetry's image, per padded cell.
+    images: Vec<[u16; 8]>,
+    symmetries: u8,
+    hashes: [u64; 8],
+    counts: [u16; 2],
+    shapes: Option<Box<Shapes>>,
+}
+
+impl fmt::Debug for Board {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        write!(f, "{}", crate::notation::diagram(self))
+    }
+}
+
+impl Board {
+    /// An empty square gomoku board (five in a row) of side `size`, from 5 to 19.
+    pub fn new(size: u8, rule: Rule) -> Result<Board, BoardError> {
+        if !(5..=MAX_SIDE).contains(&size) {
+            return Err(BoardError::BadSize(size));
+        }
+        Ok(Board::build(size, size, 5, rule))
+    }
+
+    /// An empty `width` x `height` board on which `k` or more in a row wins (an m,n,k-game).
+    pub fn mnk(width: u8, height: u8, k: u8) -> Result<Board, BoardError> {
+        let ok = (1..=MAX_SIDE).contains(&width)
+            && (1..=MAX_SIDE).contains(&height)
+            && k >= 1
+            && k <= width.max(height);
+        if !ok {
+            return Err(BoardError::BadShape { width, height, k });
+        }
+        Ok(Board::build(width, height, k, Rule::Freestyle))
+    }
+
+    fn build(width: u8, height: u8, k: u8, rule: Rule) -> Board {
+        let stride = width as usize + 2 * MARGIN;
+        let rows = height as usize + 2 * MARGIN;
+        let mut cells = vec![WALL; stride * rows];
+        let mut images = vec![[0u16; 8]; stride * rows];
+        let mut symmetries = 0u8;
+        for (i, s) in Symmetry::ALL.iter().enumerate() {
+            if s.applies_to(width, height) {
+                symmetries |= 1 << i;
+            }
+        }
+        for y in 0..height {
+            for x in 0..width {
+                let idx = (y as usize + MARGIN) * stride + x as usize + MARGIN;
+                cells[idx] = EMPTY;
+                for (i, s) in Symmetry::ALL.iter().enumerate() {
+                    if symmetries >> i & 1 == 1 {
+                        let q = s.apply(Point::new(x, y), width, height);
+                        images[idx][i] = q.y as u16 * 19 + q.x as u16;
+                    }
+                }
+            }
+        }
+        let stride_i = stride as isize;
+        let mut board = Board {
+            width,
+            height,
+            k,
+            rule,
+            stride,
+            dirs: [1, stride_i, stride_i + 1, stride_i - 1],
+            cells,
+            images,
+            symmetries,
+            hashes: [0; 8],
+            counts: [0; 2],
+            shapes: None,
+        };
+        if k == 5 {
+            board.shapes = Some(Box::new(board.fresh_shapes()));
+        }
+        board
+    }
+
+    /// The shape state computed from scratch (used at construction and by invariant checks).
+    fn fresh_shapes(&self) -> Shapes {
+        let n = self.cells.len();
+        let tables = [
+            table_for(self.rule, Stone::Black),
+            table_for(self.rule, Stone::White),
+        ];
+        let mut s = Shapes {
+            tables,
+            keys: [vec![[0; 4]; n], vec![[0; 4]; n]],
+            lines: [
+                vec![[LineInfo::default(); 4]; n],
+                vec![[LineInfo::default(); 4]; n],
+            ],
+            flags: [vec![0; n], vec![0; n]],
+            sets: [[CellSet::new(); threat::KINDS]; 2],
+        };
+        for idx in 0..n {
+            if self.cells[idx] == WALL {
+                continue;
+            }
+            for c in Stone::ALL {
+                for d in 0..4 {
+                    let mut key = 0u16;
+                    for slot in 0..patterns::SLOTS {
+                        let off = patterns::offset_of(slot) as isize;
+                        let q = (idx as isize + off * self.dirs[d]) as usize;
+                        key += digit(self.cells[q], c) * POW3[slot];
+                    }
+                    s.keys[c.index()][idx][d] = key;
+                }
+                if self.cells[idx] == EMPTY {
+                    s.refresh(c, idx);
+                }
+            }
+        }
+        s
+    }
+
+    /// Columns.
+    #[inline]
+    pub fn width(&self) -> u8 {
+        self.width
+    }
+
+    /// Rows.
+    #[inline]
+    pub fn height(&self) -> u8 {
+        self.height
+    }
+
+    /// The side of a square board (its width).
+    #[inline]
+    pub fn size(&self) -> u8 {
+        self.width
+    }
+
+    /// Stones in a row that win.
+    #[inline]
+    pub fn k(&self) -> u8 {
+        self.k
+    }
+
+    /// The rule the board counts fives under.
+    #[inline]
+    pub fn rule(&self) -> Rule {
+        self.rule
+    }
+
+    /// Whether the point lies on this board.
+    #[inline]
+    pub fn contains(&self, p: Point) -> bool {
+        p.x < self.width && p.y < self.height
+    }
+
+    /// The padded cell index of an on-board point.
+    #[inline]
+    pub fn index(&self, p: Point) -> usize {
+        debug_assert!(self.contains(p));
+        (p.y as usize + MARGIN) * self.stride + p.x as usize + MARGIN
+    }
+
+    /// The point of a padded cell index.
+    #[inline]
+    pub fn point(&self, idx: usize) -> Point {
+        Point::new(
+            (idx % self.stride - MARGIN) as u8,
+            (idx / self.stride - MARGIN) as u8,
+        )
+    }
+
+    /// Number of padded cells (an upper bound on every cell index).
+    #[inline]
+    pub fn cell_count(&self) -> usize {
+        self.cells.len()
+    }
+
+    /// The step between neighbouring cells in a direction.
+    #[inline]
+    pub(crate) fn step(&self, d: usize) -> isize {
+        self.dirs[d]
+    }
+
+    /// The cell `n` steps from `idx` in direction `d` (may be a wall cell; `|n| <= 5`).
+    #[inline]
+    pub(crate) fn offset(&self, idx: usize, d: usize, n: isize) -> usize {
+        (idx as isize + n * self.dirs[d]) as usize
+    }
+
+    /// Every on-board point, row by row from `a1`.
+    pub fn points(&self) -> impl Iterator<Item = Point> + '_ {
+        (0..self.height).flat_map(move |y| (0..self.width).map(move |x| Point::new(x, y)))
+    }
+
+    /// Every window of `len` consecutive on-board points along a line, as its first point and
+    /// direction (the window runs from the first point in the direction's step). Each window is
+    /// listed once.
+    pub fn windows(&self, len: u8) -> impl Iterator<Item = (Point, Direction)> + '_ {
+        let (w, h) = (self.width as i16, self.height as i16);
+        let span = len as i16 - 1;
+        self.points().flat_map(move |p| {
+            Direction::ALL.into_iter().filter_map(move |d| {
+                let (dx, dy) = d.step();
+                let (ex, ey) = (p.x as i16 + dx as i16 * span, p.y as i16 + dy as i16 * span);
+                (len >= 1 && (0..w).contains(&ex) && (0..h).contains(&ey)).then_some((p, d))
+            })
+        })
+    }
+
+    /// Padded indices of every on-board cell.
+    pub(crate) fn indices(&self) -> impl Iterator<Item = usize> + '_ {
+        self.points().map(move |p| self.index(p))
+    }
+
+    /// The stone on a point, if any. Off-board points are empty.
+    pub fn get(&self, p: Point) -> Option<Stone> {
+        if !self.contains(p) {
+            return None;
+        }
+        self.stone_at(self.index(p))
+    }
+
+    /// The stone on a padded cell, if any.
+    #[inline]
+    pub fn stone_at(&self, idx: usize) -> Option<Stone> {
+        match self.cells[idx] {
+            1 => Some(Stone::Black),
+            2 => Some(Stone::White),
+            _ => None,
+        }
+    }
+
+    /// Whether a padded cell is an empty on-board point.
+    #[inline]
+    pub fn is_empty_at(&self, idx: usize) -> bool {
+        self.cells[idx] == EMPTY
+    }
+
+    /// Whether a padded cell holds a stone of colour `c`.
+    #[inline]
+    pub(crate) fn is_stone_at(&self, idx: usize, c: Stone) -> bool {
+        self.cells[idx] == c.cell()
+    }
+
+    /// Number of stones of a colour.
+    #[inline]
+    pub fn count(&self, c: Stone) -> usize {
+        self.counts[c.index()] as usize
+    }
+
+    /// Number of stones on the board.
+    #[inline]
+    pub fn stones(&self) -> usize {
+        self.count(Stone::Black) + self.count(Stone::White)
+    }
+
+    /// Whether every point is occupied.
+    #[inline]
+    pub fn is_full(&self) -> bool {
+        self.stones() == self.width as usize * self.height as usize
+    }
+
+    /// All stones of a colour, row by row from `a1`.
+    pub fn stones_of(&self, c: Stone) -> Vec<Point> {
+        self.points().filter(|&p| self.get(p) == Some(c)).collect()
+    }
+
+    /// The Zobrist hash of the position.
+    #[inline]
+    pub fn hash(&self) -> u64 {
+        self.hashes[0]
+    }
+
+    /// The Zobrist hash of the position's image under a symmetry that applies to the board.
+    pub fn hash_under(&self, s: Symmetry) -> u64 {
+        let i = Symmetry::ALL.iter().position(|&t| t == s).unwrap_or(0);
+        debug_assert!(self.symmetries >> i & 1 == 1);
+        self.hashes[i]
+    }
+
+    /// The smallest hash over every symmetry of the board: equal for positions that are the
+    /// same up to rotation and reflection.
+    pub fn canonical_hash(&self) -> u64 {
+        (0..8)
+            .filter(|i| self.symmetries >> i & 1 == 1)
+            .map(|i| self.hashes[i])
+            .min()
+            .unwrap_or(self.hashes[0])
+    }
+
+    /// The symmetry whose image has the canonical hash (the first such, in [`Symmetry::ALL`]
+    /// order).
+    pub fn canonical_symmetry(&self) -> Symmetry {
+        let best = self.canonical_hash();
+        (0..8)
+            .find(|&i| self.symmetries >> i & 1 == 1 && self.hashes[i] == best)
+            .map(|i| Symmetry::ALL[i])
+            .unwrap_or(Symmetry::Identity)
+    }
+
+    /// The image of the board under a symmetry that applies to it.
+    pub fn transformed(&self, s: Symmetry) -> Board {
+        let mut out = Board::build(self.width, self.height, self.k, self.rule);
+        for p in self.points() {
+            if let Some(c) = self.get(p) {
+                out.place(s.apply(p, self.width, self.height), c);
+            }
+        }
+        out
+    }
+
+    /// Places a stone on an empty on-board point. Panics if the point is off the board or taken;
+    /// rules (turns, forbidden points) are checked by [`crate::rules::Game`], not here.
+    pub fn place(&mut self, p: Point, c: Stone) {
+        assert!(self.contains(p), "{p} is off the board");
+        let idx = self.index(p);
+        assert!(self.is_empty_at(idx), "{p} is taken");
+        self.place_at(idx, c);
+    }
+
+    /// Removes the stone from a point. Panics if the point holds no stone.
+    pub fn remove(&mut self, p: Point) {
+        assert!(self.contains(p), "{p} is off the board");
+        let idx = self.index(p);
+        assert!(self.stone_at(idx).is_some(), "{p} is empty");
+        self.remove_at(idx);
+    }
+
+    /// Places a stone of `c` on an empty padded cell.
+    #[inline]
+    pub fn place_at(&mut self, idx: usize, c: Stone) {
+        debug_assert_eq!(self.cells[idx], EMPTY);
+        self.cells[idx] = c.cell();
+        self.counts[c.index()] += 1;
+        self.toggle_hash(idx, c);
+        if let Some(mut s) = self.shapes.take() {
+            s.clear(idx);
+            self.shift_keys(&mut s, idx, c, true);
+            self.shapes = Some(s);
+        }
+    }
+
+    /// Removes the stone from a padded cell.
+    #[inline]
+    pub fn remove_at(&mut self, idx: usize) {
+        let c = self.stone_at(idx).expect("remove_at on an empty cell");
+        self.cells[idx] = EMPTY;
+        self.counts[c.index()] -= 1;
+        self.toggle_hash(idx, c);
+        if let Some(mut s) = self.shapes.take() {
+            self.shift_keys(&mut s, idx, c, false);
+            for col in Stone::ALL {
+                s.refresh(col, idx);
+            }
+            self.shapes = Some(s);
+        }
+    }
+
+    #[inline]
+    fn toggle_hash(&mut self, idx: usize, c: Stone) {
+        let img = &self.images[idx];
+        let z = &ZOBRIST[c.index()];
+        for i in 0..8 {
+            if self.symmetries >> i & 1 == 1 {
+                self.hashes[i] ^= z[img[i] as usize];
+            }
+        }
+    }
+
+    /// Adds (or removes) the digits of a stone at `idx` to the keys of the 40 cells whose
+    /// windows contain it, and refreshes the shapes of those that are empty.
+    #[inline]
+    fn shift_keys(&self, s: &mut Shapes, idx: usize, c: Stone, add: bool) {
+        for d in 0..4 {
+            let step = self.dirs[d];
+            for n in 1..=5isize {
+                // The cell n steps back sees `idx` at offset +n; the cell n steps on, at -n.
+                for (q, slot) in [
+                    ((idx as isize - n * step) as usize, n as usize + 4),
+                    ((idx as isize + n * step) as usize, 5 - n as usize),
+                ] {
+                    let cell = self.cells[q];
+                    if cell == WALL {
+                        continue;
+                    }
+                    for col in Stone::ALL {
+                        let delta = if col == c { OWN } else { BLOCKED } * POW3[slot];
+                        let key = &mut s.keys[col.index()][q][d];
+                        if add {
+                            *key += delta;
+                        } else {
+                            *key -= delta;
+                        }
+                        if cell == EMPTY {
+                            let info = s.tables[col.index()].get(*key);
+                            s.lines[col.index()][q][d] = info;
+                            s.reflag(col, q);
+                        }
+                    }
+                }
+            }
+        }
+    }
+
+    fn shapes(&self) -> &Shapes {
+        self.shapes
+            .as_deref()
+            .expect("threat shapes exist only on boards with five in a row")
+    }
+
+    /// Whether this board keeps threat shapes (it does when five in a row wins).
+    #[inline]
+    pub fn has_shapes(&self) -> bool {
+        self.shapes.is_some()
+    }
+
+    /// What a stone of `c` on the empty cell `idx` makes along direction `d`.
+    #[inline]
+    pub fn line_at(&self, idx: usize, c: Stone, d: usize) -> LineInfo {
+        self.shapes().lines[c.index()][idx][d]
+    }
+
+    /// The [`threat`] flags of a stone of `c` on the empty cell `idx` (zero on occupied cells).
+    #[inline]
+    pub fn flags_at(&self, idx: usize, c: Stone) -> u8 {
+        self.shapes().flags[c.index()][idx]
+    }
+
+    /// The empty cells where a stone of `c` would have the flag kind `kind` (a [`threat`] bit).
+    #[inline]
+    pub fn cells_with(&self, c: Stone, kind: u8) -> &CellSet {
+        &self.shapes().sets[c.index()][kind.trailing_zeros() as usize]
+    }
+
+    /// Length of the run of `c` stones through `idx` in direction `d`, counting `idx` itself as
+    /// a `c` stone whatever it holds.
+    pub fn run_through(&self, idx: usize, c: Stone, d: usize) -> usize {
+        let step = self.dirs[d];
+        let mut n = 1;
+        for sign in [-1isize, 1] {
+            let mut q = idx as isize + sign * step;
+            while self.cells[q as usize] == c.cell() {
+                n += 1;
+                q += sign * step;
+            }
+        }
+        n
+    }
+
+    /// Whether a stone of `c` on the empty cell `idx` wins under the board's rule (a five, or
+    /// for an m,n,k board `k` or more in a row).
+    #[inline]
+    pub fn wins_at(&self, idx: usize, c: Stone) -> bool {
+        match &self.shapes {
+            Some(s) => s.flags[c.index()][idx] & threat::FIVE != 0,
+            None => (0..4).any(|d| self.run_through(idx, c, d) >= self.k as usize),
+        }
+    }
+
+    /// Whether the stone on `idx` is part of a winning line (used after a move).
+    pub fn is_winning_stone(&self, idx: usize) -> bool {
+        let Some(c) = self.stone_at(idx) else {
+            return false;
+        };
+        let exact = self.k == 5 && self.rule.exact_five(c);
+        (0..4).any(|d| {
+            let run = self.run_through(idx, c, d);
+            if exact {
+                run == 5
+            } else {
+                run >= self.k as usize
+            }
+        })
+    }
+
+    /// The winner, if any stone on the board is part of a winning line.
+    pub fn find_winner(&self) -> Option<Stone> {
+        self.indices()
+            .find(|&i| self.is_winning_stone(i))
+            .and_then(|i| self.stone_at(i))
+    }
+
+    /// Compares the incremental shape state and the hashes with a recomputation from scratch.
+    /// Tests call this after every change; it returns a description of the first difference.
+    pub fn check_invariants(&self) -> Result<(), String> {
+        let fresh = Board::build(self.width, self.height, self.k, self.rule);
+        let mut rebuilt = fresh.clone();
+        for p in self.points() {
+            if let Some(c) = self.get(p) {
+                rebuilt.place(p, c);
+            }
+        }
+        if rebuilt.hashes != self.hashes {
+            return Err("hashes differ from a rebuild".into());
+        }
+        if let Some(s) = &self.shapes {
+            let scratch = self.fresh_shapes();
+            for idx in self.indices() {
+                for c in Stone::ALL {
+                    let ci = c.index();
+                    if s.keys[ci][idx] != scratch.keys[ci][idx] {
+                        return Err(format!("key at {} for {c} differs", self.point(idx)));
+                    }
+                    if s.flags[ci][idx] != scratch.flags[ci][idx] {
+                        return Err(format!("flags at {} for {c} differ", self.point(idx)));
+                    }
+                    if self.is_empty_at(idx) && s.lines[ci][idx] != scratch.lines[ci][idx] {
+                        return Err(format!("shapes at {} for {c} differ", self.point(idx)));
+                    }
+                }
+            }
+            if s.sets != scratch.sets {
+                return Err("threat sets differ from a rebuild".into());
+            }
+        }
+        Ok(())
+    }
+}
+
+/// The shape table a colour uses under a rule.
+fn table_for(rule: Rule, c: Stone) -> &'static ShapeTable {
+    if rule.exact_five(c) {
+        patterns::exact_table()
+    } else {
+        patterns::free_table()
+    }
+}
+
+/// The key digit of a cell as seen by colour `c`.
+fn digit(cell: u8, c: Stone) -> u16 {
+    match cell {
+        EMPTY => patterns::EMPTY,
+        x if x == c.cell() => OWN,
+        _ => BLOCKED,
+    }
+}
+
+impl Shapes {
+    /// Recomputes all four lines and the flags of an empty cell for colour `c`.
+    fn refresh(&mut self, c: Stone, idx: usize) {
+        let ci = c.index();
+        for d in 0..4 {
+            self.lines[ci][idx][d] = self.tables[ci].get(self.keys[ci][idx][d]);
+        }
+        self.reflag(c, idx);
+    }
+
+    /// Recomputes the flags of an empty cell from its four lines and updates the sets.
+    #[inline]
+    fn reflag(&mut self, c: Stone, idx: usize) {
+        let ci = c.index();
+        let mut f = 0u8;
+        for info in &self.lines[ci][idx] {
+            f |= match info.shape() {
+                LineShape::Five => threat::FIVE,
+                LineShape::Four | LineShape::StraightFour | LineShape::DoubleFour => threat::FOUR,
+                LineShape::Three | LineShape::BrokenThree => threat::THREE,
+                LineShape::ClosedThree => threat::CLOSED_THREE,
+                LineShape::Two => threat::TWO,
+                LineShape::None | LineShape::Overline => 0,
+            };
+        }
+        self.set_flags(ci, idx, f);
+    }
+
+    #[inline]
+    fn set_flags(&mut self, ci: usize, idx: usize, f: u8) {
+        let old = self.flags[ci][idx];
+        if old == f {
+            return;
+        }
+        self.flags[ci][idx] = f;
+        let changed = old ^ f;
+        for kind in 0..threat::KINDS {
+            if changed >> kind & 1 == 1 {
+                if f >> kind & 1 == 1 {
+                    self.sets[ci][kind].insert(idx);
+                } else {
+                    self.sets[ci][kind].remove(idx);
+                }
+            }
+        }
+    }
+
+    /// Clears the flags of a cell that has just been taken.
+    fn clear(&mut self, idx: usize) {
+        self.set_flags(0, idx, 0);
+        self.set_flags(1, idx, 0);
+    }
+}
+
+/// What a stone of one colour on one empty point makes in each direction, with the counts that
+/// name the combined threats.
+#[derive(Clone, Copy, PartialEq, Eq, Debug)]
+pub struct PointThreats {
+    /// The shape in each direction, in [`Direction::ALL`] order.
+    pub lines: [LineShape; 4],
+}
+
+impl PointThreats {
+    /// Whether one of the lines is a five.
+    pub fn five(&self) -> bool {
+        self.lines.contains(&LineShape::Five)
+    }
+
+    /// Whether one of the lines is an overline (under exact-five rules).
+    pub fn overline(&self) -> bool {
+        self.lines.contains(&LineShape::Overline)
+    }
+
+    /// Fours made, counting a double four in one line as two.
+    pub fn fours(&self) -> u32 {
+        self.lines.iter().map(|l| l.four_count()).sum()
+    }
+
+    /// Threes and broken threes made (line-local).
+    pub fn threes(&self) -> u32 {
+        self.lines.iter().filter(|l| l.is_three()).count() as u32
+    }
+
+    /// A straight four in some line.
+    pub fn straight_four(&self) -> bool {
+        self.lines.contains(&LineShape::StraightFour)
+    }
+
+    /// Two or more fours, in one line or across lines.
+    pub fn double_four(&self) -> bool {
+        self.fours() >= 2
+    }
+
+    /// A four and a three in other lines at once (line-local).
+    pub fn four_three(&self) -> bool {
+        self.fours() == 1 && self.threes() >= 1
+    }
+
+    /// Two or more threes at once (line-local).
+    pub fn double_three(&self) -> bool {
+        self.threes() >= 2
+    }
+}
+
+impl Board {
+    /// What a stone of `c` on an empty point makes in each of the four directions.
+    pub fn threats(&self, p: Point, c: Stone) -> PointThreats {
+        let idx = self.index(p);
+        let mut lines = [LineShape::None; 4];
+        for d in Direction::ALL {
+            lines[d.index()] = self.line_at(idx, c, d.index()).shape();
+        }
+        PointThreats { lines }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn p(s: &str) -> Point {
+        s.parse().unwrap()
+    }
+
+    #[test]
+    fn sizes_are_checked() {
+        assert!(Board::new(4, Rule::Freestyle).is_err());
+        assert!(Board::new(20, Rule::Freestyle).is_err());
+        assert!(Board::new(15, Rule::Renju).is_ok());
+        assert!(Board::mnk(3, 3, 4).is_err());
+        assert!(Board::mnk(4, 3, 3).is_ok());
+    }
+
+    #[test]
+    fn place_remove_keeps_invariants() {
+        let mut b = Board::new(15, Rule::Standard).unwrap();
+        for (s, c) in [
+            ("h8", Stone::Black),
+            ("h9", Stone::White),
+            ("i8", Stone::Black),
+            ("a1", Stone::White),
+            ("o15", Stone::Black),
+            ("g8", Stone::Black),
+            ("j8", Stone::Black),
+        ] {
+            b.place(p(s), c);
+            b.check_invariants().unwrap();
+        }
+        // g8-j8 is a straight four: both f8 and k8 complete a five.
+        assert!(b.wins_at(b.index(p("k8")), Stone::Black));
+        assert!(b.wins_at(b.index(p("f8")), Stone::Black));
+        assert_eq!(b.threats(p("k8"), Stone::White).lines, [LineShape::None; 4]);
+        for s in ["j8", "a1", "h9"] {
+            b.remove(p(s));
+            b.check_invariants().unwrap();
+        }
+    }
+
+    #[test]
+    fn centre_is_h8() {
+        let b = Board::new(15, Rule::Freestyle).unwrap();
+        assert_eq!(b.point(b.index(p("h8"))), Point::new(7, 7));
+        assert_eq!(b.points().count(), 225);
+    }
+}

@@ -1,0 +1,20 @@
+//! The Fivefold engine: board, rules, threat shapes, forcing-line search and puzzles for
+//! five-in-a-row (freestyle, standard and renju) and for small m,n,k-games.
+//!
+//! This crate is a plain library. It has no web dependencies, does no I/O and never reads a
+//! clock, so the same code runs natively (the `fivefold` command-line program, the tests) and in
+//! the browser (the `web` crate). Callers pass in text and get values back; every parser
+//! returns a typed error that says where its input is wrong.
+#![deny(missing_docs)]
+
+pub mod bitset;
+pub mod board;
+pub mod geometry;
+pub mod notation;
+pub mod patterns;
+pub mod rules;
+
+pub use board::{Board, PointThreats, Stone};
+pub use geometry::{Direction, Point, Symmetry};
+pub use patterns::LineShape;
+pub use rules::{Forbidden, Game, MoveError, Outcome, Rule};
