@@ -142,16 +142,36 @@ const ZOBRIST: [[u64; 361]; 2] = {
     keys
 };
 
+/// The shape state of one cell, for both colours (kept together for locality).
+#[derive(Clone, Copy, Default)]
+struct CellShapes {
+    /// Per colour's point of view, per direction: the ternary key of the ten neighbours (see
+    /// [`crate::patterns`]).
+    keys: [[u16; 4]; 2],
+    /// Per colour, per direction: the shape number for the key (stale on occupied cells).
+    lines: [[u8; 4]; 2],
+    /// Per colour: the [`threat`] flags (zero on occupied cells).
+    flags: [u8; 2],
+}
+
+/// The [`threat`] flag of each [`LineShape`], by its number.
+const FLAG_OF: [u8; 16] = {
+    let mut t = [0u8; 16];
+    t[LineShape::Two as usize] = threat::TWO;
+    t[LineShape::ClosedThree as usize] = threat::CLOSED_THREE;
+    t[LineShape::BrokenThree as usize] = threat::THREE;
+    t[LineShape::Three as usize] = threat::THREE;
+    t[LineShape::Four as usize] = threat::FOUR;
+    t[LineShape::StraightFour as usize] = threat::FOUR;
+    t[LineShape::DoubleFour as usize] = threat::FOUR;
+    t[LineShape::Five as usize] = threat::FIVE;
+    t
+};
+
 #[derive(Clone)]
 struct Shapes {
     tables: [&'static ShapeTable; 2],
-    /// Per colour's point of view, per cell, per direction: the ternary key of the ten
-    /// neighbours (see [`crate::patterns`]).
-    keys: [Vec<[u16; 4]>; 2],
-    /// Per colour, per cell, per direction: the table entry for the key (stale on occupied cells).
-    lines: [Vec<[LineInfo; 4]>; 2],
-    /// Per colour, per cell: the [`threat`] flags (zero on occupied cells).
-    flags: [Vec<u8>; 2],
+    cells: Vec<CellShapes>,
     /// Per colour, per flag kind: the empty points with that flag.
     sets: [[CellSet; threat::KINDS]; 2],
 }
@@ -173,6 +193,8 @@ pub struct Board {
     hashes: [u64; 8],
     counts: [u16; 2],
     shapes: Option<Box<Shapes>>,
+    /// When tracing: the points whose forbidden status was decided by more than one line.
+    trace: Option<Vec<u16>>,
 }
 
 impl fmt::Debug for Board {
@@ -239,6 +261,7 @@ impl Board {
             hashes: [0; 8],
             counts: [0; 2],
             shapes: None,
+            trace: None,
         };
         if k == 5 {
             board.shapes = Some(Box::new(board.fresh_shapes()));
@@ -255,12 +278,7 @@ impl Board {
         ];
         let mut s = Shapes {
             tables,
-            keys: [vec![[0; 4]; n], vec![[0; 4]; n]],
-            lines: [
-                vec![[LineInfo::default(); 4]; n],
-                vec![[LineInfo::default(); 4]; n],
-            ],
-            flags: [vec![0; n], vec![0; n]],
+            cells: vec![CellShapes::default(); n],
             sets: [[CellSet::new(); threat::KINDS]; 2],
         };
         for idx in 0..n {
@@ -270,12 +288,12 @@ impl Board {
             for c in Stone::ALL {
                 for d in 0..4 {
                     let mut key = 0u16;
-                    for slot in 0..patterns::SLOTS {
+                    for (slot, weight) in POW3.iter().enumerate() {
                         let off = patterns::offset_of(slot) as isize;
                         let q = (idx as isize + off * self.dirs[d]) as usize;
-                        key += digit(self.cells[q], c) * POW3[slot];
+                        key += digit(self.cells[q], c) * weight;
                     }
-                    s.keys[c.index()][idx][d] = key;
+                    s.cells[idx].keys[c.index()][d] = key;
                 }
                 if self.cells[idx] == EMPTY {
                     s.refresh(c, idx);
@@ -341,12 +359,6 @@ impl Board {
     #[inline]
     pub fn cell_count(&self) -> usize {
         self.cells.len()
-    }
-
-    /// The step between neighbouring cells in a direction.
-    #[inline]
-    pub(crate) fn step(&self, d: usize) -> isize {
-        self.dirs[d]
     }
 
     /// The cell `n` steps from `idx` in direction `d` (may be a wall cell; `|n| <= 5`).
@@ -437,6 +449,23 @@ impl Board {
     #[inline]
     pub fn hash(&self) -> u64 {
         self.hashes[0]
+    }
+
+    /// The hash the position would have after a stone of `c` on the empty cell `idx`.
+    #[inline]
+    pub fn hash_after(&self, idx: usize, c: Stone) -> u64 {
+        self.hashes[0] ^ ZOBRIST[c.index()][self.images[idx][0] as usize]
+    }
+
+    /// The canonical hash ([`Board::canonical_hash`]) the position would have after a stone of
+    /// `c` on the empty cell `idx`.
+    pub fn canonical_hash_after(&self, idx: usize, c: Stone) -> u64 {
+        let z = &ZOBRIST[c.index()];
+        (0..8)
+            .filter(|i| self.symmetries >> i & 1 == 1)
+            .map(|i| self.hashes[i] ^ z[self.images[idx][i] as usize])
+            .min()
+            .unwrap_or(0)
     }
 
     /// The Zobrist hash of the position's image under a symmetry that applies to the board.
@@ -551,18 +580,25 @@ impl Board {
                     if cell == WALL {
                         continue;
                     }
-                    for col in Stone::ALL {
-                        let delta = if col == c { OWN } else { BLOCKED } * POW3[slot];
-                        let key = &mut s.keys[col.index()][q][d];
+                    let empty = cell == EMPTY;
+                    for ci in 0..2 {
+                        let delta = if ci == c.index() { OWN } else { BLOCKED } * POW3[slot];
+                        let cs = &mut s.cells[q];
+                        let key = &mut cs.keys[ci][d];
                         if add {
                             *key += delta;
                         } else {
                             *key -= delta;
                         }
-                        if cell == EMPTY {
-                            let info = s.tables[col.index()].get(*key);
-                            s.lines[col.index()][q][d] = info;
-                            s.reflag(col, q);
+                        if empty {
+                            let shape = s.tables[ci].shape_of(*key);
+                            let old = cs.lines[ci][d];
+                            if old != shape {
+                                cs.lines[ci][d] = shape;
+                                if FLAG_OF[old as usize] != FLAG_OF[shape as usize] {
+                                    s.reflag(ci, q);
+                                }
+                            }
                         }
                     }
                 }
@@ -585,13 +621,21 @@ impl Board {
     /// What a stone of `c` on the empty cell `idx` makes along direction `d`.
     #[inline]
     pub fn line_at(&self, idx: usize, c: Stone, d: usize) -> LineInfo {
-        self.shapes().lines[c.index()][idx][d]
+        let s = self.shapes();
+        s.tables[c.index()].get(s.cells[idx].keys[c.index()][d])
+    }
+
+    /// The shape a stone of `c` on the empty cell `idx` makes along direction `d` (cheaper
+    /// than [`Board::line_at`] when the points are not needed).
+    #[inline]
+    pub fn shape_at(&self, idx: usize, c: Stone, d: usize) -> LineShape {
+        LineShape::from_u8(self.shapes().cells[idx].lines[c.index()][d])
     }
 
     /// The [`threat`] flags of a stone of `c` on the empty cell `idx` (zero on occupied cells).
     #[inline]
     pub fn flags_at(&self, idx: usize, c: Stone) -> u8 {
-        self.shapes().flags[c.index()][idx]
+        self.shapes().cells[idx].flags[c.index()]
     }
 
     /// The empty cells where a stone of `c` would have the flag kind `kind` (a [`threat`] bit).
@@ -620,7 +664,7 @@ impl Board {
     #[inline]
     pub fn wins_at(&self, idx: usize, c: Stone) -> bool {
         match &self.shapes {
-            Some(s) => s.flags[c.index()][idx] & threat::FIVE != 0,
+            Some(s) => s.cells[idx].flags[c.index()] & threat::FIVE != 0,
             None => (0..4).any(|d| self.run_through(idx, c, d) >= self.k as usize),
         }
     }
@@ -648,6 +692,25 @@ impl Board {
             .and_then(|i| self.stone_at(i))
     }
 
+    /// Starts recording the points at which the renju forbidden test had to weigh several lines
+    /// (see [`Board::forbidden_at`]).
+    pub fn start_trace(&mut self) {
+        self.trace = Some(Vec::new());
+    }
+
+    /// Stops recording and returns the points recorded since [`Board::start_trace`].
+    pub fn take_trace(&mut self) -> Vec<u16> {
+        self.trace.take().unwrap_or_default()
+    }
+
+    /// Records a point for the trace, if one is running.
+    #[inline]
+    pub(crate) fn note_sensitive(&mut self, idx: usize) {
+        if let Some(t) = self.trace.as_mut() {
+            t.push(idx as u16);
+        }
+    }
+
     /// Compares the incremental shape state and the hashes with a recomputation from scratch.
     /// Tests call this after every change; it returns a description of the first difference.
     pub fn check_invariants(&self) -> Result<(), String> {
@@ -666,13 +729,14 @@ impl Board {
             for idx in self.indices() {
                 for c in Stone::ALL {
                     let ci = c.index();
-                    if s.keys[ci][idx] != scratch.keys[ci][idx] {
+                    let (mine, theirs) = (&s.cells[idx], &scratch.cells[idx]);
+                    if mine.keys[ci] != theirs.keys[ci] {
                         return Err(format!("key at {} for {c} differs", self.point(idx)));
                     }
-                    if s.flags[ci][idx] != scratch.flags[ci][idx] {
+                    if mine.flags[ci] != theirs.flags[ci] {
                         return Err(format!("flags at {} for {c} differ", self.point(idx)));
                     }
-                    if self.is_empty_at(idx) && s.lines[ci][idx] != scratch.lines[ci][idx] {
+                    if self.is_empty_at(idx) && mine.lines[ci] != theirs.lines[ci] {
                         return Err(format!("shapes at {} for {c} differ", self.point(idx)));
                     }
                 }
@@ -708,36 +772,29 @@ impl Shapes {
     fn refresh(&mut self, c: Stone, idx: usize) {
         let ci = c.index();
         for d in 0..4 {
-            self.lines[ci][idx][d] = self.tables[ci].get(self.keys[ci][idx][d]);
+            self.cells[idx].lines[ci][d] = self.tables[ci].shape_of(self.cells[idx].keys[ci][d]);
         }
-        self.reflag(c, idx);
+        self.reflag(ci, idx);
     }
 
     /// Recomputes the flags of an empty cell from its four lines and updates the sets.
     #[inline]
-    fn reflag(&mut self, c: Stone, idx: usize) {
-        let ci = c.index();
-        let mut f = 0u8;
-        for info in &self.lines[ci][idx] {
-            f |= match info.shape() {
-                LineShape::Five => threat::FIVE,
-                LineShape::Four | LineShape::StraightFour | LineShape::DoubleFour => threat::FOUR,
-                LineShape::Three | LineShape::BrokenThree => threat::THREE,
-                LineShape::ClosedThree => threat::CLOSED_THREE,
-                LineShape::Two => threat::TWO,
-                LineShape::None | LineShape::Overline => 0,
-            };
-        }
+    fn reflag(&mut self, ci: usize, idx: usize) {
+        let l = &self.cells[idx].lines[ci];
+        let f = FLAG_OF[l[0] as usize]
+            | FLAG_OF[l[1] as usize]
+            | FLAG_OF[l[2] as usize]
+            | FLAG_OF[l[3] as usize];
         self.set_flags(ci, idx, f);
     }
 
     #[inline]
     fn set_flags(&mut self, ci: usize, idx: usize, f: u8) {
-        let old = self.flags[ci][idx];
+        let old = self.cells[idx].flags[ci];
         if old == f {
             return;
         }
-        self.flags[ci][idx] = f;
+        self.cells[idx].flags[ci] = f;
         let changed = old ^ f;
         for kind in 0..threat::KINDS {
             if changed >> kind & 1 == 1 {

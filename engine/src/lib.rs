@@ -12,7 +12,10 @@ pub mod board;
 pub mod geometry;
 pub mod notation;
 pub mod patterns;
+pub mod play;
 pub mod rules;
+pub mod search;
+pub mod suite;
 
 pub use board::{Board, PointThreats, Stone};
 pub use geometry::{Direction, Point, Symmetry};

@@ -106,7 +106,8 @@ impl LineShape {
         LineShape::Overline,
     ];
 
-    const fn from_u8(v: u8) -> LineShape {
+    /// The shape with the given number (`None` for numbers out of range).
+    pub const fn from_u8(v: u8) -> LineShape {
         match v {
             1 => LineShape::Two,
             2 => LineShape::ClosedThree,
@@ -197,6 +198,8 @@ impl LineInfo {
 /// The shape table for one way of counting fives.
 pub struct ShapeTable {
     entries: Vec<LineInfo>,
+    /// The shape alone, one byte per key: small enough to stay in cache on the hot path.
+    shapes: Vec<u8>,
 }
 
 impl ShapeTable {
@@ -204,6 +207,12 @@ impl ShapeTable {
     #[inline]
     pub fn get(&self, key: u16) -> LineInfo {
         self.entries[key as usize]
+    }
+
+    /// The shape number ([`LineShape`] as `u8`) for a key.
+    #[inline]
+    pub fn shape_of(&self, key: u16) -> u8 {
+        self.shapes[key as usize]
     }
 
     fn build(exact: bool) -> ShapeTable {
@@ -220,7 +229,8 @@ impl ShapeTable {
                 entries[key as usize] = classify(key, exact, &entries);
             }
         }
-        ShapeTable { entries }
+        let shapes = entries.iter().map(|e| e.shape() as u8).collect();
+        ShapeTable { entries, shapes }
     }
 }
 

@@ -155,14 +155,17 @@ impl Board {
             }
         }
         if overline {
+            self.note_sensitive(idx);
             return Some(Forbidden::Overline);
         }
         if fours >= 2 {
+            self.note_sensitive(idx);
             return Some(Forbidden::DoubleFour);
         }
         if threes < 2 {
             return None;
         }
+        self.note_sensitive(idx);
         // Each candidate three is real only if one of its straight-four points is itself not
         // forbidden, with this stone on the board.
         let lines: Vec<_> = (0..4)

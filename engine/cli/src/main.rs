@@ -5,6 +5,8 @@
 
 mod inspect;
 mod position;
+mod solve;
+mod suite;
 
 use std::process::ExitCode;
 
@@ -27,6 +29,11 @@ enum Command {
     Inspect(inspect::InspectArgs),
     /// Print a position as a text diagram.
     Show(position::PositionArgs),
+    /// Search a position: VCF, VCT, defences, or exact solving of a small board.
+    Solve(solve::SolveArgs),
+    /// Harvest the solver benchmark suite from seeded self-play.
+    #[command(hide = true)]
+    Suite(suite::SuiteArgs),
 }
 
 fn main() -> ExitCode {
@@ -34,6 +41,8 @@ fn main() -> ExitCode {
     let result = match cli.command {
         Command::Inspect(args) => inspect::run(&args),
         Command::Show(args) => position::show(&args),
+        Command::Solve(args) => solve::run(&args),
+        Command::Suite(args) => suite::run(&args),
     };
     match result {
         Ok(()) => ExitCode::SUCCESS,

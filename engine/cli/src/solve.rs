@@ -1,0 +1,193 @@
+//! `fivefold solve`: VCF, VCT, defences, and exact solving of small boards.
+
+use std::time::{Duration, Instant};
+
+use clap::{Args, ValueEnum};
+use engine::search::{Mode, Solver, SolverConfig, Verdict};
+use engine::{notation, Board, Point, Stone};
+use serde::Serialize;
+
+use crate::position::PositionArgs;
+
+#[derive(Clone, Copy, Debug, ValueEnum, PartialEq, Eq)]
+pub enum SearchKind {
+    /// Victory by continuous fours.
+    Vcf,
+    /// Victory by continuous threats (threes and fours).
+    Vct,
+    /// Every move that stops the opponent's VCT (or VCF).
+    Defend,
+    /// Exact solving of a small m,n,k board with all moves.
+    Exact,
+}
+
+#[derive(Args)]
+pub struct SolveArgs {
+    #[command(flatten)]
+    pub position: PositionArgs,
+    /// What to search for.
+    #[arg(long, value_enum)]
+    pub search: SearchKind,
+    /// Board width for --search exact.
+    #[arg(long)]
+    pub width: Option<u8>,
+    /// Board height for --search exact.
+    #[arg(long)]
+    pub height: Option<u8>,
+    /// Stones in a row that win, for --search exact.
+    #[arg(long)]
+    pub k: Option<u8>,
+    /// Node budget of one search.
+    #[arg(long, default_value_t = 2_000_000)]
+    pub nodes: u64,
+    /// Time budget in milliseconds (0: none).
+    #[arg(long, default_value_t = 0)]
+    pub ms: u64,
+    /// Table memory in megabytes (at most).
+    #[arg(long, default_value_t = 32)]
+    pub memory: usize,
+    /// Print JSON.
+    #[arg(long)]
+    pub json: bool,
+}
+
+#[derive(Serialize, Default)]
+struct Report {
+    search: &'static str,
+    to_move: &'static str,
+    result: &'static str,
+    line: Vec<String>,
+    first_moves: Vec<String>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    defences: Option<Vec<String>>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    threat: Option<&'static str>,
+    unknown: Vec<String>,
+    nodes: u64,
+    ms: u64,
+}
+
+fn names(v: &[Point]) -> Vec<String> {
+    v.iter().map(|p| p.to_string()).collect()
+}
+
+pub fn run(args: &SolveArgs) -> Result<(), String> {
+    if args.memory < 2 {
+        return Err("--memory must be at least 2 (megabytes)".into());
+    }
+    let config = SolverConfig {
+        table_megabytes: args.memory * 3 / 4,
+        vcf_table_megabytes: args.memory - args.memory * 3 / 4,
+        node_limit: args.nodes,
+        ..SolverConfig::default()
+    };
+    let mut solver = Solver::new(config);
+    let start = Instant::now();
+    let deadline = (args.ms > 0).then(|| start + Duration::from_millis(args.ms));
+    let mut stop = move || deadline.is_some_and(|d| Instant::now() >= d);
+    let mut report = Report::default();
+    if args.search == SearchKind::Exact {
+        let (w, h, k) = match (args.width, args.height, args.k) {
+            (Some(w), Some(h), Some(k)) => (w, h, k),
+            _ => return Err("--search exact needs --width, --height and --k".into()),
+        };
+        let mut board = Board::mnk(w, h, k).map_err(|e| e.to_string())?;
+        let mut to_move = Stone::Black;
+        if let Some(moves) = &args.position.moves {
+            for p in notation::parse_points(moves, "moves", w, h).map_err(|e| e.to_string())? {
+                board.place(p, to_move);
+                to_move = to_move.opponent();
+            }
+        }
+        let sol = solver.exact(&board, to_move, Some(&mut stop));
+        report.search = "exact";
+        report.to_move = if to_move == Stone::Black {
+            "first"
+        } else {
+            "second"
+        };
+        report.result = sol.value.name();
+        report.line = names(&sol.line);
+        report.first_moves = names(&sol.first_moves);
+        report.nodes = sol.nodes;
+    } else {
+        if args.width.is_some() || args.height.is_some() || args.k.is_some() {
+            return Err("--width, --height and --k go with --search exact only".into());
+        }
+        let pos = args.position.position()?;
+        if let Some(w) = pos.board.find_winner() {
+            return Err(format!("the game is already over: {w} has five"));
+        }
+        report.to_move = pos.to_move.name();
+        match args.search {
+            SearchKind::Vcf | SearchKind::Vct => {
+                let mode = if args.search == SearchKind::Vcf {
+                    Mode::Vcf
+                } else {
+                    Mode::Vct
+                };
+                report.search = if mode == Mode::Vcf { "vcf" } else { "vct" };
+                let sol = solver.solve(&pos.board, pos.to_move, mode, Some(&mut stop));
+                report.result = sol.verdict.name();
+                report.line = names(&sol.line);
+                report.nodes = sol.nodes;
+                if sol.verdict == Verdict::Win {
+                    let wins = solver.winning_moves(&pos.board, pos.to_move, mode);
+                    report.first_moves = names(&wins.proved);
+                    report.unknown = names(&wins.unknown);
+                    report.nodes += wins.nodes;
+                }
+            }
+            SearchKind::Defend => {
+                report.search = "defend";
+                let d = solver.defences(&pos.board, pos.to_move, Mode::Vct);
+                report.threat = Some(d.threat.name());
+                report.result = match d.threat {
+                    Verdict::Win if d.moves.proved.is_empty() && d.moves.unknown.is_empty() => {
+                        "lost"
+                    }
+                    Verdict::Win => "defended",
+                    Verdict::NoWin => "no-threat",
+                    Verdict::Unknown => "unknown",
+                };
+                report.defences = Some(names(&d.moves.proved));
+                report.first_moves = names(&d.moves.proved);
+                report.unknown = names(&d.moves.unknown);
+                report.nodes = d.moves.nodes;
+                if d.threat == Verdict::Win {
+                    let t = solver.threat(&pos.board, pos.to_move, Mode::Vct);
+                    report.line = names(&t.line);
+                }
+            }
+            SearchKind::Exact => unreachable!("handled above"),
+        }
+    }
+    report.ms = start.elapsed().as_millis() as u64;
+    if args.json {
+        println!(
+            "{}",
+            serde_json::to_string_pretty(&report).map_err(|e| e.to_string())?
+        );
+    } else {
+        println!(
+            "{} for {}: {}",
+            report.search, report.to_move, report.result
+        );
+        if !report.line.is_empty() {
+            println!("line: {}", report.line.join(" "));
+        }
+        if !report.first_moves.is_empty() {
+            let label = if args.search == SearchKind::Defend {
+                "defences"
+            } else {
+                "winning first moves"
+            };
+            println!("{label}: {}", report.first_moves.join(" "));
+        }
+        if !report.unknown.is_empty() {
+            println!("unknown: {}", report.unknown.join(" "));
+        }
+        println!("{} nodes, {} ms", report.nodes, report.ms);
+    }
+    Ok(())
+}

@@ -1,0 +1,320 @@
+//! The solver benchmark suite: positions harvested from seeded self-play, with the verdict and
+//! line length the solver found, kept in a text file so that benchmarks and tests run on the
+//! same fixed positions.
+//!
+//! One position per line, fields separated by single spaces:
+//! `rule size to_move search verdict fours black white`, where `fours` is the number of
+//! attacker moves before the five in the shortest line (0 when there is no win), and `black`
+//! and `white` are comma-separated stone lists (`-` when empty). Lines starting with `#` are
+//! comments.
+
+use std::fmt;
+
+use crate::board::Stone;
+use crate::geometry::Point;
+use crate::notation::{self, PositionError};
+use crate::play::{self, PlayerConfig};
+use crate::rules::{Game, Rule};
+use crate::search::{Mode, Solver, SolverConfig, Verdict};
+use crate::Board;
+
+/// One benchmark position.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct Case {
+    /// The rule.
+    pub rule: Rule,
+    /// The board side.
+    pub size: u8,
+    /// The side to move, which is the attacker.
+    pub to_move: Stone,
+    /// VCF or VCT.
+    pub mode: Mode,
+    /// The verdict found when the suite was made.
+    pub verdict: Verdict,
+    /// Attacker moves before the five in the shortest line (0 without a win).
+    pub fours: u16,
+    /// Black stones.
+    pub black: Vec<Point>,
+    /// White stones.
+    pub white: Vec<Point>,
+}
+
+impl Case {
+    /// The position as a board.
+    pub fn board(&self) -> Board {
+        let mut b = Board::new(self.size, self.rule).expect("suite sizes are valid");
+        for &p in &self.black {
+            b.place(p, Stone::Black);
+        }
+        for &p in &self.white {
+            b.place(p, Stone::White);
+        }
+        b
+    }
+}
+
+fn list(points: &[Point]) -> String {
+    if points.is_empty() {
+        "-".to_string()
+    } else {
+        points
+            .iter()
+            .map(|p| p.to_string())
+            .collect::<Vec<_>>()
+            .join(",")
+    }
+}
+
+impl fmt::Display for Case {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        write!(
+            f,
+            "{} {} {} {} {} {} {} {}",
+            self.rule,
+            self.size,
+            self.to_move,
+            match self.mode {
+                Mode::Vcf => "vcf",
+                Mode::Vct => "vct",
+            },
+            self.verdict.name(),
+            self.fours,
+            list(&self.black),
+            list(&self.white)
+        )
+    }
+}
+
+/// A line of a suite file that could not be read.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct SuiteError {
+    /// The line number, from 1.
+    pub line: usize,
+    /// What is wrong.
+    pub message: String,
+}
+
+impl fmt::Display for SuiteError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        write!(f, "suite line {}: {}", self.line, self.message)
+    }
+}
+
+impl std::error::Error for SuiteError {}
+
+/// Reads a suite file.
+pub fn parse(text: &str) -> Result<Vec<Case>, SuiteError> {
+    let mut out = Vec::new();
+    for (n, line) in text.lines().enumerate() {
+        let line = line.trim();
+        if line.is_empty() || line.starts_with('#') {
+            continue;
+        }
+        let err = |message: String| SuiteError {
+            line: n + 1,
+            message,
+        };
+        let f: Vec<&str> = line.split(' ').collect();
+        if f.len() != 8 {
+            return Err(err(format!("expected 8 fields, found {}", f.len())));
+        }
+        let rule: Rule = f[0].parse().map_err(|e| err(format!("{e}")))?;
+        let size: u8 = f[1]
+            .parse()
+            .map_err(|_| err(format!("bad size '{}'", f[1])))?;
+        let to_move = match f[2] {
+            "black" => Stone::Black,
+            "white" => Stone::White,
+            other => return Err(err(format!("bad side '{other}'"))),
+        };
+        let mode = match f[3] {
+            "vcf" => Mode::Vcf,
+            "vct" => Mode::Vct,
+            other => return Err(err(format!("bad search '{other}'"))),
+        };
+        let verdict = match f[4] {
+            "win" => Verdict::Win,
+            "no-win" => Verdict::NoWin,
+            other => return Err(err(format!("bad verdict '{other}'"))),
+        };
+        let fours: u16 = f[5]
+            .parse()
+            .map_err(|_| err(format!("bad length '{}'", f[5])))?;
+        let pts = |s: &str, which: &'static str| -> Result<Vec<Point>, SuiteError> {
+            if s == "-" {
+                return Ok(Vec::new());
+            }
+            notation::parse_points(s, which, size, size).map_err(|e| err(e.to_string()))
+        };
+        let black = pts(f[6], "black")?;
+        let white = pts(f[7], "white")?;
+        let case = Case {
+            rule,
+            size,
+            to_move,
+            mode,
+            verdict,
+            fours,
+            black,
+            white,
+        };
+        // Overlaps are caught when the board is built.
+        let mut b = Board::new(size, rule).map_err(|e| err(e.to_string()))?;
+        for &p in &case.black {
+            b.place(p, Stone::Black);
+        }
+        for &p in &case.white {
+            if b.get(p).is_some() {
+                return Err(err(PositionError::Overlap(p).to_string()));
+            }
+            b.place(p, Stone::White);
+        }
+        out.push(case);
+    }
+    Ok(out)
+}
+
+/// How many positions of each kind a suite gets.
+#[derive(Clone, Debug)]
+pub struct Quotas {
+    /// VCF wins per length, for lengths 1..=15 (index 0 unused).
+    pub vcf: [usize; 16],
+    /// VCT wins (without a VCF) per length, for lengths 1..=6.
+    pub vct: [usize; 7],
+    /// Positions without a VCF (searched as VCF).
+    pub vcf_no_win: usize,
+    /// Positions without a VCT (searched as VCT).
+    pub vct_no_win: usize,
+}
+
+impl Default for Quotas {
+    fn default() -> Self {
+        Quotas {
+            vcf: [0, 12, 12, 12, 12, 10, 10, 10, 8, 8, 6, 6, 5, 5, 4, 4],
+            vct: [0, 0, 12, 12, 12, 10, 8],
+            vcf_no_win: 20,
+            vct_no_win: 20,
+        }
+    }
+}
+
+impl Quotas {
+    fn full(&self) -> bool {
+        self.vcf.iter().all(|&q| q == 0)
+            && self.vct.iter().all(|&q| q == 0)
+            && self.vcf_no_win == 0
+            && self.vct_no_win == 0
+    }
+}
+
+/// Harvests a suite from seeded self-play: games from seeded openings under the three rules;
+/// every position from the eighth stone on is searched for a VCF and, failing that, a VCT, and
+/// kept while its kind's quota lasts. `progress` is called with the number of games played.
+pub fn harvest(
+    seed: u64,
+    mut quotas: Quotas,
+    max_games: u64,
+    mut progress: impl FnMut(u64, usize),
+) -> Vec<Case> {
+    let mut solver = Solver::new(SolverConfig {
+        node_limit: 300_000,
+        ..SolverConfig::default()
+    });
+    let mut out = Vec::new();
+    let mut rng = play::rng(seed);
+    let config = PlayerConfig {
+        depth: 2,
+        width: 8,
+        noise: 60,
+    };
+    for g in 0..max_games {
+        if quotas.full() {
+            break;
+        }
+        progress(g, out.len());
+        let rule = Rule::ALL[(g % 3) as usize];
+        let mut game = Game::new(Board::new(15, rule).expect("15 is a valid size"));
+        // A seeded opening: the centre and two more stones close to it.
+        let centre = Point::new(7, 7);
+        let _ = game.play(centre);
+        for _ in 0..2 {
+            let dx = play::below(&mut rng, 5) as i32 - 2;
+            let dy = play::below(&mut rng, 5) as i32 - 2;
+            let p = Point::new((7 + dx) as u8, (7 + dy) as u8);
+            let _ = game.play(p);
+        }
+        let game_seed = rng_next(&mut rng);
+        let mut player = play::Player::new(game_seed, config.clone());
+        while !game.is_over() && game.board().stones() < 120 {
+            if game.board().stones() >= 8 {
+                consider(&mut solver, &game, &mut quotas, &mut out);
+            }
+            let Some(m) = player.choose(&game) else { break };
+            if game.play(m).is_err() {
+                break;
+            }
+        }
+    }
+    out
+}
+
+fn rng_next(rng: &mut rand_chacha::ChaCha8Rng) -> u64 {
+    use rand_chacha::rand_core::RngCore;
+    rng.next_u64()
+}
+
+fn consider(solver: &mut Solver, game: &Game, quotas: &mut Quotas, out: &mut Vec<Case>) {
+    let board = game.board();
+    let me = game.to_move();
+    let base = |mode, verdict, fours: u16| Case {
+        rule: board.rule(),
+        size: board.size(),
+        to_move: me,
+        mode,
+        verdict,
+        fours,
+        black: board.stones_of(Stone::Black),
+        white: board.stones_of(Stone::White),
+    };
+    // Positions where the opponent already threatens five are not puzzle-like; skip them.
+    if !board
+        .cells_with(me.opponent(), crate::board::threat::FIVE)
+        .is_empty()
+        || !board.cells_with(me, crate::board::threat::FIVE).is_empty()
+    {
+        return;
+    }
+    let vcf = solver.solve(board, me, Mode::Vcf, None);
+    match vcf.verdict {
+        Verdict::Win => {
+            let fours = (vcf.attacker_moves() as u16).saturating_sub(1);
+            if (1..=15).contains(&fours) && quotas.vcf[fours as usize] > 0 {
+                quotas.vcf[fours as usize] -= 1;
+                out.push(base(Mode::Vcf, Verdict::Win, fours));
+            }
+            return;
+        }
+        Verdict::Unknown => return,
+        Verdict::NoWin => {}
+    }
+    let vct = solver.solve(board, me, Mode::Vct, None);
+    match vct.verdict {
+        Verdict::Win => {
+            let threats = (vct.attacker_moves() as u16).saturating_sub(1);
+            if (1..=6).contains(&threats) && quotas.vct[threats as usize] > 0 {
+                quotas.vct[threats as usize] -= 1;
+                out.push(base(Mode::Vct, Verdict::Win, threats));
+            }
+        }
+        Verdict::NoWin => {
+            if quotas.vcf_no_win > 0 && board.stones().is_multiple_of(3) {
+                quotas.vcf_no_win -= 1;
+                out.push(base(Mode::Vcf, Verdict::NoWin, 0));
+            } else if quotas.vct_no_win > 0 && board.stones() % 3 == 1 {
+                quotas.vct_no_win -= 1;
+                out.push(base(Mode::Vct, Verdict::NoWin, 0));
+            }
+        }
+        Verdict::Unknown => {}
+    }
+}

@@ -1,0 +1,300 @@
+//! Drawing the board on a 2D canvas.
+//!
+//! Everything is drawn in device pixels: the caller sizes the backing store to the CSS size
+//! times the device pixel ratio, and grid lines are snapped to whole device pixels so that they
+//! stay sharp at any ratio.
+//!
+//! The look is Fivefold's own: a pale sea-glass board with deep green-black ink. Markers differ
+//! by shape as well as by colour, so that they read in sunlight and for colour-blind players:
+//! small squares for the reference points, a diamond for the last move, a ring on each stone of
+//! a winning line, and a cross on black's forbidden points.
+
+use engine::{Board, Point, Stone};
+use wasm_bindgen::JsValue;
+use web_sys::CanvasRenderingContext2d;
+
+use crate::layout::Layout;
+
+/// The board surface.
+pub const BOARD: &str = "#a9c9bf";
+/// Grid lines, the frame and the coordinates.
+pub const INK: &str = "#14302a";
+/// Black stones.
+pub const BLACK: &str = "#111312";
+/// White stones.
+pub const WHITE: &str = "#fbfbf6";
+/// Crosses on forbidden points.
+pub const FORBIDDEN: &str = "#7d1235";
+
+/// Stone radius, in grid steps.
+pub const STONE: f64 = 0.46;
+
+/// What to mark besides the stones.
+#[derive(Clone, Debug, Default)]
+pub struct Marks {
+    /// The last move played.
+    pub last: Option<Point>,
+    /// Stones that are part of a winning line.
+    pub winning: Vec<Point>,
+    /// Points where black may not play.
+    pub forbidden: Vec<Point>,
+}
+
+/// The reference points of a board of side `size`.
+pub fn star_points(size: u8) -> Vec<Point> {
+    if size < 9 {
+        return Vec::new();
+    }
+    let (lo, hi) = if size >= 13 {
+        (3, size - 4)
+    } else {
+        (2, size - 3)
+    };
+    let mut out = vec![
+        Point::new(lo, lo),
+        Point::new(hi, lo),
+        Point::new(lo, hi),
+        Point::new(hi, hi),
+    ];
+    if size % 2 == 1 {
+        out.push(Point::new(size / 2, size / 2));
+    }
+    out
+}
+
+/// A device-pixel position for a line of width `lw`, on a pixel boundary or a pixel centre.
+fn snap(v: f64, lw: f64) -> f64 {
+    if (lw as i64) % 2 == 1 {
+        v.floor() + 0.5
+    } else {
+        v.round()
+    }
+}
+
+struct Pen<'a> {
+    ctx: &'a CanvasRenderingContext2d,
+    layout: &'a Layout,
+    dpr: f64,
+    /// The grid line width in device pixels.
+    lw: f64,
+}
+
+impl Pen<'_> {
+    fn step(&self) -> f64 {
+        self.layout.step * self.dpr
+    }
+
+    fn at(&self, p: Point) -> (f64, f64) {
+        let (x, y) = self.layout.centre(p);
+        (snap(x * self.dpr, self.lw), snap(y * self.dpr, self.lw))
+    }
+
+    fn disc(&self, x: f64, y: f64, r: f64, fill: &str) -> Result<(), JsValue> {
+        self.ctx.begin_path();
+        self.ctx.arc(x, y, r, 0.0, std::f64::consts::TAU)?;
+        self.ctx.set_fill_style_str(fill);
+        self.ctx.fill();
+        Ok(())
+    }
+
+    fn grid(&self) {
+        let n = self.layout.size;
+        let ctx = self.ctx;
+        ctx.set_stroke_style_str(INK);
+        let first = self.at(Point::new(0, n - 1));
+        let last = self.at(Point::new(n - 1, 0));
+        ctx.set_line_width(self.lw);
+        ctx.begin_path();
+        for i in 0..n {
+            let (x, _) = self.at(Point::new(i, 0));
+            ctx.move_to(x, first.1);
+            ctx.line_to(x, last.1);
+            let (_, y) = self.at(Point::new(0, i));
+            ctx.move_to(first.0, y);
+            ctx.line_to(last.0, y);
+        }
+        ctx.stroke();
+        // A heavier frame, drawn outside the outer lines so that it does not crowd the edge
+        // points.
+        let frame = self.lw * 2.0;
+        let off = (self.lw + frame) / 2.0;
+        ctx.set_line_width(frame);
+        ctx.stroke_rect(
+            first.0 - off,
+            first.1 - off,
+            last.0 - first.0 + 2.0 * off,
+            last.1 - first.1 + 2.0 * off,
+        );
+        ctx.set_fill_style_str(INK);
+        let half = (0.075 * self.step()).max(self.lw);
+        for p in star_points(n) {
+            let (x, y) = self.at(p);
+            ctx.fill_rect(x - half, y - half, 2.0 * half, 2.0 * half);
+        }
+    }
+
+    fn coordinates(&self) -> Result<(), JsValue> {
+        let n = self.layout.size;
+        let ctx = self.ctx;
+        // At least 11 CSS pixels on small boards (phones), where room allows.
+        let step = self.step();
+        let px = (0.42 * step).max((11.0 * self.dpr).min(0.55 * step));
+        ctx.set_font(&format!(
+            "600 {px:.1}px system-ui, 'Segoe UI', Roboto, sans-serif"
+        ));
+        ctx.set_fill_style_str(INK);
+        ctx.set_text_baseline("middle");
+        ctx.set_text_align("center");
+        let below = self.at(Point::new(0, 0)).1 + 0.78 * self.step();
+        for i in 0..n {
+            let (x, _) = self.at(Point::new(i, 0));
+            let letter = char::from(b'a' + i).to_string();
+            ctx.fill_text(&letter, x, below)?;
+        }
+        ctx.set_text_align("right");
+        let left = self.at(Point::new(0, 0)).0 - 0.42 * self.step();
+        for i in 0..n {
+            let (_, y) = self.at(Point::new(0, i));
+            ctx.fill_text(&(u32::from(i) + 1).to_string(), left, y)?;
+        }
+        Ok(())
+    }
+
+    fn cross(&self, p: Point) {
+        let (x, y) = self.at(p);
+        let a = 0.16 * self.step();
+        let ctx = self.ctx;
+        ctx.set_stroke_style_str(FORBIDDEN);
+        ctx.set_line_width((0.075 * self.step()).max(1.5 * self.lw));
+        ctx.begin_path();
+        ctx.move_to(x - a, y - a);
+        ctx.line_to(x + a, y + a);
+        ctx.move_to(x - a, y + a);
+        ctx.line_to(x + a, y - a);
+        ctx.stroke();
+    }
+
+    fn stone(&self, p: Point, c: Stone) -> Result<(), JsValue> {
+        let (x, y) = self.at(p);
+        let r = STONE * self.step();
+        match c {
+            Stone::Black => self.disc(x, y, r, BLACK),
+            Stone::White => {
+                self.disc(x, y, r, WHITE)?;
+                self.ctx.set_stroke_style_str(INK);
+                self.ctx.set_line_width(self.lw.max(0.06 * self.step()));
+                self.ctx.stroke();
+                Ok(())
+            }
+        }
+    }
+
+    /// The colour that stands out on a stone of colour `c`.
+    fn on(c: Stone) -> &'static str {
+        match c {
+            Stone::Black => WHITE,
+            Stone::White => BLACK,
+        }
+    }
+
+    fn ring(&self, p: Point, c: Stone) -> Result<(), JsValue> {
+        let (x, y) = self.at(p);
+        let ctx = self.ctx;
+        ctx.begin_path();
+        ctx.arc(x, y, 0.3 * self.step(), 0.0, std::f64::consts::TAU)?;
+        ctx.set_stroke_style_str(Self::on(c));
+        ctx.set_line_width((0.06 * self.step()).max(self.lw));
+        ctx.stroke();
+        Ok(())
+    }
+
+    fn diamond(&self, p: Point, c: Stone) {
+        let (x, y) = self.at(p);
+        let a = 0.17 * self.step();
+        let ctx = self.ctx;
+        ctx.begin_path();
+        ctx.move_to(x, y - a);
+        ctx.line_to(x + a, y);
+        ctx.line_to(x, y + a);
+        ctx.line_to(x - a, y);
+        ctx.close_path();
+        ctx.set_fill_style_str(Self::on(c));
+        ctx.fill();
+    }
+}
+
+/// Draws `board` with `marks` on a canvas whose backing store is `layout`'s CSS size times `dpr`.
+pub fn draw(
+    ctx: &CanvasRenderingContext2d,
+    layout: &Layout,
+    dpr: f64,
+    board: &Board,
+    marks: &Marks,
+) -> Result<(), JsValue> {
+    ctx.set_transform(1.0, 0.0, 0.0, 1.0, 0.0, 0.0)?;
+    ctx.set_fill_style_str(BOARD);
+    ctx.fill_rect(
+        0.0,
+        0.0,
+        (layout.width * dpr).round(),
+        (layout.height * dpr).round(),
+    );
+    if layout.step * dpr < 4.0 {
+        return Ok(());
+    }
+    let pen = Pen {
+        ctx,
+        layout,
+        dpr,
+        lw: dpr.round().max(1.0),
+    };
+    pen.grid();
+    pen.coordinates()?;
+    for &p in &marks.forbidden {
+        pen.cross(p);
+    }
+    for p in board.points() {
+        if let Some(c) = board.get(p) {
+            pen.stone(p, c)?;
+        }
+    }
+    for &p in &marks.winning {
+        if let Some(c) = board.get(p) {
+            pen.ring(p, c)?;
+        }
+    }
+    if let Some(p) = marks.last {
+        if let Some(c) = board.get(p) {
+            if !marks.winning.contains(&p) {
+                pen.diamond(p, c);
+            }
+        }
+    }
+    Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn star_points_of_common_sizes() {
+        let names = |n| {
+            star_points(n)
+                .iter()
+                .map(|p| p.to_string())
+                .collect::<Vec<_>>()
+                .join(" ")
+        };
+        assert_eq!(names(15), "d4 l4 d12 l12 h8");
+        assert_eq!(names(19), "d4 p4 d16 p16 j10");
+        assert_eq!(names(7), "");
+    }
+
+    #[test]
+    fn snapping_keeps_lines_on_whole_pixels() {
+        assert_eq!(snap(10.3, 1.0), 10.5);
+        assert_eq!(snap(10.3, 2.0), 10.0);
+        assert_eq!(snap(10.7, 3.0), 10.5);
+    }
+}

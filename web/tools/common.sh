@@ -1,0 +1,134 @@
+# Shared set-up and build steps for serve.sh and test.sh. Source it; do not run it.
+#
+# Each `need_*` function installs one missing tool and says so; each does nothing when the
+# tool is already there. `build_app` builds the web app into web/dist (or $DIST).
+
+# The repository root and the web crate, whatever the caller's working directory.
+WEB_DIR="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+ROOT="$(cd "$WEB_DIR/.." && pwd)"
+DIST="$WEB_DIR/dist"
+
+WASM_TARGET=wasm32-unknown-unknown
+BINDGEN_VERSION=0.2.130
+CHROMIUM=/usr/bin/chromium
+CHROMEDRIVER_BIN=/usr/bin/chromedriver
+
+# cargo resolves a relative CARGO_TARGET_DIR against the directory it runs in; the scripts run
+# cargo from the root, so pin a relative value to the caller's directory first.
+if [ -n "${CARGO_TARGET_DIR:-}" ]; then
+    case "$CARGO_TARGET_DIR" in
+        /*) ;;
+        *) CARGO_TARGET_DIR="$PWD/$CARGO_TARGET_DIR" ;;
+    esac
+    export CARGO_TARGET_DIR
+fi
+
+export PATH="$HOME/.cargo/bin:$PATH"
+
+step() {
+    printf '\n==> %s\n' "$*"
+}
+
+note() {
+    printf '    %s\n' "$*"
+}
+
+die() {
+    printf '\nERROR: %s\n' "$*" >&2
+    exit 1
+}
+
+# Runs a command as root: directly when we are root, through sudo otherwise.
+as_root() {
+    if [ "$(id -u)" = 0 ]; then
+        "$@"
+    else
+        command -v sudo >/dev/null || die "need root (or sudo) to run: $*"
+        sudo "$@"
+    fi
+}
+
+need_rust_components() {
+    local have
+    have="$(rustup component list --installed 2>/dev/null || true)"
+    for c in rustfmt clippy; do
+        if ! grep -q "^$c" <<<"$have"; then
+            step "Installing the Rust component $c"
+            rustup component add "$c" || die "rustup component add $c failed"
+        fi
+    done
+}
+
+need_wasm_target() {
+    if rustup target list --installed 2>/dev/null | grep -qx "$WASM_TARGET"; then
+        return 0
+    fi
+    step "Installing the Rust target $WASM_TARGET (rustup target add $WASM_TARGET)"
+    rustup target add "$WASM_TARGET" || die "rustup target add $WASM_TARGET failed"
+}
+
+need_wasm_bindgen() {
+    if wasm-bindgen --version 2>/dev/null | grep -q " $BINDGEN_VERSION\$" &&
+        wasm-bindgen-test-runner --version 2>/dev/null | grep -q " $BINDGEN_VERSION\$"; then
+        return 0
+    fi
+    step "Installing wasm-bindgen-cli $BINDGEN_VERSION (cargo install; takes a few minutes once)"
+    cargo install wasm-bindgen-cli --version "$BINDGEN_VERSION" ||
+        die "cargo install wasm-bindgen-cli --version $BINDGEN_VERSION failed"
+    wasm-bindgen --version | grep -q " $BINDGEN_VERSION\$" ||
+        die "wasm-bindgen on PATH is not $BINDGEN_VERSION: $(command -v wasm-bindgen)"
+}
+
+need_chromium() {
+    if [ -x "$CHROMIUM" ] && [ -x "$CHROMEDRIVER_BIN" ]; then
+        return 0
+    fi
+    step "Installing chromium and chromium-driver (apt-get)"
+    as_root env DEBIAN_FRONTEND=noninteractive apt-get update ||
+        die "apt-get update failed"
+    as_root env DEBIAN_FRONTEND=noninteractive apt-get install -y chromium chromium-driver ||
+        die "apt-get install chromium chromium-driver failed"
+    [ -x "$CHROMIUM" ] && [ -x "$CHROMEDRIVER_BIN" ] ||
+        die "chromium or chromedriver is still missing after apt-get install"
+}
+
+# The e2e tests' one npm package (playwright-core, no browser download) from web/package-lock.json.
+need_node_modules() {
+    local want have
+    want="$(node -p "require('$WEB_DIR/package-lock.json').packages['node_modules/playwright-core'].version")" ||
+        die "cannot read web/package-lock.json"
+    have="$(node -p "require('$WEB_DIR/node_modules/playwright-core/package.json').version" 2>/dev/null || true)"
+    if [ "$want" = "$have" ]; then
+        return 0
+    fi
+    step "Installing the e2e test packages (npm ci in web/: playwright-core $want)"
+    (cd "$WEB_DIR" && PLAYWRIGHT_SKIP_BROWSER_DOWNLOAD=1 npm ci --no-audit --no-fund) ||
+        die "npm ci in web/ failed"
+}
+
+# Where cargo puts its output for this workspace (honours CARGO_TARGET_DIR and cargo config).
+target_dir() {
+    (cd "$ROOT" && cargo metadata --format-version 1 --no-deps) |
+        python3 -c 'import json, sys; print(json.load(sys.stdin)["target_directory"])'
+}
+
+# Builds the app: release wasm, bindings, static files, all in $DIST.
+build_app() {
+    need_wasm_target
+    need_wasm_bindgen
+    step "Building the wasm module (cargo build --release --target $WASM_TARGET -p fivefold-web)"
+    (cd "$ROOT" && cargo build --release --target "$WASM_TARGET" -p fivefold-web) ||
+        die "the wasm build failed"
+    local target wasm
+    target="$(target_dir)" || die "cargo metadata failed"
+    wasm="$target/$WASM_TARGET/release/fivefold_web.wasm"
+    [ -f "$wasm" ] || die "no $wasm after the build"
+    step "Generating the bindings and copying the page into $DIST"
+    rm -rf "$DIST"
+    mkdir -p "$DIST/pkg"
+    wasm-bindgen --target web --no-typescript --out-dir "$DIST/pkg" "$wasm" ||
+        die "wasm-bindgen failed"
+    cp "$WEB_DIR/index.html" "$WEB_DIR/app.js" "$WEB_DIR/style.css" "$WEB_DIR/icon.svg" "$DIST/" ||
+        die "copying the static files failed"
+    note "built $(du -sb "$DIST" | cut -f1) bytes in $DIST"
+}
