@@ -9,10 +9,12 @@
 
 pub mod bitset;
 pub mod board;
+pub mod formats;
 pub mod geometry;
 pub mod notation;
 pub mod patterns;
 pub mod play;
+pub mod puzzle;
 pub mod rules;
 pub mod search;
 pub mod suite;

@@ -191,7 +191,7 @@ impl Default for Quotas {
     fn default() -> Self {
         Quotas {
             vcf: [0, 12, 12, 12, 12, 10, 10, 10, 8, 8, 6, 6, 5, 5, 4, 4],
-            vct: [0, 0, 12, 12, 12, 10, 8],
+            vct: [0, 8, 12, 12, 12, 10, 8],
             vcf_no_win: 20,
             vct_no_win: 20,
         }
@@ -217,7 +217,7 @@ pub fn harvest(
     mut progress: impl FnMut(u64, usize),
 ) -> Vec<Case> {
     let mut solver = Solver::new(SolverConfig {
-        node_limit: 300_000,
+        node_limit: 60_000,
         ..SolverConfig::default()
     });
     let mut out = Vec::new();
@@ -245,9 +245,12 @@ pub fn harvest(
         }
         let game_seed = rng_next(&mut rng);
         let mut player = play::Player::new(game_seed, config.clone());
-        while !game.is_over() && game.board().stones() < 120 {
+        while !game.is_over() && game.board().stones() < 150 {
             if game.board().stones() >= 8 {
-                consider(&mut solver, &game, &mut quotas, &mut out);
+                // Both sides: the side to move, and the other as if it were its turn.
+                for side in [game.to_move(), game.to_move().opponent()] {
+                    consider(&mut solver, game.board(), side, &mut quotas, &mut out);
+                }
             }
             let Some(m) = player.choose(&game) else { break };
             if game.play(m).is_err() {
@@ -255,7 +258,79 @@ pub fn harvest(
             }
         }
     }
+    extend(&mut solver, &mut quotas, &mut out);
+    // The harvest searched with a small budget; record what the default solver says, so that
+    // the suite checks the solver as it is used.
+    let mut full = Solver::default();
+    out.retain_mut(|case| {
+        let sol = full.solve(&case.board(), case.to_move, case.mode, None);
+        case.verdict = sol.verdict;
+        case.fours = sol.depth;
+        sol.verdict != Verdict::Unknown
+    });
     out
+}
+
+/// Long VCFs are rare in self-play, so the suite also "un-plays" forcing exchanges: from a
+/// kept VCF of `n` fours, take away one attacker stone and one defender stone such that the
+/// attacker's stone, played again, is a four that the defender's stone blocks. If the smaller
+/// position's shortest VCF has `n + 1` fours, it is kept too. Repeats up to 15 fours.
+fn extend(solver: &mut Solver, quotas: &mut Quotas, out: &mut Vec<Case>) {
+    for n in 1..15u16 {
+        let mut i = 0;
+        while quotas.vcf[n as usize + 1] > 0 && i < out.len() {
+            let case = out[i].clone();
+            i += 1;
+            if case.mode != Mode::Vcf || case.verdict != Verdict::Win || case.fours != n {
+                continue;
+            }
+            let attacker = case.to_move;
+            let (mine, theirs) = match attacker {
+                Stone::Black => (&case.black, &case.white),
+                Stone::White => (&case.white, &case.black),
+            };
+            'pairs: for &a in mine {
+                for &b in theirs {
+                    let (dx, dy) = (a.x as i32 - b.x as i32, a.y as i32 - b.y as i32);
+                    let collinear = dx == 0 || dy == 0 || dx.abs() == dy.abs();
+                    if !collinear || dx.abs().max(dy.abs()) > 4 {
+                        continue;
+                    }
+                    let mut board = case.board();
+                    board.remove(a);
+                    board.remove(b);
+                    let ia = board.index(a);
+                    if board.flags_at(ia, attacker) & crate::board::threat::FOUR == 0 {
+                        continue;
+                    }
+                    board.place(a, attacker);
+                    let fives: Vec<usize> = board
+                        .cells_with(attacker, crate::board::threat::FIVE)
+                        .iter()
+                        .collect();
+                    board.remove(a);
+                    if fives != [board.index(b)] {
+                        continue;
+                    }
+                    let sol = solver.solve(&board, attacker, Mode::Vcf, None);
+                    let d = sol.depth as usize;
+                    if sol.verdict == Verdict::Win && d > n as usize && d <= 15 && quotas.vcf[d] > 0
+                    {
+                        quotas.vcf[d] -= 1;
+                        out.push(Case {
+                            fours: sol.depth,
+                            black: board.stones_of(Stone::Black),
+                            white: board.stones_of(Stone::White),
+                            ..case.clone()
+                        });
+                        if quotas.vcf[n as usize + 1] == 0 {
+                            break 'pairs;
+                        }
+                    }
+                }
+            }
+        }
+    }
 }
 
 fn rng_next(rng: &mut rand_chacha::ChaCha8Rng) -> u64 {
@@ -263,9 +338,13 @@ fn rng_next(rng: &mut rand_chacha::ChaCha8Rng) -> u64 {
     rng.next_u64()
 }
 
-fn consider(solver: &mut Solver, game: &Game, quotas: &mut Quotas, out: &mut Vec<Case>) {
-    let board = game.board();
-    let me = game.to_move();
+fn consider(
+    solver: &mut Solver,
+    board: &Board,
+    me: Stone,
+    quotas: &mut Quotas,
+    out: &mut Vec<Case>,
+) {
     let base = |mode, verdict, fours: u16| Case {
         rule: board.rule(),
         size: board.size(),
@@ -287,7 +366,7 @@ fn consider(solver: &mut Solver, game: &Game, quotas: &mut Quotas, out: &mut Vec
     let vcf = solver.solve(board, me, Mode::Vcf, None);
     match vcf.verdict {
         Verdict::Win => {
-            let fours = (vcf.attacker_moves() as u16).saturating_sub(1);
+            let fours = vcf.depth;
             if (1..=15).contains(&fours) && quotas.vcf[fours as usize] > 0 {
                 quotas.vcf[fours as usize] -= 1;
                 out.push(base(Mode::Vcf, Verdict::Win, fours));
@@ -297,10 +376,18 @@ fn consider(solver: &mut Solver, game: &Game, quotas: &mut Quotas, out: &mut Vec
         Verdict::Unknown => return,
         Verdict::NoWin => {}
     }
+    let vct_wanted = quotas.vct.iter().any(|&q| q > 0) || quotas.vct_no_win > 0;
+    if !vct_wanted {
+        if quotas.vcf_no_win > 0 && board.stones().is_multiple_of(3) {
+            quotas.vcf_no_win -= 1;
+            out.push(base(Mode::Vcf, Verdict::NoWin, 0));
+        }
+        return;
+    }
     let vct = solver.solve(board, me, Mode::Vct, None);
     match vct.verdict {
         Verdict::Win => {
-            let threats = (vct.attacker_moves() as u16).saturating_sub(1);
+            let threats = vct.depth;
             if (1..=6).contains(&threats) && quotas.vct[threats as usize] > 0 {
                 quotas.vct[threats as usize] -= 1;
                 out.push(base(Mode::Vct, Verdict::Win, threats));

@@ -3,6 +3,7 @@
 //! This binary is glue: it parses flags, turns them into engine values, calls the engine and
 //! prints text or JSON. Every failure is one line on stderr and a non-zero exit code.
 
+mod generate;
 mod inspect;
 mod position;
 mod solve;
@@ -31,6 +32,10 @@ enum Command {
     Show(position::PositionArgs),
     /// Search a position: VCF, VCT, defences, or exact solving of a small board.
     Solve(solve::SolveArgs),
+    /// Make a puzzle set from a seed.
+    Generate(generate::GenerateArgs),
+    /// Re-prove every puzzle of a set file; exits non-zero if any fails.
+    Verify(generate::VerifyArgs),
     /// Harvest the solver benchmark suite from seeded self-play.
     #[command(hide = true)]
     Suite(suite::SuiteArgs),
@@ -43,6 +48,8 @@ fn main() -> ExitCode {
         Command::Show(args) => position::show(&args),
         Command::Solve(args) => solve::run(&args),
         Command::Suite(args) => suite::run(&args),
+        Command::Generate(args) => generate::run(&args),
+        Command::Verify(args) => generate::verify(&args),
     };
     match result {
         Ok(()) => ExitCode::SUCCESS,

@@ -27,6 +27,9 @@ use threats::{defence_candidates, ThreatSpace, VcfOracle};
 pub use threats::{Mode, VcfLine, UNLIMITED};
 use tt::Table;
 
+/// The longest line, in attacker moves, that iterative deepening looks for.
+const MAX_LINE: u16 = 60;
+
 /// Limits and memory of a [`Solver`].
 #[derive(Clone, Debug, PartialEq, Eq)]
 pub struct SolverConfig {
@@ -85,11 +88,23 @@ pub struct Solution {
     /// The shortest main line when it wins: attacker and defender moves alternating, ending
     /// with the attacker's five.
     pub line: Vec<Point>,
+    /// The length of the win in the search's own measure: for a VCF the fours before the five,
+    /// for a VCT the threats that are not fours (0 when there is no win).
+    pub depth: u16,
     /// Nodes searched, the VCF questions of a VCT included.
     pub nodes: u64,
 }
 
 impl Solution {
+    fn without_win(verdict: Verdict, nodes: u64) -> Solution {
+        Solution {
+            verdict,
+            line: Vec::new(),
+            depth: 0,
+            nodes,
+        }
+    }
+
     /// Attacker moves in the main line, the five included.
     pub fn attacker_moves(&self) -> usize {
         self.line.len().div_ceil(2)
@@ -103,6 +118,8 @@ pub struct MoveSets {
     pub proved: Vec<Point>,
     /// The search ran out of budget on these.
     pub unknown: Vec<Point>,
+    /// How many candidate moves were tried.
+    pub tried: usize,
     /// Nodes searched.
     pub nodes: u64,
 }
@@ -252,33 +269,82 @@ impl Solver {
     }
 
     /// Does `to_move` win by forcing moves of `mode`? With the shortest main line when it does.
-    pub fn solve(&mut self, board: &Board, to_move: Stone, mode: Mode, stop: Stop) -> Solution {
+    pub fn solve(&mut self, board: &Board, to_move: Stone, mode: Mode, mut stop: Stop) -> Solution {
         let mut b = board.clone();
         let depth = self.depth_for(mode);
-        let (status, mut nodes) = self.run(&mut b, to_move, to_move, mode, depth, stop);
-        let verdict = verdict(status);
-        if verdict != Verdict::Win {
-            return Solution {
-                verdict,
-                line: Vec::new(),
-                nodes,
-            };
-        }
-        // Iterative deepening for the shortest line: the first depth at which a proof exists.
-        let upper = self.stored_depth(&b, to_move, to_move, mode, depth);
-        let mut found = depth;
-        for d in 0..upper.min(depth) {
-            let (s, n) = self.run(&mut b, to_move, to_move, mode, d, None);
-            nodes += n;
-            if s == Status::Proved {
-                found = d;
-                break;
+        let limit = self.config.node_limit;
+        let mut nodes = 0;
+        let found = match mode {
+            Mode::Vcf => {
+                // VCF trees are narrow: prove first, then deepen up to the proof's length.
+                let (status, n) = self.run(&mut b, to_move, to_move, mode, depth, stop);
+                nodes += n;
+                if status != Status::Proved {
+                    return Solution::without_win(verdict(status), nodes);
+                }
+                let upper = self.stored_depth(&b, to_move, to_move, mode, depth);
+                let mut found = depth;
+                for d in 0..=upper.min(MAX_LINE) {
+                    let (s, n) = self.run(&mut b, to_move, to_move, mode, d, None);
+                    nodes += n;
+                    if s == Status::Proved {
+                        found = d;
+                        break;
+                    }
+                }
+                found
             }
-        }
+            Mode::Vct => {
+                // VCT trees are wide and the full-depth search is the dearest: deepen from the
+                // start, one threat at a time, within one node budget for all depths.
+                let mut found = None;
+                let mut unknown = false;
+                for d in 0..=depth {
+                    if nodes >= limit {
+                        unknown = true;
+                        break;
+                    }
+                    self.config.node_limit = limit - nodes;
+                    let again = stop.as_mut().map(|f| &mut **f as &mut dyn FnMut() -> bool);
+                    let (s, n) = self.run(&mut b, to_move, to_move, mode, d, again);
+                    nodes += n;
+                    match s {
+                        Status::Proved => {
+                            found = Some(d);
+                            break;
+                        }
+                        Status::Unknown => {
+                            unknown = true;
+                            break;
+                        }
+                        Status::Disproved => {}
+                    }
+                }
+                self.config.node_limit = limit;
+                match found {
+                    Some(d) => d,
+                    None => {
+                        let v = if unknown {
+                            Verdict::Unknown
+                        } else {
+                            Verdict::NoWin
+                        };
+                        return Solution::without_win(v, nodes);
+                    }
+                }
+            }
+        };
         let line = self.extract_line(&mut b, to_move, mode, found);
+        let line: Vec<Point> = line.iter().map(|&m| b.point(m as usize)).collect();
+        let depth = if found == UNLIMITED {
+            (line.len().div_ceil(2) as u16).saturating_sub(1)
+        } else {
+            found
+        };
         Solution {
-            verdict,
-            line: line.iter().map(|&m| b.point(m as usize)).collect(),
+            verdict: Verdict::Win,
+            line,
+            depth,
             nodes,
         }
     }
@@ -360,6 +426,7 @@ impl Solver {
             }
         }
         let depth = self.depth_for(mode);
+        out.tried = cands.len();
         for m in cands {
             let m = m as usize;
             b.place_at(m, to_move);
@@ -409,7 +476,7 @@ impl Solver {
                 if threat.verdict != Verdict::Win {
                     return out;
                 }
-                near_stones(&b)
+                near_line(&b, attacker.opponent(), &threat.line)
             }
         };
         let mut seen = vec![false; b.cell_count()];
@@ -420,6 +487,7 @@ impl Solver {
                 continue;
             }
             seen[m] = true;
+            out.moves.tried += 1;
             // A defender five wins outright.
             let five = b.flags_at(m, defender) & threat::FIVE != 0;
             if five {
@@ -442,6 +510,71 @@ impl Solver {
         out.moves.proved.sort_by_key(|p| (p.x, p.y));
         out.moves.unknown.sort_by_key(|p| (p.x, p.y));
         out
+    }
+
+    /// The replies the search considers for the defender (to move) against `attacker`'s
+    /// threat: the forced block of a four, or the defence set of a VCT node. Empty when the
+    /// attacker has no threat (or has already won).
+    pub fn defender_replies(&mut self, board: &Board, attacker: Stone, mode: Mode) -> Vec<Point> {
+        let mut b = board.clone();
+        let oracle = (mode == Mode::Vct).then_some(&mut self.oracle);
+        let mut sp = ThreatSpace::new(
+            &mut b,
+            attacker,
+            attacker.opponent(),
+            mode,
+            self.config.vct_depth,
+            oracle,
+        );
+        let mut replies = Vec::new();
+        let node = sp.expand(&mut replies);
+        drop(sp);
+        if node != Node::And {
+            return Vec::new();
+        }
+        replies.into_iter().map(|m| b.point(m as usize)).collect()
+    }
+
+    /// How much room the defender has along a main line (attacker first): at each defender
+    /// turn, the replies the search had to consider beyond the first, plus one for every
+    /// defender move that makes a four of its own.
+    pub fn line_branching(
+        &mut self,
+        board: &Board,
+        attacker: Stone,
+        mode: Mode,
+        line: &[Point],
+    ) -> u32 {
+        let mut b = board.clone();
+        let defender = attacker.opponent();
+        let mut total = 0;
+        for (i, &p) in line.iter().enumerate() {
+            let idx = b.index(p);
+            if !b.is_empty_at(idx) {
+                break;
+            }
+            let side = if i % 2 == 0 { attacker } else { defender };
+            if side == defender {
+                if b.flags_at(idx, defender) & threat::FOUR != 0 {
+                    total += 1;
+                }
+                let oracle = (mode == Mode::Vct).then_some(&mut self.oracle);
+                let mut sp = ThreatSpace::new(
+                    &mut b,
+                    attacker,
+                    defender,
+                    mode,
+                    self.config.vct_depth,
+                    oracle,
+                );
+                let mut replies = Vec::new();
+                if sp.expand(&mut replies) == Node::And {
+                    total += replies.len().saturating_sub(1) as u32;
+                }
+            }
+            b.place_at(idx, side);
+        }
+        total
     }
 
     /// Reads the main line of a node proved at `depth`: the attacker takes its shortest proved
@@ -745,22 +878,24 @@ fn finish(sp: &mut ThreatSpace, attacker: Stone, line: &mut Vec<u16>, played: &m
     }
 }
 
-/// Empty points on a line within five steps of some stone: where any defence against a threat
-/// can be. Used when the threat is a VCT without a VCF behind it.
-fn near_stones(b: &Board) -> Vec<u16> {
-    let mut out = Vec::new();
+/// Where a defence against a VCT (with no VCF behind it) can be: the defender's fours, and the
+/// empty points within three points (king moves) of the threat's main line. A quiet defence has
+/// to interfere with the attacker's winning structure, which the main line and its neighbours
+/// cover; this is a practical bound, not a proof, and the documentation says so.
+fn near_line(b: &Board, defender: Stone, line: &[Point]) -> Vec<u16> {
+    let mut out: Vec<u16> = b
+        .cells_with(defender, threat::FOUR)
+        .iter()
+        .map(|c| c as u16)
+        .collect();
     for i in b.indices() {
-        if !b.is_empty_at(i) {
+        if !b.is_empty_at(i) || out.contains(&(i as u16)) {
             continue;
         }
-        let near = (0..4).any(|d| {
-            (1..=5).any(|n| {
-                [n, -n].iter().any(|&k| {
-                    let q = b.offset(i, d, k);
-                    b.stone_at(q).is_some()
-                })
-            })
-        });
+        let p = b.point(i);
+        let near = line
+            .iter()
+            .any(|q| (p.x as i32 - q.x as i32).abs() <= 3 && (p.y as i32 - q.y as i32).abs() <= 3);
         if near {
             out.push(i as u16);
         }

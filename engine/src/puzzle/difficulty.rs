@@ -1,0 +1,92 @@
+//! The difficulty estimate: a rating on the Glicko scale (1500 is an average club player) from
+//! features of the proof.
+//!
+//! The formula is a first guess, to be calibrated against players' results:
+//!
+//! ```text
+//! rating = base(theme)
+//!        + 110 * (attacker moves before the five - 1)
+//!        +  25 * min(tempting forcing moves that fail, 12)
+//!        +  45 * defender replies beyond the first, summed over the main line (at most 10)
+//!        +  70 * counter-four traps (at most 4)
+//!        +  10 * spread (mean king-move distance between consecutive attacker moves)
+//!        - 160 * log2(correct first moves)
+//! ```
+//!
+//! clamped to 600..=2600, with `base` 1050 for a four-three, 1100 for a VCF, 1350 for a VCT,
+//! 1250 for a defence, 1400 for a forbidden-point trap and 1350 for a win past forbidden points.
+//! A longer line, more plausible moves that fail, a defender with more ways to resist, traps in
+//! which a block makes a four, and moves far apart all make a puzzle harder; several correct
+//! answers make it easier.
+
+use super::Theme;
+
+/// What the estimate is computed from.
+#[derive(Clone, Copy, Debug, Default, PartialEq)]
+pub struct Features {
+    /// Attacker moves in the main line before the five (for a defence: the threat's).
+    pub length: u32,
+    /// Forcing moves the attacker could try at the start that do not win.
+    pub tempting: u32,
+    /// Defender replies beyond the first at the defender's turns of the main line, summed.
+    pub branching: u32,
+    /// Root forcing moves whose forced reply gives the defender a four.
+    pub counter_fours: u32,
+    /// Mean king-move distance between consecutive attacker moves of the main line.
+    pub spread: f64,
+    /// Correct first moves (at least 1).
+    pub answers: u32,
+}
+
+/// The base rating of a theme.
+pub const fn base(theme: Theme) -> f64 {
+    match theme {
+        Theme::FourThree => 1050.0,
+        Theme::Vcf => 1100.0,
+        Theme::Vct => 1350.0,
+        Theme::Defend => 1250.0,
+        Theme::ForbiddenTrap => 1400.0,
+        Theme::ForbiddenWin => 1350.0,
+    }
+}
+
+/// The estimated rating.
+pub fn rating(theme: Theme, f: &Features) -> u32 {
+    let r = base(theme)
+        + 110.0 * (f.length.saturating_sub(1)) as f64
+        + 25.0 * f.tempting.min(12) as f64
+        + 45.0 * f.branching.min(10) as f64
+        + 70.0 * f.counter_fours.min(4) as f64
+        + 10.0 * f.spread
+        - 160.0 * (f.answers.max(1) as f64).log2();
+    r.round().clamp(600.0, 2600.0) as u32
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn harder_features_rate_higher() {
+        let easy = Features {
+            length: 2,
+            answers: 1,
+            ..Default::default()
+        };
+        let long = Features { length: 6, ..easy };
+        let many = Features { answers: 4, ..easy };
+        let r = |f: &Features| rating(Theme::Vcf, f);
+        assert!(r(&long) > r(&easy));
+        assert!(r(&many) < r(&easy));
+        assert!(rating(Theme::Vct, &easy) > rating(Theme::Vcf, &easy));
+        let extreme = Features {
+            length: 40,
+            tempting: 99,
+            branching: 99,
+            counter_fours: 9,
+            spread: 20.0,
+            answers: 1,
+        };
+        assert_eq!(r(&extreme), 2600);
+    }
+}
