@@ -15,6 +15,7 @@ pub mod notation;
 pub mod patterns;
 pub mod play;
 pub mod puzzle;
+pub mod rating;
 pub mod rules;
 pub mod search;
 pub mod suite;

@@ -5,8 +5,8 @@ use std::time::{SystemTime, UNIX_EPOCH};
 use clap::Args;
 use engine::formats::setfile::{self, GeneratorInfo, PuzzleSet};
 use engine::puzzle::generate::{self, Options};
-use engine::puzzle::{Goal, Puzzle, Theme};
-use engine::search::{Mode, Solver, SolverConfig, Verdict};
+use engine::puzzle::verify;
+use engine::puzzle::Theme;
 use engine::Rule;
 use indicatif::{ProgressBar, ProgressStyle};
 
@@ -143,94 +143,9 @@ pub fn read_set(path: &str) -> Result<PuzzleSet, String> {
     setfile::parse(&text).map_err(|e| format!("{path}: {e}"))
 }
 
-/// Re-proves one puzzle; the problems found, in words.
-pub fn check_puzzle(solver: &mut Solver, p: &Puzzle) -> Vec<String> {
-    let mut problems = Vec::new();
-    let board = p.board();
-    if board.find_winner().is_some() {
-        problems.push("the position already has a five".into());
-        return problems;
-    }
-    let mode = p.theme.mode();
-    match p.goal() {
-        Goal::Win => {
-            let sol = solver.solve(&board, p.to_move, mode, None);
-            if sol.verdict != Verdict::Win {
-                problems.push(format!("no forced win found ({})", sol.verdict.name()));
-                return problems;
-            }
-            for &m in &p.first_moves {
-                let mut b = board.clone();
-                if b.get(m).is_some() {
-                    problems.push(format!("first move {m} is taken"));
-                    continue;
-                }
-                b.place(m, p.to_move);
-                let win = b.find_winner() == Some(p.to_move)
-                    || solver
-                        .wins_after(&b, p.to_move, p.to_move.opponent(), mode, None)
-                        .0
-                        == Verdict::Win;
-                if !win {
-                    problems.push(format!("first move {m} does not keep the win"));
-                }
-            }
-            let wins = solver.winning_moves(&board, p.to_move, mode);
-            for w in &wins.proved {
-                if !p.first_moves.contains(w) {
-                    problems.push(format!("{w} also wins but is not listed"));
-                }
-            }
-            if sol.depth != p.length {
-                problems.push(format!(
-                    "the shortest win is {} long, not {}",
-                    sol.depth, p.length
-                ));
-            }
-        }
-        Goal::Defend => {
-            let d = solver.defences(&board, p.to_move, Mode::Vct);
-            if d.threat != Verdict::Win {
-                problems.push(format!(
-                    "the opponent has no forced win to stop ({})",
-                    d.threat.name()
-                ));
-                return problems;
-            }
-            let mut want = p.first_moves.clone();
-            want.sort_by_key(|q| (q.x, q.y));
-            let mut got = d.moves.proved.clone();
-            got.sort_by_key(|q| (q.x, q.y));
-            if want != got {
-                let show = |v: &[engine::Point]| {
-                    v.iter()
-                        .map(|q| q.to_string())
-                        .collect::<Vec<_>>()
-                        .join(" ")
-                };
-                problems.push(format!(
-                    "defences are {} but the file lists {}",
-                    show(&got),
-                    show(&want)
-                ));
-            }
-            if !d.moves.unknown.is_empty() {
-                problems.push(format!(
-                    "{} moves could not be decided",
-                    d.moves.unknown.len()
-                ));
-            }
-        }
-    }
-    problems
-}
-
 pub fn verify(args: &VerifyArgs) -> Result<(), String> {
     let set = read_set(&args.file)?;
-    let mut solver = Solver::new(SolverConfig {
-        node_limit: 2_000_000,
-        ..SolverConfig::default()
-    });
+    let mut solver = verify::solver();
     let bar = if args.quiet {
         ProgressBar::hidden()
     } else {
@@ -245,7 +160,7 @@ pub fn verify(args: &VerifyArgs) -> Result<(), String> {
     );
     let mut failures = 0;
     for (i, p) in set.puzzles.iter().enumerate() {
-        let problems = check_puzzle(&mut solver, p);
+        let problems = verify::check(&mut solver, p);
         for problem in &problems {
             bar.suspend(|| eprintln!("puzzle {} ({}): {problem}", i + 1, p.id));
         }
@@ -262,5 +177,26 @@ pub fn verify(args: &VerifyArgs) -> Result<(), String> {
         ));
     }
     println!("{}: all {} puzzles verified", args.file, set.puzzles.len());
+    Ok(())
+}
+
+#[derive(Args)]
+pub struct SheetArgs {
+    /// The set file.
+    pub file: String,
+    /// Output HTML file.
+    #[arg(long)]
+    pub out: String,
+}
+
+pub fn sheet(args: &SheetArgs) -> Result<(), String> {
+    let set = read_set(&args.file)?;
+    let html = engine::formats::sheet::sheet_html(&set);
+    std::fs::write(&args.out, html).map_err(|e| format!("cannot write {}: {e}", args.out))?;
+    eprintln!(
+        "wrote a sheet of {} puzzles to {}",
+        set.puzzles.len(),
+        args.out
+    );
     Ok(())
 }

@@ -36,6 +36,8 @@ enum Command {
     Generate(generate::GenerateArgs),
     /// Re-prove every puzzle of a set file; exits non-zero if any fails.
     Verify(generate::VerifyArgs),
+    /// Print a set as a page: numbered diagrams with the goal under each, answers at the end.
+    Sheet(generate::SheetArgs),
     /// Harvest the solver benchmark suite from seeded self-play.
     #[command(hide = true)]
     Suite(suite::SuiteArgs),
@@ -50,6 +52,7 @@ fn main() -> ExitCode {
         Command::Suite(args) => suite::run(&args),
         Command::Generate(args) => generate::run(&args),
         Command::Verify(args) => generate::verify(&args),
+        Command::Sheet(args) => generate::sheet(&args),
     };
     match result {
         Ok(()) => ExitCode::SUCCESS,

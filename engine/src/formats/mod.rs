@@ -2,3 +2,4 @@
 //! sheet. Each reader takes text and returns a typed error that says where the text is wrong.
 
 pub mod setfile;
+pub mod sheet;

@@ -109,6 +109,10 @@ impl Options {
     }
 }
 
+/// The node budget of every search made while generating (and when re-proving a puzzle): a
+/// puzzle whose proof needs more is not kept, which also keeps grading it quick.
+pub const NODE_LIMIT: u64 = 50_000;
+
 /// Games to play per puzzle asked for before giving up (the forbidden-point themes are rare).
 fn games_per_puzzle(theme: Theme) -> u64 {
     match theme {
@@ -133,7 +137,7 @@ pub fn generate(
 ) -> Result<Vec<Puzzle>, GenerateError> {
     options.check()?;
     let mut solver = Solver::new(SolverConfig {
-        node_limit: 50_000,
+        node_limit: NODE_LIMIT,
         ..SolverConfig::default()
     });
     let mut rng = play::rng(options.seed);

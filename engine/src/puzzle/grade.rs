@@ -530,3 +530,120 @@ fn forbidden_reason(why: Forbidden) -> String {
 fn forbidden_words(p: Point, why: Forbidden) -> String {
     format!("{p} is forbidden for Black: it makes {}.", why.words())
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::notation;
+    use crate::rules::Rule;
+
+    fn pts(s: &str) -> Vec<Point> {
+        notation::parse_points(s, "moves", 15, 15).unwrap()
+    }
+
+    fn puzzle(rule: Rule, black: &str, white: &str, to_move: Stone, theme: Theme) -> Puzzle {
+        let mut p = Puzzle {
+            id: "t".into(),
+            rule,
+            size: 15,
+            to_move,
+            black: pts(black),
+            white: pts(white),
+            theme,
+            first_moves: vec![],
+            line: vec![],
+            length: 0,
+            rating: 1500,
+        };
+        let mut s = Solver::default();
+        let sol = s.solve(&p.board(), to_move, theme.mode(), None);
+        p.line = sol.line;
+        p.length = sol.depth;
+        p.first_moves = s.winning_moves(&p.board(), to_move, theme.mode()).proved;
+        p
+    }
+
+    #[test]
+    fn an_alternative_winning_move_is_accepted() {
+        // Black's open three h8-j8 plus a vertical pair: both ends of the three win.
+        let p = puzzle(
+            Rule::Freestyle,
+            "h8 i8 j8",
+            "a1 a3 o15",
+            Stone::Black,
+            Theme::Vcf,
+        );
+        let mut solver = Solver::default();
+        for first in ["g8", "k8"] {
+            let mut s = Session::new(p.clone());
+            match s.play(&mut solver, first.parse().unwrap()) {
+                Grade::Accepted { reply, .. } => {
+                    assert!(s.board().get(reply) == Some(Stone::White));
+                }
+                other => panic!("{first}: {other:?}"),
+            }
+            // Finish: the five.
+            let five = s
+                .board()
+                .cells_with(Stone::Black, threat::FIVE)
+                .first()
+                .unwrap();
+            let fp = s.board().point(five);
+            assert!(matches!(s.play(&mut solver, fp), Grade::Solved { .. }));
+            assert_eq!(s.state(), State::Solved);
+        }
+    }
+
+    #[test]
+    fn a_move_that_allows_a_counter_four_is_refuted() {
+        // Black's three h8-j8 is capped by White's g8, so k8 makes only a four, and White's
+        // forced block at l8 completes White's own four l8-l11.
+        let p = puzzle(
+            Rule::Freestyle,
+            "h8 i8 j8 e5 f5",
+            "g8 l9 l10 l11 a1",
+            Stone::Black,
+            Theme::Vcf,
+        );
+        let mut solver = Solver::default();
+        let mut s = Session::new(p);
+        match s.play(&mut solver, "k8".parse().unwrap()) {
+            Grade::Wrong { refutation, reason } => {
+                assert_eq!(refutation[0].to_string(), "l8");
+                assert!(reason.contains("four of its own"), "{reason}");
+                assert_eq!(s.state(), State::Failed);
+                assert!(s.undo());
+                assert_eq!(s.board().get("k8".parse().unwrap()), None);
+                assert_eq!(s.state(), State::Playing);
+            }
+            other => panic!("{other:?}"),
+        }
+    }
+
+    #[test]
+    fn a_forbidden_point_is_illegal_and_changes_nothing() {
+        // Renju: black's h8 would make two open threes at once, g8-h8-i8 and h8-h9-h10.
+        let p = Puzzle {
+            id: "f".into(),
+            rule: Rule::Renju,
+            size: 15,
+            to_move: Stone::Black,
+            black: pts("g8 i8 h9 h10"),
+            white: pts("a1 a3 o15 o13"),
+            theme: Theme::Vcf,
+            first_moves: pts("k8"),
+            line: pts("k8"),
+            length: 1,
+            rating: 1500,
+        };
+        let mut solver = Solver::default();
+        let mut s = Session::new(p);
+        let before = s.board().hash();
+        match s.play(&mut solver, "h8".parse().unwrap()) {
+            Grade::Illegal { reason } => assert!(reason.contains("double three"), "{reason}"),
+            other => panic!("{other:?}"),
+        }
+        assert_eq!(s.board().hash(), before);
+        assert!(s.history().is_empty());
+    }
+}

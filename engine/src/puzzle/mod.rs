@@ -9,6 +9,7 @@
 pub mod difficulty;
 pub mod generate;
 pub mod grade;
+pub mod verify;
 
 use std::fmt;
 use std::str::FromStr;

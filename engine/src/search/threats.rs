@@ -76,6 +76,13 @@ pub(crate) fn side_key(c: Stone) -> u64 {
     }
 }
 
+/// The key of a stone in the set of attacker stones played since the root (VCT only: the VCF
+/// generator does not look at the set, so its keys leave it out).
+#[inline]
+fn played_key(m: u16) -> u64 {
+    splitmix(0x91A7_0000_0000 + m as u64)
+}
+
 #[inline]
 pub(crate) fn depth_key(depth: u16) -> u64 {
     if depth == UNLIMITED {
@@ -257,8 +264,10 @@ pub(crate) struct ThreatSpace<'b> {
     depth: u16,
     salt: u64,
     trail: Vec<u16>,
-    /// The attacker's stones played since the root of the search.
+    /// The attacker's stones played since the root of the search, and a hash of that set: the
+    /// dependency rule makes a node's moves depend on it, so it is part of every key.
     played: Vec<u16>,
+    played_hash: u64,
     oracle: Option<&'b mut VcfOracle>,
 }
 
@@ -282,6 +291,7 @@ impl<'b> ThreatSpace<'b> {
             salt,
             trail: Vec::new(),
             played: Vec::new(),
+            played_hash: 0,
             oracle,
         }
     }
@@ -593,7 +603,11 @@ impl<'b> ThreatSpace<'b> {
 impl Space for ThreatSpace<'_> {
     #[inline]
     fn key(&self) -> u64 {
-        self.board.hash() ^ self.salt ^ side_key(self.to_move) ^ depth_key(self.depth)
+        self.board.hash()
+            ^ self.salt
+            ^ side_key(self.to_move)
+            ^ depth_key(self.depth)
+            ^ self.played_hash
     }
 
     #[inline]
@@ -602,6 +616,12 @@ impl Space for ThreatSpace<'_> {
             ^ self.salt
             ^ side_key(self.to_move.opponent())
             ^ depth_key(self.depth_after(m))
+            ^ self.played_hash
+            ^ if self.to_move == self.attacker && self.mode == Mode::Vct {
+                played_key(m)
+            } else {
+                0
+            }
     }
 
     fn expand(&mut self, moves: &mut Vec<u16>) -> Node {
@@ -617,8 +637,9 @@ impl Space for ThreatSpace<'_> {
         let next = self.depth_after(m);
         self.trail.push(self.depth);
         self.depth = next;
-        if self.to_move == self.attacker {
+        if self.to_move == self.attacker && self.mode == Mode::Vct {
             self.played.push(m);
+            self.played_hash ^= played_key(m);
         }
         self.board.place_at(m as usize, self.to_move);
         self.to_move = self.to_move.opponent();
@@ -629,8 +650,9 @@ impl Space for ThreatSpace<'_> {
         self.board.remove_at(m as usize);
         self.to_move = self.to_move.opponent();
         self.depth = self.trail.pop().unwrap_or(self.depth);
-        if self.to_move == self.attacker {
+        if self.to_move == self.attacker && self.mode == Mode::Vct {
             self.played.pop();
+            self.played_hash ^= played_key(m);
         }
     }
 }
