@@ -5,9 +5,12 @@
 //! sentences ([`play`]), places the grid ([`layout`]) and draws it ([`render`]).
 #![deny(missing_docs)]
 
+pub mod api;
 pub mod layout;
+pub mod library;
 pub mod play;
 pub mod render;
+pub mod trainer;
 
 use std::str::FromStr;
 
@@ -196,6 +199,7 @@ impl Session {
             last: game.moves().last().copied(),
             winning,
             forbidden,
+            ..Marks::default()
         }
     }
 

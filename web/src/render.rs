@@ -25,11 +25,18 @@ pub const BLACK: &str = "#111312";
 pub const WHITE: &str = "#fbfbf6";
 /// Crosses on forbidden points.
 pub const FORBIDDEN: &str = "#7d1235";
+/// Hints: the dashed area and the target rings.
+pub const HINT: &str = "#9a4a00";
+/// The keyboard cursor.
+pub const CURSOR: &str = "#1d4fa3";
 
 /// Stone radius, in grid steps.
 pub const STONE: f64 = 0.46;
 
-/// What to mark besides the stones.
+/// What to mark besides the stones. Every marker has its own shape, so none depends on colour
+/// alone: a diamond for the last move, rings on a winning line, a cross on a forbidden point, a
+/// dashed square for a hint's area, a double ring for a hinted move, corner brackets for the
+/// keyboard cursor, a hollow square on a refuted move, and a half-clear stone for a preview.
 #[derive(Clone, Debug, Default)]
 pub struct Marks {
     /// The last move played.
@@ -38,6 +45,20 @@ pub struct Marks {
     pub winning: Vec<Point>,
     /// Points where black may not play.
     pub forbidden: Vec<Point>,
+    /// A previewed stone (first tap of a two-tap move).
+    pub ghost: Option<(Point, Stone)>,
+    /// The area of a hint, corner to corner.
+    pub hint_area: Option<(Point, Point)>,
+    /// A hinted move.
+    pub hint_move: Option<Point>,
+    /// The keyboard cursor.
+    pub cursor: Option<Point>,
+    /// Move numbers to write on stones.
+    pub numbers: Vec<(Point, u16)>,
+    /// A stone that is still appearing, and how far (0 to 1).
+    pub growing: Option<(Point, f64)>,
+    /// A move that was refuted.
+    pub refuted: Option<Point>,
 }
 
 /// The reference points of a board of side `size`.
@@ -175,8 +196,12 @@ impl Pen<'_> {
     }
 
     fn stone(&self, p: Point, c: Stone) -> Result<(), JsValue> {
+        self.stone_scaled(p, c, 1.0)
+    }
+
+    fn stone_scaled(&self, p: Point, c: Stone, scale: f64) -> Result<(), JsValue> {
         let (x, y) = self.at(p);
-        let r = STONE * self.step();
+        let r = STONE * self.step() * scale;
         match c {
             Stone::Black => self.disc(x, y, r, BLACK),
             Stone::White => {
@@ -231,6 +256,21 @@ pub fn draw(
     board: &Board,
     marks: &Marks,
 ) -> Result<(), JsValue> {
+    let stones: Vec<(Point, Stone)> = board
+        .points()
+        .filter_map(|p| board.get(p).map(|c| (p, c)))
+        .collect();
+    draw_stones(ctx, layout, dpr, &stones, marks)
+}
+
+/// Draws the given stones with `marks` (the general form of [`draw`]).
+pub fn draw_stones(
+    ctx: &CanvasRenderingContext2d,
+    layout: &Layout,
+    dpr: f64,
+    stones: &[(Point, Stone)],
+    marks: &Marks,
+) -> Result<(), JsValue> {
     ctx.set_transform(1.0, 0.0, 0.0, 1.0, 0.0, 0.0)?;
     ctx.set_fill_style_str(BOARD);
     ctx.fill_rect(
@@ -250,27 +290,132 @@ pub fn draw(
     };
     pen.grid();
     pen.coordinates()?;
+    if let Some((a, b)) = marks.hint_area {
+        pen.area(a, b);
+    }
     for &p in &marks.forbidden {
         pen.cross(p);
     }
-    for p in board.points() {
-        if let Some(c) = board.get(p) {
+    let colour_at = |p: Point| stones.iter().find(|s| s.0 == p).map(|s| s.1);
+    for &(p, c) in stones {
+        match marks.growing {
+            Some((g, f)) if g == p => pen.stone_scaled(p, c, 0.55 + 0.45 * f.clamp(0.0, 1.0))?,
+            _ => pen.stone(p, c)?,
+        }
+    }
+    if let Some((p, c)) = marks.ghost {
+        if colour_at(p).is_none() {
+            ctx.set_global_alpha(0.45);
             pen.stone(p, c)?;
+            ctx.set_global_alpha(1.0);
         }
     }
     for &p in &marks.winning {
-        if let Some(c) = board.get(p) {
+        if let Some(c) = colour_at(p) {
             pen.ring(p, c)?;
         }
     }
+    for &(p, n) in &marks.numbers {
+        if let Some(c) = colour_at(p) {
+            pen.number(p, c, n)?;
+        }
+    }
     if let Some(p) = marks.last {
-        if let Some(c) = board.get(p) {
-            if !marks.winning.contains(&p) {
+        if let Some(c) = colour_at(p) {
+            let numbered = marks.numbers.iter().any(|x| x.0 == p);
+            if !marks.winning.contains(&p) && !numbered {
                 pen.diamond(p, c);
             }
         }
     }
+    if let Some(p) = marks.refuted {
+        if let Some(c) = colour_at(p) {
+            pen.square(p, c);
+        }
+    }
+    if let Some(p) = marks.hint_move {
+        pen.target(p)?;
+    }
+    if let Some(p) = marks.cursor {
+        pen.brackets(p);
+    }
     Ok(())
+}
+
+impl Pen<'_> {
+    /// A dashed square around a block of points.
+    fn area(&self, a: Point, b: Point) {
+        let (x0, y0) = self.at(Point::new(a.x.min(b.x), a.y.max(b.y)));
+        let (x1, y1) = self.at(Point::new(a.x.max(b.x), a.y.min(b.y)));
+        let m = 0.45 * self.step();
+        let ctx = self.ctx;
+        ctx.set_global_alpha(0.16);
+        ctx.set_fill_style_str(HINT);
+        ctx.fill_rect(x0 - m, y0 - m, x1 - x0 + 2.0 * m, y1 - y0 + 2.0 * m);
+        ctx.set_global_alpha(1.0);
+        ctx.set_stroke_style_str(HINT);
+        ctx.set_line_width((0.06 * self.step()).max(1.5 * self.lw));
+        let dash = js_sys::Array::of2(&(0.25 * self.step()).into(), &(0.15 * self.step()).into());
+        let _ = ctx.set_line_dash(&dash);
+        ctx.stroke_rect(x0 - m, y0 - m, x1 - x0 + 2.0 * m, y1 - y0 + 2.0 * m);
+        let _ = ctx.set_line_dash(&js_sys::Array::new());
+    }
+
+    /// Two rings around a hinted point.
+    fn target(&self, p: Point) -> Result<(), JsValue> {
+        let (x, y) = self.at(p);
+        let ctx = self.ctx;
+        ctx.set_stroke_style_str(HINT);
+        ctx.set_line_width((0.07 * self.step()).max(1.5 * self.lw));
+        for r in [0.5, 0.3] {
+            ctx.begin_path();
+            ctx.arc(x, y, r * self.step(), 0.0, std::f64::consts::TAU)?;
+            ctx.stroke();
+        }
+        Ok(())
+    }
+
+    /// Corner brackets around the keyboard cursor.
+    fn brackets(&self, p: Point) {
+        let (x, y) = self.at(p);
+        let a = 0.5 * self.step();
+        let l = 0.22 * self.step();
+        let ctx = self.ctx;
+        ctx.set_stroke_style_str(CURSOR);
+        ctx.set_line_width((0.08 * self.step()).max(2.0 * self.lw));
+        ctx.begin_path();
+        for (sx, sy) in [(-1.0, -1.0), (1.0, -1.0), (-1.0, 1.0), (1.0, 1.0)] {
+            let (cx, cy) = (x + sx * a, y + sy * a);
+            ctx.move_to(cx - sx * l, cy);
+            ctx.line_to(cx, cy);
+            ctx.line_to(cx, cy - sy * l);
+        }
+        ctx.stroke();
+    }
+
+    /// A hollow square on a refuted move.
+    fn square(&self, p: Point, c: Stone) {
+        let (x, y) = self.at(p);
+        let a = 0.2 * self.step();
+        let ctx = self.ctx;
+        ctx.set_stroke_style_str(Self::on(c));
+        ctx.set_line_width((0.07 * self.step()).max(self.lw));
+        ctx.stroke_rect(x - a, y - a, 2.0 * a, 2.0 * a);
+    }
+
+    /// A move number on a stone.
+    fn number(&self, p: Point, c: Stone, n: u16) -> Result<(), JsValue> {
+        let (x, y) = self.at(p);
+        let ctx = self.ctx;
+        let px = if n >= 100 { 0.36 } else { 0.46 } * self.step();
+        ctx.set_font(&format!(
+            "700 {px:.1}px system-ui, 'Segoe UI', Roboto, sans-serif"
+        ));
+        ctx.set_fill_style_str(Self::on(c));
+        ctx.set_text_align("center");
+        ctx.set_text_baseline("middle");
+        ctx.fill_text(&n.to_string(), x, y + 0.03 * self.step())
+    }
 }
 
 #[cfg(test)]

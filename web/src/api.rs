@@ -1,0 +1,272 @@
+//! Plain functions for the page and its worker: sets in and out, share and result codes,
+//! ratings, generation and solving. Sets cross the boundary as set-file JSON text (the wire
+//! format of `engine::formats::setfile`), so the page never holds an engine type.
+
+use engine::formats::result::{self, Outcome};
+use engine::formats::{setfile, share};
+use engine::notation;
+use engine::puzzle::generate::{self, Options};
+use engine::puzzle::Theme;
+use engine::rating::Rating;
+use engine::search::{Mode, Solver, SolverConfig, Verdict};
+use engine::{Rule, Stone};
+use serde::{Deserialize, Serialize};
+use std::cell::RefCell;
+use wasm_bindgen::prelude::*;
+
+use crate::library;
+
+fn err(e: impl std::fmt::Display) -> JsValue {
+    JsValue::from_str(&e.to_string())
+}
+
+/// Reads a set file; returns it again as normalised set-file JSON, or a message naming the
+/// puzzle and field that is wrong.
+#[wasm_bindgen(js_name = parseSet)]
+pub fn parse_set(text: &str) -> Result<String, JsValue> {
+    let set = setfile::parse(text).map_err(err)?;
+    Ok(setfile::to_json(&set))
+}
+
+/// The built-in starter library: a JSON array of set-file objects.
+#[wasm_bindgen(js_name = librarySets)]
+pub fn library_sets() -> String {
+    let parts: Vec<&str> = library::SETS.iter().map(|s| s.1).collect();
+    format!("[{}]", parts.join(","))
+}
+
+/// The share code of a set given as set-file JSON.
+#[wasm_bindgen(js_name = shareEncode)]
+pub fn share_encode(set_json: &str) -> Result<String, JsValue> {
+    let set = setfile::parse(set_json).map_err(err)?;
+    Ok(share::encode(&set))
+}
+
+/// The set in a share code, as set-file JSON, or a message saying why it cannot be read
+/// (damaged or cut short, from a newer version, not a code).
+#[wasm_bindgen(js_name = shareDecode)]
+pub fn share_decode(code: &str) -> Result<String, JsValue> {
+    let set = share::decode(code).map_err(err)?;
+    Ok(setfile::to_json(&set))
+}
+
+fn outcome(name: &str) -> Outcome {
+    match name {
+        "clean" => Outcome::Clean,
+        "helped" => Outcome::Helped,
+        "failed" => Outcome::Failed,
+        _ => Outcome::Untried,
+    }
+}
+
+/// The result code a student sends back: `outcomes` has one of "clean", "helped", "failed"
+/// or "untried" per puzzle of the set, in order.
+#[wasm_bindgen(js_name = resultCode)]
+pub fn result_code(set_json: &str, name: &str, outcomes: Vec<String>) -> Result<String, JsValue> {
+    let set = setfile::parse(set_json).map_err(err)?;
+    let outs: Vec<Outcome> = outcomes.iter().map(|o| outcome(o)).collect();
+    Ok(result::encode(result::fingerprint(&set), name, &outs))
+}
+
+#[derive(Serialize, Deserialize)]
+struct RatingJs {
+    rating: f64,
+    deviation: f64,
+    volatility: f64,
+}
+
+/// A player's rating after one puzzle (Glicko-2). `rating` is `{rating, deviation,
+/// volatility}` or null for a new player.
+#[wasm_bindgen(js_name = ratingAfter)]
+pub fn rating_after(rating: JsValue, puzzle_rating: f64, solved: bool) -> Result<JsValue, JsValue> {
+    let r: Rating = if rating.is_null() || rating.is_undefined() {
+        Rating::default()
+    } else {
+        let r: RatingJs = serde_wasm_bindgen::from_value(rating).map_err(err)?;
+        let ok = |v: f64, lo: f64, hi: f64| v.is_finite() && (lo..=hi).contains(&v);
+        if !(ok(r.rating, 0.0, 4000.0) && ok(r.deviation, 1.0, 350.0) && ok(r.volatility, 0.0, 1.0))
+        {
+            Rating::default()
+        } else {
+            Rating {
+                rating: r.rating,
+                deviation: r.deviation,
+                volatility: r.volatility,
+            }
+        }
+    };
+    let n = r.after_puzzle(puzzle_rating, solved);
+    serde_wasm_bindgen::to_value(&RatingJs {
+        rating: n.rating,
+        deviation: n.deviation,
+        volatility: n.volatility,
+    })
+    .map_err(err)
+}
+
+thread_local! {
+    /// The worker's solver, made once: the tables are the expensive part.
+    static SOLVER: RefCell<Option<Solver>> = const { RefCell::new(None) };
+}
+
+fn with_solver<T>(f: impl FnOnce(&mut Solver) -> T) -> T {
+    SOLVER.with(|s| {
+        let mut s = s.borrow_mut();
+        let solver = s.get_or_insert_with(|| {
+            Solver::new(SolverConfig {
+                table_megabytes: 12,
+                vcf_table_megabytes: 4,
+                node_limit: generate::NODE_LIMIT,
+                ..SolverConfig::default()
+            })
+        });
+        f(solver)
+    })
+}
+
+#[derive(Deserialize)]
+#[serde(rename_all = "camelCase")]
+struct GenerateJs {
+    theme: String,
+    rule: String,
+    #[serde(default = "fifteen")]
+    size: u8,
+    rating_lo: u32,
+    rating_hi: u32,
+    seed: u64,
+    #[serde(default = "one")]
+    count: usize,
+}
+
+fn fifteen() -> u8 {
+    15
+}
+
+fn one() -> usize {
+    1
+}
+
+/// Generates puzzles (for Drill, in the worker): options `{theme, rule, size, ratingLo,
+/// ratingHi, seed, count}`; returns set-file JSON. The same options give the same set here and
+/// natively.
+#[wasm_bindgen(js_name = generateSet)]
+pub fn generate_set(options: JsValue) -> Result<String, JsValue> {
+    let o: GenerateJs = serde_wasm_bindgen::from_value(options).map_err(err)?;
+    let theme: Theme = o.theme.parse().map_err(err)?;
+    let rule: Rule = o.rule.parse().map_err(err)?;
+    let options = Options {
+        theme,
+        rule,
+        size: o.size,
+        count: o.count,
+        rating: (o.rating_lo, o.rating_hi),
+        seed: o.seed,
+    };
+    let puzzles = generate::generate(&options, |_| {}).map_err(err)?;
+    Ok(setfile::to_json(&setfile::PuzzleSet {
+        title: format!("Drill: {}", theme.words()),
+        created: "2026-12-01".into(),
+        puzzles,
+        generator: None,
+    }))
+}
+
+#[derive(Deserialize)]
+#[serde(rename_all = "camelCase")]
+struct SolveJs {
+    rule: String,
+    size: u8,
+    black: Vec<String>,
+    white: Vec<String>,
+    to_move: String,
+    search: String,
+    #[serde(default)]
+    nodes: Option<u64>,
+}
+
+#[derive(Serialize)]
+#[serde(rename_all = "camelCase")]
+struct SolveOut {
+    result: &'static str,
+    line: Vec<String>,
+    first_moves: Vec<String>,
+    unknown: Vec<String>,
+    nodes: u64,
+}
+
+/// Solves a study position (in the worker): `{rule, size, black, white, toMove, search:
+/// "vcf"|"vct"|"defend", nodes}`; returns `{result, line, firstMoves, unknown, nodes}`, where
+/// for "defend" `firstMoves` are the defences and `line` is the threat.
+#[wasm_bindgen(js_name = solvePosition)]
+pub fn solve_position(query: JsValue) -> Result<JsValue, JsValue> {
+    let q: SolveJs = serde_wasm_bindgen::from_value(query).map_err(err)?;
+    let rule: Rule = q.rule.parse().map_err(err)?;
+    let board =
+        notation::setup(q.size, rule, &q.black.join(" "), &q.white.join(" ")).map_err(err)?;
+    if let Some(w) = board.find_winner() {
+        return Err(err(format!(
+            "{} has already made five",
+            crate::play::colour_word(w)
+        )));
+    }
+    let to_move = match q.to_move.as_str() {
+        "black" => Stone::Black,
+        "white" => Stone::White,
+        other => return Err(err(format!("'{other}' is not black or white"))),
+    };
+    let names = |v: &[engine::Point]| v.iter().map(|p| p.to_string()).collect::<Vec<_>>();
+    let out = with_solver(|solver| {
+        if let Some(n) = q.nodes {
+            solver.set_node_limit(n.clamp(1_000, 20_000_000));
+        }
+        let out = match q.search.as_str() {
+            "vcf" | "vct" => {
+                let mode = if q.search == "vcf" {
+                    Mode::Vcf
+                } else {
+                    Mode::Vct
+                };
+                let sol = solver.solve(&board, to_move, mode, None);
+                let mut out = SolveOut {
+                    result: sol.verdict.name(),
+                    line: names(&sol.line),
+                    first_moves: Vec::new(),
+                    unknown: Vec::new(),
+                    nodes: sol.nodes,
+                };
+                if sol.verdict == Verdict::Win {
+                    let w = solver.winning_moves(&board, to_move, mode);
+                    out.first_moves = names(&w.proved);
+                    out.unknown = names(&w.unknown);
+                    out.nodes += w.nodes;
+                }
+                Ok(out)
+            }
+            "defend" => {
+                let d = solver.defences(&board, to_move, Mode::Vct);
+                let threat = if d.threat == Verdict::Win {
+                    solver.threat(&board, to_move, Mode::Vct).line
+                } else {
+                    Vec::new()
+                };
+                Ok(SolveOut {
+                    result: match d.threat {
+                        Verdict::Win => "threat",
+                        Verdict::NoWin => "no-threat",
+                        Verdict::Unknown => "unknown",
+                    },
+                    line: names(&threat),
+                    first_moves: names(&d.moves.proved),
+                    unknown: names(&d.moves.unknown),
+                    nodes: d.moves.nodes,
+                })
+            }
+            other => Err(err(format!(
+                "unknown search '{other}' (vcf, vct or defend)"
+            ))),
+        };
+        solver.set_node_limit(generate::NODE_LIMIT);
+        out
+    })?;
+    serde_wasm_bindgen::to_value(&out).map_err(err)
+}
