@@ -14,7 +14,7 @@ use std::time::{Duration, Instant};
 
 use engine::formats::setfile;
 use engine::puzzle::generate::{self, Options};
-use engine::puzzle::grade::{Grade, Session};
+use engine::puzzle::grade::{Grade, Hint, Session};
 use engine::puzzle::{verify, Goal, Theme};
 use engine::Rule;
 
@@ -79,16 +79,15 @@ fn main() {
             for p in set.puzzles {
                 puzzles += 1;
                 let mut s = Session::new(p.clone());
-                // The stored line: the player's moves are the even ones for a win puzzle; a
-                // defence puzzle is played with its first listed defence.
-                let mine: Vec<_> = match p.goal() {
-                    Goal::Win => p.line.iter().step_by(2).copied().collect(),
-                    Goal::Defend => vec![p.first_moves[0]],
+                // The player follows the stored line; where the reply leaves it, the player
+                // takes the move the third hint gives (what a player would do). A defence
+                // puzzle is played with its first listed defence.
+                let mut next = match p.goal() {
+                    Goal::Win => p.line.first().copied(),
+                    Goal::Defend => p.first_moves.first().copied(),
                 };
-                for m in mine {
-                    if s.board().get(m).is_some() {
-                        break; // The reply differed from the stored line and took the point.
-                    }
+                for _ in 0..40 {
+                    let Some(m) = next else { break };
                     let t = Instant::now();
                     let g = s.play(&mut solver, m);
                     times.push(t.elapsed());
@@ -97,6 +96,16 @@ fn main() {
                         Grade::Solved { .. } => break,
                         other => panic!("{}: {m} graded {other:?}", p.id),
                     }
+                    let k = s.history().len();
+                    next = match p.line.get(k) {
+                        Some(&l) if s.history().iter().zip(&p.line).all(|(h, &x)| h.0 == x) => {
+                            Some(l)
+                        }
+                        _ => match s.hint(&mut solver, 3) {
+                            Some(Hint::Move(h)) => Some(h),
+                            _ => None,
+                        },
+                    };
                 }
                 // One wrong move: the first empty neighbour of the key move that is not correct.
                 s.retry();

@@ -14,7 +14,7 @@ use std::fmt;
 
 use crate::bitset::CellSet;
 use crate::geometry::{Direction, Point, Symmetry, MAX_SIDE};
-use crate::patterns::{self, LineInfo, LineShape, ShapeTable, BLOCKED, OWN, POW3};
+use crate::patterns::{self, LineInfo, LineShape, ShapeTable, BLOCKED, OWN};
 use crate::rules::Rule;
 
 /// Wall cells on each side of the board.
@@ -171,6 +171,8 @@ const FLAG_OF: [u8; 16] = {
 #[derive(Clone)]
 struct Shapes {
     tables: [&'static ShapeTable; 2],
+    /// Per point of view, per stone colour, per slot: what a stone adds to the key.
+    deltas: [[[u16; patterns::SLOTS]; 2]; 2],
     cells: Vec<CellShapes>,
     /// Per colour, per flag kind: the empty points with that flag.
     sets: [[CellSet; threat::KINDS]; 2],
@@ -190,6 +192,8 @@ pub struct Board {
     /// On-board point index (`y * 19 + x`) of each symmetry's image, per padded cell.
     images: Vec<[u16; 8]>,
     symmetries: u8,
+    /// Whether every symmetry's hash is kept up to date (see `all_hashes`).
+    track_symmetries: bool,
     hashes: [u64; 8],
     counts: [u16; 2],
     shapes: Option<Box<Shapes>>,
@@ -258,6 +262,7 @@ impl Board {
             cells,
             images,
             symmetries,
+            track_symmetries: k != 5,
             hashes: [0; 8],
             counts: [0; 2],
             shapes: None,
@@ -276,8 +281,18 @@ impl Board {
             table_for(self.rule, Stone::Black),
             table_for(self.rule, Stone::White),
         ];
+        let mut deltas = [[[0u16; patterns::SLOTS]; 2]; 2];
+        for (view, per_stone) in deltas.iter_mut().enumerate() {
+            for (stone, per_slot) in per_stone.iter_mut().enumerate() {
+                let digit = if view == stone { OWN } else { BLOCKED };
+                for (slot, d) in per_slot.iter_mut().enumerate() {
+                    *d = tables[view].weight(slot, digit);
+                }
+            }
+        }
         let mut s = Shapes {
             tables,
+            deltas,
             cells: vec![CellShapes::default(); n],
             sets: [[CellSet::new(); threat::KINDS]; 2],
         };
@@ -288,10 +303,10 @@ impl Board {
             for c in Stone::ALL {
                 for d in 0..4 {
                     let mut key = 0u16;
-                    for (slot, weight) in POW3.iter().enumerate() {
+                    for slot in 0..patterns::SLOTS {
                         let off = patterns::offset_of(slot) as isize;
                         let q = (idx as isize + off * self.dirs[d]) as usize;
-                        key += digit(self.cells[q], c) * weight;
+                        key += s.tables[c.index()].weight(slot, digit(self.cells[q], c));
                     }
                     s.cells[idx].keys[c.index()][d] = key;
                 }
@@ -461,9 +476,10 @@ impl Board {
     /// `c` on the empty cell `idx`.
     pub fn canonical_hash_after(&self, idx: usize, c: Stone) -> u64 {
         let z = &ZOBRIST[c.index()];
+        let hashes = self.all_hashes();
         (0..8)
             .filter(|i| self.symmetries >> i & 1 == 1)
-            .map(|i| self.hashes[i] ^ z[self.images[idx][i] as usize])
+            .map(|i| hashes[i] ^ z[self.images[idx][i] as usize])
             .min()
             .unwrap_or(0)
     }
@@ -472,25 +488,27 @@ impl Board {
     pub fn hash_under(&self, s: Symmetry) -> u64 {
         let i = Symmetry::ALL.iter().position(|&t| t == s).unwrap_or(0);
         debug_assert!(self.symmetries >> i & 1 == 1);
-        self.hashes[i]
+        self.all_hashes()[i]
     }
 
     /// The smallest hash over every symmetry of the board: equal for positions that are the
     /// same up to rotation and reflection.
     pub fn canonical_hash(&self) -> u64 {
+        let hashes = self.all_hashes();
         (0..8)
             .filter(|i| self.symmetries >> i & 1 == 1)
-            .map(|i| self.hashes[i])
+            .map(|i| hashes[i])
             .min()
-            .unwrap_or(self.hashes[0])
+            .unwrap_or(hashes[0])
     }
 
     /// The symmetry whose image has the canonical hash (the first such, in [`Symmetry::ALL`]
     /// order).
     pub fn canonical_symmetry(&self) -> Symmetry {
         let best = self.canonical_hash();
+        let hashes = self.all_hashes();
         (0..8)
-            .find(|&i| self.symmetries >> i & 1 == 1 && self.hashes[i] == best)
+            .find(|&i| self.symmetries >> i & 1 == 1 && hashes[i] == best)
             .map(|i| Symmetry::ALL[i])
             .unwrap_or(Symmetry::Identity)
     }
@@ -557,11 +575,36 @@ impl Board {
     fn toggle_hash(&mut self, idx: usize, c: Stone) {
         let img = &self.images[idx];
         let z = &ZOBRIST[c.index()];
+        if !self.track_symmetries {
+            self.hashes[0] ^= z[img[0] as usize];
+            return;
+        }
         for i in 0..8 {
             if self.symmetries >> i & 1 == 1 {
                 self.hashes[i] ^= z[img[i] as usize];
             }
         }
+    }
+
+    /// The hashes under every symmetry: kept up to date on small m,n,k boards (the exact
+    /// solver asks for them at every node), recomputed from the stones on gomoku boards (asked
+    /// for rarely, and not worth eight updates per move on the search's hot path).
+    fn all_hashes(&self) -> [u64; 8] {
+        if self.track_symmetries {
+            return self.hashes;
+        }
+        let mut h = [0u64; 8];
+        for idx in self.indices() {
+            if let Some(c) = self.stone_at(idx) {
+                let z = &ZOBRIST[c.index()];
+                for (i, hv) in h.iter_mut().enumerate() {
+                    if self.symmetries >> i & 1 == 1 {
+                        *hv ^= z[self.images[idx][i] as usize];
+                    }
+                }
+            }
+        }
+        h
     }
 
     /// Adds (or removes) the digits of a stone at `idx` to the keys of the 40 cells whose
@@ -582,7 +625,7 @@ impl Board {
                     }
                     let empty = cell == EMPTY;
                     for ci in 0..2 {
-                        let delta = if ci == c.index() { OWN } else { BLOCKED } * POW3[slot];
+                        let delta = s.deltas[ci][c.index()][slot];
                         let cs = &mut s.cells[q];
                         let key = &mut cs.keys[ci][d];
                         if add {
@@ -721,7 +764,7 @@ impl Board {
                 rebuilt.place(p, c);
             }
         }
-        if rebuilt.hashes != self.hashes {
+        if rebuilt.all_hashes() != self.all_hashes() || rebuilt.hashes[0] != self.hashes[0] {
             return Err("hashes differ from a rebuild".into());
         }
         if let Some(s) = &self.shapes {

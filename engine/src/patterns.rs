@@ -195,24 +195,63 @@ impl LineInfo {
     }
 }
 
-/// The shape table for one way of counting fives.
+/// The shape table for one way of counting fives, indexed by a compact key.
+///
+/// The table is derived from the full 3^10 classification, but the board keeps shorter keys:
+/// the two cells five points away only ever matter as "own stone or not" (an own stone there
+/// turns a five into an overline, or spoils a straight four's end), and under five-or-more
+/// rules not at all. So the key is the eight inner cells in base 3 plus, for exact-five rules,
+/// one bit for each outer cell: 26,244 entries for exact fives and 6,561 for five or more,
+/// small enough to stay in the processor's nearest caches on the hot path.
 pub struct ShapeTable {
+    exact: bool,
     entries: Vec<LineInfo>,
-    /// The shape alone, one byte per key: small enough to stay in cache on the hot path.
+    /// The shape alone, one byte per compact key.
     shapes: Vec<u8>,
+    /// The key weight of each slot for an own stone and for a blocked cell.
+    own: [u16; SLOTS],
+    blocked: [u16; SLOTS],
 }
 
+/// Number of inner slots (offsets -4..=-1 and 1..=4) in a compact key.
+const INNER: u16 = 6561;
+
 impl ShapeTable {
-    /// The entry for a key.
+    /// The entry for a compact key.
     #[inline]
     pub fn get(&self, key: u16) -> LineInfo {
         self.entries[key as usize]
     }
 
-    /// The shape number ([`LineShape`] as `u8`) for a key.
+    /// The shape number ([`LineShape`] as `u8`) for a compact key.
     #[inline]
     pub fn shape_of(&self, key: u16) -> u8 {
         self.shapes[key as usize]
+    }
+
+    /// How much a cell in `slot` adds to a compact key: for an own stone (`OWN`), a blocked cell
+    /// (`BLOCKED`) or an empty one.
+    #[inline]
+    pub fn weight(&self, slot: usize, digit: u16) -> u16 {
+        match digit {
+            OWN => self.own[slot],
+            BLOCKED => self.blocked[slot],
+            _ => 0,
+        }
+    }
+
+    /// The compact key of a full ten-digit key.
+    pub fn compact(&self, full: u16) -> u16 {
+        digits(full)
+            .iter()
+            .enumerate()
+            .map(|(slot, &d)| self.weight(slot, d))
+            .sum()
+    }
+
+    /// Whether this is the exact-five table.
+    pub fn is_exact(&self) -> bool {
+        self.exact
     }
 
     fn build(exact: bool) -> ShapeTable {
@@ -223,14 +262,50 @@ impl ShapeTable {
             let own = digits(key).iter().filter(|&&d| d == OWN).count();
             by_own[own].push(key);
         }
-        let mut entries = vec![LineInfo::default(); KEYS];
+        let mut full = vec![LineInfo::default(); KEYS];
         for keys in by_own.iter().rev() {
             for &key in keys {
-                entries[key as usize] = classify(key, exact, &entries);
+                full[key as usize] = classify(key, exact, &full);
             }
         }
-        let shapes = entries.iter().map(|e| e.shape() as u8).collect();
-        ShapeTable { entries, shapes }
+        // Weights: inner slots in base 3 (in slot order, skipping the outer two), outer slots one
+        // bit each for an own stone under exact fives, nothing otherwise.
+        let mut own = [0u16; SLOTS];
+        let mut blocked = [0u16; SLOTS];
+        let mut power = 1u16;
+        for slot in 0..SLOTS {
+            let off = offset_of(slot);
+            if off.abs() == 5 {
+                continue;
+            }
+            own[slot] = power;
+            blocked[slot] = 2 * power;
+            power *= 3;
+        }
+        if exact {
+            own[slot_of(-5)] = INNER;
+            own[slot_of(5)] = 2 * INNER;
+        }
+        let size = if exact {
+            4 * INNER as usize
+        } else {
+            INNER as usize
+        };
+        let mut table = ShapeTable {
+            exact,
+            entries: vec![LineInfo::default(); size],
+            shapes: vec![0; size],
+            own,
+            blocked,
+        };
+        // Every full key maps onto its compact key; the outer cells' "not own" states (empty or
+        // blocked) classify alike, which the tests check over all keys.
+        for key in 0..KEYS as u16 {
+            let c = table.compact(key) as usize;
+            table.entries[c] = full[key as usize];
+        }
+        table.shapes = table.entries.iter().map(|e| e.shape() as u8).collect();
+        table
     }
 }
 
@@ -457,7 +532,7 @@ mod tests {
                     }
                 }
                 let want = brute(&mut cells, exact);
-                let got = table.get(key).shape();
+                let got = table.get(table.compact(key)).shape();
                 // The brute force does not look for twos; everything else must match exactly.
                 let got = if got == LineShape::Two {
                     LineShape::None
@@ -471,7 +546,7 @@ mod tests {
 
     fn shape(picture: &str, exact: bool) -> LineShape {
         let t = if exact { exact_table() } else { free_table() };
-        t.get(key_from_picture(picture)).shape()
+        t.get(t.compact(key_from_picture(picture))).shape()
     }
 
     // Shapes against the definitions of Allis, van den Herik and Huntjens (1993), "Go-Moku and

@@ -557,16 +557,17 @@ fn refused_move_in_a_game_changes_nothing() {
 // The engine against a direct reading of the rules.
 
 /// A direct, slow reading of the RIF clauses quoted at the top of this file, written without
-/// the engine's shape tables or incremental state: it scans the stones around the point.
-mod reading {
+/// the engine's shape tables or incremental state: it scans the stones around the point. The
+/// solver referee (`referee`) reuses it for renju legality.
+pub(crate) mod reading {
     use engine::{Board, Forbidden, Point, Stone};
 
     const STEPS: [(i32, i32); 4] = [(1, 0), (0, 1), (1, 1), (1, -1)];
 
     pub struct Grid {
-        n: i32,
+        pub n: i32,
         /// 0 empty, 1 black, 2 white.
-        cells: Vec<u8>,
+        pub cells: Vec<u8>,
     }
 
     impl Grid {

@@ -62,11 +62,14 @@ impl fmt::Display for ResultError {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
             ResultError::BadCharacter(c) => write!(f, "'{c}' cannot appear in a result code"),
-            ResultError::Damaged => f.write_str(
-                "this result code does not check out: a character is wrong or missing",
-            ),
+            ResultError::Damaged => {
+                f.write_str("this result code does not check out: a character is wrong or missing")
+            }
             ResultError::NewerVersion(v) => {
-                write!(f, "this result code was made by a newer version of Fivefold ({v})")
+                write!(
+                    f,
+                    "this result code was made by a newer version of Fivefold ({v})"
+                )
             }
         }
     }
@@ -196,7 +199,11 @@ pub fn decode(code: &str) -> Result<Results, ResultError> {
             _ => Outcome::Failed,
         })
         .collect();
-    Ok(Results { set, name, outcomes })
+    Ok(Results {
+        set,
+        name,
+        outcomes,
+    })
 }
 
 #[cfg(test)]
@@ -205,7 +212,13 @@ mod tests {
 
     #[test]
     fn round_trips_and_reads_forgivingly() {
-        let outs = [Outcome::Clean, Outcome::Failed, Outcome::Helped, Outcome::Untried, Outcome::Clean];
+        let outs = [
+            Outcome::Clean,
+            Outcome::Failed,
+            Outcome::Helped,
+            Outcome::Untried,
+            Outcome::Clean,
+        ];
         let code = encode(0xDEAD_BEEF, "Mira of Harbour Street", &outs);
         let r = decode(&code).unwrap();
         assert_eq!(r.set, 0xDEAD_BEEF);

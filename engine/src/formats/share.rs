@@ -179,7 +179,9 @@ impl Reader<'_> {
             };
             let (x, y) = (i % size as u16, i / size as u16);
             if y >= size as u16 {
-                return Err(ShareError::Invalid(format!("a point lies off the {size}x{size} board")));
+                return Err(ShareError::Invalid(format!(
+                    "a point lies off the {size}x{size} board"
+                )));
             }
             out.push(Point::new(x as u8, y as u8));
         }
@@ -190,10 +192,16 @@ impl Reader<'_> {
 /// Decodes a share code. Surrounding white space is ignored; nothing else is forgiven.
 pub fn decode(code: &str) -> Result<PuzzleSet, ShareError> {
     let code = code.trim();
-    if code.len() < 8 || !code.bytes().all(|c| c.is_ascii_alphanumeric() || c == b'-' || c == b'_') {
+    if code.len() < 8
+        || !code
+            .bytes()
+            .all(|c| c.is_ascii_alphanumeric() || c == b'-' || c == b'_')
+    {
         return Err(ShareError::NotACode);
     }
-    let bytes = URL_SAFE_NO_PAD.decode(code).map_err(|_| ShareError::Damaged)?;
+    let bytes = URL_SAFE_NO_PAD
+        .decode(code)
+        .map_err(|_| ShareError::Damaged)?;
     if bytes.len() < 5 {
         return Err(ShareError::Damaged);
     }
@@ -227,7 +235,11 @@ pub fn decode(code: &str) -> Result<PuzzleSet, ShareError> {
             2 => Rule::Renju,
             _ => return Err(ShareError::Invalid("unknown rule".into())),
         };
-        let to_move = if bits >> 2 & 1 == 0 { Stone::Black } else { Stone::White };
+        let to_move = if bits >> 2 & 1 == 0 {
+            Stone::Black
+        } else {
+            Stone::White
+        };
         let theme = *Theme::ALL
             .get((bits >> 3) as usize)
             .ok_or_else(|| ShareError::Invalid("unknown theme".into()))?;
@@ -242,12 +254,29 @@ pub fn decode(code: &str) -> Result<PuzzleSet, ShareError> {
         let white = r.points(size)?;
         let first_moves = r.points(size)?;
         let line = r.points(size)?;
-        puzzles.push(Puzzle { id, rule, size, to_move, black, white, theme, first_moves, line, length, rating });
+        puzzles.push(Puzzle {
+            id,
+            rule,
+            size,
+            to_move,
+            black,
+            white,
+            theme,
+            first_moves,
+            line,
+            length,
+            rating,
+        });
     }
     if r.at != raw.len() {
         return Err(ShareError::Damaged);
     }
-    let set = PuzzleSet { title, created, puzzles, generator: None };
+    let set = PuzzleSet {
+        title,
+        created,
+        puzzles,
+        generator: None,
+    };
     // The set file's checks, for one set of rules about what a valid set is.
     setfile::parse(&setfile::to_json(&set)).map_err(|e| ShareError::Invalid(e.to_string()))
 }
@@ -270,7 +299,9 @@ mod tests {
     fn round_trips() {
         let set = sample();
         let code = encode(&set);
-        assert!(code.bytes().all(|c| c.is_ascii_alphanumeric() || c == b'-' || c == b'_'));
+        assert!(code
+            .bytes()
+            .all(|c| c.is_ascii_alphanumeric() || c == b'-' || c == b'_'));
         assert_eq!(decode(&code).unwrap(), set);
         assert_eq!(decode(&format!("  {code}\n")).unwrap(), set);
     }

@@ -295,8 +295,9 @@ fn analyse_win(solver: &mut Solver, board: &Board, me: Stone, theme: Theme) -> O
         }
         Theme::Vct | Theme::Defend => {}
     }
-    let wins = solver.winning_moves(board, me, mode);
-    if !wins.unknown.is_empty() || wins.proved.is_empty() {
+    // More than three correct answers make a poor puzzle: stop counting there.
+    let wins = solver.winning_moves_up_to(board, me, mode, 3);
+    if !wins.unknown.is_empty() || wins.proved.is_empty() || wins.proved.len() > 3 {
         return None;
     }
     let mut first_moves = wins.proved.clone();

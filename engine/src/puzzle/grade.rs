@@ -215,7 +215,10 @@ impl Session {
             verdict = solver.wins_after(&self.board, me, them, Mode::Vct, None).0;
         }
         if verdict == Verdict::Win {
-            let reply = self.longest_defence(solver, me, mode);
+            let reply = match self.stored_reply(solver, me, mode) {
+                Some(r) => r,
+                None => self.longest_defence(solver, me, mode),
+            };
             self.put(reply.0, them);
             return Grade::Accepted {
                 reply: reply.0,
@@ -231,6 +234,58 @@ impl Session {
         }
         self.state = State::Failed;
         Grade::Wrong { refutation, reason }
+    }
+
+    /// While the player follows the stored main line, the defender answers as the line does
+    /// (so that play matches the answer key), provided that reply is one the defender could
+    /// make: the block of a four, or one of the replies the search considers.
+    fn stored_reply(
+        &mut self,
+        solver: &mut Solver,
+        me: Stone,
+        mode: Mode,
+    ) -> Option<(Point, String)> {
+        let line = &self.puzzle.line;
+        let n = self.history.len();
+        if n >= line.len() || self.history.iter().zip(line).any(|(h, &l)| h.0 != l) {
+            return None;
+        }
+        let r = line[n];
+        if self.board.get(r).is_some() {
+            return None;
+        }
+        let them = me.opponent();
+        let t = capitalised(them);
+        let fives: Vec<Point> = self
+            .board
+            .cells_with(me, threat::FIVE)
+            .iter()
+            .map(|i| self.board.point(i))
+            .collect();
+        let idx = self.board.index(r);
+        let makes_four = self.board.flags_at(idx, them) & threat::FOUR != 0;
+        if !fives.is_empty() {
+            if !fives.contains(&r) {
+                return None;
+            }
+            let note = if fives.len() >= 2 {
+                format!("{t} blocks at {r}, but cannot block both ends.")
+            } else if makes_four {
+                format!("{t} blocks at {r} and makes a four of its own.")
+            } else {
+                format!("{t} blocks at {r}.")
+            };
+            return Some((r, note));
+        }
+        if !solver.defender_replies(&self.board, me, mode).contains(&r) {
+            return None;
+        }
+        let note = if makes_four {
+            format!("{t} answers at {r} with a four.")
+        } else {
+            format!("{t} defends at {r}.")
+        };
+        Some((r, note))
     }
 
     /// The defender's reply after an attacking move that keeps the win: the one after which the

@@ -52,7 +52,7 @@ impl Default for SolverConfig {
             table_megabytes: 24,
             vcf_table_megabytes: 8,
             node_limit: 1_000_000,
-            vcf_node_limit: 20_000,
+            vcf_node_limit: 100_000,
             vct_depth: 6,
         }
     }
@@ -184,6 +184,9 @@ pub struct ProofStep {
     /// When replies were left out because they cannot stop it: the attacker's VCF that wins
     /// against all of them (as if the defender had passed).
     pub otherwise: Vec<Point>,
+    /// Replies whose refutation could not be shown within the step budget (or, if the budget
+    /// was ample, a sign of a bug): never silently dropped.
+    pub unrefuted: Vec<Point>,
 }
 
 /// A stop signal polled during long searches: return `true` to stop.
@@ -402,6 +405,18 @@ impl Solver {
 
     /// Every first move with which `to_move` wins by `mode`, among the moves of that class.
     pub fn winning_moves(&mut self, board: &Board, to_move: Stone, mode: Mode) -> MoveSets {
+        self.winning_moves_up_to(board, to_move, mode, usize::MAX)
+    }
+
+    /// [`Solver::winning_moves`], stopping as soon as more than `limit` winning moves are
+    /// proved (then `proved` holds `limit + 1` of them and the rest are not tried).
+    pub fn winning_moves_up_to(
+        &mut self,
+        board: &Board,
+        to_move: Stone,
+        mode: Mode,
+        limit: usize,
+    ) -> MoveSets {
         let mut b = board.clone();
         let mut out = MoveSets::default();
         let fives: Vec<usize> = b.cells_with(to_move, threat::FIVE).iter().collect();
@@ -426,18 +441,23 @@ impl Solver {
             }
         }
         let depth = self.depth_for(mode);
+        let forced = !b.cells_with(to_move.opponent(), threat::FIVE).is_empty();
         out.tried = cands.len();
         for m in cands {
             let m = m as usize;
+            if out.proved.len() > limit {
+                break;
+            }
+            // The depth the search itself gives the child: fours and forced blocks are free in
+            // a VCT, every move counts in a depth-limited VCF.
+            let four = b.flags_at(m, to_move) & threat::FOUR != 0;
+            let child_depth = if depth == UNLIMITED || (mode == Mode::Vct && (four || forced)) {
+                depth
+            } else {
+                depth.saturating_sub(1)
+            };
             b.place_at(m, to_move);
-            let (s, n) = self.run(
-                &mut b,
-                to_move,
-                to_move.opponent(),
-                mode,
-                depth.saturating_sub(1),
-                None,
-            );
+            let (s, n) = self.run(&mut b, to_move, to_move.opponent(), mode, child_depth, None);
             b.remove_at(m);
             out.nodes += n;
             match s {
@@ -701,6 +721,7 @@ impl Solver {
             five,
             replies: Vec::new(),
             otherwise: Vec::new(),
+            unrefuted: Vec::new(),
         };
         if five {
             return Some(step);
@@ -729,6 +750,8 @@ impl Solver {
             b.place_at(r, defender);
             if let Some(sub) = self.proof_step(b, attacker, mode, budget) {
                 step.replies.push((b.point(r), sub));
+            } else {
+                step.unrefuted.push(b.point(r));
             }
             b.remove_at(r);
         }
@@ -846,14 +869,20 @@ fn finish(sp: &mut ThreatSpace, attacker: Stone, line: &mut Vec<u16>, played: &m
     }
     let defender = attacker.opponent();
     let board = &mut *sp.board;
-    let reply = if fives.len() >= 2 {
-        Some(first)
+    // The defender blocks a five point it may legally take; if it may take none (renju black
+    // facing forbidden points), it plays its legal point nearest to the first.
+    let legal_block = fives.iter().copied().find(|&f| {
+        board.flags_at(f as usize, defender) & threat::FIVE != 0
+            || board.legal_at(f as usize, defender)
+    });
+    let reply = if let Some(b) = legal_block.filter(|_| fives.len() >= 2) {
+        Some(b)
     } else {
-        // The defender cannot block (the point is forbidden for it): show its nearest legal move.
+        // The defender cannot block: show its nearest legal move.
         let fp = board.point(first as usize);
         let mut cands: Vec<(u32, usize)> = board
             .indices()
-            .filter(|&i| board.is_empty_at(i) && i != first as usize)
+            .filter(|&i| board.is_empty_at(i) && !fives.contains(&(i as u16)))
             .map(|i| {
                 let p = board.point(i);
                 let d = (p.x as i32 - fp.x as i32)

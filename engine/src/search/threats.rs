@@ -11,9 +11,10 @@
 //! **VCT.** The attacker also plays threes, broken threes and closed threes (moves that create a
 //! new four) after which it would win by VCF if the defender passed; a defender four must be
 //! blocked (by any move). At the defender's turn, after a non-four threat, the attacker's VCF
-//! `P` (found as if the defender passed) is the threat to stop. The replies searched are the
-//! defender's fours, every point of `P`, and every point where a defender stone could change
-//! `P`'s outcome: under freestyle and standard, the points that together with `P`'s defender
+//! `P` (found as if the defender passed) is the threat to stop; a defender with a VCF of its own
+//! wins at once. The replies searched are all the defender's fours (each gains a tempo, after
+//! which the defender moves again), every point of `P`, and every point where a defender stone
+//! could change `P`'s outcome: under freestyle and standard, the points that together with `P`'s defender
 //! stones could give the defender a five; under renju, where a stone can change which points
 //! are forbidden far away, every empty point whose stone makes `P` fail when `P` is replayed.
 //! Every other reply leaves `P` a valid VCF, so the attacker still wins: the set is never
@@ -38,6 +39,10 @@ pub enum Mode {
 
 /// A depth that never runs out.
 pub const UNLIMITED: u16 = u16::MAX;
+
+/// How many of the attacker's latest threats a new threat may depend on (see
+/// `ThreatSpace::dependent`).
+pub const RECENT: usize = 2;
 
 /// The longest VCF (in fours before the five) that turns a quiet move into a VCT threat. A
 /// move that makes neither a four nor a three is a threat when the attacker would then win by
@@ -76,8 +81,8 @@ pub(crate) fn side_key(c: Stone) -> u64 {
     }
 }
 
-/// The key of a stone in the set of attacker stones played since the root (VCT only: the VCF
-/// generator does not look at the set, so its keys leave it out).
+/// The key of the attacker's last threat (VCT only: the VCF generator does not look at it, so
+/// its keys leave it out).
 #[inline]
 fn played_key(m: u16) -> u64 {
     splitmix(0x91A7_0000_0000 + m as u64)
@@ -182,7 +187,6 @@ impl VcfOracle {
         let mut dfpn = Dfpn::new(&mut self.tt, self.node_limit, None);
         let status = dfpn.solve(&mut sp);
         self.nodes += dfpn.nodes;
-
         match status {
             Status::Proved => {
                 let line = vcf_line(&mut dfpn, &mut sp, self.node_limit);
@@ -197,6 +201,18 @@ impl VcfOracle {
                 None
             }
         }
+    }
+}
+
+impl VcfOracle {
+    /// Whether `attacker` (to move) has a VCF, as a shortcut only: `Unknown` does not make the
+    /// oracle inexact, so a caller must not rely on a "no" from here.
+    pub fn has_vcf(&mut self, board: &mut Board, attacker: Stone) -> bool {
+        let mut sp = ThreatSpace::new(board, attacker, attacker, Mode::Vcf, UNLIMITED, None);
+        let mut dfpn = Dfpn::new(&mut self.tt, self.node_limit, None);
+        let status = dfpn.solve(&mut sp);
+        self.nodes += dfpn.nodes;
+        status == Status::Proved
     }
 }
 
@@ -264,10 +280,10 @@ pub(crate) struct ThreatSpace<'b> {
     depth: u16,
     salt: u64,
     trail: Vec<u16>,
-    /// The attacker's stones played since the root of the search, and a hash of that set: the
-    /// dependency rule makes a node's moves depend on it, so it is part of every key.
-    played: Vec<u16>,
-    played_hash: u64,
+    /// The attacker's moves since the root of the search, each marked whether it was a threat
+    /// (not a forced block). The dependency rule makes a node's moves depend on the last
+    /// threat, so that is part of every key.
+    played: Vec<(u16, bool)>,
     oracle: Option<&'b mut VcfOracle>,
 }
 
@@ -291,7 +307,6 @@ impl<'b> ThreatSpace<'b> {
             salt,
             trail: Vec::new(),
             played: Vec::new(),
-            played_hash: 0,
             oracle,
         }
     }
@@ -454,21 +469,59 @@ impl<'b> ThreatSpace<'b> {
         found
     }
 
-    /// Whether a VCT candidate depends on the attacker's earlier moves in this line: at the root
-    /// every threat may start a line; after that a threat must share a line, within four
-    /// points, with a stone the attacker has played since the root. This is the dependency
-    /// requirement of threat-space search (Allis, van den Herik and Huntjens 1993): a threat
-    /// that shares nothing with the earlier ones could have been played first.
+    /// Whether a VCT candidate depends on the attacker's recent threats: at the root every
+    /// threat may start a line; after that a threat must share a line, within four points, with
+    /// one of the attacker's last [`RECENT`] threats. This is the dependency requirement of
+    /// threat-space search (Allis, van den Herik and Huntjens 1993), bounded to recent threats
+    /// so that a node's moves depend on little of the path (which is part of the key).
     fn dependent(&self, c: usize) -> bool {
-        if self.played.is_empty() {
+        let recent = self.recent_threats();
+        if recent.is_empty() {
             return true;
         }
         let p = self.board.point(c);
-        self.played.iter().any(|&m| {
+        recent.iter().any(|&m| {
             let q = self.board.point(m as usize);
             let (dx, dy) = (q.x as i32 - p.x as i32, q.y as i32 - p.y as i32);
             (dx == 0 || dy == 0 || dx.abs() == dy.abs()) && dx.abs().max(dy.abs()) <= 4
         })
+    }
+
+    /// The attacker's last [`RECENT`] threats since the root, newest first.
+    #[inline]
+    fn recent_threats(&self) -> Vec<u16> {
+        self.played
+            .iter()
+            .rev()
+            .filter(|x| x.1)
+            .take(RECENT)
+            .map(|x| x.0)
+            .collect()
+    }
+
+    /// The key of the recent threats (their order does not matter to the rule).
+    #[inline]
+    fn recent_key(&self) -> u64 {
+        self.recent_threats()
+            .iter()
+            .fold(0, |k, &m| k ^ played_key(m))
+    }
+
+    /// The recent-threat key after the attacker's threat `m`.
+    #[inline]
+    fn recent_key_after(&self, m: u16) -> u64 {
+        let mut r = self.recent_threats();
+        r.truncate(RECENT - 1);
+        r.iter().fold(played_key(m), |k, &x| k ^ played_key(x))
+    }
+
+    /// Whether the attacker, to move, is forced to block a defender four.
+    #[inline]
+    fn forced(&self) -> bool {
+        !self
+            .board
+            .cells_with(self.attacker.opponent(), threat::FIVE)
+            .is_empty()
     }
 
     /// Whether a move on `c` makes a three that the attacker can legally turn into a straight
@@ -555,6 +608,11 @@ impl<'b> ThreatSpace<'b> {
             return Node::Loss;
         }
         let oracle = self.oracle.as_deref_mut().expect("VCT needs an oracle");
+        // Facing a threat that is not a four, a defender with a VCF of its own simply wins: the
+        // attacker can only answer its fours.
+        if oracle.has_vcf(self.board, d) {
+            return Node::Loss;
+        }
         // The shortest threat gives the defender the fewest replies to try; both are sound.
         let short = oracle.find(self.board, a, THREAT_FOURS);
         let line = short.or_else(|| oracle.find(self.board, a, UNLIMITED));
@@ -607,7 +665,7 @@ impl Space for ThreatSpace<'_> {
             ^ self.salt
             ^ side_key(self.to_move)
             ^ depth_key(self.depth)
-            ^ self.played_hash
+            ^ self.recent_key()
     }
 
     #[inline]
@@ -616,11 +674,10 @@ impl Space for ThreatSpace<'_> {
             ^ self.salt
             ^ side_key(self.to_move.opponent())
             ^ depth_key(self.depth_after(m))
-            ^ self.played_hash
-            ^ if self.to_move == self.attacker && self.mode == Mode::Vct {
-                played_key(m)
+            ^ if self.to_move == self.attacker && self.mode == Mode::Vct && !self.forced() {
+                self.recent_key_after(m)
             } else {
-                0
+                self.recent_key()
             }
     }
 
@@ -638,8 +695,8 @@ impl Space for ThreatSpace<'_> {
         self.trail.push(self.depth);
         self.depth = next;
         if self.to_move == self.attacker && self.mode == Mode::Vct {
-            self.played.push(m);
-            self.played_hash ^= played_key(m);
+            let threat = !self.forced();
+            self.played.push((m, threat));
         }
         self.board.place_at(m as usize, self.to_move);
         self.to_move = self.to_move.opponent();
@@ -652,7 +709,6 @@ impl Space for ThreatSpace<'_> {
         self.depth = self.trail.pop().unwrap_or(self.depth);
         if self.to_move == self.attacker && self.mode == Mode::Vct {
             self.played.pop();
-            self.played_hash ^= played_key(m);
         }
     }
 }
@@ -670,13 +726,11 @@ pub(crate) fn defence_candidates(board: &mut Board, attacker: Stone, line: &VcfL
             out.push(m as u16);
         }
     };
-    // The defender's own fours gain a tempo: the attacker must block, and the pair of stones
-    // may spoil the line. Keep those after which the line, replayed, no longer wins.
+    // The defender's own fours gain a tempo: the attacker must block, and then the defender
+    // moves again with two more stones on the board, so every one of them is a reply to try.
     let fours: Vec<usize> = board.cells_with(d, threat::FOUR).iter().collect();
     for c in fours {
-        if !counter_four_fails(board, attacker, line, c) {
-            push(c, &mut mark, &mut out);
-        }
+        push(c, &mut mark, &mut out);
     }
     // Every point of the line and every final five point.
     for &m in line.moves.iter().chain(line.fives.iter()) {
@@ -761,34 +815,6 @@ pub(crate) fn defence_candidates(board: &mut Board, attacker: Stone, line: &VcfL
         }
     }
     out
-}
-
-/// Whether a defender four on `c` fails to stop the VCF `line`: the attacker blocks the four
-/// and the line, replayed with both stones, still wins. A four that makes two five points, or
-/// whose block the attacker may not play, is never dismissed.
-pub(crate) fn counter_four_fails(
-    board: &mut Board,
-    attacker: Stone,
-    line: &VcfLine,
-    c: usize,
-) -> bool {
-    let d = attacker.opponent();
-    if board.flags_at(c, d) & threat::FIVE != 0 || !board.legal_at(c, d) {
-        return false;
-    }
-    board.place_at(c, d);
-    let fives = *board.cells_with(d, threat::FIVE);
-    let result = match (fives.len(), fives.first()) {
-        (1, Some(b)) if board.legal_at(b, attacker) => {
-            board.place_at(b, attacker);
-            let ok = replay(board, attacker, line);
-            board.remove_at(b);
-            ok
-        }
-        _ => false,
-    };
-    board.remove_at(c);
-    result
 }
 
 /// Whether the VCF `line` still wins for `attacker` after a defender stone on `m`, replaying it
