@@ -1,69 +1,215 @@
-// Fivefold play board: loads the engine and forwards the page's events to it.
-// The rules, the drawing and every sentence shown come from Rust; this file only passes
-// events in and writes the returned text out (always as text, never as markup).
+// Fivefold in the browser: starts the engine, loads saved progress, and wires the three screens
+// (Tonight, Drill, Study board), the settings, backups, share links and offline support.
+// The rules, the grading, the drawing and every sentence about the game come from Rust; these
+// scripts pass events in and write the returned text out, always as text, never as markup.
 
-import init, { Session } from './pkg/fivefold_web.js';
+import { SERVED, startEngine } from './platform.js';
+import { load, makeBackup, onStorageEvents, readBackup, save } from './store.js';
+import { Tonight, checkSets, checkTonight } from './tonight.js';
+import { Drill, checkDrill } from './drill.js';
+import { Study, checkStudy } from './study.js';
+import { $, banner, clearBanner, download } from './ui.js';
 
-const $ = (id) => document.getElementById(id);
-const canvas = $('board');
-const status = $('status');
-const note = $('note');
-const log = $('log');
-const rule = $('rule');
+const SCREENS = ['tonight', 'drill', 'study'];
+const DEFAULT_SETTINGS = { confirm: true, forbidden: true, numbers: false, screen: 'tonight' };
 
-// The log keeps this many lines; older ones are dropped.
-const KEEP = 300;
-// Replies whose last sentence is also shown beside the board.
-const NOTED = new Set(['refused', 'won', 'drawn', 'nothing']);
-
-function say(line) {
-  const item = document.createElement('li');
-  item.textContent = line;
-  log.append(item);
-  while (log.childElementCount > KEEP) log.firstElementChild.remove();
-  log.scrollTop = log.scrollHeight;
+function checkSettings(d) {
+  if (!d || typeof d !== 'object') return 'it is empty';
+  for (const k of ['confirm', 'forbidden', 'numbers']) {
+    if (typeof d[k] !== 'boolean') return `the setting "${k}" is not on or off`;
+  }
+  if (!SCREENS.includes(d.screen)) return 'the screen is unknown';
+  return null;
 }
 
-function show(reply) {
-  if (!reply) return;
-  for (const line of reply.say) say(line);
-  status.textContent = reply.status;
-  if (NOTED.has(reply.kind)) {
-    note.textContent = reply.say[reply.say.length - 1];
-    note.dataset.kind = reply.kind;
-    note.hidden = false;
-  } else {
-    note.textContent = '';
-    note.hidden = true;
+const VALIDATORS = {
+  settings: checkSettings,
+  sets: checkSets,
+  tonight: checkTonight,
+  drill: checkDrill,
+  study: checkStudy,
+};
+
+const WHAT = {
+  settings: 'settings',
+  sets: 'list of sets',
+  tonight: 'Tonight progress',
+  drill: 'Drill progress',
+  study: 'Study board position',
+};
+
+class App {
+  constructor() {
+    this.settings = { ...DEFAULT_SETTINGS };
+    this.quotaWarned = false;
+  }
+
+  start() {
+    onStorageEvents({
+      onFull: () => {
+        if (this.quotaWarned) return;
+        this.quotaWarned = true;
+        banner('This device\'s storage is full, so your latest progress is not being saved. ' +
+          'Play goes on; export a backup from Settings, or free some space.', { kind: 'warn', id: 'quota', sticky: true });
+      },
+      onSaved: () => {
+        if (this.quotaWarned) {
+          this.quotaWarned = false;
+          clearBanner('quota');
+        }
+      },
+    });
+    this.tonight = new Tonight(this);
+    this.drill = new Drill(this);
+    this.study = new Study(this);
+    this.loadAll();
+    for (const b of document.querySelectorAll('[data-go]')) {
+      b.addEventListener('click', () => this.go(b.dataset.go));
+    }
+    this.wireSettings();
+    window.addEventListener('hashchange', () => this.readHash());
+    this.readHash();
+  }
+
+  // Loads every saved document (recovering damaged ones) and hands it to its screen.
+  loadAll(parts) {
+    const got = {};
+    for (const name of Object.keys(VALIDATORS)) {
+      if (parts) {
+        got[name] = parts[name] ?? null;
+        continue;
+      }
+      const { data, note } = load(name, VALIDATORS[name], WHAT[name]);
+      got[name] = data;
+      if (note) banner(note, { kind: 'warn', id: `recovered-${name}`, sticky: true });
+    }
+    this.settings = { ...DEFAULT_SETTINGS, ...(got.settings ?? {}) };
+    this.applySettings();
+    this.tonight.init(got.sets, got.tonight);
+    this.drill.init(got.drill);
+    this.study.init(got.study);
+    this.go(this.settings.screen);
+  }
+
+  applySettings() {
+    for (const screen of [this.tonight, this.drill, this.study]) screen.applySettings(this.settings);
+    $('opt-confirm').checked = this.settings.confirm;
+    $('opt-forbidden').checked = this.settings.forbidden;
+    $('opt-numbers').checked = this.settings.numbers;
+  }
+
+  go(name) {
+    if (!SCREENS.includes(name)) name = 'tonight';
+    for (const s of SCREENS) $(s).hidden = s !== name;
+    for (const b of document.querySelectorAll('[data-go]')) {
+      if (b.dataset.go === name) b.setAttribute('aria-current', 'page');
+      else b.removeAttribute('aria-current');
+    }
+    document.documentElement.dataset.screen = name;
+    if (this.settings.screen !== name) {
+      this.settings.screen = name;
+      save('settings', this.settings);
+    }
+    if (name === 'drill') this.drill.activate();
+  }
+
+  readHash() {
+    const m = /^#set=(.*)$/s.exec(location.hash);
+    if (!m) return;
+    let code = m[1];
+    try {
+      code = decodeURIComponent(code);
+    } catch {
+      // Left as it is: the decoder will refuse it with a message.
+    }
+    history.replaceState(null, '', location.href.split('#')[0]);
+    this.tonight.fromLink(code);
+  }
+
+  wireSettings() {
+    const dialog = $('settings');
+    $('open-settings').addEventListener('click', () => {
+      $('settings-note').textContent = '';
+      dialog.showModal();
+    });
+    $('close-settings').addEventListener('click', () => dialog.close());
+    for (const [id, key] of [['opt-confirm', 'confirm'], ['opt-forbidden', 'forbidden'], ['opt-numbers', 'numbers']]) {
+      $(id).addEventListener('change', (e) => {
+        this.settings[key] = e.target.checked;
+        this.applySettings();
+        save('settings', this.settings);
+      });
+    }
+    $('export-backup').addEventListener('click', () => this.exportBackup());
+    $('import-backup').addEventListener('change', (e) => this.importBackup(e.target));
+  }
+
+  exportBackup() {
+    const parts = {
+      settings: this.settings,
+      sets: this.tonight.sets,
+      tonight: this.tonight.data,
+      drill: this.drill.data,
+      study: this.study.data,
+    };
+    const day = new Date().toISOString().slice(0, 10);
+    download(`fivefold-backup-${day}.json`, makeBackup(parts));
+    $('settings-note').textContent = 'The backup file is downloaded.';
+  }
+
+  async importBackup(input) {
+    const f = input.files?.[0];
+    input.value = '';
+    if (!f) return;
+    let parts;
+    try {
+      if (f.size > 20_000_000) throw new Error('the file is too large to be a backup');
+      parts = readBackup(await f.text(), VALIDATORS);
+      if (!Object.keys(parts).length) throw new Error('the backup holds nothing to restore');
+    } catch (e) {
+      const msg = `"${f.name}" cannot be used: ${e.message}. Nothing was changed.`;
+      $('settings-note').textContent = msg;
+      banner(msg, { kind: 'error', id: 'backup' });
+      return;
+    }
+    const failed = Object.entries(parts).filter(([name, data]) => !save(name, data)).map(([n]) => WHAT[n]);
+    this.loadAll({
+      settings: this.settings,
+      sets: this.tonight.sets,
+      tonight: this.tonight.data,
+      drill: this.drill.data,
+      study: this.study.data,
+      ...parts,
+    });
+    const msg = failed.length
+      ? `The backup is restored for now, but this device could not store: ${failed.join(', ')}.`
+      : `The backup from "${f.name}" is restored.`;
+    $('settings-note').textContent = msg;
+    banner(msg, { kind: failed.length ? 'warn' : 'info', id: 'backup' });
   }
 }
 
 async function main() {
   try {
-    await init();
-  } catch (err) {
-    status.textContent = `The board could not start in this browser (${err}).`;
+    await startEngine();
+  } catch (e) {
+    $('boot').textContent = `Fivefold could not start in this browser (${e}).`;
     return;
   }
-  const session = new Session(canvas, rule.value);
-  session.showForbidden($('marks').checked);
-  const fit = () => session.fit(window.devicePixelRatio || 1);
-  fit();
-  new ResizeObserver(fit).observe(canvas);
-  window.addEventListener('resize', fit);
-  status.textContent = session.status();
-
-  canvas.addEventListener('click', (e) => show(session.tap(e.clientX, e.clientY)));
-  $('undo').addEventListener('click', () => show(session.undo()));
-  $('new').addEventListener('click', () => show(session.newGame(rule.value)));
-  rule.addEventListener('change', () => show(session.newGame(rule.value)));
-  $('marks').addEventListener('change', (e) => session.showForbidden(e.target.checked));
-  $('enter').addEventListener('submit', (e) => {
-    e.preventDefault();
-    const field = $('point');
-    show(session.play(field.value));
-    field.select();
-  });
+  $('boot').hidden = true;
+  const app = new App();
+  try {
+    app.start();
+  } catch (e) {
+    $('boot').hidden = false;
+    $('boot').textContent = `Fivefold could not start: ${e?.message ?? e}`;
+    throw e;
+  }
+  if (SERVED && 'serviceWorker' in navigator && /^https?:$/.test(location.protocol)) {
+    navigator.serviceWorker.register('./sw.js').catch((e) => {
+      console.warn(`offline support is not available: ${e}`);
+    });
+  }
   document.documentElement.dataset.ready = 'true';
 }
 

@@ -7,7 +7,7 @@ use std::path::PathBuf;
 use engine::formats::setfile::{self, PuzzleSet};
 use engine::puzzle::generate::{self, Options};
 use engine::puzzle::verify;
-use engine::puzzle::Theme;
+use engine::puzzle::{Goal, Theme};
 use engine::Rule;
 
 fn puzzles_dir() -> PathBuf {
@@ -148,5 +148,59 @@ fn the_fixture_set_is_what_the_generator_makes() {
     assert!(
         json == want,
         "the fixture differs: set FIVEFOLD_BLESS=1 to rewrite it after a deliberate change"
+    );
+}
+
+/// A student who plays the answer key move by move must be told it is right, under the budget
+/// the browser grades with (not the larger one puzzles are proved with).
+#[test]
+fn every_stored_line_is_accepted_by_the_grader_with_the_browser_budget() {
+    use engine::puzzle::grade::{self, Grade, Session};
+    use engine::search::Solver;
+    let mut solver = Solver::new(grade::solver_config());
+    let mut failures = Vec::new();
+    let mut moves = 0;
+    for (name, _, set) in shipped() {
+        for p in &set.puzzles {
+            if p.goal() == Goal::Defend {
+                // Every listed defence stops the threat (a counter-four first gets its block).
+                for &mv in &p.first_moves {
+                    moves += 1;
+                    let mut session = Session::new(p.clone());
+                    match session.play(&mut solver, mv) {
+                        Grade::Solved { .. } | Grade::Accepted { .. } => {}
+                        other => failures.push(format!("{name} {} defence {mv}: {other:?}", p.id)),
+                    }
+                }
+                continue;
+            }
+            let mut session = Session::new(p.clone());
+            let mut i = 0;
+            while i < p.line.len() {
+                let mv = p.line[i];
+                moves += 1;
+                match session.play(&mut solver, mv) {
+                    Grade::Solved { .. } => break,
+                    Grade::Accepted { reply, .. } => {
+                        // Follow the key only while the defender answers as it does.
+                        if p.line.get(i + 1) != Some(&reply) {
+                            break;
+                        }
+                        i += 2;
+                    }
+                    other => {
+                        failures.push(format!("{name} {} move {mv}: {other:?}", p.id));
+                        break;
+                    }
+                }
+            }
+        }
+    }
+    assert!(moves >= 600, "only {moves} moves graded");
+    assert!(
+        failures.is_empty(),
+        "{} stored moves graded wrong:\n{}",
+        failures.len(),
+        failures.join("\n")
     );
 }

@@ -1,13 +1,18 @@
-// Helpers for the end-to-end tests: a static server over web/dist, a headless Chromium, and
-// the board's geometry as the page exposes it on the canvas.
+// Helpers for the end-to-end tests: a static server over web/dist, a headless Chromium, the
+// starter library's sets (read from puzzles/), and the boards' geometry as the page writes it
+// on each canvas (data-step, data-x0, data-y0, in CSS pixels from the canvas's corner).
 
+import { after, before } from 'node:test';
 import { createServer } from 'node:http';
+import { mkdirSync, readFileSync } from 'node:fs';
 import { readFile, stat } from 'node:fs/promises';
 import { extname, join, normalize, sep } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { chromium } from 'playwright-core';
 
 export const DIST = fileURLToPath(new URL('../dist/', import.meta.url));
+export const PUZZLES = fileURLToPath(new URL('../../puzzles/', import.meta.url));
+export const ARTEFACTS = fileURLToPath(new URL('../artefacts/', import.meta.url));
 
 const TYPES = {
   '.html': 'text/html; charset=utf-8',
@@ -16,16 +21,19 @@ const TYPES = {
   '.css': 'text/css; charset=utf-8',
   '.wasm': 'application/wasm',
   '.json': 'application/json',
+  '.webmanifest': 'application/manifest+json',
   '.png': 'image/png',
   '.svg': 'image/svg+xml',
 };
 
-/** Serves `root` on 127.0.0.1 at a free port. Resolves to { url, close }. */
+/** Serves `root` on 127.0.0.1 at a free port. Resolves to { url, close, requests }. */
 export async function serve(root = DIST) {
   await stat(join(root, 'index.html')).catch(() => {
     throw new Error(`${root} has no index.html: build the app first (web/tools/test.sh does)`);
   });
+  const requests = [];
   const server = createServer(async (req, res) => {
+    requests.push(req.url);
     try {
       const path = decodeURIComponent(new URL(req.url, 'http://x').pathname);
       const file = normalize(join(root, path.endsWith('/') ? `${path}index.html` : path));
@@ -50,7 +58,11 @@ export async function serve(root = DIST) {
   const { port } = server.address();
   return {
     url: `http://127.0.0.1:${port}/`,
-    close: () => new Promise((ok) => server.close(ok)),
+    requests,
+    close: () => new Promise((ok) => {
+      server.closeAllConnections?.();
+      server.close(ok);
+    }),
   };
 }
 
@@ -71,29 +83,74 @@ export function launch() {
   });
 }
 
-/**
- * Opens the app in a fresh context. Returns { page, errors }, where errors collects uncaught
- * page errors and console errors so that a test can assert there were none.
- */
-export async function open(browser, url, { dpr = 1, width = 1000, height = 800 } = {}) {
-  const context = await browser.newContext({
+// Registers the file's before/after hooks: one static server over web/dist and one browser,
+// shared by the file's tests. Returns an object whose `server` and `browser` are set once the
+// hooks have run.
+export function useBrowser(root = DIST) {
+  const env = {};
+  before(async () => {
+    env.server = await serve(root);
+    env.browser = await launch();
+  });
+  after(async () => {
+    await env.browser?.close();
+    await env.server?.close();
+  });
+  return env;
+}
+
+export const PHONE = { width: 390, height: 844, dpr: 3, touch: true };
+export const DESKTOP = { width: 1280, height: 800, dpr: 1, touch: false };
+
+/** A fresh context and page, with uncaught errors and console errors collected. */
+export async function context(browser, { dpr = 1, width = 1280, height = 800, touch = false } = {}) {
+  const ctx = await browser.newContext({
     deviceScaleFactor: dpr,
     viewport: { width, height },
+    hasTouch: touch,
+    isMobile: touch,
+    acceptDownloads: true,
   });
-  const page = await context.newPage();
+  const page = await ctx.newPage();
   const errors = [];
   page.on('pageerror', (e) => errors.push(`page error: ${e.message}`));
   page.on('console', (m) => {
     if (m.type() === 'error') errors.push(`console error: ${m.text()}`);
   });
-  await page.goto(url);
-  await page.waitForSelector('html[data-ready="true"]', { timeout: 15000 });
-  return { page, context, errors };
+  return { page, context: ctx, errors };
 }
 
-/** The grid geometry written on the canvas by the Rust side, in CSS pixels. */
-export async function geometry(page) {
-  return page.$eval('#board', (c) => {
+/** Waits until the app has started. */
+export async function ready(page) {
+  await page.waitForSelector('html[data-ready="true"]', { timeout: 20000 });
+}
+
+/** Opens the app in a fresh context. Returns { page, context, errors }. */
+export async function open(browser, url, options = {}) {
+  const c = await context(browser, options);
+  await c.page.goto(url);
+  await ready(c.page);
+  return c;
+}
+
+/** A starter-library set as shipped (puzzles/<stem>.json). */
+export function librarySet(stem) {
+  return JSON.parse(readFileSync(join(PUZZLES, `${stem}.json`), 'utf8'));
+}
+
+/** Adds a starter-library set to Tonight from the library picker, and waits for its board. */
+export async function addFromLibrary(page, title) {
+  await page.click('[data-go="tonight"]');
+  if (!(await page.isVisible('#tonight-list'))) await page.click('#tonight-back');
+  const lib = page.locator('#library');
+  if (!(await lib.evaluate((d) => d.open))) await page.click('#library > summary');
+  await page.locator('#library-sets li', { hasText: title }).getByRole('button').click();
+  await page.waitForSelector('#tonight-board[data-mode="puzzle"]');
+}
+
+/** The grid geometry written on a canvas by the Rust side, in CSS pixels. */
+export async function geometry(page, board) {
+  return page.$eval(`#${board}`, (c) => {
     const r = c.getBoundingClientRect();
     return {
       left: r.left,
@@ -126,32 +183,91 @@ export function at(g, name, dx = 0, dy = 0) {
   };
 }
 
-/** Clicks the canvas at a point. */
-export async function tap(page, name) {
-  const g = await geometry(page);
+/** Clicks (or, with `touch`, taps) a board at a point. */
+export async function tap(page, board, name, { touch = false } = {}) {
+  const g = await geometry(page, board);
   const { x, y } = at(g, name);
-  await page.mouse.click(x, y);
+  if (touch) await page.touchscreen.tap(x, y);
+  else await page.mouse.click(x, y);
+}
+
+/** A board's dataset (mode, state, pending, moves, outcome, hints, ...). */
+export function boardState(page, board) {
+  return page.$eval(`#${board}`, (c) => ({ ...c.dataset }));
+}
+
+const moveCount = (s) => (s ? s.split(' ').length : 0);
+
+/** Waits until a board shows at least `n` moves with nothing left to reveal. */
+export async function settled(page, board, n) {
+  await page.waitForFunction(([id, want]) => {
+    const d = document.getElementById(id).dataset;
+    const have = d.moves ? d.moves.split(' ').length : 0;
+    return have >= want && d.pending === '0';
+  }, [board, n]);
+  return boardState(page, board);
+}
+
+/**
+ * Plays a win puzzle's main line: clicks (or double-taps) the player's moves, each after the
+ * app's reply has been revealed. Returns the board's final state.
+ */
+export async function solve(page, board, line, { touch = false, confirm = false } = {}) {
+  const start = moveCount((await boardState(page, board)).moves);
+  for (let i = 0; i < line.length; i += 2) {
+    await tap(page, board, line[i], { touch });
+    if (confirm) await tap(page, board, line[i], { touch });
+    await settled(page, board, start + Math.min(i + 2, line.length));
+  }
+  return page.waitForSelector(`#${board}[data-state="solved"]`).then(() => boardState(page, board));
 }
 
 /**
  * The colour inside the stone at `name`, away from the grid lines and markers: 0.3 step right
- * of and 0.2 step below the centre. Read from the canvas's backing store.
+ * of and 0.2 step below the centre. Read from the canvas's backing store, once the stone
+ * animation has finished.
  */
-export async function colourAt(page, name) {
-  const g = await geometry(page);
+export async function colourAt(page, board, name) {
+  await page.waitForSelector(`#${board}:not([data-animating])`);
+  const g = await geometry(page, board);
   const { x, y } = at(g, name, 0.3, 0.2);
   const bx = Math.floor(((x - g.left) * g.backingWidth) / g.width);
   const by = Math.floor(((y - g.top) * g.backingHeight) / g.height);
   return page.$eval(
-    '#board',
+    `#${board}`,
     (c, [px, py]) => Array.from(c.getContext('2d').getImageData(px, py, 1, 1).data.slice(0, 3)),
     [bx, by],
   );
 }
 
 export const brightness = ([r, g, b]) => (r + g + b) / 3;
+export const isBlack = (c) => brightness(c) < 40;
+export const isWhite = (c) => brightness(c) > 230;
 
-/** The lines of the aria-live log. */
-export function logLines(page) {
-  return page.$$eval('#log li', (items) => items.map((li) => li.textContent));
+/** The lines of a board's move log. */
+export function logLines(page, log) {
+  return page.$$eval(`#${log} li`, (items) => items.map((li) => li.textContent));
+}
+
+/** The text of every banner. */
+export function banners(page) {
+  return page.$$eval('#banners .banner p', (ps) => ps.map((p) => p.textContent));
+}
+
+/** An empty point of a puzzle that is not one of its correct first moves. */
+export function wrongMove(puzzle) {
+  const taken = new Set([...puzzle.black, ...puzzle.white, ...puzzle.solution.first_moves]);
+  for (let row = 1; row <= puzzle.size; row++) {
+    for (let col = 0; col < puzzle.size; col++) {
+      const p = `${String.fromCharCode(97 + col)}${row}`;
+      if (!taken.has(p)) return p;
+    }
+  }
+  throw new Error('no empty point');
+}
+
+/** Saves a screenshot as a test artefact (web/artefacts/, not committed). */
+export async function artefact(page, name, options = {}) {
+  mkdirSync(ARTEFACTS, { recursive: true });
+  await page.screenshot({ path: join(ARTEFACTS, `${name}.png`), ...options });
 }

@@ -6,15 +6,16 @@ use engine::formats::result::{self, Outcome};
 use engine::formats::{setfile, share};
 use engine::notation;
 use engine::puzzle::generate::{self, Options};
-use engine::puzzle::Theme;
+use engine::puzzle::{grade, Theme};
 use engine::rating::Rating;
-use engine::search::{Mode, Solver, SolverConfig, Verdict};
+use engine::search::{Mode, Solver, Verdict};
 use engine::{Rule, Stone};
 use serde::{Deserialize, Serialize};
 use std::cell::RefCell;
 use wasm_bindgen::prelude::*;
 
 use crate::library;
+use crate::words;
 
 fn err(e: impl std::fmt::Display) -> JsValue {
     JsValue::from_str(&e.to_string())
@@ -109,17 +110,12 @@ thread_local! {
     static SOLVER: RefCell<Option<Solver>> = const { RefCell::new(None) };
 }
 
-fn with_solver<T>(f: impl FnOnce(&mut Solver) -> T) -> T {
+/// Runs `f` with the one solver of this thread (the page's boards share it; the worker has its
+/// own), with the grading settings of [`grade::solver_config`].
+pub(crate) fn with_solver<T>(f: impl FnOnce(&mut Solver) -> T) -> T {
     SOLVER.with(|s| {
         let mut s = s.borrow_mut();
-        let solver = s.get_or_insert_with(|| {
-            Solver::new(SolverConfig {
-                table_megabytes: 12,
-                vcf_table_megabytes: 4,
-                node_limit: generate::NODE_LIMIT,
-                ..SolverConfig::default()
-            })
-        });
+        let solver = s.get_or_insert_with(|| Solver::new(grade::solver_config()));
         f(solver)
     })
 }
@@ -148,9 +144,13 @@ fn one() -> usize {
 
 /// Generates puzzles (for Drill, in the worker): options `{theme, rule, size, ratingLo,
 /// ratingHi, seed, count}`; returns set-file JSON. The same options give the same set here and
-/// natively.
+/// natively. `progress`, if given, is called after every self-play game with the puzzles kept
+/// and the games played so far.
 #[wasm_bindgen(js_name = generateSet)]
-pub fn generate_set(options: JsValue) -> Result<String, JsValue> {
+pub fn generate_set(
+    options: JsValue,
+    progress: Option<js_sys::Function>,
+) -> Result<String, JsValue> {
     let o: GenerateJs = serde_wasm_bindgen::from_value(options).map_err(err)?;
     let theme: Theme = o.theme.parse().map_err(err)?;
     let rule: Rule = o.rule.parse().map_err(err)?;
@@ -162,13 +162,28 @@ pub fn generate_set(options: JsValue) -> Result<String, JsValue> {
         rating: (o.rating_lo, o.rating_hi),
         seed: o.seed,
     };
-    let puzzles = generate::generate(&options, |_| {}).map_err(err)?;
+    let puzzles = generate::generate(&options, |p| {
+        if let Some(f) = &progress {
+            let _ = f.call2(
+                &JsValue::NULL,
+                &JsValue::from(p.kept as u32),
+                &JsValue::from(p.games as f64),
+            );
+        }
+    })
+    .map_err(err)?;
     Ok(setfile::to_json(&setfile::PuzzleSet {
         title: format!("Drill: {}", theme.words()),
-        created: "2026-12-01".into(),
+        created: today(),
         puzzles,
         generator: None,
     }))
+}
+
+/// Today's date, `YYYY-MM-DD`, from the browser's clock (UTC).
+fn today() -> String {
+    let iso: String = js_sys::Date::new_0().to_iso_string().into();
+    iso.chars().take(10).collect()
 }
 
 #[derive(Deserialize)]
@@ -188,6 +203,7 @@ struct SolveJs {
 #[serde(rename_all = "camelCase")]
 struct SolveOut {
     result: &'static str,
+    say: Vec<String>,
     line: Vec<String>,
     first_moves: Vec<String>,
     unknown: Vec<String>,
@@ -206,7 +222,7 @@ pub fn solve_position(query: JsValue) -> Result<JsValue, JsValue> {
     if let Some(w) = board.find_winner() {
         return Err(err(format!(
             "{} has already made five",
-            crate::play::colour_word(w)
+            words::colour_word(w)
         )));
     }
     let to_move = match q.to_move.as_str() {
@@ -229,6 +245,7 @@ pub fn solve_position(query: JsValue) -> Result<JsValue, JsValue> {
                 let sol = solver.solve(&board, to_move, mode, None);
                 let mut out = SolveOut {
                     result: sol.verdict.name(),
+                    say: Vec::new(),
                     line: names(&sol.line),
                     first_moves: Vec::new(),
                     unknown: Vec::new(),
@@ -250,6 +267,7 @@ pub fn solve_position(query: JsValue) -> Result<JsValue, JsValue> {
                     Vec::new()
                 };
                 Ok(SolveOut {
+                    say: Vec::new(),
                     result: match d.threat {
                         Verdict::Win => "threat",
                         Verdict::NoWin => "no-threat",
@@ -265,8 +283,71 @@ pub fn solve_position(query: JsValue) -> Result<JsValue, JsValue> {
                 "unknown search '{other}' (vcf, vct or defend)"
             ))),
         };
-        solver.set_node_limit(generate::NODE_LIMIT);
+        solver.set_node_limit(grade::NODE_LIMIT);
         out
     })?;
+    let mut out = out;
+    let pts =
+        |v: &[String]| -> Vec<engine::Point> { v.iter().filter_map(|s| s.parse().ok()).collect() };
+    out.say = words::solve_words(
+        &q.search,
+        to_move,
+        out.result,
+        &pts(&out.line),
+        &pts(&out.first_moves),
+        &pts(&out.unknown),
+        out.nodes,
+    );
     serde_wasm_bindgen::to_value(&out).map_err(err)
+}
+
+#[derive(Serialize)]
+struct ThemeJs {
+    name: &'static str,
+    words: &'static str,
+    goal: &'static str,
+    rules: Vec<&'static str>,
+}
+
+/// Every puzzle theme: `[{name, words, goal, rules}]` as JSON, `rules` being the rules it
+/// exists under (for the Drill filters).
+#[wasm_bindgen]
+pub fn themes() -> String {
+    let all: Vec<ThemeJs> = Theme::ALL
+        .iter()
+        .map(|&t| ThemeJs {
+            name: t.name(),
+            words: t.words(),
+            goal: t.goal().name(),
+            rules: [Rule::Freestyle, Rule::Standard, Rule::Renju]
+                .into_iter()
+                .filter(|&r| t.allowed(r))
+                .map(Rule::name)
+                .collect(),
+        })
+        .collect();
+    serde_json::to_string(&all).unwrap_or_else(|_| "[]".into())
+}
+
+/// The rating band `[lo, hi]` a drill of `theme` under `rule` asks the generator for, for a
+/// player rated `rating` (see [`words::drill_band`]).
+#[wasm_bindgen(js_name = drillBand)]
+pub fn drill_band(theme: &str, rule: &str, rating: f64) -> Result<Vec<u32>, JsValue> {
+    let theme: Theme = theme.parse().map_err(err)?;
+    let rule: Rule = rule.parse().map_err(err)?;
+    if !theme.allowed(rule) {
+        return Err(err(format!(
+            "the theme {theme} exists only under renju, not {rule}"
+        )));
+    }
+    let (lo, hi) = words::drill_band(&library::ratings(theme, rule), rating);
+    Ok(vec![lo, hi])
+}
+
+/// A set's identity, as eight hex digits: the fingerprint its result codes carry (a checksum
+/// of its puzzle ids in order), so the same puzzles are the same set whatever the title.
+#[wasm_bindgen(js_name = setKey)]
+pub fn set_key(set_json: &str) -> Result<String, JsValue> {
+    let set = setfile::parse(set_json).map_err(err)?;
+    Ok(format!("{:08x}", result::fingerprint(&set)))
 }

@@ -1,8 +1,45 @@
 //! The starter library, built into the app: every set of `puzzles/`, minified, in file-name
 //! order (made by `build.rs`).
 
+use std::cell::OnceCell;
+
+use engine::formats::setfile;
+use engine::puzzle::Theme;
+use engine::Rule;
+
 // (file stem, set-file JSON) for every shipped set.
 include!(concat!(env!("OUT_DIR"), "/library.rs"));
+
+thread_local! {
+    /// (theme, rule, rating) of every library puzzle, read once.
+    static RATINGS: OnceCell<Vec<(Theme, Rule, u32)>> = const { OnceCell::new() };
+}
+
+/// The ratings of the library's puzzles of `theme` under `rule` (under any rule if the library
+/// has none under that one).
+pub fn ratings(theme: Theme, rule: Rule) -> Vec<u32> {
+    RATINGS.with(|cell| {
+        let all = cell.get_or_init(|| {
+            SETS.iter()
+                .filter_map(|(_, json)| setfile::parse(json).ok())
+                .flat_map(|set| set.puzzles)
+                .map(|p| (p.theme, p.rule, p.rating))
+                .collect()
+        });
+        let of = |same_rule: bool| -> Vec<u32> {
+            all.iter()
+                .filter(|(t, r, _)| *t == theme && (!same_rule || *r == rule))
+                .map(|x| x.2)
+                .collect()
+        };
+        let v = of(true);
+        if v.is_empty() {
+            of(false)
+        } else {
+            v
+        }
+    })
+}
 
 #[cfg(test)]
 mod tests {
@@ -21,5 +58,16 @@ mod tests {
             })
             .sum();
         assert!(total >= 300);
+    }
+
+    #[test]
+    fn ratings_are_known_for_every_theme_under_every_rule_it_allows() {
+        for rule in [Rule::Freestyle, Rule::Standard, Rule::Renju] {
+            for theme in crate::words::themes_for(rule) {
+                let r = ratings(theme, rule);
+                assert!(!r.is_empty(), "{theme} under {rule}");
+                assert!(r.iter().all(|&x| (600..=2600).contains(&x)));
+            }
+        }
     }
 }

@@ -12,16 +12,16 @@ use engine::formats::setfile;
 use engine::notation;
 use engine::puzzle::grade::{Grade, Hint, Session, State};
 use engine::puzzle::Puzzle;
-use engine::search::{Solver, SolverConfig};
 use engine::{Board, Point, Rule, Stone};
 use serde::Serialize;
 use wasm_bindgen::prelude::*;
 use wasm_bindgen::JsCast;
 use web_sys::{CanvasRenderingContext2d, HtmlCanvasElement};
 
+use crate::api::with_solver;
 use crate::layout::Layout;
-use crate::play::colour_word;
 use crate::render::{self, Marks};
+use crate::words::{self, colour_word};
 
 fn err(e: impl std::fmt::Display) -> JsValue {
     JsValue::from_str(&e.to_string())
@@ -103,9 +103,13 @@ struct Status {
     goal: String,
     state: &'static str,
     moves: Vec<String>,
+    /// The player's own moves since the start (for [`Trainer::restore`] after a reload).
+    played: Vec<String>,
     wrong: u32,
     hints: u8,
     pending: usize,
+    /// How the puzzle went ([`words::outcome`]); "" on a study board.
+    outcome: &'static str,
 }
 
 #[derive(Serialize)]
@@ -125,7 +129,6 @@ pub struct Trainer {
     layout: Layout,
     dpr: f64,
     mode: Mode,
-    solver: Option<Solver>,
     confirm: bool,
     show_forbidden: bool,
     numbers: bool,
@@ -137,16 +140,6 @@ pub struct Trainer {
 
 /// How long a new stone takes to appear, in milliseconds.
 const GROW_MS: f64 = 140.0;
-
-/// The browser's solver: 16 MB of tables, the node budget puzzles were made with.
-fn browser_solver() -> Solver {
-    Solver::new(SolverConfig {
-        table_megabytes: 12,
-        vcf_table_megabytes: 4,
-        node_limit: engine::puzzle::generate::NODE_LIMIT,
-        ..SolverConfig::default()
-    })
-}
 
 #[wasm_bindgen]
 impl Trainer {
@@ -163,7 +156,6 @@ impl Trainer {
             layout: Layout::new(15, 0.0, 0.0),
             dpr: 1.0,
             mode: Mode::Empty,
-            solver: None,
             confirm: true,
             show_forbidden: false,
             numbers: false,
@@ -249,8 +241,14 @@ impl Trainer {
     }
 
     /// Replays the player's moves of a puzzle in progress (after a reload): each is graded
-    /// again, replies included, and everything is shown at once.
-    pub fn restore(&mut self, moves: Vec<String>) -> Result<JsValue, JsValue> {
+    /// again, replies included, and everything is shown at once. `wrong` and `hints` bring
+    /// back the wrong tries and hint steps counted before (they decide the outcome).
+    pub fn restore(
+        &mut self,
+        moves: Vec<String>,
+        wrong: Option<u32>,
+        hints: Option<u8>,
+    ) -> Result<JsValue, JsValue> {
         for m in moves {
             let p = Point::from_str(&m).map_err(err)?;
             let a = self.play_point(p, false)?;
@@ -259,6 +257,10 @@ impl Trainer {
             }
         }
         while self.reveal_one().is_some() {}
+        if let Mode::Puzzle(state) = &mut self.mode {
+            state.wrong = state.wrong.max(wrong.unwrap_or(0));
+            state.hints = state.hints.max(hints.unwrap_or(0).min(3));
+        }
         self.growing = None;
         self.redraw()?;
         self.status()
@@ -321,15 +323,13 @@ impl Trainer {
         if !matches!(self.mode, Mode::Puzzle(_)) {
             return self.study_edit(p);
         }
-        let mut solver = self.solver.take().unwrap_or_else(browser_solver);
-        let solver_ref = &mut solver;
         let Mode::Puzzle(state) = &mut self.mode else {
             unreachable!("checked above")
         };
         // Everything the app already played is on show once the player moves again.
         state.revealed = state.session.history().len();
         let me = state.session.to_move();
-        let grade = state.session.play(solver_ref, p);
+        let grade = with_solver(|solver| state.session.play(solver, p));
         let mut a = Answer {
             point: Some(p.to_string()),
             ..Default::default()
@@ -370,7 +370,6 @@ impl Trainer {
             state.hint_move = None;
         }
         a.pending = state.session.history().len().saturating_sub(state.revealed);
-        self.solver = Some(solver);
         if animate && matches!(a.kind, "accepted" | "solved" | "wrong") {
             self.growing = Some((p, None));
         }
@@ -476,12 +475,10 @@ impl Trainer {
             step: u8,
             say: String,
         }
-        let mut solver = self.solver.take().unwrap_or_else(browser_solver);
-        let solver_ref = &mut solver;
         let out = match &mut self.mode {
             Mode::Puzzle(state) => {
                 let step = (state.hints + 1).min(3);
-                match state.session.hint(solver_ref, step) {
+                match with_solver(|solver| state.session.hint(solver, step)) {
                     None => HintOut {
                         step: 0,
                         say: "No hint: the puzzle is over.".into(),
@@ -508,7 +505,6 @@ impl Trainer {
                 say: "Hints are for puzzles.".into(),
             },
         };
-        self.solver = Some(solver);
         self.redraw()?;
         to_js(&out)
     }
@@ -559,9 +555,11 @@ impl Trainer {
                 goal: String::new(),
                 state: "playing",
                 moves: vec![],
+                played: vec![],
                 wrong: 0,
                 hints: 0,
                 pending: 0,
+                outcome: "",
             },
             Mode::Puzzle(p) => {
                 let h = p.session.history();
@@ -580,9 +578,21 @@ impl Trainer {
                         .iter()
                         .map(|m| m.0.to_string())
                         .collect(),
+                    // Every turn of the player is one move and one reply, except the last,
+                    // which may be a five or a wrong move with its refutation after it.
+                    played: {
+                        let mut v: Vec<Point> = h.iter().step_by(2).map(|m| m.0).collect();
+                        if let (State::Failed, Some(r)) = (p.session.state(), p.refuted) {
+                            if let Some(i) = v.iter().position(|&m| m == r) {
+                                v.truncate(i + 1);
+                            }
+                        }
+                        v.iter().map(|m| m.to_string()).collect()
+                    },
                     wrong: p.wrong,
                     hints: p.hints,
                     pending: h.len().saturating_sub(p.revealed),
+                    outcome: words::outcome(p.session.state(), p.wrong, p.hints, h.len()),
                 }
             }
             Mode::Study(s) => Status {
@@ -593,9 +603,11 @@ impl Trainer {
                 goal: format!("{} to move", colour_word(s.to_move)),
                 state: "playing",
                 moves: s.edits.iter().map(|e| e.0.to_string()).collect(),
+                played: vec![],
                 wrong: 0,
                 hints: 0,
                 pending: 0,
+                outcome: "",
             },
         };
         to_js(&s)
@@ -612,6 +624,51 @@ impl Trainer {
             .iter()
             .find(|s| s.0 == p)
             .map_or(String::new(), |s| s.1.name().to_string())
+    }
+
+    /// The board in words, for a screen reader: the goal or the side to move, every stone by
+    /// colour, and the last move.
+    pub fn describe(&self) -> String {
+        let stones = self.shown_stones();
+        let of = |c: Stone| {
+            let mut v: Vec<Point> = stones.iter().filter(|s| s.1 == c).map(|s| s.0).collect();
+            v.sort_by_key(|p| (p.y, p.x));
+            v
+        };
+        let names = |v: &[Point]| {
+            if v.is_empty() {
+                "none".to_string()
+            } else {
+                v.iter()
+                    .map(|p| p.to_string())
+                    .collect::<Vec<_>>()
+                    .join(", ")
+            }
+        };
+        let head = match &self.mode {
+            Mode::Empty => return "The board is empty.".into(),
+            Mode::Puzzle(p) => format!("{}.", p.session.puzzle().goal_words()),
+            Mode::Study(s) => format!(
+                "Study board, {} rules, {n} by {n}. {} to move.",
+                s.board.rule().name(),
+                colour_word(s.to_move),
+                n = s.board.size()
+            ),
+        };
+        let (b, w) = (of(Stone::Black), of(Stone::White));
+        let mut out = format!(
+            "{head} Black stones ({}): {}. White stones ({}): {}.",
+            b.len(),
+            names(&b),
+            w.len(),
+            names(&w)
+        );
+        if let Some(p) = self.marks().last {
+            if let Some(c) = stones.iter().find(|s| s.0 == p).map(|s| s.1) {
+                out.push_str(&format!(" Last move: {} {p}.", colour_word(c)));
+            }
+        }
+        out
     }
 
     /// The centre of a point as `[x, y]` in CSS pixels from the canvas's top-left corner;
@@ -643,6 +700,40 @@ impl Trainer {
             line_shown: 0,
         }));
         self.ghost = None;
+        self.fit(self.dpr)?;
+        self.status()
+    }
+
+    /// Replaces the study board with a position: side `size`, the rule named `rule`, the given
+    /// stones and the side to move (as from [`Trainer::study_position`], e.g. after a reload).
+    /// A bad position is refused with a message and the board stays as it was.
+    #[wasm_bindgen(js_name = studyLoad)]
+    pub fn study_load(
+        &mut self,
+        size: u8,
+        rule: &str,
+        black: Vec<String>,
+        white: Vec<String>,
+        to_move: &str,
+    ) -> Result<JsValue, JsValue> {
+        let rule = Rule::from_str(rule).map_err(err)?;
+        let board = notation::setup(size, rule, &black.join(" "), &white.join(" ")).map_err(err)?;
+        let to_move = match to_move {
+            "black" => Stone::Black,
+            "white" => Stone::White,
+            other => return Err(err(format!("'{other}' is not black or white"))),
+        };
+        self.mode = Mode::Study(Box::new(StudyState {
+            board,
+            to_move,
+            tool: Tool::Play,
+            edits: Vec::new(),
+            line: Vec::new(),
+            line_first: Stone::Black,
+            line_shown: 0,
+        }));
+        self.ghost = None;
+        self.growing = None;
         self.fit(self.dpr)?;
         self.status()
     }

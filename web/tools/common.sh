@@ -112,23 +112,38 @@ target_dir() {
         python3 -c 'import json, sys; print(json.load(sys.stdin)["target_directory"])'
 }
 
-# Builds the app: release wasm, bindings, static files, all in $DIST.
+# The app's static files, copied as they are into $DIST.
+APP_FILES=(index.html style.css icon.svg manifest.webmanifest sw.js
+    app.js board.js drill.js jobs.js platform.js store.js study.js tonight.js ui.js worker.js)
+
+need_node() {
+    command -v node >/dev/null || die "node (Node.js 18 or later) is needed to build the app"
+}
+
+# Builds the app into $DIST: the release wasm and its bindings (name section removed), the
+# page's files, the PNG icons and the stamped service worker (tools/stamp.mjs), and the
+# single-file build $DIST/fivefold.html (tools/single.mjs).
 build_app() {
     need_wasm_target
     need_wasm_bindgen
+    need_node
     step "Building the wasm module (cargo build --release --target $WASM_TARGET -p fivefold-web)"
     (cd "$ROOT" && cargo build --release --target "$WASM_TARGET" -p fivefold-web) ||
         die "the wasm build failed"
-    local target wasm
+    local target wasm f
     target="$(target_dir)" || die "cargo metadata failed"
     wasm="$target/$WASM_TARGET/release/fivefold_web.wasm"
     [ -f "$wasm" ] || die "no $wasm after the build"
     step "Generating the bindings and copying the page into $DIST"
     rm -rf "$DIST"
     mkdir -p "$DIST/pkg"
-    wasm-bindgen --target web --no-typescript --out-dir "$DIST/pkg" "$wasm" ||
+    wasm-bindgen --target web --no-typescript --remove-name-section --out-dir "$DIST/pkg" "$wasm" ||
         die "wasm-bindgen failed"
-    cp "$WEB_DIR/index.html" "$WEB_DIR/app.js" "$WEB_DIR/style.css" "$WEB_DIR/icon.svg" "$DIST/" ||
-        die "copying the static files failed"
+    for f in "${APP_FILES[@]}"; do
+        cp "$WEB_DIR/$f" "$DIST/$f" || die "copying $f failed"
+    done
+    node "$WEB_DIR/tools/stamp.mjs" "$DIST" || die "stamping the service worker failed"
+    step "Building the single-file app ($DIST/fivefold.html)"
+    node "$WEB_DIR/tools/single.mjs" "$DIST" || die "the single-file build failed"
     note "built $(du -sb "$DIST" | cut -f1) bytes in $DIST"
 }

@@ -197,6 +197,8 @@ pub struct Solver {
     tt: Table,
     oracle: VcfOracle,
     config: SolverConfig,
+    /// The moves since the start of the line being asked about (see [`Solver::set_history`]).
+    history: Vec<(Point, Stone, bool)>,
 }
 
 impl Default for Solver {
@@ -212,6 +214,26 @@ impl Solver {
             tt: Table::with_megabytes(config.table_megabytes),
             oracle: VcfOracle::new(config.vcf_table_megabytes, config.vcf_node_limit),
             config,
+            history: Vec::new(),
+        }
+    }
+
+    /// Tells later questions which moves led from `start` to the position they are asked
+    /// about (colours included, in order): a VCT's dependency rule looks back at the
+    /// attacker's last threats, so a grader asking in the middle of a puzzle's line must pass
+    /// the line so far to search the same class of lines the proof from the start did. Every
+    /// result stays sound either way; only which lines count as inside the class changes.
+    /// An empty list (the default) starts the class afresh at each question.
+    pub fn set_history(&mut self, start: &Board, moves: &[(Point, Stone)]) {
+        let mut b = start.clone();
+        self.history.clear();
+        for &(p, c) in moves {
+            if !b.contains(p) || b.get(p).is_some() {
+                break;
+            }
+            let forced = !b.cells_with(c.opponent(), threat::FIVE).is_empty();
+            self.history.push((p, c, !forced));
+            b.place(p, c);
         }
     }
 
@@ -256,7 +278,8 @@ impl Solver {
         self.oracle.inexact = false;
         let before = self.oracle.nodes;
         let oracle = (mode == Mode::Vct).then_some(&mut self.oracle);
-        let mut sp = ThreatSpace::new(board, attacker, to_move, mode, depth, oracle);
+        let mut sp = ThreatSpace::new(board, attacker, to_move, mode, depth, oracle)
+            .with_history(&self.history);
         let mut dfpn = Dfpn::new(&mut self.tt, self.config.node_limit, stop);
         let mut status = dfpn.solve(&mut sp);
         let nodes = dfpn.nodes + self.oracle.nodes - before;
@@ -427,7 +450,8 @@ impl Solver {
         let mut cands = Vec::new();
         {
             let oracle = (mode == Mode::Vct).then_some(&mut self.oracle);
-            let mut sp = ThreatSpace::new(&mut b, to_move, to_move, mode, UNLIMITED, oracle);
+            let mut sp = ThreatSpace::new(&mut b, to_move, to_move, mode, UNLIMITED, oracle)
+                .with_history(&self.history);
             let dfives = *sp.board.cells_with(to_move.opponent(), threat::FIVE);
             match dfives.len() {
                 0 => sp.attacker_moves(&mut cands),
@@ -545,7 +569,8 @@ impl Solver {
             mode,
             self.config.vct_depth,
             oracle,
-        );
+        )
+        .with_history(&self.history);
         let mut replies = Vec::new();
         let node = sp.expand(&mut replies);
         drop(sp);
@@ -586,7 +611,8 @@ impl Solver {
                     mode,
                     self.config.vct_depth,
                     oracle,
-                );
+                )
+                .with_history(&self.history);
                 let mut replies = Vec::new();
                 if sp.expand(&mut replies) == Node::And {
                     total += replies.len().saturating_sub(1) as u32;
@@ -603,7 +629,8 @@ impl Solver {
         let mut line: Vec<u16> = Vec::new();
         let node_limit = self.config.node_limit;
         let oracle = (mode == Mode::Vct).then_some(&mut self.oracle);
-        let mut sp = ThreatSpace::new(b, attacker, attacker, mode, depth, oracle);
+        let mut sp = ThreatSpace::new(b, attacker, attacker, mode, depth, oracle)
+            .with_history(&self.history);
         let mut dfpn = Dfpn::new(&mut self.tt, node_limit, None);
         let mut moves = Vec::new();
         let mut played = 0usize;
@@ -732,7 +759,8 @@ impl Solver {
         {
             let oracle = (mode == Mode::Vct).then_some(&mut self.oracle);
             let mut sp =
-                ThreatSpace::new(b, attacker, defender, mode, self.config.vct_depth, oracle);
+                ThreatSpace::new(b, attacker, defender, mode, self.config.vct_depth, oracle)
+                    .with_history(&self.history);
             let node = sp.expand(&mut replies);
             if let Node::And = node {
             } else {

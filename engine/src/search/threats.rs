@@ -26,6 +26,7 @@
 use super::dfpn::{Dfpn, Node, Space, Status};
 use super::tt::Table;
 use crate::board::{threat, Board, Stone};
+use crate::geometry::Point;
 use crate::rules::Rule;
 
 /// Which forcing moves the attacker may use.
@@ -309,6 +310,22 @@ impl<'b> ThreatSpace<'b> {
             played: Vec::new(),
             oracle,
         }
+    }
+
+    /// Starts the search below moves already played: `history` holds every move since the
+    /// start of the line with its colour and whether it was a threat (not the forced block of
+    /// a four). The dependency rule of a VCT looks back at the attacker's last threats, so a
+    /// question asked in the middle of a line searches the same lines as the proof from the
+    /// start did only when it knows them.
+    pub(crate) fn with_history(mut self, history: &[(Point, Stone, bool)]) -> Self {
+        if self.mode == Mode::Vct {
+            self.played = history
+                .iter()
+                .filter(|h| h.1 == self.attacker && self.board.contains(h.0))
+                .map(|h| (self.board.index(h.0) as u16, h.2))
+                .collect();
+        }
+        self
     }
 
     /// The side to move.

@@ -1,0 +1,243 @@
+// One board on the page: a canvas and the Rust `Trainer` that draws on it and grades on it.
+// This file forwards taps, keys and resizes, paces the moves the app plays (a reply after a
+// short pause, a refutation slowly, one move at a time), runs the stone animation and writes
+// every sentence the Trainer returns to the message line, the move log and the live region.
+
+import { Trainer } from './pkg/fivefold_web.js';
+import { announce, el } from './ui.js';
+
+// Pauses before the app's moves are shown, in milliseconds.
+const REPLY_MS = 320;
+const REFUTE_FIRST_MS = 450;
+const REFUTE_NEXT_MS = 750;
+const LOG_KEEP = 200;
+
+let firstBoardMarked = false;
+
+export class BoardView {
+  /**
+   * `canvas`: the board's canvas; `log`: an element for the move log; `message`: the message
+   * line; `onChange(status, why)`: called after every change the player or the app makes.
+   */
+  constructor(canvas, { log, message, onChange = () => {} }) {
+    this.canvas = canvas;
+    this.log = log;
+    this.message = message;
+    this.onChange = onChange;
+    this.trainer = new Trainer(canvas);
+    this.token = 0;
+    this.animating = false;
+    this.lastPointer = 'mouse';
+    this.reduced = window.matchMedia?.('(prefers-reduced-motion: reduce)').matches ?? false;
+    this.fit = this.fit.bind(this);
+    new ResizeObserver(this.fit).observe(canvas);
+    window.addEventListener('resize', this.fit);
+    this.watchRatio();
+    canvas.addEventListener('pointerdown', (e) => {
+      this.lastPointer = e.pointerType || 'mouse';
+    });
+    canvas.addEventListener('click', (e) => this.click(e));
+    canvas.addEventListener('keydown', (e) => this.key(e));
+  }
+
+  // A change of devicePixelRatio (browser zoom, a move to another screen) refits the canvas.
+  watchRatio() {
+    const q = window.matchMedia?.(`(resolution: ${window.devicePixelRatio || 1}dppx)`);
+    q?.addEventListener('change', () => {
+      this.fit();
+      this.watchRatio();
+    }, { once: true });
+  }
+
+  fit() {
+    const r = this.canvas.getBoundingClientRect();
+    if (r.width < 1 || r.height < 1) return;
+    this.trainer.fit(window.devicePixelRatio || 1);
+    this.markFirstBoard();
+  }
+
+  markFirstBoard() {
+    if (firstBoardMarked || this.canvas.dataset.mode !== 'puzzle') return;
+    if (this.canvas.width < 2) return;
+    firstBoardMarked = true;
+    performance.mark('fivefold:first-board');
+  }
+
+  setOptions({ confirm, forbidden, numbers }) {
+    this.trainer.setOption('confirm', !!confirm);
+    this.trainer.setOption('forbidden', !!forbidden);
+    this.trainer.setOption('numbers', !!numbers);
+  }
+
+  /** Stops any pacing of the app's moves (a new puzzle, undo, retry). */
+  cancelPacing() {
+    this.token++;
+  }
+
+  status() {
+    return this.trainer.status();
+  }
+
+  // Writes the status onto the canvas for styles, scripts and tests, and tells the screen.
+  changed(why) {
+    const s = this.trainer.status();
+    const d = this.canvas.dataset;
+    d.mode = s.mode;
+    d.state = s.state;
+    d.pending = String(s.pending);
+    d.moves = s.moves.join(' ');
+    d.outcome = s.outcome;
+    d.hints = String(s.hints);
+    d.toMove = s.toMove;
+    d.rule = s.rule;
+    this.canvas.setAttribute('aria-label', this.trainer.describe());
+    this.onChange(s, why);
+    return s;
+  }
+
+  clearLog() {
+    this.log?.replaceChildren();
+  }
+
+  say(lines, kind) {
+    const list = lines.filter(Boolean);
+    if (!list.length) return;
+    if (this.log) {
+      for (const line of list) this.log.append(el('li', { text: line }));
+      while (this.log.childElementCount > LOG_KEEP) this.log.firstElementChild.remove();
+    }
+    announce(list);
+    if (this.message && kind !== undefined) {
+      this.message.textContent = list.join(' ');
+      this.message.dataset.kind = kind;
+    }
+  }
+
+  note(text, kind = 'info') {
+    if (!this.message) return;
+    this.message.textContent = text;
+    this.message.dataset.kind = kind;
+  }
+
+  /** Loads a puzzle, and replays the player's moves of it so far (`played`, after a reload). */
+  load(puzzleJson, { played = [], wrong = 0, hints = 0 } = {}) {
+    this.cancelPacing();
+    this.clearLog();
+    this.trainer.loadPuzzle(puzzleJson);
+    let s = this.trainer.status();
+    if (played.length || wrong || hints) s = this.trainer.restore(played, wrong, hints);
+    this.fit();
+    s = this.changed('load');
+    this.markFirstBoard();
+    this.note(s.goal, 'goal');
+    return s;
+  }
+
+  click(e) {
+    const touch = (e.pointerType || this.lastPointer) === 'touch';
+    const a = this.trainer.tap(e.clientX, e.clientY, touch);
+    this.answer(a);
+  }
+
+  key(e) {
+    const moves = { ArrowLeft: [-1, 0], ArrowRight: [1, 0], ArrowUp: [0, 1], ArrowDown: [0, -1] };
+    if (moves[e.key]) {
+      e.preventDefault();
+      const p = this.trainer.moveCursor(...moves[e.key]);
+      const stone = this.trainer.stoneAt(p);
+      announce(`${p}${stone ? `, ${stone} stone` : ', empty'}`);
+      this.canvas.dataset.cursor = p;
+    } else if (e.key === 'Enter' || e.key === ' ') {
+      e.preventDefault();
+      this.answer(this.trainer.placeAtCursor());
+    }
+  }
+
+  /** Handles a Trainer answer: sentences, animation, and the pacing of the app's moves. */
+  answer(a) {
+    if (!a || a.kind === 'none') {
+      if (a?.say?.length) this.say(a.say, 'info');
+      return;
+    }
+    const kind = {
+      ghost: 'ghost',
+      accepted: 'good',
+      solved: 'solved',
+      wrong: 'wrong',
+      illegal: 'refused',
+      refused: 'refused',
+      finished: 'info',
+      placed: 'info',
+    }[a.kind] ?? 'info';
+    if (a.kind === 'ghost') {
+      announce(a.say);
+      this.note(a.say.join(' '), 'ghost');
+      this.canvas.dataset.ghost = a.point ?? '';
+      return;
+    }
+    delete this.canvas.dataset.ghost;
+    this.say(a.say, kind);
+    this.animate();
+    const token = ++this.token;
+    this.changed(a.kind);
+    if (a.pending > 0) this.pace(token, a.kind === 'wrong');
+  }
+
+  async pace(token, slow) {
+    let wait = slow ? REFUTE_FIRST_MS : REPLY_MS;
+    for (;;) {
+      await new Promise((ok) => setTimeout(ok, wait));
+      if (token !== this.token) return;
+      const r = this.trainer.reveal();
+      if (!r) break;
+      this.say([r.say]);
+      this.animate();
+      this.changed('reveal');
+      if (!r.more) break;
+      wait = REFUTE_NEXT_MS;
+    }
+  }
+
+  animate() {
+    if (this.animating) return;
+    if (this.reduced) {
+      this.trainer.frame(0);
+      this.trainer.frame(1e6);
+      return;
+    }
+    this.animating = true;
+    this.canvas.dataset.animating = 'true';
+    const step = (now) => {
+      if (this.trainer.frame(now)) {
+        requestAnimationFrame(step);
+      } else {
+        this.animating = false;
+        delete this.canvas.dataset.animating;
+      }
+    };
+    requestAnimationFrame(step);
+  }
+
+  undo() {
+    this.cancelPacing();
+    this.trainer.undo();
+    this.say(['Took back the last turn.'], 'info');
+    return this.changed('undo');
+  }
+
+  retry() {
+    this.cancelPacing();
+    this.trainer.retry();
+    this.clearLog();
+    const s = this.changed('retry');
+    this.note(s.goal, 'goal');
+    return s;
+  }
+
+  hint() {
+    const h = this.trainer.hint();
+    this.say([h.say], h.step ? 'hint' : 'info');
+    this.changed('hint');
+    return h;
+  }
+}

@@ -1,0 +1,263 @@
+// Drill: an endless stream of puzzles at the player's level, filtered by theme and rule,
+// generated a few ahead in the worker so that the next one is ready when it is wanted.
+
+import { drillBand, parseSet, ratingAfter, themes } from './pkg/fivefold_web.js';
+import { BoardView } from './board.js';
+import { Cancelled, Jobs } from './jobs.js';
+import { save } from './store.js';
+import { $, POINT_NAME, RULES, announce, el, fill, isInt, randomSeed } from './ui.js';
+
+// Puzzles kept ready ahead of the one being played.
+const AHEAD = 3;
+
+function checkRating(r) {
+  return r === null || (r && [r.rating, r.deviation, r.volatility].every(Number.isFinite));
+}
+
+/** Why stored Drill data cannot be used, or null. */
+export function checkDrill(d) {
+  if (!d || typeof d !== 'object') return 'it is empty';
+  if (typeof d.theme !== 'string' || !RULES.includes(d.rule)) return 'the filters are unknown';
+  if (!checkRating(d.rating)) return 'the rating is malformed';
+  if (!Array.isArray(d.queue) || d.queue.length > 20) return 'the queue is malformed';
+  if (!d.stats || !isInt(d.stats.played, 0, 1e9) || !isInt(d.stats.clean, 0, 1e9)) return 'the counts are malformed';
+  const c = d.current;
+  if (c !== null) {
+    if (!c || typeof c.puzzle !== 'object' || !Array.isArray(c.played) ||
+        !c.played.every((m) => typeof m === 'string' && POINT_NAME.test(m)) ||
+        !isInt(c.wrong, 0, 1e6) || !isInt(c.hints, 0, 3) || typeof c.rated !== 'boolean') {
+      return 'the current puzzle is malformed';
+    }
+  }
+  // Every puzzle must be one a set file could hold.
+  const puzzles = [...d.queue, ...(c ? [c.puzzle] : [])];
+  if (puzzles.length) {
+    try {
+      parseSet(JSON.stringify({ format: 'fivefold-set', version: 1, title: '', created: '2026-12-01', puzzles }));
+    } catch (e) {
+      return `a puzzle is not valid (${e})`;
+    }
+  }
+  return null;
+}
+
+export function emptyDrill() {
+  return { theme: 'vcf', rule: 'freestyle', rating: null, current: null, queue: [], stats: { played: 0, clean: 0 } };
+}
+
+export class Drill {
+  constructor(app) {
+    this.app = app;
+    this.data = emptyDrill();
+    this.jobs = new Jobs();
+    this.generating = null;
+    this.active = false;
+    this.themes = JSON.parse(themes());
+    this.board = new BoardView($('drill-board'), {
+      log: $('drill-log'),
+      message: $('drill-message'),
+      onChange: (s, why) => this.changed(s, why),
+    });
+    for (const b of $('drill').querySelectorAll('[data-act]')) {
+      b.addEventListener('click', () => this.act(b.dataset.act));
+    }
+    $('drill-theme').addEventListener('change', (e) => this.filter(e.target.value, this.data.rule));
+    $('drill-rule').addEventListener('change', (e) => this.filter(this.data.theme, e.target.value));
+  }
+
+  init(data) {
+    this.jobs.cancel();
+    this.generating = null;
+    this.data = data ?? emptyDrill();
+    if (!this.allowed(this.data.theme, this.data.rule)) this.data.theme = 'vcf';
+    this.renderFilters();
+    this.renderRating();
+    if (this.data.current) this.loadCurrent();
+    else this.waiting(true);
+    if (this.active) this.fill();
+  }
+
+  applySettings(s) {
+    this.board.setOptions(s);
+  }
+
+  allowed(theme, rule) {
+    return this.themes.some((t) => t.name === theme && t.rules.includes(rule));
+  }
+
+  renderFilters() {
+    $('drill-rule').value = this.data.rule;
+    fill($('drill-theme'), this.themes.filter((t) => t.rules.includes(this.data.rule)).map((t) =>
+      el('option', { value: t.name, text: t.words[0].toUpperCase() + t.words.slice(1) })));
+    $('drill-theme').value = this.data.theme;
+  }
+
+  renderRating() {
+    const r = this.data.rating;
+    const st = this.data.stats;
+    $('drill-rating').textContent = r
+      ? `Your rating ${Math.round(r.rating)} ± ${Math.round(2 * r.deviation)} · ${st.played} played, ${st.clean} solved clean`
+      : 'Your rating: not yet known (1500 to start)';
+  }
+
+  /** The Drill screen is shown: keep puzzles coming. */
+  activate() {
+    this.active = true;
+    this.fill();
+    if (!this.data.current && this.data.queue.length) this.next();
+  }
+
+  save() {
+    save('drill', this.data);
+  }
+
+  filter(theme, rule) {
+    if (!this.allowed(theme, rule)) theme = this.themes.find((t) => t.rules.includes(rule)).name;
+    if (theme === this.data.theme && rule === this.data.rule) return;
+    this.data.theme = theme;
+    this.data.rule = rule;
+    this.data.queue = [];
+    this.jobs.cancel();
+    this.generating = null;
+    this.renderFilters();
+    this.rateIfTried();
+    this.data.current = null;
+    this.save();
+    this.waiting(true);
+    this.fill();
+  }
+
+  waiting(on, text) {
+    $('drill-wait').hidden = !on;
+    $('drill').dataset.waiting = on ? 'true' : 'false';
+    if (text) $('drill-wait-text').textContent = text;
+    else if (on) $('drill-wait-text').textContent = 'Making a puzzle at your level…';
+    if (on) $('drill-progress').removeAttribute('value');
+    this.renderQueue();
+  }
+
+  renderQueue() {
+    const n = this.data.queue.length;
+    $('drill-queue').textContent = this.generating
+      ? `${n} puzzle${n === 1 ? '' : 's'} ready; making another in the background.`
+      : `${n} puzzle${n === 1 ? '' : 's'} ready.`;
+    $('drill').dataset.ready = String(n);
+  }
+
+  async fill() {
+    if (this.generating || this.data.queue.length >= AHEAD) return;
+    const { theme, rule } = this.data;
+    const r = this.data.rating?.rating ?? 1500;
+    const [lo, hi] = drillBand(theme, rule, r);
+    const job = { theme, rule };
+    this.generating = job;
+    this.renderQueue();
+    const ask = (ratingLo, ratingHi) => this.jobs.run('generate', {
+      options: { theme, rule, size: 15, ratingLo, ratingHi, seed: randomSeed(), count: 1 },
+    }, (p) => {
+      if (!$('drill-wait').hidden) {
+        $('drill-wait-text').textContent = `Making a puzzle at your level… ${p.games} game${p.games === 1 ? '' : 's'} looked at.`;
+      }
+    });
+    let json;
+    try {
+      try {
+        json = await ask(lo, hi);
+      } catch (e) {
+        if (e instanceof Cancelled) throw e;
+        // Nothing in the band this time: any rating will do.
+        json = await ask(600, 2600);
+      }
+    } catch (e) {
+      if (this.generating === job) this.generating = null;
+      if (!(e instanceof Cancelled)) {
+        this.waiting(!this.data.current, `No puzzle could be made: ${e.message}. Try another theme.`);
+      }
+      return;
+    }
+    if (this.generating !== job) return;
+    this.generating = null;
+    const puzzle = JSON.parse(json).puzzles[0];
+    this.data.queue.push(puzzle);
+    this.save();
+    if (!this.data.current) this.next();
+    this.renderQueue();
+    this.fill();
+  }
+
+  loadCurrent() {
+    const c = this.data.current;
+    this.waiting(false);
+    this.loading = true;
+    try {
+      this.board.load(JSON.stringify(c.puzzle), c);
+    } finally {
+      this.loading = false;
+    }
+    this.renderPlay(this.board.status());
+  }
+
+  // A puzzle left after moves or hints without being finished counts as not solved.
+  rateIfTried() {
+    const c = this.data.current;
+    if (c && !c.rated && (c.played.length || c.wrong || c.hints)) this.rate(false);
+  }
+
+  rate(clean) {
+    const c = this.data.current;
+    c.rated = true;
+    this.data.rating = ratingAfter(this.data.rating, c.puzzle.rating, clean);
+    this.data.stats.played++;
+    if (clean) this.data.stats.clean++;
+    this.renderRating();
+    announce($('drill-rating').textContent);
+  }
+
+  next() {
+    this.rateIfTried();
+    const p = this.data.queue.shift();
+    if (!p) {
+      this.data.current = null;
+      this.save();
+      this.waiting(true);
+      this.fill();
+      return;
+    }
+    this.data.current = { puzzle: p, played: [], wrong: 0, hints: 0, rated: false };
+    this.save();
+    this.loadCurrent();
+    this.fill();
+  }
+
+  changed(s, why) {
+    if (this.loading || s.mode !== 'puzzle' || !this.data.current) {
+      this.renderPlay(s);
+      return;
+    }
+    const c = this.data.current;
+    c.played = s.played;
+    c.wrong = s.wrong;
+    c.hints = s.hints;
+    if (!c.rated && s.state !== 'playing') this.rate(s.outcome === 'clean');
+    if (why !== 'reveal' || s.pending === 0) this.save();
+    this.renderPlay(s);
+  }
+
+  renderPlay(s) {
+    const root = $('drill');
+    const over = s.state !== 'playing';
+    const none = !this.data.current;
+    root.querySelector('[data-act="hint"]').disabled = none || over || s.pending > 0;
+    root.querySelector('[data-act="undo"]').disabled = none || s.played.length === 0;
+    root.querySelector('[data-act="retry"]').disabled = none || s.moves.length === 0;
+    root.querySelector('[data-act="next"]').classList.toggle('ready', over && s.pending === 0);
+  }
+
+  act(what) {
+    if (what === 'next') return this.next();
+    if (!this.data.current) return;
+    if (what === 'hint') this.board.hint();
+    else if (what === 'undo') this.board.undo();
+    else if (what === 'retry') this.board.retry();
+  }
+}

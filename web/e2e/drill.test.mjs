@@ -1,0 +1,106 @@
+// End-to-end: Drill makes puzzles in its worker, a few ahead, while the page stays responsive;
+// a solved puzzle moves the player's rating; the filters change what comes next.
+
+import { test } from 'node:test';
+import assert from 'node:assert/strict';
+import {
+  boardState,
+  open,
+  ready,
+  solve,
+  useBrowser,
+} from './support.mjs';
+
+const BOARD = 'drill-board';
+
+const env = useBrowser();
+
+const stored = (page) => page.evaluate(() => JSON.parse(localStorage.getItem('fivefold.drill')).data);
+
+test('Drill produces puzzles from the worker while the page stays responsive', async () => {
+  const { page, context, errors } = await open(env.browser, env.server.url);
+  // Watch the main thread: the longest gap between animation frames and timer ticks while the
+  // worker generates.
+  await page.evaluate(() => {
+    window.gaps = { frame: 0, tick: 0 };
+    let lastFrame = performance.now();
+    const frame = (now) => {
+      window.gaps.frame = Math.max(window.gaps.frame, now - lastFrame);
+      lastFrame = now;
+      requestAnimationFrame(frame);
+    };
+    requestAnimationFrame(frame);
+    let lastTick = performance.now();
+    setInterval(() => {
+      const now = performance.now();
+      window.gaps.tick = Math.max(window.gaps.tick, now - lastTick);
+      lastTick = now;
+    }, 20);
+  });
+  await page.click('[data-go="drill"]');
+  assert.equal(await page.getAttribute('#drill', 'data-waiting'), 'true');
+  assert.ok(await page.isVisible('#drill-wait'), 'a progress indicator while no puzzle is ready');
+  assert.match(await page.textContent('#drill-wait-text'), /^Making a puzzle at your level/);
+  // While the first puzzle is being made, the page answers at once.
+  const t0 = Date.now();
+  await page.click('[data-go="study"]');
+  await page.click('[data-go="drill"]');
+  assert.ok(Date.now() - t0 < 1000, 'screens switch while the worker works');
+
+  await page.waitForSelector(`#${BOARD}[data-mode="puzzle"]`, { timeout: 60000 });
+  assert.ok(await page.isHidden('#drill-wait'));
+  // The queue fills up ahead in the background.
+  await page.waitForFunction(() => Number(document.getElementById('drill').dataset.ready) >= 2, null, { timeout: 60000 });
+  const gaps = await page.evaluate(() => window.gaps);
+  assert.ok(gaps.tick < 250, `the page's timers ran on time (longest gap ${gaps.tick.toFixed(0)} ms)`);
+  assert.ok(gaps.frame < 250, `frames kept coming (longest gap ${gaps.frame.toFixed(0)} ms)`);
+
+  const d = await stored(page);
+  assert.equal(d.theme, 'vcf');
+  assert.equal(d.rule, 'freestyle');
+  const p = d.current.puzzle;
+  assert.equal(p.theme, 'vcf');
+  assert.match(await page.textContent('#drill-message'), /to play and win with fours$/);
+  assert.match(await page.textContent('#drill-rating'), /not yet known/);
+  const s = await solve(page, BOARD, p.solution.line);
+  assert.equal(s.outcome, 'clean');
+  assert.match(await page.textContent('#drill-rating'), /^Your rating \d+ ± \d+ · 1 played, 1 solved clean$/);
+  const after1 = await stored(page);
+  assert.ok(after1.rating.rating > 1500, 'a clean solve raises the rating');
+  assert.ok(after1.current.rated);
+
+  // Next is ready at once.
+  await page.click('#drill [data-act="next"]');
+  const next = await boardState(page, BOARD);
+  assert.equal(next.mode, 'puzzle');
+  assert.equal(next.moves, '');
+  assert.notEqual((await stored(page)).current.puzzle.id, p.id);
+  // And after a reload the same puzzle is back.
+  const id = (await stored(page)).current.puzzle.id;
+  await page.reload();
+  await ready(page);
+  assert.equal(await page.getAttribute('html', 'data-screen'), 'drill');
+  assert.equal((await stored(page)).current.puzzle.id, id);
+  assert.equal((await boardState(page, BOARD)).mode, 'puzzle');
+  assert.deepEqual(errors, []);
+  await context.close();
+});
+
+test('the theme and rule filters decide what the worker makes next', async () => {
+  const { page, context, errors } = await open(env.browser, env.server.url);
+  await page.click('[data-go="drill"]');
+  await page.selectOption('#drill-rule', 'renju');
+  const renjuThemes = await page.$$eval('#drill-theme option', (o) => o.map((x) => x.value));
+  assert.deepEqual(renjuThemes, ['four-three', 'vcf', 'vct', 'defend', 'forbidden-trap', 'forbidden-win']);
+  await page.selectOption('#drill-rule', 'standard');
+  assert.deepEqual(await page.$$eval('#drill-theme option', (o) => o.map((x) => x.value)), ['four-three', 'vcf', 'vct', 'defend']);
+  await page.selectOption('#drill-theme', 'four-three');
+  assert.equal(await page.getAttribute('#drill', 'data-waiting'), 'true');
+  await page.waitForSelector(`#${BOARD}[data-mode="puzzle"][data-rule="standard"]`, { timeout: 60000 });
+  assert.match(await page.textContent('#drill-message'), /find the four-three and win$/);
+  const d = await stored(page);
+  assert.equal(d.current.puzzle.theme, 'four-three');
+  assert.equal(d.current.puzzle.rule, 'standard');
+  assert.deepEqual(errors, []);
+  await context.close();
+});

@@ -1,0 +1,86 @@
+// End-to-end: offline use. After one visit the service worker has cached the app, so with the
+// network off a reload still plays a puzzle (and Drill still makes puzzles in its worker). The
+// single-file build plays a puzzle, and drills, from a file:// URL.
+
+import { test } from 'node:test';
+import assert from 'node:assert/strict';
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
+import {
+  DIST,
+  addFromLibrary,
+  boardState,
+  context,
+  librarySet,
+  open,
+  ready,
+  solve,
+  useBrowser,
+} from './support.mjs';
+
+const CLUB = librarySet('fours-freestyle-club');
+const BOARD = 'tonight-board';
+
+const env = useBrowser();
+
+test('after a first visit, the app works with the network off', async () => {
+  const { page, context: ctx, errors } = await open(env.browser, env.server.url);
+  await page.evaluate(() => navigator.serviceWorker.ready);
+  await page.reload();
+  await ready(page);
+  assert.ok(await page.evaluate(() => navigator.serviceWorker.controller !== null), 'the page is controlled');
+  const cached = await page.evaluate(async () => {
+    const keys = await caches.keys();
+    const c = await caches.open(keys.find((k) => k.startsWith('fivefold-')));
+    return (await c.keys()).map((r) => new URL(r.url).pathname);
+  });
+  for (const f of ['/', '/app.js', '/worker.js', '/pkg/fivefold_web_bg.wasm', '/manifest.webmanifest', '/icon-512.png']) {
+    assert.ok(cached.includes(f), `${f} is cached`);
+  }
+
+  await ctx.setOffline(true);
+  const served = env.server.requests.length;
+  await page.reload();
+  await ready(page);
+  await addFromLibrary(page, CLUB.title);
+  const s = await solve(page, BOARD, CLUB.puzzles[0].solution.line);
+  assert.equal(s.outcome, 'clean');
+  // Drill's worker starts from the cache too.
+  await page.click('[data-go="drill"]');
+  await page.waitForSelector('#drill-board[data-mode="puzzle"]', { timeout: 60000 });
+  assert.equal(env.server.requests.length, served, 'nothing was fetched from the server while offline');
+  assert.deepEqual(errors, []);
+  await ctx.close();
+});
+
+test('the single-file build plays a puzzle from a file:// URL', async () => {
+  const file = join(DIST, 'fivefold.html');
+  const html = readFileSync(file, 'utf8');
+  const csp = /http-equiv="Content-Security-Policy" content="([^"]+)"/.exec(html)[1];
+  assert.match(csp, /script-src 'sha256-[A-Za-z0-9+/=]+' 'wasm-unsafe-eval'/);
+  assert.match(csp, /worker-src blob:/);
+  assert.doesNotMatch(csp, /unsafe-inline|'self'|https?:/);
+  assert.doesNotMatch(html, /<script[^>]*\bsrc=|<link[^>]*rel="(stylesheet|manifest)"/, 'nothing is loaded from other files');
+
+  const { page, context: ctx, errors } = await context(env.browser);
+  await page.goto(pathToFileURL(file).href);
+  await ready(page);
+  await addFromLibrary(page, CLUB.title);
+  const s = await solve(page, BOARD, CLUB.puzzles[0].solution.line);
+  assert.equal(s.outcome, 'clean');
+  // Progress is kept on file:// too.
+  await page.reload();
+  await ready(page);
+  assert.equal((await boardState(page, BOARD)).state, 'solved');
+  // The worker runs from a blob: URL.
+  await page.click('[data-go="drill"]');
+  await page.waitForSelector('#drill-board[data-mode="puzzle"]', { timeout: 60000 });
+  await page.click('[data-go="study"]');
+  await page.fill('#study-moves', 'h8 a1 i8 a3 j8 a5');
+  await page.click('#study-setup');
+  await page.click('[data-ask="vcf"]');
+  await page.waitForFunction(() => document.getElementById('study-answer').textContent.includes('wins with fours'));
+  assert.deepEqual(errors, []);
+  await ctx.close();
+});

@@ -1,0 +1,150 @@
+// End-to-end: share links carry a set in the URL fragment; a valid link adds the set to
+// Tonight and opens it, a damaged or cut-short one is refused with a message and loads
+// nothing; a title made of markup is shown as text and runs nothing; set files open too.
+
+import { test } from 'node:test';
+import assert from 'node:assert/strict';
+import {
+  addFromLibrary,
+  banners,
+  boardState,
+  librarySet,
+  open,
+  ready,
+  settled,
+  solve,
+  tap,
+  useBrowser,
+} from './support.mjs';
+
+const CLUB = librarySet('fours-freestyle-club');
+const BOARD = 'tonight-board';
+
+const env = useBrowser();
+
+const setCount = (page) => page.$$eval('#tonight-sets li', (l) => l.length);
+
+// A share code made by the app's own engine (the page's wasm module) for a set object.
+function encode(page, set) {
+  return page.evaluate(async (json) => {
+    const m = await import('./pkg/fivefold_web.js');
+    return m.shareEncode(json);
+  }, JSON.stringify(set));
+}
+
+test('a share link round-trips: Share makes it, opening it adds the set to Tonight', async () => {
+  const a = await open(env.browser, env.server.url);
+  await addFromLibrary(a.page, CLUB.title);
+  await a.page.click('#tonight-share');
+  const link = await a.page.inputValue('#tonight-share-link');
+  assert.ok(link.startsWith(`${env.server.url}#set=`), link);
+  const code = link.slice(link.indexOf('#set=') + 5);
+  assert.match(code, /^[A-Za-z0-9_-]+$/, 'URL-safe');
+  const json = Buffer.byteLength(JSON.stringify(CLUB));
+  assert.ok(code.length < json / 4, `compact: ${code.length} characters for ${json} bytes of set file`);
+  assert.match(await a.page.textContent('#tonight-share-note'), new RegExp(`^${link.length} characters\\.$`));
+  assert.deepEqual(a.errors, []);
+  await a.context.close();
+
+  // A second device opens the link: the set is added, opened, and playable.
+  const b = await open(env.browser, link);
+  await b.page.waitForSelector(`#${BOARD}[data-mode="puzzle"]`);
+  assert.equal(await b.page.textContent('#tonight-set-title'), CLUB.title);
+  assert.deepEqual(await banners(b.page), [`Added "${CLUB.title}" to Tonight.`]);
+  assert.equal(b.page.url(), env.server.url, 'the fragment is cleared once read');
+  await solve(b.page, BOARD, CLUB.puzzles[0].solution.line);
+  // Opening the same link again finds the set already there.
+  await b.page.goto(link);
+  await ready(b.page);
+  assert.match((await banners(b.page)).at(-1), /is already in Tonight: opened it\./);
+  await b.page.click('#tonight-back');
+  assert.equal(await setCount(b.page), 1);
+  assert.equal((await b.page.$$eval('#tonight-sets .meta', (m) => m.map((x) => x.textContent)))[0],
+    `${CLUB.puzzles.length} puzzles · freestyle · 1 solved`);
+  assert.deepEqual(b.errors, []);
+  await b.context.close();
+});
+
+test('a damaged or truncated link is refused with a message and loads nothing', async () => {
+  const { page, context, errors } = await open(env.browser, env.server.url);
+  const code = await encode(page, CLUB);
+  const flip = (c) => (c === 'A' ? 'B' : 'A');
+  const mid = Math.floor(code.length / 2);
+  const damaged = code.slice(0, mid) + flip(code[mid]) + code.slice(mid + 1);
+  for (const bad of [damaged, code.slice(0, code.length - 7), code.slice(0, 12)]) {
+    await page.goto(`${env.server.url}#set=${bad}`);
+    await ready(page);
+    const b = await banners(page);
+    assert.equal(b.length, 1);
+    assert.match(b[0], /^This link cannot be opened: this share code is damaged or cut short \(its checksum does not match\); nothing was loaded$/);
+    assert.equal(await page.getAttribute('#banners .banner', 'role'), 'alert');
+    assert.equal(await setCount(page), 0, 'nothing was loaded');
+    assert.ok(await page.isVisible('#tonight-list'));
+  }
+  await page.goto(`${env.server.url}#set=${encodeURIComponent('<not a code>')}`);
+  await ready(page);
+  assert.match((await banners(page))[0], /^This link cannot be opened: this is not a Fivefold share code/);
+  assert.equal(await page.evaluate(() => localStorage.getItem('fivefold.sets')), null);
+  // A link arriving while the app is open (hashchange) is read too.
+  await page.evaluate((c) => { location.hash = `set=${c}`; }, code);
+  await page.waitForSelector(`#${BOARD}[data-mode="puzzle"]`);
+  assert.equal(await page.textContent('#tonight-set-title'), CLUB.title);
+  assert.deepEqual(errors, []);
+  await context.close();
+});
+
+test('a set whose title is markup shows the title as plain text and runs no script', async () => {
+  const { page, context, errors } = await open(env.browser, env.server.url);
+  const title = '<img src=x onerror="window.__pwned=1;document.title=\'pwned\'">';
+  const set = { ...CLUB, title, puzzles: CLUB.puzzles.slice(0, 2) };
+  const code = await encode(page, set);
+  await page.goto(`${env.server.url}#set=${code}`);
+  await ready(page);
+  await page.waitForSelector(`#${BOARD}[data-mode="puzzle"]`);
+  assert.equal(await page.textContent('#tonight-set-title'), title);
+  assert.deepEqual(await banners(page), [`Added "${title}" to Tonight.`]);
+  await page.click('#tonight-back');
+  assert.equal(await page.textContent('#tonight-sets .set-title'), title);
+  await page.click('#tonight-sets button.primary');
+  await page.click('#tonight-play [data-act="next"]');
+  await page.click('#tonight-play [data-act="next"]');
+  await page.waitForSelector('#tonight-summary:not([hidden])');
+  assert.equal(await page.textContent('#summary-title'), title);
+  assert.equal(await page.$$eval('img', (i) => i.length), 0, 'no element was made from the title');
+  assert.equal(await page.evaluate(() => window.__pwned), undefined, 'no script ran');
+  assert.equal(await page.title(), 'Fivefold');
+  assert.deepEqual(errors, []);
+  await context.close();
+});
+
+test('a set file picked from the device opens; a bad one says what is wrong and loads nothing', async () => {
+  const { page, context, errors } = await open(env.browser, env.server.url);
+  const file = (name, body) => page.setInputFiles('#set-file', {
+    name,
+    mimeType: 'application/json',
+    buffer: Buffer.from(body),
+  });
+  const broken = structuredClone(CLUB);
+  broken.puzzles[3].black[0] = 'z99';
+  await file('broken.json', JSON.stringify(broken));
+  await page.waitForFunction(() => document.querySelector('#banners .banner'));
+  const msg = (await banners(page))[0];
+  assert.match(msg, /^"broken\.json" cannot be opened: .*z99.*Nothing was loaded\.$/);
+  assert.match(msg, new RegExp(CLUB.puzzles[3].id), 'the message names the puzzle');
+  assert.equal(await setCount(page), 0);
+  await file('not-json.json', 'hello');
+  await page.waitForFunction(() => document.querySelectorAll('#banners .banner').length === 1 &&
+    document.querySelector('#banners .banner p').textContent.includes('not-json.json'));
+  assert.equal(await setCount(page), 0);
+
+  const set = librarySet('fours-renju');
+  set.title = 'Harbour Street Circle: renju fours, week 3';
+  await file('week3.json', JSON.stringify(set, null, 2));
+  await page.waitForSelector(`#${BOARD}[data-mode="puzzle"][data-rule="renju"]`);
+  assert.equal(await page.textContent('#tonight-set-title'), set.title);
+  await tap(page, BOARD, set.puzzles[0].solution.line[0]);
+  await settled(page, BOARD, 2);
+  assert.equal((await boardState(page, BOARD)).state, 'playing');
+  assert.deepEqual(errors, []);
+  await context.close();
+});

@@ -1,0 +1,223 @@
+// End-to-end: progress is saved after every move and survives a reload; a damaged stored copy
+// is recovered from the last good one with a message; a full storage quota is reported and
+// play goes on; a backup file can be exported and imported, and a bad one changes nothing.
+
+import { test } from 'node:test';
+import assert from 'node:assert/strict';
+import { readFileSync } from 'node:fs';
+import {
+  addFromLibrary,
+  banners,
+  boardState,
+  colourAt,
+  isBlack,
+  librarySet,
+  open,
+  ready,
+  settled,
+  tap,
+  useBrowser,
+} from './support.mjs';
+
+const CLUB = librarySet('fours-freestyle-club');
+const BOARD = 'tonight-board';
+const LINE = CLUB.puzzles[0].solution.line;
+
+const env = useBrowser();
+
+// The checksum of web/store.js (FNV-1a over UTF-16 code units), to forge a well-formed backup.
+function fnv(text) {
+  let h = 0x811c9dc5;
+  for (let i = 0; i < text.length; i++) {
+    h ^= text.charCodeAt(i);
+    h = Math.imul(h, 0x01000193) >>> 0;
+  }
+  return h.toString(16).padStart(8, '0');
+}
+
+// Opens the club set and plays the first move of puzzle 1 (and the reply).
+async function started() {
+  const c = await open(env.browser, env.server.url);
+  await addFromLibrary(c.page, CLUB.title);
+  await tap(c.page, BOARD, LINE[0]);
+  await settled(c.page, BOARD, 2);
+  return c;
+}
+
+test('progress survives a reload, move by move', async () => {
+  const { page, context, errors } = await started();
+  const stored = await page.evaluate(() => JSON.parse(localStorage.getItem('fivefold.tonight')));
+  assert.equal(stored.format, 'fivefold-store');
+  assert.equal(stored.version, 1);
+  assert.equal(stored.data.view, 'play');
+  assert.deepEqual(Object.values(stored.data.progress)[0].puzzles[CLUB.puzzles[0].id].played, [LINE[0]]);
+
+  await page.reload();
+  await ready(page);
+  let s = await boardState(page, BOARD);
+  assert.equal(s.moves, `${LINE[0]} ${LINE[1]}`);
+  assert.equal(s.state, 'playing');
+  assert.ok(isBlack(await colourAt(page, BOARD, LINE[0])));
+  assert.equal(await page.textContent('#tonight-set-title'), CLUB.title);
+  // Play on from where the reload left off, then move to puzzle 2 and reload again.
+  await tap(page, BOARD, LINE[2]);
+  await settled(page, BOARD, 4);
+  await page.click('#tonight-marks li:nth-child(2) button');
+  await page.waitForFunction(() => document.getElementById('tonight-count').textContent.startsWith('Puzzle 2 '));
+  await page.reload();
+  await ready(page);
+  assert.equal(await page.textContent('#tonight-count'), `Puzzle 2 of ${CLUB.puzzles.length}`);
+  await page.click('#tonight-marks li:nth-child(1) button');
+  s = await boardState(page, BOARD);
+  assert.equal(s.moves, LINE.slice(0, 4).join(' '));
+  assert.deepEqual(await banners(page), []);
+  assert.deepEqual(errors, []);
+  await context.close();
+});
+
+test('a corrupted stored value is recovered from the last good copy, with a message', async () => {
+  const { page, context, errors } = await started();
+  // A crash mid-write: the main copy is cut short.
+  await page.evaluate(() => {
+    const v = localStorage.getItem('fivefold.tonight');
+    localStorage.setItem('fivefold.tonight', v.slice(0, Math.floor(v.length / 2)));
+  });
+  await page.reload();
+  await ready(page);
+  const b = await banners(page);
+  assert.equal(b.length, 1, `one message: ${b}`);
+  assert.match(b[0], /^Your saved Tonight progress was damaged \(it is not readable \(cut short or overwritten\)\); the last good copy, from .+, was restored\.$/);
+  const s = await boardState(page, BOARD);
+  assert.equal(s.moves, `${LINE[0]} ${LINE[1]}`, 'the progress is back');
+  // The main copy is whole again.
+  const main = await page.evaluate(() => JSON.parse(localStorage.getItem('fivefold.tonight')).version);
+  assert.equal(main, 1);
+
+  // A copy that still reads as JSON but was altered fails its checksum.
+  await page.evaluate(() => {
+    const v = JSON.parse(localStorage.getItem('fivefold.tonight'));
+    v.data.name = 'someone else';
+    localStorage.setItem('fivefold.tonight', JSON.stringify(v));
+  });
+  await page.reload();
+  await ready(page);
+  assert.match((await banners(page))[0], /checksum does not match.*last good copy/);
+
+  // Both copies damaged: a fresh start, said so, and the damaged copy kept aside.
+  await page.evaluate(() => {
+    localStorage.setItem('fivefold.tonight', '{"format":"fivefold-store"');
+    localStorage.setItem('fivefold.tonight.prev', 'garbage');
+  });
+  await page.reload();
+  await ready(page);
+  assert.match((await banners(page))[0], /no good copy was left; it starts afresh/);
+  assert.equal(await page.evaluate(() => localStorage.getItem('fivefold.tonight.damaged')), '{"format":"fivefold-store"');
+  assert.ok(await page.isVisible('#tonight-list'));
+  assert.deepEqual(errors, []);
+  await context.close();
+});
+
+test('a full storage quota is reported and play goes on', async () => {
+  const { page, context, errors } = await started();
+  // Fill the origin's storage to the brim.
+  const filled = await page.evaluate(() => {
+    const chunk = 'x'.repeat(256 * 1024);
+    let n = 0;
+    for (;;) {
+      try {
+        localStorage.setItem(`junk.${n}`, chunk);
+        n++;
+      } catch (e) {
+        if (e.name !== 'QuotaExceededError') throw e;
+        break;
+      }
+    }
+    for (let size = 128 * 1024; size >= 1; size = Math.floor(size / 2)) {
+      try {
+        localStorage.setItem(`junk.tail.${size}`, 'y'.repeat(size));
+      } catch {
+        // Full at this size: try a smaller piece.
+      }
+    }
+    return n;
+  });
+  assert.ok(filled > 0);
+  await tap(page, BOARD, LINE[2]);
+  const s = await settled(page, BOARD, 4);
+  assert.equal(s.state, 'playing', 'the move was graded and the reply played');
+  const b = await banners(page);
+  assert.equal(b.length, 1);
+  assert.match(b[0], /storage is full, so your latest progress is not being saved\. Play goes on/);
+  await page.waitForSelector('#banners [data-id="quota"][data-kind="warn"]');
+  // Play goes on to the end, and the message is not repeated on every move.
+  for (let i = 4; i < LINE.length; i += 2) {
+    await tap(page, BOARD, LINE[i]);
+    await settled(page, BOARD, Math.min(i + 2, LINE.length));
+  }
+  assert.equal((await boardState(page, BOARD)).state, 'solved');
+  assert.equal((await banners(page)).length, 1);
+  // Space freed: the next save succeeds and the warning goes.
+  await page.evaluate(() => {
+    for (const k of Object.keys(localStorage)) if (k.startsWith('junk.')) localStorage.removeItem(k);
+  });
+  await page.click('#tonight-play [data-act="next"]');
+  await page.waitForFunction(() => !document.querySelector('#banners [data-id="quota"]'));
+  assert.deepEqual(errors, []);
+  await context.close();
+});
+
+test('a backup file is exported and imported; a bad one changes nothing and says why', async () => {
+  const first = await started();
+  await first.page.click('#open-settings');
+  const [download] = await Promise.all([
+    first.page.waitForEvent('download'),
+    first.page.click('#export-backup'),
+  ]);
+  assert.match(download.suggestedFilename(), /^fivefold-backup-\d{4}-\d{2}-\d{2}\.json$/);
+  const text = readFileSync(await download.path(), 'utf8');
+  const backup = JSON.parse(text);
+  assert.equal(backup.format, 'fivefold-backup');
+  assert.equal(backup.version, 1);
+  assert.deepEqual(Object.keys(backup.data).sort(), ['drill', 'sets', 'settings', 'study', 'tonight']);
+  await first.context.close();
+
+  const { page, context, errors } = await open(env.browser, env.server.url);
+  const importFile = async (name, body) => {
+    await page.click('#open-settings');
+    await page.setInputFiles('#import-backup', { name, mimeType: 'application/json', buffer: Buffer.from(body) });
+  };
+  // Bad files: not JSON, a changed one, an invalid part. Each is refused and nothing changes.
+  const altered = JSON.parse(text);
+  altered.data.tonight.name = 'changed by hand';
+  // A backup whose checksum is right but whose set is not valid.
+  const invalid = JSON.parse(text);
+  invalid.data.sets.list[0].json = '{"format":"fivefold-set","version":1}';
+  invalid.sum = fnv(JSON.stringify(invalid.data));
+  for (const [name, body, why] of [
+    ['cut.json', text.slice(0, 100), /not JSON/],
+    ['altered.json', JSON.stringify(altered), /checksum does not match/],
+    ['other.json', '{"hello": 1}', /not a Fivefold backup/],
+    ['invalid.json', JSON.stringify(invalid), /its sets part is not usable: set [0-9a-f]{8} is not valid/],
+  ]) {
+    await importFile(name, body);
+    await page.waitForFunction((n) => document.getElementById('settings-note').textContent.includes(n), name);
+    const note = await page.textContent('#settings-note');
+    assert.match(note, why);
+    assert.match(note, /Nothing was changed\.$/);
+    await page.click('#close-settings');
+    assert.equal(await page.$$eval('#tonight-sets li', (l) => l.length), 0, `${name} added nothing`);
+  }
+  assert.equal(await page.evaluate(() => localStorage.getItem('fivefold.sets')), null);
+  // The real backup brings the set and the progress back.
+  await importFile('fivefold-backup.json', text);
+  await page.waitForFunction(() => document.getElementById('settings-note').textContent.includes('is restored'));
+  await page.click('#close-settings');
+  await page.waitForSelector(`#${BOARD}[data-mode="puzzle"]`);
+  assert.equal(await page.textContent('#tonight-set-title'), CLUB.title);
+  assert.equal((await boardState(page, BOARD)).moves, `${LINE[0]} ${LINE[1]}`);
+  await page.reload();
+  await ready(page);
+  assert.equal((await boardState(page, BOARD)).moves, `${LINE[0]} ${LINE[1]}`, 'and it is stored');
+  assert.deepEqual(errors, []);
+  await context.close();
+});

@@ -1,0 +1,174 @@
+// Saved progress in localStorage: one document per concern ("settings", "tonight", "drill",
+// "study"), each in a versioned envelope with a checksum.
+//
+// Writing is crash-safe: the new copy goes to the main key, is read back and checked, and only
+// then is copied to the ".prev" key, so at every moment at least one of the two holds a whole,
+// checked copy. Loading checks the main copy and falls back to ".prev" with a message; a
+// damaged copy that cannot be recovered is kept aside under ".damaged" and the app starts
+// afresh, again with a message. A full quota never stops play: the save reports failure and
+// the page shows a banner.
+
+export const STORE_VERSION = 1;
+const PREFIX = 'fivefold.';
+const FORMAT = 'fivefold-store';
+
+// FNV-1a, 32 bits, over the UTF-16 code units: enough to tell a damaged copy from a whole one.
+export function checksum(text) {
+  let h = 0x811c9dc5;
+  for (let i = 0; i < text.length; i++) {
+    h ^= text.charCodeAt(i);
+    h = Math.imul(h, 0x01000193) >>> 0;
+  }
+  return h.toString(16).padStart(8, '0');
+}
+
+function envelope(name, data) {
+  const body = JSON.stringify(data);
+  return `{"format":"${FORMAT}","version":${STORE_VERSION},"name":${JSON.stringify(name)},` +
+    `"saved":${JSON.stringify(new Date().toISOString())},"sum":"${checksum(body)}","data":${body}}`;
+}
+
+// The data in a stored text, checked; throws a short reason when it cannot be used.
+function open(name, text, validate) {
+  let doc;
+  try {
+    doc = JSON.parse(text);
+  } catch {
+    throw new Error('it is not readable (cut short or overwritten)');
+  }
+  if (!doc || typeof doc !== 'object' || doc.format !== FORMAT) throw new Error('it is not Fivefold data');
+  if (doc.version !== STORE_VERSION) throw new Error(`it has version ${doc.version}, not ${STORE_VERSION}`);
+  if (doc.name !== name) throw new Error(`it holds "${doc.name}", not "${name}"`);
+  if (doc.sum !== checksum(JSON.stringify(doc.data))) throw new Error('its checksum does not match');
+  const why = validate(doc.data);
+  if (why) throw new Error(why);
+  return { data: doc.data, saved: doc.saved };
+}
+
+function isQuota(e) {
+  return e instanceof DOMException &&
+    (e.name === 'QuotaExceededError' || e.name === 'NS_ERROR_DOM_QUOTA_REACHED' || e.code === 22);
+}
+
+let quotaHandler = () => {};
+let savedHandler = () => {};
+
+/** `onFull` is called when a save fails for lack of space; `onSaved` after a save succeeds. */
+export function onStorageEvents({ onFull, onSaved }) {
+  quotaHandler = onFull ?? quotaHandler;
+  savedHandler = onSaved ?? savedHandler;
+}
+
+function storage() {
+  try {
+    return window.localStorage;
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * Saves `data` under `name`. Returns true when it is safely stored, false when it could not be
+ * (full quota, storage switched off); play goes on either way.
+ */
+export function save(name, data) {
+  const ls = storage();
+  if (!ls) return false;
+  const key = PREFIX + name;
+  const text = envelope(name, data);
+  try {
+    ls.setItem(key, text);
+    if (ls.getItem(key) !== text) throw new Error('read back differs');
+    ls.setItem(`${key}.prev`, text);
+  } catch (e) {
+    if (isQuota(e)) quotaHandler(name);
+    return false;
+  }
+  savedHandler(name);
+  return true;
+}
+
+/**
+ * Loads the document `name`. `validate(data)` returns a reason string when the data is not
+ * usable, or nothing. Returns { data, note }: `data` is null when there is nothing usable
+ * (start afresh), `note` a sentence for the player when something had to be recovered.
+ */
+export function load(name, validate, what = name) {
+  const ls = storage();
+  if (!ls) return { data: null, note: null };
+  const key = PREFIX + name;
+  const main = ls.getItem(key);
+  const prev = ls.getItem(`${key}.prev`);
+  if (main === null && prev === null) return { data: null, note: null };
+  let mainWhy = null;
+  if (main !== null) {
+    try {
+      return { data: open(name, main, validate).data, note: null };
+    } catch (e) {
+      mainWhy = e.message;
+    }
+  }
+  if (prev !== null) {
+    try {
+      const got = open(name, prev, validate);
+      try {
+        ls.setItem(key, prev);
+      } catch {
+        // The recovered copy is in memory and will be written with the next save.
+      }
+      const when = got.saved ? new Date(got.saved).toLocaleString() : 'earlier';
+      const note = mainWhy
+        ? `Your saved ${what} was damaged (${mainWhy}); the last good copy, from ${when}, was restored.`
+        : null;
+      return { data: got.data, note };
+    } catch {
+      // Both copies are unusable: fall through.
+    }
+  }
+  try {
+    if (main !== null) ls.setItem(`${key}.damaged`, main);
+  } catch {
+    // Keeping the damaged copy is a courtesy only.
+  }
+  return {
+    data: null,
+    note: `Your saved ${what} was damaged (${mainWhy ?? 'unreadable'}) and no good copy was left; ` +
+      'it starts afresh (the damaged copy is kept aside).',
+  };
+}
+
+/** Checks a whole backup file's text; returns { parts } or throws with a reason. */
+export function readBackup(text, validators) {
+  let doc;
+  try {
+    doc = JSON.parse(text);
+  } catch {
+    throw new Error('the file is not JSON (it may be cut short)');
+  }
+  if (!doc || typeof doc !== 'object' || doc.format !== 'fivefold-backup') {
+    throw new Error('the file is not a Fivefold backup');
+  }
+  if (doc.version !== STORE_VERSION) {
+    throw new Error(`the backup has version ${doc.version}; this app reads version ${STORE_VERSION}`);
+  }
+  if (!doc.data || typeof doc.data !== 'object') throw new Error('the backup holds no data');
+  if (doc.sum !== checksum(JSON.stringify(doc.data))) {
+    throw new Error('the backup\'s checksum does not match (it was changed or damaged)');
+  }
+  const parts = {};
+  for (const [name, validate] of Object.entries(validators)) {
+    const part = doc.data[name];
+    if (part === undefined || part === null) continue;
+    const why = validate(part);
+    if (why) throw new Error(`its ${name} part is not usable: ${why}`);
+    parts[name] = part;
+  }
+  return parts;
+}
+
+/** A backup file's text holding the given parts. */
+export function makeBackup(parts) {
+  const body = JSON.stringify(parts);
+  return `{"format":"fivefold-backup","version":${STORE_VERSION},` +
+    `"exported":${JSON.stringify(new Date().toISOString())},"sum":"${checksum(body)}","data":${body}}\n`;
+}

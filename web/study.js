@@ -1,0 +1,226 @@
+// Study board: set up any position (tap stones, or paste a move list), choose the rule, and ask
+// the engine in the worker: a VCF? a VCT? which moves defend? The answer is given in words and
+// its line can be stepped through. A long search can be cancelled.
+
+import { BoardView } from './board.js';
+import { Cancelled, Jobs } from './jobs.js';
+import { save } from './store.js';
+import { $, POINT_NAME, RULES, announce } from './ui.js';
+
+const TOOLS = ['play', 'black', 'white', 'erase'];
+// The node budget of a study search (the worker's searches stop there with "unknown").
+const NODES = 3_000_000;
+
+/** Why stored Study board data cannot be used, or null. */
+export function checkStudy(d) {
+  if (!d || typeof d !== 'object') return 'it is empty';
+  if (![15, 19].includes(d.size) || !RULES.includes(d.rule) || !TOOLS.includes(d.tool)) return 'the board settings are unknown';
+  if (!['black', 'white'].includes(d.toMove)) return 'the side to move is unknown';
+  for (const list of [d.black, d.white]) {
+    if (!Array.isArray(list) || list.length > 361 || !list.every((m) => typeof m === 'string' && POINT_NAME.test(m))) {
+      return 'the stones are malformed';
+    }
+  }
+  return null;
+}
+
+export function emptyStudy() {
+  return { size: 15, rule: 'freestyle', tool: 'play', toMove: 'black', black: [], white: [] };
+}
+
+export class Study {
+  constructor(app) {
+    this.app = app;
+    this.data = emptyStudy();
+    this.jobs = new Jobs();
+    this.board = new BoardView($('study-board'), {
+      log: $('study-log'),
+      message: $('study-message'),
+      onChange: (s, why) => this.changed(s, why),
+    });
+    this.t = this.board.trainer;
+    $('study-size').addEventListener('change', (e) => this.setSize(Number(e.target.value)));
+    $('study-rule').addEventListener('change', (e) => this.setRule(e.target.value));
+    for (const r of document.querySelectorAll('#study-tools input')) {
+      r.addEventListener('change', () => {
+        this.data.tool = r.value;
+        this.t.studyTool(r.value);
+        this.save();
+      });
+    }
+    for (const r of document.querySelectorAll('#study-side input')) {
+      r.addEventListener('change', () => {
+        this.t.studyToMove(r.value);
+        this.board.changed('side');
+      });
+    }
+    for (const b of document.querySelectorAll('#study [data-ask]')) {
+      b.addEventListener('click', () => this.ask(b.dataset.ask));
+    }
+    $('study-cancel').addEventListener('click', () => this.cancel());
+    $('study-prev').addEventListener('click', () => this.step(-1));
+    $('study-next').addEventListener('click', () => this.step(1));
+    $('study-undo').addEventListener('click', () => {
+      this.board.undo();
+    });
+    $('study-clear').addEventListener('click', () => {
+      this.t.studyClear();
+      this.board.say(['The board is cleared.'], 'info');
+      this.board.changed('clear');
+    });
+    $('study-setup').addEventListener('click', () => this.paste());
+  }
+
+  init(data) {
+    this.cancel(true);
+    this.data = data ?? emptyStudy();
+    const d = this.data;
+    try {
+      this.t.studyLoad(d.size, d.rule, d.black, d.white, d.toMove);
+    } catch (e) {
+      this.board.note(`The saved position could not be set up (${e}); the board is empty.`, 'refused');
+      this.data = emptyStudy();
+      this.t.studyNew(15, 'freestyle');
+    }
+    this.t.studyTool(this.data.tool);
+    this.board.clearLog();
+    this.board.changed('load');
+    this.renderControls();
+  }
+
+  applySettings(s) {
+    this.board.setOptions(s);
+  }
+
+  save() {
+    save('study', this.data);
+  }
+
+  renderControls() {
+    const d = this.data;
+    $('study-size').value = String(d.size);
+    $('study-rule').value = d.rule;
+    for (const r of document.querySelectorAll('#study-tools input')) r.checked = r.value === d.tool;
+    for (const r of document.querySelectorAll('#study-side input')) r.checked = r.value === d.toMove;
+  }
+
+  changed(s, why) {
+    if (s.mode !== 'study') return;
+    const pos = this.t.studyPosition();
+    Object.assign(this.data, { size: pos.size, rule: pos.rule, black: pos.black, white: pos.white, toMove: pos.toMove });
+    for (const r of document.querySelectorAll('#study-side input')) r.checked = r.value === pos.toMove;
+    if (why !== 'step') this.hideLine();
+    this.save();
+  }
+
+  setSize(size) {
+    const d = this.data;
+    try {
+      this.t.studyLoad(size, d.rule, d.black, d.white, d.toMove);
+    } catch {
+      this.t.studyNew(size, d.rule);
+      this.board.say([`The stones do not fit on ${size} × ${size}: the board is empty.`], 'info');
+    }
+    this.t.studyTool(d.tool);
+    this.board.changed('size');
+    this.renderControls();
+  }
+
+  setRule(rule) {
+    const d = this.data;
+    try {
+      this.t.studyLoad(d.size, rule, d.black, d.white, d.toMove);
+    } catch (e) {
+      this.board.say([`${e}`], 'refused');
+      this.renderControls();
+      return;
+    }
+    this.t.studyTool(d.tool);
+    this.board.changed('rule');
+    this.renderControls();
+  }
+
+  paste() {
+    const text = $('study-moves').value;
+    try {
+      this.t.studyPaste(text);
+    } catch (e) {
+      this.board.say([`Not set up: ${e}.`], 'refused');
+      return;
+    }
+    this.data.tool = 'play';
+    this.board.say([`Set up ${text.trim().split(/[\s,;]+/).filter(Boolean).length} moves.`], 'info');
+    this.board.changed('paste');
+    this.renderControls();
+  }
+
+  busy(on, text = 'Searching…') {
+    $('study-busy').hidden = !on;
+    $('study-busy-text').textContent = text;
+    $('study').dataset.busy = on ? 'true' : 'false';
+    for (const b of document.querySelectorAll('#study [data-ask]')) b.disabled = on;
+  }
+
+  async ask(search) {
+    const pos = this.t.studyPosition();
+    const name = { vcf: 'a win with fours (VCF)', vct: 'a win with threes and fours (VCT)', defend: 'the defences' }[search];
+    this.busy(true, `Searching for ${name}…`);
+    $('study-answer').replaceChildren();
+    this.hideLine();
+    const started = performance.now();
+    let r;
+    try {
+      r = await this.jobs.run('solve', { query: { ...pos, search, nodes: NODES } });
+    } catch (e) {
+      this.busy(false);
+      if (e instanceof Cancelled) return;
+      this.answer([`No answer: ${e.message}.`], 'refused');
+      return;
+    }
+    this.busy(false);
+    const secs = ((performance.now() - started) / 1000).toFixed(1);
+    this.answer([...r.say, `(${r.nodes.toLocaleString('en')} positions searched in ${secs} s.)`], r.result);
+    if (r.line.length) {
+      const first = search === 'defend' ? (pos.toMove === 'black' ? 'white' : 'black') : pos.toMove;
+      this.t.studyShowLine(r.line, first);
+      this.lineTotal = r.line.length;
+      $('study-stepper').hidden = false;
+      $('study-step').textContent = `0 of ${r.line.length}`;
+      $('study').dataset.line = String(r.line.length);
+    }
+  }
+
+  answer(lines, kind) {
+    const box = $('study-answer');
+    box.replaceChildren(...lines.map((l) => {
+      const p = document.createElement('p');
+      p.textContent = l;
+      return p;
+    }));
+    box.dataset.kind = kind;
+  }
+
+  hideLine() {
+    $('study-stepper').hidden = true;
+    delete $('study').dataset.line;
+  }
+
+  step(delta) {
+    const r = this.t.studyStep(delta);
+    $('study-step').textContent = r.shown ? `${r.shown} of ${r.total}: ${r.say.replace(/^\d+\. /, '')}` : `0 of ${r.total}`;
+    $('study').dataset.shown = String(r.shown);
+    announce(r.say);
+    this.board.animate();
+    this.board.changed('step');
+  }
+
+  cancel(quiet = false) {
+    const was = this.jobs.busy;
+    this.jobs.cancel();
+    this.busy(false);
+    if (was && !quiet) {
+      this.answer(['Search cancelled. Ask again, or ask a smaller question.'], 'cancelled');
+      announce('Search cancelled.');
+    }
+  }
+}

@@ -1,0 +1,430 @@
+// Tonight: the sets a student has been given (from a link, a file or the starter library),
+// played puzzle by puzzle with progress, and a summary with a result code at the end.
+
+import { librarySets, parseSet, resultCode, setKey, shareEncode, shareDecode } from './pkg/fivefold_web.js';
+import { BoardView } from './board.js';
+import { save } from './store.js';
+import { $, POINT_NAME, announce, banner, el, fill, isInt } from './ui.js';
+
+const OUTCOMES = ['untried', 'trying', 'clean', 'helped', 'failed'];
+const OUTCOME_WORDS = {
+  untried: 'not tried',
+  trying: 'in progress',
+  clean: 'solved',
+  helped: 'solved with help',
+  failed: 'failed',
+};
+const MAX_SET_BYTES = 2_000_000;
+
+/** Why a stored list of sets cannot be used, or null. */
+export function checkSets(d) {
+  if (!d || !Array.isArray(d.list)) return 'it has no list of sets';
+  for (const s of d.list) {
+    if (!s || typeof s.key !== 'string' || !/^[0-9a-f]{8}$/.test(s.key)) return 'a set has no key';
+    if (typeof s.title !== 'string' || typeof s.json !== 'string') return `set ${s.key} is incomplete`;
+    try {
+      parseSet(s.json);
+    } catch (e) {
+      return `set ${s.key} is not valid (${e})`;
+    }
+  }
+  return null;
+}
+
+/** Why stored Tonight progress cannot be used, or null. */
+export function checkTonight(d) {
+  if (!d || typeof d !== 'object') return 'it is empty';
+  if (d.open !== null && typeof d.open !== 'string') return 'the open set is not a key';
+  if (!['list', 'play', 'summary'].includes(d.view)) return 'the view is unknown';
+  if (typeof d.name !== 'string' || d.name.length > 64) return 'the name is not text';
+  if (!d.progress || typeof d.progress !== 'object') return 'there is no progress';
+  for (const [key, p] of Object.entries(d.progress)) {
+    if (!p || !isInt(p.index, 0, 10000) || !p.puzzles || typeof p.puzzles !== 'object') {
+      return `the progress of set ${key} is malformed`;
+    }
+    for (const [id, r] of Object.entries(p.puzzles)) {
+      if (!r || !Array.isArray(r.played) || !r.played.every((m) => typeof m === 'string' && POINT_NAME.test(m)) ||
+          !isInt(r.wrong, 0, 1e6) || !isInt(r.hints, 0, 3) || !OUTCOMES.includes(r.outcome)) {
+        return `the record of puzzle ${id} is malformed`;
+      }
+    }
+  }
+  return null;
+}
+
+export function emptyTonight() {
+  return { open: null, view: 'list', name: '', progress: {} };
+}
+
+function ruleWords(puzzles) {
+  const rules = [...new Set(puzzles.map((p) => p.rule))];
+  return rules.join(', ');
+}
+
+export class Tonight {
+  constructor(app) {
+    this.app = app;
+    this.sets = { list: [] };
+    this.data = emptyTonight();
+    this.parsed = new Map();
+    this.library = null;
+    this.board = new BoardView($('tonight-board'), {
+      log: $('tonight-log'),
+      message: $('tonight-message'),
+      onChange: (s, why) => this.changed(s, why),
+    });
+    for (const b of $('tonight-play').querySelectorAll('[data-act]')) {
+      b.addEventListener('click', () => this.act(b.dataset.act));
+    }
+    $('tonight-back').addEventListener('click', () => this.showList());
+    $('tonight-share').addEventListener('click', () => this.share());
+    $('set-file').addEventListener('change', (e) => this.pickFile(e.target));
+    $('summary-back').addEventListener('click', () => this.openSet(this.data.open));
+    $('summary-sets').addEventListener('click', () => this.showList());
+    $('student-name').addEventListener('input', (e) => {
+      this.data.name = e.target.value.slice(0, 24);
+      this.saveProgress();
+      this.renderCode();
+    });
+    $('copy-code').addEventListener('click', () => this.copy($('result-code').textContent, 'The result code'));
+    $('library').addEventListener('toggle', () => this.renderLibrary());
+    const list = $('tonight-list');
+    list.addEventListener('dragover', (e) => e.preventDefault());
+    list.addEventListener('drop', (e) => {
+      e.preventDefault();
+      const f = e.dataTransfer?.files?.[0];
+      if (f) this.readFile(f);
+    });
+  }
+
+  init(sets, data) {
+    this.sets = sets ?? { list: [] };
+    this.data = data ?? emptyTonight();
+    this.parsed.clear();
+    const key = this.data.open;
+    if (key && this.set(key)) {
+      if (this.data.view === 'summary') this.showSummary();
+      else if (this.data.view === 'play') this.openSet(key);
+      else this.showList();
+    } else {
+      this.data.open = null;
+      this.showList();
+    }
+  }
+
+  applySettings(s) {
+    this.board.setOptions(s);
+  }
+
+  set(key) {
+    return this.sets.list.find((s) => s.key === key) ?? null;
+  }
+
+  puzzlesOf(key) {
+    if (!this.parsed.has(key)) {
+      const s = this.set(key);
+      this.parsed.set(key, s ? JSON.parse(s.json) : { puzzles: [] });
+    }
+    return this.parsed.get(key).puzzles;
+  }
+
+  progressOf(key) {
+    this.data.progress[key] ??= { index: 0, puzzles: {} };
+    return this.data.progress[key];
+  }
+
+  saveSets() {
+    save('sets', this.sets);
+  }
+
+  saveProgress() {
+    save('tonight', this.data);
+  }
+
+  /** Adds a set (set-file JSON text) to Tonight; returns its key. Throws a message if invalid. */
+  addSet(text, source) {
+    if (text.length > MAX_SET_BYTES) throw new Error('the file is too large to be a set');
+    const json = parseSet(text);
+    const key = setKey(json);
+    const have = this.set(key);
+    if (have) return { key, added: false, title: have.title };
+    const title = JSON.parse(json).title;
+    this.sets.list.push({ key, title, json, source, added: new Date().toISOString() });
+    this.saveSets();
+    return { key, added: true, title };
+  }
+
+  /** Opens a share code from a link: adds its set and opens it, or says why not. */
+  fromLink(code) {
+    let json;
+    try {
+      json = shareDecode(code);
+    } catch (e) {
+      banner(`This link cannot be opened: ${e}`, { kind: 'error', id: 'link' });
+      announce(`This link cannot be opened: ${e}`);
+      return false;
+    }
+    const { key, added, title } = this.addSet(json, 'link');
+    banner(added ? `Added "${title}" to Tonight.` : `"${title}" is already in Tonight: opened it.`,
+      { kind: 'info', id: 'link' });
+    this.app.go('tonight');
+    this.openSet(key);
+    return true;
+  }
+
+  async pickFile(input) {
+    const f = input.files?.[0];
+    input.value = '';
+    if (f) await this.readFile(f);
+  }
+
+  async readFile(file) {
+    if (file.size > MAX_SET_BYTES) {
+      banner(`"${file.name}" is too large to be a set file; nothing was loaded.`, { kind: 'error', id: 'file' });
+      return;
+    }
+    const text = await file.text();
+    try {
+      const { key, added, title } = this.addSet(text, 'file');
+      banner(added ? `Added "${title}" to Tonight.` : `"${title}" is already in Tonight.`, { id: 'file' });
+      this.openSet(key);
+    } catch (e) {
+      banner(`"${file.name}" cannot be opened: ${e.message ?? e}. Nothing was loaded.`, { kind: 'error', id: 'file' });
+    }
+  }
+
+  remove(key) {
+    const s = this.set(key);
+    if (!s || !window.confirm(`Remove "${s.title}" and its progress from Tonight?`)) return;
+    this.sets.list = this.sets.list.filter((x) => x.key !== key);
+    delete this.data.progress[key];
+    this.parsed.delete(key);
+    if (this.data.open === key) this.data.open = null;
+    this.saveSets();
+    this.saveProgress();
+    this.renderList();
+  }
+
+  view(name) {
+    $('tonight-list').hidden = name !== 'list';
+    $('tonight-play').hidden = name !== 'play';
+    $('tonight-summary').hidden = name !== 'summary';
+    $('tonight').dataset.view = name;
+    this.data.view = name;
+  }
+
+  showList() {
+    this.board.cancelPacing();
+    this.view('list');
+    this.saveProgress();
+    this.renderList();
+  }
+
+  counts(key) {
+    const c = { clean: 0, helped: 0, failed: 0, untried: 0 };
+    for (const o of this.outcomes(key)) c[o]++;
+    return c;
+  }
+
+  renderList() {
+    const ul = $('tonight-sets');
+    $('tonight-empty').hidden = this.sets.list.length > 0;
+    fill(ul, this.sets.list.map((s) => {
+      const puzzles = this.puzzlesOf(s.key);
+      const c = this.counts(s.key);
+      const done = c.clean + c.helped;
+      return el('li', { class: 'card', 'data-key': s.key },
+        el('h2', { class: 'set-title', text: s.title || 'Untitled set' }),
+        el('p', { class: 'meta', text: `${puzzles.length} puzzles · ${ruleWords(puzzles)} · ${done} solved` }),
+        el('div', { class: 'row' },
+          el('button', { type: 'button', class: 'primary', onclick: () => this.openSet(s.key) }, 'Open'),
+          el('button', { type: 'button', class: 'secondary', onclick: () => this.share(s.key) }, 'Share'),
+          el('button', { type: 'button', class: 'quiet', onclick: () => this.remove(s.key) }, 'Remove')));
+    }));
+    $('library').open ||= this.sets.list.length === 0;
+    this.renderLibrary();
+    $('tonight-share-box').hidden = true;
+  }
+
+  renderLibrary() {
+    if (!$('library').open) return;
+    this.library ??= JSON.parse(librarySets());
+    fill($('library-sets'), this.library.map((set, i) => {
+      const json = JSON.stringify(set);
+      let key = set.__key;
+      if (!key) {
+        key = setKey(json);
+        Object.defineProperty(set, '__key', { value: key });
+      }
+      const have = !!this.set(key);
+      return el('li', { class: 'card compact', 'data-library': String(i) },
+        el('div', {},
+          el('h3', { class: 'set-title', text: set.title }),
+          el('p', { class: 'meta', text: `${set.puzzles.length} puzzles · ${ruleWords(set.puzzles)}` })),
+        el('button', {
+          type: 'button',
+          class: have ? 'secondary' : 'primary',
+          onclick: () => {
+            const r = this.addSet(json, 'library');
+            this.openSet(r.key);
+          },
+        }, have ? 'Open' : 'Add'));
+    }));
+  }
+
+  openSet(key, index) {
+    if (!this.set(key)) return this.showList();
+    this.data.open = key;
+    const prog = this.progressOf(key);
+    const puzzles = this.puzzlesOf(key);
+    if (index !== undefined) prog.index = index;
+    prog.index = Math.min(Math.max(0, prog.index), Math.max(0, puzzles.length - 1));
+    this.view('play');
+    $('tonight-set-title').textContent = this.set(key).title || 'Untitled set';
+    $('tonight-share-box').hidden = true;
+    this.loadCurrent();
+  }
+
+  loadCurrent() {
+    const key = this.data.open;
+    const prog = this.progressOf(key);
+    const p = this.puzzlesOf(key)[prog.index];
+    if (!p) return;
+    const rec = prog.puzzles[p.id];
+    this.loading = true;
+    try {
+      this.board.load(JSON.stringify(p), rec ?? {});
+    } finally {
+      this.loading = false;
+    }
+    this.saveProgress();
+    this.renderPlay(this.board.status());
+  }
+
+  changed(s, why) {
+    if (this.loading || s.mode !== 'puzzle') {
+      this.renderPlay(s);
+      return;
+    }
+    const key = this.data.open;
+    const prog = this.progressOf(key);
+    const p = this.puzzlesOf(key)[prog.index];
+    const before = prog.puzzles[p.id];
+    const rec = { played: s.played, wrong: s.wrong, hints: s.hints, outcome: before?.outcome ?? 'untried' };
+    // The first finish counts: a puzzle solved stays solved when it is tried again.
+    const solved = (o) => o === 'clean' || o === 'helped';
+    if (!solved(rec.outcome)) {
+      if (s.outcome === 'clean' || s.outcome === 'helped' || s.outcome === 'failed') rec.outcome = s.outcome;
+      else if (s.outcome === 'trying' && rec.outcome === 'untried') rec.outcome = 'trying';
+    }
+    prog.puzzles[p.id] = rec;
+    if (why !== 'reveal' || s.pending === 0) this.saveProgress();
+    this.renderPlay(s);
+  }
+
+  renderPlay(s) {
+    const key = this.data.open;
+    if (!key) return;
+    const prog = this.progressOf(key);
+    const puzzles = this.puzzlesOf(key);
+    $('tonight-count').textContent = `Puzzle ${prog.index + 1} of ${puzzles.length}`;
+    const marks = $('tonight-marks');
+    if (marks.childElementCount !== puzzles.length || marks.dataset.key !== key) {
+      marks.dataset.key = key;
+      fill(marks, puzzles.map((p, i) => el('li', {},
+        el('button', { type: 'button', class: 'mark', onclick: () => this.openSet(key, i) }, String(i + 1)))));
+    }
+    puzzles.forEach((p, i) => {
+      const o = prog.puzzles[p.id]?.outcome ?? 'untried';
+      const b = marks.children[i].firstElementChild;
+      b.dataset.outcome = o;
+      b.setAttribute('aria-label', `Puzzle ${i + 1}: ${OUTCOME_WORDS[o]}`);
+      if (i === prog.index) b.setAttribute('aria-current', 'step');
+      else b.removeAttribute('aria-current');
+    });
+    marks.children[prog.index]?.scrollIntoView?.({ block: 'nearest', inline: 'nearest' });
+    const play = $('tonight-play');
+    const over = s.state !== 'playing';
+    play.querySelector('[data-act="hint"]').disabled = over || s.pending > 0;
+    play.querySelector('[data-act="undo"]').disabled = s.played.length === 0;
+    play.querySelector('[data-act="retry"]').disabled = s.moves.length === 0 && s.played.length === 0;
+    const next = play.querySelector('[data-act="next"]');
+    next.textContent = prog.index + 1 >= puzzles.length ? 'Finish' : 'Next';
+    next.classList.toggle('ready', over && s.pending === 0);
+  }
+
+  act(what) {
+    const key = this.data.open;
+    if (!key) return;
+    const prog = this.progressOf(key);
+    if (what === 'hint') this.board.hint();
+    else if (what === 'undo') this.board.undo();
+    else if (what === 'retry') this.board.retry();
+    else if (what === 'next') {
+      if (prog.index + 1 >= this.puzzlesOf(key).length) this.showSummary();
+      else this.openSet(key, prog.index + 1);
+    }
+  }
+
+  outcomes(key) {
+    const recs = this.progressOf(key).puzzles;
+    return this.puzzlesOf(key).map((p) => {
+      const r = recs[p.id];
+      if (!r || r.outcome === 'untried') return 'untried';
+      if (r.outcome === 'trying') return 'failed';
+      return r.outcome;
+    });
+  }
+
+  showSummary() {
+    const key = this.data.open;
+    if (!key || !this.set(key)) return this.showList();
+    this.board.cancelPacing();
+    this.view('summary');
+    this.saveProgress();
+    const outs = this.outcomes(key);
+    const n = (o) => outs.filter((x) => x === o).length;
+    $('summary-title').textContent = this.set(key).title || 'Untitled set';
+    fill($('summary-counts'),
+      el('div', { class: 'count-clean' }, el('dt', { text: 'Solved clean' }), el('dd', { text: String(n('clean')) })),
+      el('div', { class: 'count-helped' }, el('dt', { text: 'Solved with help' }), el('dd', { text: String(n('helped')) })),
+      el('div', { class: 'count-failed' }, el('dt', { text: 'Failed' }), el('dd', { text: String(n('failed')) })),
+      el('div', { class: 'count-untried' }, el('dt', { text: 'Not tried' }), el('dd', { text: String(n('untried')) })));
+    $('student-name').value = this.data.name;
+    this.renderCode();
+    announce(`Summary: ${n('clean')} solved clean, ${n('helped')} with help, ${n('failed')} failed, ${n('untried')} not tried.`);
+  }
+
+  renderCode() {
+    const key = this.data.open;
+    if (!key) return;
+    try {
+      $('result-code').textContent = resultCode(this.set(key).json, this.data.name, this.outcomes(key));
+    } catch (e) {
+      $('result-code').textContent = `No code: ${e}`;
+    }
+  }
+
+  share(key = this.data.open) {
+    const s = this.set(key);
+    if (!s) return;
+    const code = shareEncode(s.json);
+    const link = `${location.href.split('#')[0]}#set=${code}`;
+    if (this.data.view !== 'play' || this.data.open !== key) this.openSet(key);
+    $('tonight-share-box').hidden = false;
+    const input = $('tonight-share-link');
+    input.value = link;
+    input.select();
+    $('tonight-share-note').textContent = `${link.length} characters.`;
+    this.copy(link, 'The link');
+  }
+
+  async copy(text, what) {
+    try {
+      await navigator.clipboard.writeText(text);
+      announce(`${what} is copied.`);
+    } catch {
+      announce(`${what} is shown; copy it from there.`);
+    }
+  }
+}

@@ -1,0 +1,199 @@
+// Measures the built app (web/dist) here, in headless Chromium:
+//   1. page weight: each file gzip -9 compressed (HTML, JS, CSS, WASM, the worker), and the
+//      single-file build apart;
+//   2. first board on screen: from navigation to the first puzzle board drawn (the page's
+//      performance mark "fivefold:first-board"), for a returning student (a set open, the
+//      service worker installed) and for a first visit from a share link;
+//   3. grading latency: Trainer.play on every player move of every starter-library puzzle's
+//      solution (median, 95th percentile, worst), the defender's reply included.
+// Run after a build (web/tools/serve.sh or test.sh builds web/dist):
+//   node web/tools/measure.mjs [--runs 7]
+// It prints a report and writes web/artefacts/measure.json.
+
+import { spawnSync } from 'node:child_process';
+import { mkdirSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
+import { join, relative } from 'node:path';
+import { gzipSync } from 'node:zlib';
+import { ARTEFACTS, DIST, launch, serve } from '../e2e/support.mjs';
+
+const RUNS = Number(process.argv[process.argv.indexOf('--runs') + 1]) || 7;
+
+const quantile = (xs, q) => {
+  const s = [...xs].sort((a, b) => a - b);
+  if (!s.length) return NaN;
+  const i = Math.min(s.length - 1, Math.max(0, Math.ceil(q * s.length) - 1));
+  return s[i];
+};
+const ms = (x) => `${x.toFixed(1)} ms`;
+const kb = (x) => `${(x / 1024).toFixed(1)} KiB`;
+
+// ---- 1. page weight ----
+
+function gz9(file) {
+  const r = spawnSync('gzip', ['-9', '-c', file], { maxBuffer: 1 << 28 });
+  if (r.status === 0) return r.stdout.length;
+  return gzipSync(readFileSync(file), { level: 9 }).length;
+}
+
+function walk(dir) {
+  return readdirSync(dir).flatMap((n) => {
+    const p = join(dir, n);
+    return statSync(p).isDirectory() ? walk(p) : [p];
+  });
+}
+
+const weight = { files: [], total: { raw: 0, gz: 0 }, byKind: {} };
+for (const p of walk(DIST).sort()) {
+  const name = relative(DIST, p);
+  if (name === 'fivefold.html') continue;
+  const kind = name.endsWith('.wasm') ? 'wasm' : name.endsWith('.js') ? 'js' : name.endsWith('.css') ? 'css'
+    : name.endsWith('.html') ? 'html' : 'other';
+  if (kind === 'other') continue; // icons and the manifest are fetched by the installer, not the page
+  const raw = statSync(p).size;
+  const gz = gz9(p);
+  weight.files.push({ name, raw, gz });
+  weight.total.raw += raw;
+  weight.total.gz += gz;
+  weight.byKind[kind] = (weight.byKind[kind] ?? 0) + gz;
+}
+const single = join(DIST, 'fivefold.html');
+weight.single = { raw: statSync(single).size, gz: gz9(single) };
+
+// ---- 2 and 3: in the browser ----
+
+const server = await serve();
+const browser = await launch();
+const firstBoard = { returning: [], link: [] };
+const grading = [];
+const hints = [];
+const shares = [];
+
+async function mark(page) {
+  await page.waitForFunction(() => performance.getEntriesByName('fivefold:first-board').length > 0, null, { timeout: 20000 });
+  return page.evaluate(() => performance.getEntriesByName('fivefold:first-board')[0].startTime);
+}
+
+try {
+  // A returning student: a set open in Tonight, the app cached by the service worker.
+  const ctx = await browser.newContext({ viewport: { width: 390, height: 844 }, deviceScaleFactor: 3 });
+  const page = await ctx.newPage();
+  await page.goto(server.url);
+  await page.waitForSelector('html[data-ready="true"]');
+  if (!(await page.$eval('#library', (d) => d.open))) await page.click('#library > summary');
+  await page.locator('#library-sets li').nth(5).getByRole('button').click();
+  await page.waitForSelector('#tonight-board[data-mode="puzzle"]');
+  await page.evaluate(() => navigator.serviceWorker.ready);
+  for (let i = 0; i < RUNS; i++) {
+    await page.reload();
+    firstBoard.returning.push(await mark(page));
+  }
+  // Share codes of the library's sets (the one open is used for first visits).
+  shares.push(...await page.evaluate(async () => {
+    const m = await import('./pkg/fivefold_web.js');
+    return JSON.parse(m.librarySets()).map((set) => {
+      const json = JSON.stringify(set);
+      return { title: set.title, puzzles: set.puzzles.length, json: json.length, code: m.shareEncode(json) };
+    });
+  }));
+  const code = shares[5].code;
+  await ctx.close();
+  for (let i = 0; i < RUNS; i++) {
+    const c = await browser.newContext({ viewport: { width: 390, height: 844 }, deviceScaleFactor: 3 });
+    const p = await c.newPage();
+    await p.goto(`${server.url}#set=${code}`);
+    firstBoard.link.push(await mark(p));
+    await c.close();
+  }
+
+  // Grading latency over the starter library.
+  const g = await browser.newContext({ viewport: { width: 800, height: 800 } });
+  const gp = await g.newPage();
+  await gp.goto(server.url);
+  await gp.waitForSelector('html[data-ready="true"]');
+  const out = await gp.evaluate(async () => {
+    const m = await import('./pkg/fivefold_web.js');
+    const canvas = document.createElement('canvas');
+    canvas.style.width = '600px';
+    canvas.style.height = '600px';
+    document.body.append(canvas);
+    const t = new m.Trainer(canvas);
+    t.fit(2);
+    const plays = [];
+    const hintTimes = [];
+    const sets = JSON.parse(m.librarySets());
+    for (const set of sets) {
+      for (const p of set.puzzles) {
+        t.loadPuzzle(JSON.stringify(p));
+        const moves = p.goal === 'defend' ? [p.solution.first_moves[0]] : p.solution.line.filter((_, i) => i % 2 === 0);
+        for (const mv of moves) {
+          const t0 = performance.now();
+          const a = t.play(mv);
+          const dt = performance.now() - t0;
+          plays.push({ theme: p.theme, rule: p.rule, id: p.id, move: mv, kind: a.kind, ms: dt, reason: a.reason });
+          while (t.reveal()) { /* show the reply */ }
+          if (a.kind !== 'accepted') break;
+        }
+      }
+    }
+    // Hints, in a second pass (the tables hold other positions by then).
+    for (const set of sets) {
+      for (const p of set.puzzles) {
+        t.loadPuzzle(JSON.stringify(p));
+        for (let step = 0; step < 3; step++) {
+          const h0 = performance.now();
+          t.hint();
+          hintTimes.push(performance.now() - h0);
+        }
+      }
+    }
+    return { plays, hintTimes };
+  });
+  grading.push(...out.plays);
+  hints.push(...out.hintTimes);
+  await g.close();
+} finally {
+  await browser.close();
+  await server.close();
+}
+
+// ---- report ----
+
+const lines = [];
+const say = (s = '') => lines.push(s);
+say('Page weight (gzip -9 per file; what the served page loads):');
+for (const f of weight.files) say(`  ${f.name.padEnd(28)} ${String(f.raw).padStart(9)} B  ->  ${String(f.gz).padStart(8)} B`);
+say(`  total                        ${String(weight.total.raw).padStart(9)} B  ->  ${String(weight.total.gz).padStart(8)} B (${kb(weight.total.gz)})`);
+say(`  by kind: ${Object.entries(weight.byKind).map(([k, v]) => `${k} ${kb(v)}`).join(', ')}`);
+say(`  single file fivefold.html    ${String(weight.single.raw).padStart(9)} B  ->  ${String(weight.single.gz).padStart(8)} B (${kb(weight.single.gz)})`);
+say();
+for (const [k, xs] of Object.entries(firstBoard)) {
+  say(`First board on screen, ${k === 'returning' ? 'returning student (set open, service worker)' : 'first visit from a share link'}: ` +
+    `median ${ms(quantile(xs, 0.5))}, worst ${ms(Math.max(...xs))} over ${xs.length} runs (390x844 at ratio 3)`);
+}
+say();
+const codeLens = shares.map((x) => x.code.length);
+say(`Share codes of the ${shares.length} library sets: ${Math.min(...codeLens)} to ${Math.max(...codeLens)} characters ` +
+  `(${shares.map((x) => `${x.puzzles} puzzles ${x.code.length}`).join(', ')}); ` +
+  `the minified set files are ${Math.min(...shares.map((x) => x.json))} to ${Math.max(...shares.map((x) => x.json))} bytes`);
+say();
+const times = grading.map((x) => x.ms);
+say(`Grading latency, Trainer.play on ${times.length} solution moves of the starter library (reply included):`);
+say(`  median ${ms(quantile(times, 0.5))}, 95th percentile ${ms(quantile(times, 0.95))}, worst ${ms(Math.max(...times))}`);
+const themes = [...new Set(grading.map((x) => x.theme))];
+for (const th of themes) {
+  const xs = grading.filter((x) => x.theme === th).map((x) => x.ms);
+  say(`  ${th.padEnd(15)} n=${String(xs.length).padStart(3)}  median ${ms(quantile(xs, 0.5)).padStart(9)}  p95 ${ms(quantile(xs, 0.95)).padStart(9)}  worst ${ms(Math.max(...xs)).padStart(9)}`);
+}
+const kinds = grading.reduce((a, x) => ({ ...a, [x.kind]: (a[x.kind] ?? 0) + 1 }), {});
+say(`  answers: ${Object.entries(kinds).map(([k, v]) => `${k} ${v}`).join(', ')}`);
+for (const x of grading.filter((g) => g.kind !== 'accepted' && g.kind !== 'solved')) {
+  say(`  NOTE: ${x.id} (${x.theme}, ${x.rule}): the stored move ${x.move} was graded ${x.kind}: ${x.reason ?? ''}`);
+}
+const slow = [...grading].sort((a, b) => b.ms - a.ms).slice(0, 5);
+say(`  slowest: ${slow.map((x) => `${x.id} ${x.move} ${ms(x.ms)}`).join('; ')}`);
+say(`Hints, each step timed: median ${ms(quantile(hints, 0.5))}, p95 ${ms(quantile(hints, 0.95))}`);
+const report = lines.join('\n');
+console.log(report);
+mkdirSync(ARTEFACTS, { recursive: true });
+writeFileSync(join(ARTEFACTS, 'measure.json'), JSON.stringify({ weight, firstBoard, grading, hints, shares: shares.map(({ code, ...x }) => ({ ...x, code: code.length })) }, null, 1));
+writeFileSync(join(ARTEFACTS, 'measure.txt'), `${report}\n`);

@@ -1,0 +1,87 @@
+// Small DOM helpers. Text from outside (set titles, names, file contents, messages) only ever
+// goes in as text nodes or textContent, never as markup.
+
+export const $ = (id) => document.getElementById(id);
+
+/** An element with attributes (strings; `class`, `data-*`, `aria-*` as named) and children
+ * (nodes, or strings that become text nodes). */
+export function el(tag, attrs = {}, ...children) {
+  const node = document.createElement(tag);
+  for (const [k, v] of Object.entries(attrs)) {
+    if (v === false || v === null || v === undefined) continue;
+    if (k === 'text') node.textContent = String(v);
+    else if (k.startsWith('on') && typeof v === 'function') node.addEventListener(k.slice(2), v);
+    else node.setAttribute(k, v === true ? '' : String(v));
+  }
+  for (const c of children.flat()) {
+    if (c === null || c === undefined || c === false) continue;
+    node.append(typeof c === 'string' ? document.createTextNode(c) : c);
+  }
+  return node;
+}
+
+/** Replaces a node's children. */
+export function fill(node, ...children) {
+  node.replaceChildren(...children.flat().filter((c) => c !== null && c !== undefined && c !== false)
+    .map((c) => (typeof c === 'string' ? document.createTextNode(c) : c)));
+}
+
+const LIVE_KEEP = 6;
+
+/** Speaks sentences through the page's polite live region (for screen readers). */
+export function announce(...lines) {
+  const live = $('live');
+  if (!live) return;
+  for (const line of lines.flat()) {
+    if (!line) continue;
+    live.append(el('p', { text: line }));
+  }
+  while (live.childElementCount > LIVE_KEEP) live.firstElementChild.remove();
+}
+
+/**
+ * Shows a banner at the top of the page. `kind` is "info", "warn" or "error"; a banner with an
+ * `id` replaces an earlier one with the same id. Returns the banner element.
+ */
+export function banner(message, { kind = 'info', id = null, sticky = false } = {}) {
+  const box = $('banners');
+  if (id) box.querySelector(`[data-id="${id}"]`)?.remove();
+  const b = el('div', { class: 'banner', 'data-kind': kind, 'data-id': id, role: kind === 'error' ? 'alert' : 'status' },
+    el('p', { text: message }),
+    el('button', { type: 'button', class: 'quiet', 'aria-label': 'Dismiss this message', onclick: () => b.remove() }, 'OK'));
+  box.append(b);
+  if (!sticky) {
+    while (box.childElementCount > 4) box.firstElementChild.remove();
+  }
+  return b;
+}
+
+export function clearBanner(id) {
+  $('banners')?.querySelector(`[data-id="${id}"]`)?.remove();
+}
+
+/** Offers text as a file download. */
+export function download(name, text, type = 'application/json') {
+  const url = URL.createObjectURL(new Blob([text], { type }));
+  const a = el('a', { href: url, download: name });
+  document.body.append(a);
+  a.click();
+  a.remove();
+  setTimeout(() => URL.revokeObjectURL(url), 10000);
+}
+
+/** Random 53-bit seed from the platform's cryptographic generator. */
+export function randomSeed() {
+  const v = new Uint32Array(2);
+  crypto.getRandomValues(v);
+  return (v[0] & 0x1fffff) * 0x100000000 + v[1];
+}
+
+export const sleep = (ms) => new Promise((ok) => setTimeout(ok, ms));
+
+/** A point's name, like `h8` (columns a to s, rows 1 to 19). */
+export const POINT_NAME = /^[a-s](1[0-9]|[1-9])$/;
+
+export const RULES = ['freestyle', 'standard', 'renju'];
+
+export const isInt = (v, lo, hi) => Number.isInteger(v) && v >= lo && v <= hi;

@@ -1,0 +1,36 @@
+// The app's worker: generates Drill puzzles and runs Study board searches off the page's
+// thread, so the page stays responsive. Messages in: {type: "init", module} (optional: a
+// compiled wasm module, used by the single-file build), {id, type: "generate", options} and
+// {id, type: "solve", query}. Messages out: {id, progress}, {id, result} or {id, error}.
+
+import init, { generateSet, solvePosition } from './pkg/fivefold_web.js';
+
+let ready = null;
+
+function start(module) {
+  if (!ready) ready = init(module ? { module_or_path: module } : undefined);
+  return ready;
+}
+
+self.onmessage = async (event) => {
+  const m = event.data;
+  if (m.type === 'init') {
+    start(m.module);
+    return;
+  }
+  try {
+    await start();
+    if (m.type === 'generate') {
+      const result = generateSet(m.options, (kept, games) => {
+        self.postMessage({ id: m.id, progress: { kept, games } });
+      });
+      self.postMessage({ id: m.id, result });
+    } else if (m.type === 'solve') {
+      self.postMessage({ id: m.id, result: solvePosition(m.query) });
+    } else {
+      self.postMessage({ id: m.id, error: `unknown job '${m.type}'` });
+    }
+  } catch (e) {
+    self.postMessage({ id: m.id, error: String(e?.message ?? e) });
+  }
+};
