@@ -6,7 +6,8 @@
 //! Generation: a fixed number of puzzles per theme from a fixed seed, timed whole (verified
 //! puzzles per second, on one core). Grading: for every puzzle of `puzzles/*.json`, a fresh
 //! session plays the stored main line (every player move is graded and the reply chosen), then
-//! a retry plays one wrong move; every `Session::play` call is timed. The grades are checked
+//! a retry plays one wrong move; every `Session::play` call is timed, with the app's grading
+//! settings (`grade::solver_config`). The grades are checked
 //! (the main line must be accepted to the end, the wrong move refused), so a faster grader that
 //! answers differently fails.
 
@@ -14,8 +15,9 @@ use std::time::{Duration, Instant};
 
 use engine::formats::setfile;
 use engine::puzzle::generate::{self, Options};
-use engine::puzzle::grade::{Grade, Hint, Session};
-use engine::puzzle::{verify, Goal, Theme};
+use engine::puzzle::grade::{self, Grade, Hint, Session};
+use engine::puzzle::{Goal, Theme};
+use engine::search::Solver;
 use engine::Rule;
 
 fn pct(sorted: &[Duration], p: f64) -> f64 {
@@ -69,9 +71,11 @@ fn main() {
             .filter(|p| p.extension().is_some_and(|x| x == "json"))
             .collect();
         files.sort();
-        let mut solver = verify::solver();
+        // The app's grading settings (the budget a phone can afford).
+        let mut solver = Solver::new(grade::solver_config());
         let mut times = Vec::new();
         let mut wrong_times = Vec::new();
+        let mut slow: Vec<(Duration, String)> = Vec::new();
         let mut puzzles = 0;
         for f in files {
             let text = std::fs::read_to_string(&f).expect("readable set");
@@ -91,6 +95,7 @@ fn main() {
                     let t = Instant::now();
                     let g = s.play(&mut solver, m);
                     times.push(t.elapsed());
+                    slow.push((t.elapsed(), format!("{} {m}", p.id)));
                     match g {
                         Grade::Accepted { .. } => {}
                         Grade::Solved { .. } => break,
@@ -124,6 +129,7 @@ fn main() {
                     let t = Instant::now();
                     let g = s.play(&mut solver, w);
                     wrong_times.push(t.elapsed());
+                    slow.push((t.elapsed(), format!("{} {w} (wrong)", p.id)));
                     assert!(
                         matches!(
                             g,
@@ -159,5 +165,12 @@ fn main() {
             pct(&all, 0.5),
             pct(&all, 0.95)
         );
+        slow.sort_by(|a, b| b.0.cmp(&a.0));
+        let worst: Vec<String> = slow
+            .iter()
+            .take(5)
+            .map(|(d, what)| format!("{what} {:.0} ms", d.as_secs_f64() * 1e3))
+            .collect();
+        println!("  slowest: {}", worst.join("; "));
     }
 }

@@ -85,6 +85,95 @@ impl fmt::Display for Case {
     }
 }
 
+/// The timing of one kind of position (VCF or VCT) over a suite run.
+#[derive(Clone, Debug, Default, PartialEq, serde::Serialize)]
+pub struct Timing {
+    /// Positions timed.
+    pub positions: usize,
+    /// Median time of one position, in milliseconds.
+    pub median_ms: f64,
+    /// 95th percentile (nearest rank on `(n - 1) * 0.95`), in milliseconds.
+    pub p95_ms: f64,
+    /// The slowest position, in milliseconds.
+    pub max_ms: f64,
+    /// All positions together, in milliseconds.
+    pub total_ms: f64,
+    /// Nodes searched over all positions.
+    pub nodes: u64,
+}
+
+impl Timing {
+    /// The summary of per-position `(milliseconds, nodes)` samples.
+    pub fn of(samples: &[(f64, u64)]) -> Timing {
+        let mut t: Vec<f64> = samples.iter().map(|s| s.0).collect();
+        t.sort_by(f64::total_cmp);
+        let at = |p: f64| {
+            if t.is_empty() {
+                0.0
+            } else {
+                t[(((t.len() - 1) as f64) * p).round() as usize]
+            }
+        };
+        Timing {
+            positions: t.len(),
+            median_ms: at(0.5),
+            p95_ms: at(0.95),
+            max_ms: t.last().copied().unwrap_or(0.0),
+            total_ms: t.iter().sum(),
+            nodes: samples.iter().map(|s| s.1).sum(),
+        }
+    }
+
+    /// Nodes per second over the run.
+    pub fn nodes_per_second(&self) -> f64 {
+        self.nodes as f64 / (self.total_ms / 1e3).max(1e-9)
+    }
+}
+
+/// One timed pass over a suite: the VCF and VCT timings and the cases whose verdict (or
+/// shortest length) differs from the one recorded.
+#[derive(Clone, Debug, Default, PartialEq, serde::Serialize)]
+pub struct Run {
+    /// VCF positions.
+    pub vcf: Timing,
+    /// VCT positions.
+    pub vct: Timing,
+    /// Cases answered differently from the suite, in words.
+    pub mismatches: Vec<String>,
+}
+
+/// Solves every case from a cleared table, each timed with `clock` (milliseconds, any
+/// origin). The same code times the suite natively and in the browser, so that their ratio
+/// compares the solver and nothing else.
+pub fn time_all(cases: &[Case], solver: &mut Solver, mut clock: impl FnMut() -> f64) -> Run {
+    let (mut vcf, mut vct) = (Vec::new(), Vec::new());
+    let mut mismatches = Vec::new();
+    for case in cases {
+        let board = case.board();
+        solver.clear();
+        let start = clock();
+        let sol = solver.solve(&board, case.to_move, case.mode, None);
+        let ms = clock() - start;
+        if sol.verdict != case.verdict || (sol.verdict == Verdict::Win && sol.depth != case.fours) {
+            mismatches.push(format!(
+                "{case}: now {} depth {} ({} nodes)",
+                sol.verdict.name(),
+                sol.depth,
+                sol.nodes
+            ));
+        }
+        match case.mode {
+            Mode::Vcf => vcf.push((ms, sol.nodes)),
+            Mode::Vct => vct.push((ms, sol.nodes)),
+        }
+    }
+    Run {
+        vcf: Timing::of(&vcf),
+        vct: Timing::of(&vct),
+        mismatches,
+    }
+}
+
 /// A line of a suite file that could not be read.
 #[derive(Clone, Debug, PartialEq, Eq)]
 pub struct SuiteError {

@@ -310,3 +310,48 @@ fn renju_white_wins_by_a_four_whose_block_is_an_overline() {
     // so there white must block it and has no win either.
     forbidden_trap("e8 f8 g8 i8 j8", "a1 o1 o15", Forbidden::Overline);
 }
+
+/// A budget that runs out is never taken for an answer: with the VCF questions inside a VCT
+/// cut off almost at once (`vcf_spend_limit`), a search that needed them ends `Unknown`, never
+/// with the opposite of the full search's verdict. (The three outcomes are the solver's
+/// contract, DESIGN section 4; the full search's wins are confirmed by the referee in
+/// `solver_sound`.)
+#[test]
+fn an_exhausted_vcf_budget_never_becomes_a_verdict() {
+    let mut full = solver();
+    let starved = |limit| {
+        Solver::new(SolverConfig {
+            vcf_spend_limit: Some(limit),
+            table_megabytes: 4,
+            vcf_table_megabytes: 2,
+            ..SolverConfig::default()
+        })
+    };
+    let mut starved = [starved(300), starved(3_000), starved(30_000)];
+    let (mut agreed, mut unknown, mut wins) = (0, 0, 0);
+    for (i, sample) in positions(SEED ^ 0x5_7A2E, 150, 9).into_iter().enumerate() {
+        let (b, c) = (&sample.board, sample.to_move);
+        let want = solve(&mut full, b, c, Mode::Vct).verdict;
+        let got = solve(&mut starved[i % 3], b, c, Mode::Vct).verdict;
+        match (want, got) {
+            (_, Verdict::Unknown) => unknown += 1,
+            (w, g) if w == g => {
+                agreed += 1;
+                wins += (g == Verdict::Win) as u32;
+            }
+            (Verdict::Unknown, _) => {}
+            (w, g) => panic!(
+                "{}: the full search says {}, the starved one {}",
+                sample.label,
+                w.name(),
+                g.name()
+            ),
+        }
+    }
+    eprintln!("starved VCF budgets: {unknown} unknown, {agreed} agreed ({wins} wins)");
+    assert!(
+        unknown > 0 && wins > 0,
+        "{unknown} unknown, {agreed} agreed ({wins} wins): the starved budgets should sometimes \
+         run out and sometimes still prove a win"
+    );
+}

@@ -4,10 +4,12 @@
 //! text they get back. Every rule, grade and sentence comes from the engine or from here:
 //! [`trainer`] is the board handle (one per canvas: a puzzle being played or a position being
 //! studied), [`api`] holds the plain functions (sets, share and result codes, ratings,
-//! generation and solving for the worker), [`layout`] places the grid and [`render`] draws it.
+//! generation and solving for the worker), [`layout`] places the grid and [`render`] draws it;
+//! [`bench`] times the solver's benchmark suite in the browser.
 #![deny(missing_docs)]
 
 pub mod api;
+pub mod bench;
 pub mod layout;
 pub mod library;
 pub mod render;

@@ -5,18 +5,25 @@
 //      performance mark "fivefold:first-board"), for a returning student (a set open, the
 //      service worker installed) and for a first visit from a share link;
 //   3. grading latency: Trainer.play on every player move of every starter-library puzzle's
-//      solution (median, 95th percentile, worst), the defender's reply included.
+//      solution (median, 95th percentile, worst), the defender's reply included;
+//   4. WebAssembly against native: the solver benchmark suite (engine/benches/suite.txt) timed
+//      in the page by benchSuite and natively by `cargo bench -p fivefold-engine --bench
+//      solver` (the same engine::suite::time_all in both), and the ratio of the times.
 // Run after a build (web/tools/serve.sh or test.sh builds web/dist):
-//   node web/tools/measure.mjs [--runs 7]
+//   node web/tools/measure.mjs [--runs 7] [--no-native]
 // It prints a report and writes web/artefacts/measure.json.
 
 import { spawnSync } from 'node:child_process';
 import { mkdirSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
 import { join, relative } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { gzipSync } from 'node:zlib';
 import { ARTEFACTS, DIST, launch, serve } from '../e2e/support.mjs';
 
 const RUNS = Number(process.argv[process.argv.indexOf('--runs') + 1]) || 7;
+const NATIVE = !process.argv.includes('--no-native');
+const ROOT = fileURLToPath(new URL('../../', import.meta.url));
+const SUITE = readFileSync(join(ROOT, 'engine/benches/suite.txt'), 'utf8');
 
 const quantile = (xs, q) => {
   const s = [...xs].sort((a, b) => a - b);
@@ -67,6 +74,7 @@ const firstBoard = { returning: [], link: [] };
 const grading = [];
 const hints = [];
 const shares = [];
+let wasmSuite = null;
 
 async function mark(page) {
   await page.waitForFunction(() => performance.getEntriesByName('fivefold:first-board').length > 0, null, { timeout: 20000 });
@@ -150,6 +158,10 @@ try {
   });
   grading.push(...out.plays);
   hints.push(...out.hintTimes);
+  wasmSuite = JSON.parse(await gp.evaluate(async (text) => {
+    const m = await import('./pkg/fivefold_web.js');
+    return m.benchSuite(text);
+  }, SUITE));
   await g.close();
 } finally {
   await browser.close();
@@ -192,8 +204,42 @@ for (const x of grading.filter((g) => g.kind !== 'accepted' && g.kind !== 'solve
 const slow = [...grading].sort((a, b) => b.ms - a.ms).slice(0, 5);
 say(`  slowest: ${slow.map((x) => `${x.id} ${x.move} ${ms(x.ms)}`).join('; ')}`);
 say(`Hints, each step timed: median ${ms(quantile(hints, 0.5))}, p95 ${ms(quantile(hints, 0.95))}`);
+say();
+// The native run of the same suite: the bench binary prints one line per kind.
+let nativeSuite = null;
+if (NATIVE) {
+  const r = spawnSync('cargo', ['bench', '-q', '-p', 'fivefold-engine', '--bench', 'solver'], { cwd: ROOT, encoding: 'utf8', maxBuffer: 1 << 24 });
+  if (r.status !== 0) {
+    say(`Native suite run failed (exit ${r.status}): ${(r.stderr ?? '').trim().split('\n').slice(-3).join(' | ')}`);
+  } else {
+    nativeSuite = {};
+    for (const kind of ['vcf', 'vct']) {
+      const line = r.stdout.split('\n').find((l) => l.startsWith(`${kind} `)) ?? '';
+      const num = (name) => Number((line.match(new RegExp(`${name}\\s+([0-9.]+)`)) ?? [])[1]);
+      nativeSuite[kind] = { median_ms: num('median'), p95_ms: num('p95'), max_ms: num('max'), total_ms: num('total') };
+    }
+  }
+}
+say(`Solver suite (${wasmSuite.vcf.positions + wasmSuite.vct.positions} positions), WebAssembly in headless Chromium` +
+  (nativeSuite ? ' against native (cargo bench --bench solver):' : ':'));
+for (const kind of ['vcf', 'vct']) {
+  const w = wasmSuite[kind];
+  const nps = w.nodes / Math.max(w.total_ms, 1e-9) / 1e3;
+  let row = `  ${kind}  wasm median ${ms(w.median_ms)}, p95 ${ms(w.p95_ms)}, max ${ms(w.max_ms)}, total ${ms(w.total_ms)}, ${nps.toFixed(2)} M nodes/s`;
+  if (nativeSuite) {
+    const n = nativeSuite[kind];
+    row += `\n        native median ${ms(n.median_ms)}, p95 ${ms(n.p95_ms)}, total ${ms(n.total_ms)}; ratio of totals ${(w.total_ms / n.total_ms).toFixed(2)}, of medians ${(w.median_ms / n.median_ms).toFixed(2)}`;
+  }
+  say(row);
+}
+if (nativeSuite) {
+  const wt = wasmSuite.vcf.total_ms + wasmSuite.vct.total_ms;
+  const nt = nativeSuite.vcf.total_ms + nativeSuite.vct.total_ms;
+  say(`  WASM : native over the whole suite: ${(wt / nt).toFixed(2)} (target at most 1.6)`);
+}
+if (wasmSuite.mismatches.length) say(`  MISMATCHES in the browser: ${wasmSuite.mismatches.join('; ')}`);
 const report = lines.join('\n');
 console.log(report);
 mkdirSync(ARTEFACTS, { recursive: true });
-writeFileSync(join(ARTEFACTS, 'measure.json'), JSON.stringify({ weight, firstBoard, grading, hints, shares: shares.map(({ code, ...x }) => ({ ...x, code: code.length })) }, null, 1));
+writeFileSync(join(ARTEFACTS, 'measure.json'), JSON.stringify({ weight, firstBoard, grading, hints, wasmSuite, nativeSuite, shares: shares.map(({ code, ...x }) => ({ ...x, code: code.length })) }, null, 1));
 writeFileSync(join(ARTEFACTS, 'measure.txt'), `${report}\n`);

@@ -17,13 +17,21 @@ use crate::search::{Mode, Solver, SolverConfig, Verdict};
 /// nearly every move (see engine/benches/README.md for the measured latencies).
 pub const NODE_LIMIT: u64 = 50_000;
 
+/// Nodes the VCF questions inside one grading search may use together.
+pub const VCF_SPEND_LIMIT: u64 = 150_000;
+
+/// How many defender replies a refutation tries before it settles for the plain answer.
+const REFUTATION_TRIES: usize = 8;
+
 /// The solver settings moves are graded with, in the browser and in the tests that stand for
-/// it: 12 + 4 MB of tables and [`NODE_LIMIT`] nodes per search.
+/// it: 12 + 4 MB of tables, [`NODE_LIMIT`] nodes per search and [`VCF_SPEND_LIMIT`] for the
+/// VCF questions inside one.
 pub fn solver_config() -> SolverConfig {
     SolverConfig {
         table_megabytes: 12,
         vcf_table_megabytes: 4,
         node_limit: NODE_LIMIT,
+        vcf_spend_limit: Some(VCF_SPEND_LIMIT),
         ..SolverConfig::default()
     }
 }
@@ -420,14 +428,30 @@ impl Session {
             };
             return (own.line, reason);
         }
-        let d = solver.defences(&self.board, them, Mode::Vct);
-        let key = self
-            .puzzle
-            .first_moves
-            .iter()
-            .copied()
-            .find(|&k| d.moves.proved.contains(&k));
-        let pick = key.or_else(|| d.moves.proved.first().copied());
+        // One reply that stops the attack is enough: the key's points first (taking the point
+        // the attacker needed is the plainest refutation), then the replies the search
+        // considers against the attacker's threat, until one is proved to leave no win. This
+        // is one search per reply tried, not the full defence list.
+        let replies = solver.defender_replies(&self.board, me, Mode::Vct);
+        let mut cands: Vec<Point> = Vec::new();
+        for &k in self.puzzle.first_moves.iter().chain(&replies) {
+            if self.board.get(k).is_none() && !cands.contains(&k) {
+                cands.push(k);
+            }
+        }
+        let pick = if replies.is_empty() {
+            // No threat at all: every reply stops it; none is more of a refutation than another.
+            None
+        } else {
+            cands.into_iter().take(REFUTATION_TRIES).find(|&r| {
+                if self.check_legal(r, them).is_err() {
+                    return false;
+                }
+                let mut b = self.board.clone();
+                b.place(r, them);
+                solver.wins_after(&b, me, me, Mode::Vct, None).0 == Verdict::NoWin
+            })
+        };
         let not_four = self.mode() == Mode::Vcf;
         match pick {
             Some(r) => {

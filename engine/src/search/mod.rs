@@ -43,6 +43,11 @@ pub struct SolverConfig {
     pub vcf_node_limit: u64,
     /// The most threats (attacker moves that are not fours) a VCT may use.
     pub vct_depth: u16,
+    /// Nodes all the VCF questions inside one VCT search may expand together; past it every
+    /// further question counts as unknown (so the search ends soon, as `Unknown` unless it
+    /// was already proved). `None`: only the per-question limit applies. This bounds the
+    /// time of one question, which the node limit alone does not.
+    pub vcf_spend_limit: Option<u64>,
 }
 
 impl Default for SolverConfig {
@@ -54,6 +59,7 @@ impl Default for SolverConfig {
             node_limit: 1_000_000,
             vcf_node_limit: 100_000,
             vct_depth: 6,
+            vcf_spend_limit: None,
         }
     }
 }
@@ -277,12 +283,17 @@ impl Solver {
     ) -> (Status, u64) {
         self.oracle.inexact = false;
         let before = self.oracle.nodes;
+        self.oracle.spend_limit = self
+            .config
+            .vcf_spend_limit
+            .map_or(u64::MAX, |l| before.saturating_add(l));
         let oracle = (mode == Mode::Vct).then_some(&mut self.oracle);
         let mut sp = ThreatSpace::new(board, attacker, to_move, mode, depth, oracle)
             .with_history(&self.history);
         let mut dfpn = Dfpn::new(&mut self.tt, self.config.node_limit, stop);
         let mut status = dfpn.solve(&mut sp);
         let nodes = dfpn.nodes + self.oracle.nodes - before;
+        self.oracle.spend_limit = u64::MAX;
         if self.oracle.inexact {
             // Some VCF question ran out of nodes and was taken as "no": a disproof built on it is
             // not a proof, and the stored results that depend on it must not be reused.

@@ -122,6 +122,9 @@ pub struct VcfOracle {
     pub node_limit: u64,
     /// Set when some question ran out of nodes (so a "no" is not a proof).
     pub inexact: bool,
+    /// The value of `nodes` past which every question counts as unknown without a search
+    /// (`u64::MAX`: never); the solver sets it for one search at a time.
+    pub spend_limit: u64,
     /// Nodes searched over all questions.
     pub nodes: u64,
     /// The attacker's VCT candidates of recently expanded nodes, so that the proof-number
@@ -169,6 +172,7 @@ impl VcfOracle {
             tt: Table::with_megabytes(megabytes),
             node_limit,
             inexact: false,
+            spend_limit: u64::MAX,
             nodes: 0,
             moves: MoveCache::new(),
         }
@@ -184,8 +188,12 @@ impl VcfOracle {
     /// The attacker's VCF from this position with the attacker to move, using at most `depth`
     /// attacker moves before the five, if there is one within the node limit.
     pub fn find(&mut self, board: &mut Board, attacker: Stone, depth: u16) -> Option<VcfLine> {
+        let Some(limit) = self.question_limit() else {
+            self.inexact = true;
+            return None;
+        };
         let mut sp = ThreatSpace::new(board, attacker, attacker, Mode::Vcf, depth, None);
-        let mut dfpn = Dfpn::new(&mut self.tt, self.node_limit, None);
+        let mut dfpn = Dfpn::new(&mut self.tt, limit, None);
         let status = dfpn.solve(&mut sp);
         self.nodes += dfpn.nodes;
         match status {
@@ -206,14 +214,34 @@ impl VcfOracle {
 }
 
 impl VcfOracle {
-    /// Whether `attacker` (to move) has a VCF, as a shortcut only: `Unknown` does not make the
-    /// oracle inexact, so a caller must not rely on a "no" from here.
-    pub fn has_vcf(&mut self, board: &mut Board, attacker: Stone) -> bool {
-        let mut sp = ThreatSpace::new(board, attacker, attacker, Mode::Vcf, UNLIMITED, None);
-        let mut dfpn = Dfpn::new(&mut self.tt, self.node_limit, None);
+    /// The node limit of the next question: the per-question limit, or what is left of the
+    /// spending limit if that is less; `None` when nothing is left.
+    fn question_limit(&self) -> Option<u64> {
+        let left = self.spend_limit.saturating_sub(self.nodes);
+        (left > 0).then(|| self.node_limit.min(left))
+    }
+
+    /// Whether `side` (to move) has a VCF, asked of the defender of a VCT: a yes refutes the
+    /// attacker's threat. When the question runs out of nodes the answer is the cautious one,
+    /// yes (so that no attacker win rests on it), and the oracle becomes inexact (so that no
+    /// attacker no-win rests on it either).
+    pub fn has_vcf(&mut self, board: &mut Board, side: Stone) -> bool {
+        let Some(limit) = self.question_limit() else {
+            self.inexact = true;
+            return true;
+        };
+        let mut sp = ThreatSpace::new(board, side, side, Mode::Vcf, UNLIMITED, None);
+        let mut dfpn = Dfpn::new(&mut self.tt, limit, None);
         let status = dfpn.solve(&mut sp);
         self.nodes += dfpn.nodes;
-        status == Status::Proved
+        match status {
+            Status::Proved => true,
+            Status::Disproved => false,
+            Status::Unknown => {
+                self.inexact = true;
+                true
+            }
+        }
     }
 }
 
