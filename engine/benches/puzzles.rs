@@ -165,7 +165,7 @@ fn main() {
             pct(&all, 0.5),
             pct(&all, 0.95)
         );
-        slow.sort_by(|a, b| b.0.cmp(&a.0));
+        slow.sort_by_key(|s| std::cmp::Reverse(s.0));
         let worst: Vec<String> = slow
             .iter()
             .take(5)
