@@ -72,6 +72,7 @@ const server = await serve();
 const browser = await launch();
 const firstBoard = { returning: [], link: [] };
 const grading = [];
+const wrongGrading = [];
 const hints = [];
 const shares = [];
 let wasmSuite = null;
@@ -127,6 +128,7 @@ try {
     const t = new m.Trainer(canvas);
     t.fit(2);
     const plays = [];
+    const wrongs = [];
     const hintTimes = [];
     const sets = JSON.parse(m.librarySets());
     for (const set of sets) {
@@ -141,6 +143,28 @@ try {
           while (t.reveal()) { /* show the reply */ }
           if (a.kind !== 'accepted') break;
         }
+        // One wrong first move: the empty point nearest the key move that is not an answer
+        // (as the native grading benchmark picks it).
+        t.loadPuzzle(JSON.stringify(p));
+        const col = (n) => n.charCodeAt(0) - 97;
+        const row = (n) => Number(n.slice(1)) - 1;
+        const key = p.solution.first_moves[0];
+        const taken = new Set([...p.black, ...p.white, ...p.solution.first_moves]);
+        let wrong = null;
+        let best = Infinity;
+        for (let y = 0; y < p.size; y++) {
+          for (let x = 0; x < p.size; x++) {
+            const n = `${String.fromCharCode(97 + x)}${y + 1}`;
+            if (taken.has(n)) continue;
+            const d = Math.max(Math.abs(x - col(key)), Math.abs(y - row(key)));
+            if (d < best) { best = d; wrong = n; }
+          }
+        }
+        if (wrong) {
+          const t0 = performance.now();
+          const a = t.play(wrong);
+          wrongs.push({ theme: p.theme, id: p.id, move: wrong, kind: a.kind, ms: performance.now() - t0 });
+        }
       }
     }
     // Hints, in a second pass (the tables hold other positions by then).
@@ -154,9 +178,10 @@ try {
         }
       }
     }
-    return { plays, hintTimes };
+    return { plays, wrongs, hintTimes };
   });
   grading.push(...out.plays);
+  wrongGrading.push(...out.wrongs);
   hints.push(...out.hintTimes);
   wasmSuite = JSON.parse(await gp.evaluate(async (text) => {
     const m = await import('./pkg/fivefold_web.js');
@@ -203,6 +228,15 @@ for (const x of grading.filter((g) => g.kind !== 'accepted' && g.kind !== 'solve
 }
 const slow = [...grading].sort((a, b) => b.ms - a.ms).slice(0, 5);
 say(`  slowest: ${slow.map((x) => `${x.id} ${x.move} ${ms(x.ms)}`).join('; ')}`);
+{
+  const xs = wrongGrading.map((x) => x.ms);
+  const kinds = wrongGrading.reduce((a, x) => ({ ...a, [x.kind]: (a[x.kind] ?? 0) + 1 }), {});
+  const slowest = [...wrongGrading].sort((a, b) => b.ms - a.ms).slice(0, 3);
+  say(`Wrong first moves (${xs.length}, the empty point nearest the key that is no answer), refutation included:`);
+  say(`  median ${ms(quantile(xs, 0.5))}, 95th percentile ${ms(quantile(xs, 0.95))}, worst ${ms(Math.max(...xs))}; ` +
+    `graded ${Object.entries(kinds).map(([k, v]) => `${k} ${v}`).join(', ')}; ` +
+    `slowest: ${slowest.map((x) => `${x.id} ${x.move} ${ms(x.ms)}`).join('; ')}`);
+}
 say(`Hints, each step timed: median ${ms(quantile(hints, 0.5))}, p95 ${ms(quantile(hints, 0.95))}`);
 say();
 // The native run of the same suite: the bench binary prints one line per kind.
@@ -241,5 +275,5 @@ if (wasmSuite.mismatches.length) say(`  MISMATCHES in the browser: ${wasmSuite.m
 const report = lines.join('\n');
 console.log(report);
 mkdirSync(ARTEFACTS, { recursive: true });
-writeFileSync(join(ARTEFACTS, 'measure.json'), JSON.stringify({ weight, firstBoard, grading, hints, wasmSuite, nativeSuite, shares: shares.map(({ code, ...x }) => ({ ...x, code: code.length })) }, null, 1));
+writeFileSync(join(ARTEFACTS, 'measure.json'), JSON.stringify({ weight, firstBoard, grading, wrongGrading, hints, wasmSuite, nativeSuite, shares: shares.map(({ code, ...x }) => ({ ...x, code: code.length })) }, null, 1));
 writeFileSync(join(ARTEFACTS, 'measure.txt'), `${report}\n`);

@@ -346,7 +346,8 @@ fn analyse_defence(solver: &mut Solver, board: &Board, me: Stone) -> Option<Puzz
             return None;
         }
     }
-    let d = solver.defences(board, me, Mode::Vct);
+    // At most three defences, all proved: stop trying as soon as that fails.
+    let d = solver.defences_up_to(board, me, Mode::Vct, 3);
     if d.threat != Verdict::Win || !d.moves.unknown.is_empty() {
         return None;
     }

@@ -513,6 +513,30 @@ impl Solver {
     /// Every move for `defender` (to move) after which the opponent has no forced win by
     /// `mode`, counter-fours included when they work.
     pub fn defences(&mut self, board: &Board, defender: Stone, mode: Mode) -> Defences {
+        self.defences_impl(board, defender, mode, usize::MAX, false)
+    }
+
+    /// [`Solver::defences`] for a caller that only wants positions with few defences, all
+    /// proved: stops as soon as more than `limit` defences are proved or one move's status is
+    /// unknown (then the lists are partial and `moves.tried` counts the moves tried so far).
+    pub fn defences_up_to(
+        &mut self,
+        board: &Board,
+        defender: Stone,
+        mode: Mode,
+        limit: usize,
+    ) -> Defences {
+        self.defences_impl(board, defender, mode, limit, true)
+    }
+
+    fn defences_impl(
+        &mut self,
+        board: &Board,
+        defender: Stone,
+        mode: Mode,
+        limit: usize,
+        stop_on_unknown: bool,
+    ) -> Defences {
         let attacker = defender.opponent();
         let mut b = board.clone();
         let mut out = Defences {
@@ -538,6 +562,10 @@ impl Solver {
         let depth = self.depth_for(mode);
         for m in cands {
             let m = m as usize;
+            if out.moves.proved.len() > limit || (stop_on_unknown && !out.moves.unknown.is_empty())
+            {
+                break;
+            }
             if seen[m] || !b.is_empty_at(m) {
                 continue;
             }
