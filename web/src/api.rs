@@ -233,7 +233,10 @@ pub fn solve_position(query: JsValue) -> Result<JsValue, JsValue> {
     let names = |v: &[engine::Point]| v.iter().map(|p| p.to_string()).collect::<Vec<_>>();
     let out = with_solver(|solver| {
         if let Some(n) = q.nodes {
+            // A study question asked with its own budget (in the worker, cancellable) gets it
+            // whole: no VCF spending limit either.
             solver.set_node_limit(n.clamp(1_000, 20_000_000));
+            solver.set_vcf_spend_limit(None);
         }
         let out = match q.search.as_str() {
             "vcf" | "vct" => {
@@ -284,6 +287,7 @@ pub fn solve_position(query: JsValue) -> Result<JsValue, JsValue> {
             ))),
         };
         solver.set_node_limit(grade::NODE_LIMIT);
+        solver.set_vcf_spend_limit(grade::solver_config().vcf_spend_limit);
         out
     })?;
     let mut out = out;

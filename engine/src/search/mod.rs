@@ -253,6 +253,11 @@ impl Solver {
         self.config.node_limit = nodes;
     }
 
+    /// Changes the VCF spending limit of later searches (see [`SolverConfig::vcf_spend_limit`]).
+    pub fn set_vcf_spend_limit(&mut self, nodes: Option<u64>) {
+        self.config.vcf_spend_limit = nodes;
+    }
+
     /// Memory of the tables in bytes.
     pub fn table_bytes(&self) -> usize {
         self.tt.bytes()
