@@ -4,7 +4,7 @@
 // scripts pass events in and write the returned text out, always as text, never as markup.
 
 import { SERVED, startEngine } from './platform.js';
-import { load, makeBackup, onStorageEvents, readBackup, save } from './store.js';
+import { hasSaved, keepAside, load, makeBackup, onStorageEvents, readBackup, save } from './store.js';
 import { Tonight, checkSets, checkTonight } from './tonight.js';
 import { Drill, checkDrill } from './drill.js';
 import { Study, checkStudy } from './study.js';
@@ -45,18 +45,27 @@ class App {
   }
 
   start() {
+    // The documents whose last save failed for lack of space: the warning stays until every
+    // one of them has been saved again.
+    const unsaved = new Set();
     onStorageEvents({
-      onFull: () => {
+      onFull: (name) => {
+        unsaved.add(name);
         if (this.quotaWarned) return;
         this.quotaWarned = true;
         banner('This device\'s storage is full, so your latest progress is not being saved. ' +
           'Play goes on; export a backup from Settings, or free some space.', { kind: 'warn', id: 'quota', sticky: true });
       },
-      onSaved: () => {
-        if (this.quotaWarned) {
+      onSaved: (name) => {
+        unsaved.delete(name);
+        if (this.quotaWarned && unsaved.size === 0) {
           this.quotaWarned = false;
           clearBanner('quota');
         }
+      },
+      onNewer: () => {
+        banner('A newer version of Fivefold saved your progress on this device, so this older copy ' +
+          'does not save over it. Reload the page to get the newer version.', { kind: 'warn', id: 'newer', sticky: true });
       },
     });
     this.tonight = new Tonight(this);
@@ -162,15 +171,31 @@ class App {
     input.value = '';
     if (!f) return;
     let parts;
+    let exported;
     try {
       if (f.size > 20_000_000) throw new Error('the file is too large to be a backup');
-      parts = readBackup(await f.text(), VALIDATORS);
+      ({ parts, exported } = readBackup(await f.text(), VALIDATORS));
       if (!Object.keys(parts).length) throw new Error('the backup holds nothing to restore');
     } catch (e) {
       const msg = `"${f.name}" cannot be used: ${e.message}. Nothing was changed.`;
       $('settings-note').textContent = msg;
       banner(msg, { kind: 'error', id: 'backup' });
       return;
+    }
+    const names = Object.keys(parts);
+    if (hasSaved(names)) {
+      const when = exported ? new Date(exported).toLocaleString() : 'an unknown date';
+      if (!window.confirm(`Replace the progress on this device with the backup made ${when}? ` +
+        'The progress there now is kept aside on this device.')) {
+        $('settings-note').textContent = 'The backup was not restored. Nothing was changed.';
+        return;
+      }
+      if (!keepAside(names)) {
+        const msg = 'The progress on this device could not be kept aside (storage is full), so the backup was not restored. Nothing was changed.';
+        $('settings-note').textContent = msg;
+        banner(msg, { kind: 'error', id: 'backup' });
+        return;
+      }
     }
     const failed = Object.entries(parts).filter(([name, data]) => !save(name, data)).map(([n]) => WHAT[n]);
     this.loadAll({

@@ -29,11 +29,11 @@ export function checkDrill(d) {
       return 'the current puzzle is malformed';
     }
   }
-  // Every puzzle must be one a set file could hold.
-  const puzzles = [...d.queue, ...(c ? [c.puzzle] : [])];
-  if (puzzles.length) {
+  // Every puzzle must be one a set file could hold (each checked alone: two drill puzzles
+  // may share an id, which a set could not).
+  for (const p of [...d.queue, ...(c ? [c.puzzle] : [])]) {
     try {
-      parseSet(JSON.stringify({ format: 'fivefold-set', version: 1, title: '', created: '2026-12-01', puzzles }));
+      parseSet(JSON.stringify({ format: 'fivefold-set', version: 1, title: 'Drill', created: '2026-12-01', puzzles: [p] }));
     } catch (e) {
       return `a puzzle is not valid (${e})`;
     }
@@ -178,6 +178,12 @@ export class Drill {
     if (this.generating !== job) return;
     this.generating = null;
     const puzzle = JSON.parse(json).puzzles[0];
+    const seen = [...this.data.queue, ...(this.data.current ? [this.data.current.puzzle] : [])];
+    if (seen.some((p) => p.id === puzzle.id)) {
+      // The same position again (ids are position hashes): make another instead.
+      this.fill();
+      return;
+    }
     this.data.queue.push(puzzle);
     this.save();
     if (!this.data.current) this.next();

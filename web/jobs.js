@@ -32,6 +32,13 @@ export class Jobs {
       this.waiting.delete(m.id);
       if ('error' in m) job.fail(new Error(m.error));
       else job.ok(m.result);
+      if (m.fatal) {
+        // The worker's engine is broken: the other jobs fail too, and the next starts afresh.
+        for (const other of this.waiting.values()) other.fail(new Error(m.error));
+        this.waiting.clear();
+        w.terminate();
+        if (this.worker === w) this.worker = null;
+      }
     };
     w.onerror = (e) => {
       e.preventDefault?.();

@@ -3,10 +3,10 @@
 //
 // Writing is crash-safe: the new copy goes to the main key, is read back and checked, and only
 // then is copied to the ".prev" key, so at every moment at least one of the two holds a whole,
-// checked copy. Loading checks the main copy and falls back to ".prev" with a message; a
-// damaged copy that cannot be recovered is kept aside under ".damaged" and the app starts
-// afresh, again with a message. A full quota never stops play: the save reports failure and
-// the page shows a banner.
+// checked copy (and after a crash mid-write, ".prev" holds the save before). Loading checks the main copy and falls back to ".prev" with a message; a damaged copy that
+// cannot be recovered is kept aside under ".damaged" and the app starts afresh, again with a
+// message. A copy written by a newer version of the app is never overwritten by this one. A
+// full quota never stops play: the save reports failure and the page shows a banner.
 
 export const STORE_VERSION = 1;
 const PREFIX = 'fivefold.';
@@ -45,6 +45,18 @@ function open(name, text, validate) {
   return { data: doc.data, saved: doc.saved };
 }
 
+// Whether a stored text is a whole envelope (readable, checksum right), and its version; data
+// checks are the loader's business.
+function peek(text) {
+  try {
+    const doc = JSON.parse(text);
+    const whole = doc?.format === FORMAT && doc.sum === checksum(JSON.stringify(doc.data));
+    return { whole, version: doc?.version };
+  } catch {
+    return { whole: false, version: undefined };
+  }
+}
+
 function isQuota(e) {
   return e instanceof DOMException &&
     (e.name === 'QuotaExceededError' || e.name === 'NS_ERROR_DOM_QUOTA_REACHED' || e.code === 22);
@@ -52,11 +64,17 @@ function isQuota(e) {
 
 let quotaHandler = () => {};
 let savedHandler = () => {};
+let newerHandler = () => {};
 
-/** `onFull` is called when a save fails for lack of space; `onSaved` after a save succeeds. */
-export function onStorageEvents({ onFull, onSaved }) {
+/**
+ * `onFull(name)` is called when a save of `name` fails for lack of space, `onSaved(name)` after
+ * a save of `name` succeeds, and `onNewer(name)` when `name` was not saved because a newer
+ * version of the app stored it (this one must not overwrite what it cannot read).
+ */
+export function onStorageEvents({ onFull, onSaved, onNewer }) {
   quotaHandler = onFull ?? quotaHandler;
   savedHandler = onSaved ?? savedHandler;
+  newerHandler = onNewer ?? newerHandler;
 }
 
 function storage() {
@@ -77,9 +95,22 @@ export function save(name, data) {
   const key = PREFIX + name;
   const text = envelope(name, data);
   try {
+    const old = ls.getItem(key);
+    if (old !== null) {
+      const { whole, version } = peek(old);
+      if (whole && typeof version === 'number' && version > STORE_VERSION) {
+        newerHandler(name);
+        return false;
+      }
+    }
     ls.setItem(key, text);
     if (ls.getItem(key) !== text) throw new Error('read back differs');
-    ls.setItem(`${key}.prev`, text);
+    try {
+      ls.setItem(`${key}.prev`, text);
+    } catch {
+      // The new copy is stored and checked; ".prev" still holds the save before, which is
+      // whole too. Storing it is retried with the next save.
+    }
   } catch (e) {
     if (isQuota(e)) quotaHandler(name);
     return false;
@@ -126,7 +157,10 @@ export function load(name, validate, what = name) {
     }
   }
   try {
+    // Both unusable copies are kept aside (the main one under ".damaged", the other under
+    // ".damaged.prev"), so that nothing is lost even if a later save overwrites the keys.
     if (main !== null) ls.setItem(`${key}.damaged`, main);
+    if (prev !== null && prev !== main) ls.setItem(`${key}.damaged.prev`, prev);
   } catch {
     // Keeping the damaged copy is a courtesy only.
   }
@@ -137,7 +171,10 @@ export function load(name, validate, what = name) {
   };
 }
 
-/** Checks a whole backup file's text; returns { parts } or throws with a reason. */
+/**
+ * Checks a whole backup file's text; returns { parts, exported } (the documents it holds, and
+ * when it was made, an ISO date or null) or throws with a reason.
+ */
 export function readBackup(text, validators) {
   let doc;
   try {
@@ -163,7 +200,34 @@ export function readBackup(text, validators) {
     if (why) throw new Error(`its ${name} part is not usable: ${why}`);
     parts[name] = part;
   }
-  return parts;
+  return { parts, exported: typeof doc.exported === 'string' ? doc.exported : null };
+}
+
+/** Whether anything is saved under any of these document names. */
+export function hasSaved(names) {
+  const ls = storage();
+  return !!ls && names.some((n) => ls.getItem(PREFIX + n) !== null);
+}
+
+/**
+ * Keeps the saved copies of these documents aside under ".before-import" (replacing an older
+ * such copy), so that restoring a backup never destroys what was there. Returns whether all
+ * were kept.
+ */
+export function keepAside(names) {
+  const ls = storage();
+  if (!ls) return false;
+  let ok = true;
+  for (const n of names) {
+    const v = ls.getItem(PREFIX + n);
+    if (v === null) continue;
+    try {
+      ls.setItem(`${PREFIX}${n}.before-import`, v);
+    } catch {
+      ok = false;
+    }
+  }
+  return ok;
 }
 
 /** A backup file's text holding the given parts. */

@@ -109,7 +109,11 @@ export class Study {
     const pos = this.t.studyPosition();
     Object.assign(this.data, { size: pos.size, rule: pos.rule, black: pos.black, white: pos.white, toMove: pos.toMove });
     for (const r of document.querySelectorAll('#study-side input')) r.checked = r.value === pos.toMove;
-    if (why !== 'step') this.hideLine();
+    if (why !== 'step') {
+      // A search under way answers for the position it was asked about, not this one.
+      this.edits = (this.edits ?? 0) + 1;
+      this.hideLine();
+    }
     this.save();
   }
 
@@ -118,8 +122,12 @@ export class Study {
     try {
       this.t.studyLoad(size, d.rule, d.black, d.white, d.toMove);
     } catch {
+      if (!window.confirm(`Some stones do not fit on ${size} × ${size}. Clear the board to change the size?`)) {
+        $('study-size').value = String(d.size);
+        return;
+      }
       this.t.studyNew(size, d.rule);
-      this.board.say([`The stones do not fit on ${size} × ${size}: the board is empty.`], 'info');
+      this.board.say([`The stones did not fit on ${size} × ${size}: the board is empty.`], 'info');
     }
     this.t.studyTool(d.tool);
     this.board.changed('size');
@@ -168,6 +176,7 @@ export class Study {
     $('study-answer').replaceChildren();
     this.hideLine();
     const started = performance.now();
+    const edits = this.edits ?? 0;
     let r;
     try {
       r = await this.jobs.run('solve', { query: { ...pos, search, nodes: NODES } });
@@ -178,6 +187,10 @@ export class Study {
       return;
     }
     this.busy(false);
+    if ((this.edits ?? 0) !== edits) {
+      this.answer(['The position changed during the search, so its answer is not shown. Ask again.'], 'cancelled');
+      return;
+    }
     const secs = ((performance.now() - started) / 1000).toFixed(1);
     this.answer([...r.say, `(${r.nodes.toLocaleString('en')} positions searched in ${secs} s.)`], r.result);
     if (r.line.length) {

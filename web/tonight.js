@@ -4,7 +4,7 @@
 import { librarySets, parseSet, resultCode, setKey, shareEncode, shareDecode } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
 import { save } from './store.js';
-import { $, POINT_NAME, announce, banner, el, fill, isInt } from './ui.js';
+import { $, POINT_NAME, announce, banner, el, fill, isInt, own, put } from './ui.js';
 
 const OUTCOMES = ['untried', 'trying', 'clean', 'helped', 'failed'];
 const OUTCOME_WORDS = {
@@ -164,7 +164,15 @@ export class Tonight {
       announce(`This link cannot be opened: ${e}`);
       return false;
     }
-    const { key, added, title } = this.addSet(json, 'link');
+    let got;
+    try {
+      got = this.addSet(json, 'link');
+    } catch (e) {
+      banner(`This link cannot be opened: ${e.message ?? e}. Nothing was loaded.`, { kind: 'error', id: 'link' });
+      announce(`This link cannot be opened: ${e.message ?? e}.`);
+      return false;
+    }
+    const { key, added, title } = got;
     banner(added ? `Added "${title}" to Tonight.` : `"${title}" is already in Tonight: opened it.`,
       { kind: 'info', id: 'link' });
     this.app.go('tonight');
@@ -183,8 +191,8 @@ export class Tonight {
       banner(`"${file.name}" is too large to be a set file; nothing was loaded.`, { kind: 'error', id: 'file' });
       return;
     }
-    const text = await file.text();
     try {
+      const text = await file.text();
       const { key, added, title } = this.addSet(text, 'file');
       banner(added ? `Added "${title}" to Tonight.` : `"${title}" is already in Tonight.`, { id: 'file' });
       this.openSet(key);
@@ -290,7 +298,7 @@ export class Tonight {
     const prog = this.progressOf(key);
     const p = this.puzzlesOf(key)[prog.index];
     if (!p) return;
-    const rec = prog.puzzles[p.id];
+    const rec = own(prog.puzzles, p.id);
     this.loading = true;
     try {
       this.board.load(JSON.stringify(p), rec ?? {});
@@ -309,7 +317,7 @@ export class Tonight {
     const key = this.data.open;
     const prog = this.progressOf(key);
     const p = this.puzzlesOf(key)[prog.index];
-    const before = prog.puzzles[p.id];
+    const before = own(prog.puzzles, p.id);
     const rec = { played: s.played, wrong: s.wrong, hints: s.hints, outcome: before?.outcome ?? 'untried' };
     // The first finish counts: a puzzle solved stays solved when it is tried again.
     const solved = (o) => o === 'clean' || o === 'helped';
@@ -317,7 +325,7 @@ export class Tonight {
       if (s.outcome === 'clean' || s.outcome === 'helped' || s.outcome === 'failed') rec.outcome = s.outcome;
       else if (s.outcome === 'trying' && rec.outcome === 'untried') rec.outcome = 'trying';
     }
-    prog.puzzles[p.id] = rec;
+    put(prog.puzzles, p.id, rec);
     if (why !== 'reveal' || s.pending === 0) this.saveProgress();
     this.renderPlay(s);
   }
@@ -335,7 +343,7 @@ export class Tonight {
         el('button', { type: 'button', class: 'mark', onclick: () => this.openSet(key, i) }, String(i + 1)))));
     }
     puzzles.forEach((p, i) => {
-      const o = prog.puzzles[p.id]?.outcome ?? 'untried';
+      const o = own(prog.puzzles, p.id)?.outcome ?? 'untried';
       const b = marks.children[i].firstElementChild;
       b.dataset.outcome = o;
       b.setAttribute('aria-label', `Puzzle ${i + 1}: ${OUTCOME_WORDS[o]}`);
@@ -369,7 +377,7 @@ export class Tonight {
   outcomes(key) {
     const recs = this.progressOf(key).puzzles;
     return this.puzzlesOf(key).map((p) => {
-      const r = recs[p.id];
+      const r = own(recs, p.id);
       if (!r || r.outcome === 'untried') return 'untried';
       if (r.outcome === 'trying') return 'failed';
       return r.outcome;

@@ -85,3 +85,12 @@ export const POINT_NAME = /^[a-s](1[0-9]|[1-9])$/;
 export const RULES = ['freestyle', 'standard', 'renju'];
 
 export const isInt = (v, lo, hi) => Number.isInteger(v) && v >= lo && v <= hi;
+
+/** `obj[key]` if `obj` has it as its own property (a puzzle id such as "constructor" or
+ * "__proto__" must not reach a built-in). */
+export const own = (obj, key) => (Object.hasOwn(obj, key) ? obj[key] : undefined);
+
+/** Sets `obj[key] = value` as an own data property, whatever the key. */
+export function put(obj, key, value) {
+  Object.defineProperty(obj, key, { value, enumerable: true, writable: true, configurable: true });
+}

@@ -1,7 +1,7 @@
 // The app's worker: generates Drill puzzles and runs Study board searches off the page's
 // thread, so the page stays responsive. Messages in: {type: "init", module} (optional: a
 // compiled wasm module, used by the single-file build), {id, type: "generate", options} and
-// {id, type: "solve", query}. Messages out: {id, progress}, {id, result} or {id, error}.
+// {id, type: "solve", query}. Messages out: {id, progress}, {id, result} or {id, error, fatal}.
 
 import init, { generateSet, solvePosition } from './pkg/fivefold_web.js';
 
@@ -31,6 +31,9 @@ self.onmessage = async (event) => {
       self.postMessage({ id: m.id, error: `unknown job '${m.type}'` });
     }
   } catch (e) {
-    self.postMessage({ id: m.id, error: String(e?.message ?? e) });
+    // A trap (a panic, or memory running out) leaves the module unusable: say so, so that the
+    // page starts a fresh worker for the next job.
+    const fatal = e instanceof WebAssembly.RuntimeError;
+    self.postMessage({ id: m.id, error: String(e?.message ?? e), fatal });
   }
 };

@@ -117,6 +117,29 @@ test('a corrupted stored value is recovered from the last good copy, with a mess
   await context.close();
 });
 
+test('progress saved by a newer version of the app is never overwritten by this one', async () => {
+  const { page, context, errors } = await started();
+  // A newer build stored Tonight in a format this one does not read.
+  const newer = await page.evaluate((sum) => {
+    const data = { future: true };
+    const text = JSON.stringify({ format: 'fivefold-store', version: 2, name: 'tonight', saved: new Date().toISOString(), sum, data });
+    localStorage.setItem('fivefold.tonight', text);
+    localStorage.setItem('fivefold.tonight.prev', text);
+    return text;
+  }, fnv(JSON.stringify({ future: true })));
+  await page.reload();
+  await ready(page);
+  assert.match((await banners(page)).join(' '), /has version 2, not 1/);
+  // Play on: this build keeps going, but does not save over the newer copy, and says so.
+  await addFromLibrary(page, CLUB.title);
+  await tap(page, BOARD, LINE[0]);
+  await settled(page, BOARD, 2);
+  assert.equal(await page.evaluate(() => localStorage.getItem('fivefold.tonight')), newer);
+  assert.match((await banners(page)).join(' '), /A newer version of Fivefold saved your progress on this device/);
+  assert.deepEqual(errors, []);
+  await context.close();
+});
+
 test('a full storage quota is reported and play goes on', async () => {
   const { page, context, errors } = await started();
   // Fill the origin's storage to the brim.
@@ -182,6 +205,13 @@ test('a backup file is exported and imported; a bad one changes nothing and says
   await first.context.close();
 
   const { page, context, errors } = await open(env.browser, env.server.url);
+  // Restoring over saved progress asks first; the test answers as `accept` says.
+  let accept = true;
+  const asked = [];
+  page.on('dialog', (d) => {
+    asked.push(d.message());
+    return accept ? d.accept() : d.dismiss();
+  });
   const importFile = async (name, body) => {
     await page.click('#open-settings');
     await page.setInputFiles('#import-backup', { name, mimeType: 'application/json', buffer: Buffer.from(body) });
@@ -218,6 +248,24 @@ test('a backup file is exported and imported; a bad one changes nothing and says
   await page.reload();
   await ready(page);
   assert.equal((await boardState(page, BOARD)).moves, `${LINE[0]} ${LINE[1]}`, 'and it is stored');
+
+  // Over progress that is there now, a restore asks first: declined, nothing changes; accepted,
+  // what was there is kept aside.
+  const before = asked.length;
+  const aside = await page.evaluate(() => localStorage.getItem('fivefold.tonight.before-import'));
+  accept = false;
+  await importFile('fivefold-backup.json', text);
+  await page.waitForFunction(() => document.getElementById('settings-note').textContent.includes('not restored'));
+  assert.equal(asked.length, before + 1);
+  assert.match(asked.at(-1), /^Replace the progress on this device with the backup made .+\? The progress there now is kept aside on this device\.$/);
+  assert.equal(await page.evaluate(() => localStorage.getItem('fivefold.tonight.before-import')), aside, 'declined: nothing changed');
+  await page.click('#close-settings');
+  accept = true;
+  const now = await page.evaluate(() => localStorage.getItem('fivefold.tonight'));
+  await importFile('fivefold-backup.json', text);
+  await page.waitForFunction(() => document.getElementById('settings-note').textContent.includes('is restored'));
+  assert.equal(await page.evaluate(() => localStorage.getItem('fivefold.tonight.before-import')), now);
+  await page.click('#close-settings');
   assert.deepEqual(errors, []);
   await context.close();
 });

@@ -349,7 +349,8 @@ pub fn drill_band(theme: &str, rule: &str, rating: f64) -> Result<Vec<u32>, JsVa
 }
 
 /// A set's identity, as eight hex digits: the fingerprint its result codes carry (a checksum
-/// of its puzzle ids in order), so the same puzzles are the same set whatever the title.
+/// of its puzzles), so the same puzzles are the same set whatever the title, and two sets
+/// that reuse puzzle ids are not.
 #[wasm_bindgen(js_name = setKey)]
 pub fn set_key(set_json: &str) -> Result<String, JsValue> {
     let set = setfile::parse(set_json).map_err(err)?;

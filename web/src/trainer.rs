@@ -700,6 +700,7 @@ impl Trainer {
             line_shown: 0,
         }));
         self.ghost = None;
+        self.cursor = None;
         self.fit(self.dpr)?;
         self.status()
     }
@@ -734,6 +735,7 @@ impl Trainer {
         }));
         self.ghost = None;
         self.growing = None;
+        self.cursor = None;
         self.fit(self.dpr)?;
         self.status()
     }
@@ -922,6 +924,13 @@ impl Trainer {
                 ..Default::default()
             });
         };
+        if !s.board.contains(p) {
+            return Ok(Answer {
+                kind: "illegal",
+                say: vec![format!("{p} is off the board.")],
+                ..Default::default()
+            });
+        }
         let before = s.board.get(p);
         let mut a = Answer {
             point: Some(p.to_string()),

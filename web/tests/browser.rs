@@ -358,6 +358,22 @@ fn the_keyboard_cursor_moves_and_places() {
     assert_eq!(a["kind"], "placed");
     assert_eq!(a["say"][0], "Black a1.");
     assert_eq!(t.stone_at("a1"), "black");
+    // A cursor left on s19 of a 19x19 board does not survive a change to 15x15 (it used to
+    // point off the board, and Enter crashed the module).
+    json(t.study_new(19, "freestyle"));
+    t.move_cursor(0, 0).unwrap();
+    for _ in 0..20 {
+        t.move_cursor(1, 1).unwrap();
+    }
+    assert_eq!(t.move_cursor(0, 0).unwrap(), "s19");
+    json(t.study_new(15, "freestyle"));
+    assert_eq!(json(t.place_at_cursor())["kind"], "none");
+    assert_eq!(
+        t.move_cursor(0, 0).unwrap(),
+        "h8",
+        "the cursor starts again at the centre"
+    );
+    assert_eq!(json(t.play("s19"))["kind"], "illegal");
     c.remove();
 }
 

@@ -80,14 +80,17 @@ impl std::error::Error for ResultError {}
 const ALPHABET: &[u8; 32] = b"0123456789ABCDEFGHJKMNPQRSTVWXYZ";
 const VERSION: u8 = 1;
 
-/// The fingerprint of a set: a CRC-32 of its puzzle ids in order.
+/// The fingerprint of a set: a CRC-32 of its puzzles as the set file writes them (ids,
+/// rules, stones, answers), so that two sets that reuse the same ids are still told apart;
+/// the title, the date and the generator block do not count.
 pub fn fingerprint(set: &PuzzleSet) -> u32 {
-    let mut h = crc32fast::Hasher::new();
-    for p in &set.puzzles {
-        h.update(p.id.as_bytes());
-        h.update(&[0]);
-    }
-    h.finalize()
+    let bare = PuzzleSet {
+        title: String::new(),
+        created: String::new(),
+        puzzles: set.puzzles.clone(),
+        generator: None,
+    };
+    crc32fast::hash(super::setfile::to_json(&bare).as_bytes())
 }
 
 fn to_base32(bytes: &[u8]) -> String {
@@ -236,5 +239,21 @@ mod tests {
         let bad: String = chars.into_iter().collect();
         assert!(decode(&bad).is_err());
         assert_eq!(decode("AB*C"), Err(ResultError::BadCharacter('*')));
+    }
+
+    #[test]
+    fn the_fingerprint_follows_the_puzzles_not_the_title() {
+        let text = include_str!("../../../tests/data/fixture_set.json");
+        let set = super::super::setfile::parse(text).unwrap();
+        let mut retitled = set.clone();
+        retitled.title = "Harbour Street Circle, Thursday".into();
+        retitled.created = "2027-01-07".into();
+        assert_eq!(fingerprint(&set), fingerprint(&retitled));
+        // Same ids, one stone moved: another set.
+        let mut changed = set.clone();
+        let p = &mut changed.puzzles[0];
+        let last = p.black.len() - 1;
+        p.black[last] = crate::Point::new(0, 0);
+        assert_ne!(fingerprint(&set), fingerprint(&changed));
     }
 }

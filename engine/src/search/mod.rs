@@ -444,17 +444,30 @@ impl Solver {
 
     /// Every first move with which `to_move` wins by `mode`, among the moves of that class.
     pub fn winning_moves(&mut self, board: &Board, to_move: Stone, mode: Mode) -> MoveSets {
-        self.winning_moves_up_to(board, to_move, mode, usize::MAX)
+        self.winning_moves_impl(board, to_move, mode, usize::MAX, false)
     }
 
-    /// [`Solver::winning_moves`], stopping as soon as more than `limit` winning moves are
-    /// proved (then `proved` holds `limit + 1` of them and the rest are not tried).
+    /// [`Solver::winning_moves`] for a caller that only wants positions with few answers, all
+    /// proved: stops as soon as more than `limit` winning moves are proved (then `proved`
+    /// holds `limit + 1` of them) or one move's status is unknown; the moves after that are
+    /// not tried.
     pub fn winning_moves_up_to(
         &mut self,
         board: &Board,
         to_move: Stone,
         mode: Mode,
         limit: usize,
+    ) -> MoveSets {
+        self.winning_moves_impl(board, to_move, mode, limit, true)
+    }
+
+    fn winning_moves_impl(
+        &mut self,
+        board: &Board,
+        to_move: Stone,
+        mode: Mode,
+        limit: usize,
+        stop_on_unknown: bool,
     ) -> MoveSets {
         let mut b = board.clone();
         let mut out = MoveSets::default();
@@ -485,7 +498,7 @@ impl Solver {
         out.tried = cands.len();
         for m in cands {
             let m = m as usize;
-            if out.proved.len() > limit {
+            if out.proved.len() > limit || (stop_on_unknown && !out.unknown.is_empty()) {
                 break;
             }
             // The depth the search itself gives the child: fours and forced blocks are free in
