@@ -119,11 +119,15 @@ export class BoardView {
     this.message.dataset.kind = kind;
   }
 
-  /** Loads a puzzle, and replays the player's moves of it so far (`played`, after a reload). */
-  load(puzzleJson, { played = [], wrong = 0, hints = 0 } = {}) {
+  /**
+   * Loads a puzzle, and replays the player's moves of it so far (`played`, after a reload).
+   * `trusted`: the puzzle's answer key was proved by this app (the built-in library, Drill).
+   */
+  load(puzzleJson, { played = [], wrong = 0, hints = 0, trusted = false } = {}) {
     this.cancelPacing();
     this.clearLog();
     this.trainer.loadPuzzle(puzzleJson);
+    this.trainer.trustKey(trusted);
     let s = this.trainer.status();
     if (played.length || wrong || hints) s = this.trainer.restore(played, wrong, hints);
     this.fit();

@@ -293,6 +293,14 @@ export class Tonight {
     this.loadCurrent();
   }
 
+  /** Whether the set is one of the built-in library's (however it arrived): their answer keys
+   * are proved by the tests, so grading may rely on them. */
+  fromLibrary(key) {
+    if (this.set(key)?.source === 'library') return true;
+    this.libraryKeys ??= new Set(JSON.parse(librarySets()).map((set) => setKey(JSON.stringify(set))));
+    return this.libraryKeys.has(key);
+  }
+
   loadCurrent() {
     const key = this.data.open;
     const prog = this.progressOf(key);
@@ -301,7 +309,7 @@ export class Tonight {
     const rec = own(prog.puzzles, p.id);
     this.loading = true;
     try {
-      this.board.load(JSON.stringify(p), rec ?? {});
+      this.board.load(JSON.stringify(p), { ...(rec ?? {}), trusted: this.fromLibrary(key) });
     } finally {
       this.loading = false;
     }

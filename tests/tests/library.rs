@@ -152,42 +152,59 @@ fn the_fixture_set_is_what_the_generator_makes() {
 }
 
 /// A student who plays the answer key move by move must be told it is right, under the budget
-/// the browser grades with (not the larger one puzzles are proved with).
+/// the browser grades with (not the larger one puzzles are proved with), as the app grades the
+/// built-in library (its keys trusted where that budget cannot decide). Every listed first move
+/// and defence is also graded as a set from outside would be (keys not trusted): then a move
+/// may come out "could not be proved", but never refuted.
 #[test]
 fn every_stored_line_is_accepted_by_the_grader_with_the_browser_budget() {
     use engine::puzzle::grade::{self, Grade, Session};
     use engine::search::Solver;
     let mut solver = Solver::new(grade::solver_config());
     let mut failures = Vec::new();
+    let mut undecided = Vec::new();
     let mut moves = 0;
+    let mut play = |p: &engine::puzzle::Puzzle, moves: &[engine::Point], trusted: bool| {
+        let mut session = Session::new(p.clone());
+        session.trust_key(trusted);
+        let mut out = Vec::new();
+        for &mv in moves {
+            out.push((mv, session.play(&mut solver, mv)));
+        }
+        out
+    };
     for (name, _, set) in shipped() {
         for p in &set.puzzles {
+            // Untrusted: each listed first move (or defence) alone.
+            for &mv in &p.first_moves {
+                if let [(_, Grade::Wrong { reason, refutation })] = &play(p, &[mv], false)[..] {
+                    if reason.contains("could not be proved") && refutation.is_empty() {
+                        undecided.push(format!("{name} {} {mv}", p.id));
+                    } else {
+                        failures.push(format!("{name} {} {mv} (untrusted): {reason}", p.id));
+                    }
+                }
+            }
             if p.goal() == Goal::Defend {
                 // Every listed defence stops the threat (a counter-four first gets its block).
                 for &mv in &p.first_moves {
                     moves += 1;
-                    let mut session = Session::new(p.clone());
-                    match session.play(&mut solver, mv) {
-                        Grade::Solved { .. } | Grade::Accepted { .. } => {}
+                    match &play(p, &[mv], true)[..] {
+                        [(_, Grade::Solved { .. } | Grade::Accepted { .. })] => {}
                         other => failures.push(format!("{name} {} defence {mv}: {other:?}", p.id)),
                     }
                 }
                 continue;
             }
-            let mut session = Session::new(p.clone());
-            let mut i = 0;
-            while i < p.line.len() {
-                let mv = p.line[i];
+            // The main line, as far as the defender answers as it does.
+            let mine: Vec<engine::Point> = p.line.iter().copied().step_by(2).collect();
+            let graded = play(p, &mine, true);
+            for (i, (mv, g)) in graded.iter().enumerate() {
                 moves += 1;
-                match session.play(&mut solver, mv) {
+                match g {
                     Grade::Solved { .. } => break,
-                    Grade::Accepted { reply, .. } => {
-                        // Follow the key only while the defender answers as it does.
-                        if p.line.get(i + 1) != Some(&reply) {
-                            break;
-                        }
-                        i += 2;
-                    }
+                    Grade::Accepted { reply, .. } if p.line.get(2 * i + 1) == Some(reply) => {}
+                    Grade::Accepted { .. } | Grade::Finished => break,
                     other => {
                         failures.push(format!("{name} {} move {mv}: {other:?}", p.id));
                         break;
@@ -196,6 +213,12 @@ fn every_stored_line_is_accepted_by_the_grader_with_the_browser_budget() {
             }
         }
     }
+    eprintln!(
+        "{} first moves undecided without trusting the key: {}",
+        undecided.len(),
+        undecided.join(", ")
+    );
+    assert!(undecided.len() <= 5, "too many undecided: {undecided:?}");
     assert!(moves >= 600, "only {moves} moves graded");
     assert!(
         failures.is_empty(),

@@ -47,13 +47,18 @@ test('Drill produces puzzles from the worker while the page stays responsive', a
   await page.click('[data-go="drill"]');
   assert.ok(Date.now() - t0 < 1000, 'screens switch while the worker works');
 
+  // The generation runs in the app's worker.
+  assert.ok(page.workers().some((w) => /\/worker\.js$/.test(w.url())), 'a worker runs web/worker.js');
   await page.waitForSelector(`#${BOARD}[data-mode="puzzle"]`, { timeout: 60000 });
   assert.ok(await page.isHidden('#drill-wait'));
   // The queue fills up ahead in the background.
   await page.waitForFunction(() => Number(document.getElementById('drill').dataset.ready) >= 2, null, { timeout: 60000 });
+  // The bound leaves room for scheduling hiccups on a busy two-core machine (gaps of 0.7 s
+  // have been seen there with the worker using one core); a generation job run on the page's
+  // own thread instead would stop both timers for the whole job.
   const gaps = await page.evaluate(() => window.gaps);
-  assert.ok(gaps.tick < 250, `the page's timers ran on time (longest gap ${gaps.tick.toFixed(0)} ms)`);
-  assert.ok(gaps.frame < 250, `frames kept coming (longest gap ${gaps.frame.toFixed(0)} ms)`);
+  assert.ok(gaps.tick < 1000, `the page's timers ran on time (longest gap ${gaps.tick.toFixed(0)} ms)`);
+  assert.ok(gaps.frame < 1000, `frames kept coming (longest gap ${gaps.frame.toFixed(0)} ms)`);
 
   const d = await stored(page);
   assert.equal(d.theme, 'vcf');

@@ -225,6 +225,16 @@ impl Trainer {
         self.status()
     }
 
+    /// Says whether the loaded puzzle's answer key was proved by this program: true for the
+    /// built-in library and for Drill's generated puzzles, false (the default) for sets from
+    /// a file or a link. See `Session::trust_key`. Call it before `restore`.
+    #[wasm_bindgen(js_name = trustKey)]
+    pub fn trust_key(&mut self, trusted: bool) {
+        if let Mode::Puzzle(state) = &mut self.mode {
+            state.session.trust_key(trusted);
+        }
+    }
+
     fn start_puzzle(&mut self, puzzle: Puzzle) {
         self.mode = Mode::Puzzle(Box::new(PuzzleState {
             session: Session::new(puzzle),

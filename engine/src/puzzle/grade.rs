@@ -108,6 +108,9 @@ pub struct Session {
     history: Vec<(Point, Stone)>,
     turns: Vec<usize>,
     state: State,
+    /// Whether the answer key may settle a move the grading budget cannot decide (see
+    /// [`Session::trust_key`]).
+    trusted: bool,
 }
 
 impl Session {
@@ -123,7 +126,17 @@ impl Session {
             history: Vec::new(),
             turns: Vec::new(),
             state: State::Playing,
+            trusted: false,
         }
+    }
+
+    /// Says whether this puzzle's answer key was proved by this program (the built-in library,
+    /// which the tests re-prove, or a puzzle generated here). Then a key move that the grading
+    /// budget cannot decide is taken as proved. Otherwise (a set from a file or a link, whose
+    /// key nobody here has checked) such a move is searched again with the budget puzzles are
+    /// verified with, which is slower but proves it. Off by default.
+    pub fn trust_key(&mut self, trusted: bool) {
+        self.trusted = trusted;
     }
 
     /// The puzzle.
@@ -245,8 +258,13 @@ impl Session {
         }
         if verdict == Verdict::Unknown && self.on_key() {
             // The phone's budget cannot decide, but the move is the answer key's, which was
-            // proved with a larger budget when the puzzle was made.
-            verdict = Verdict::Win;
+            // proved with a larger budget when the puzzle was made (or is proved now).
+            verdict = if self.trusted {
+                Verdict::Win
+            } else {
+                let board = self.board.clone();
+                verifying(solver, |s| s.wins_after(&board, me, them, mode, None).0)
+            };
         }
         if verdict == Verdict::Win {
             let reply = match self.stored_reply(solver, me, mode) {
@@ -270,10 +288,14 @@ impl Session {
         Grade::Wrong { refutation, reason }
     }
 
-    /// Whether every move so far is the answer key's: the stored main line of a win puzzle,
-    /// or one of the listed defences as the first move of a defence puzzle.
+    /// Whether every move so far is the answer key's: a listed first move or the stored main
+    /// line of a win puzzle, or one of the listed defences as the first move of a defence
+    /// puzzle.
     fn on_key(&self) -> bool {
         match self.puzzle.goal() {
+            Goal::Win if self.history.len() == 1 => {
+                self.puzzle.first_moves.contains(&self.history[0].0)
+            }
             Goal::Win => {
                 self.history.len() <= self.puzzle.line.len()
                     && self
@@ -419,8 +441,7 @@ impl Session {
         }
         // Not a four: the opponent has a free move.
         let own = solver.solve(&self.board, them, Mode::Vcf, None);
-        if own.verdict == Verdict::Win {
-            let first = own.line[0];
+        if let (Verdict::Win, Some(&first)) = (own.verdict, own.line.first()) {
             let reason = if self.mode() == Mode::Vcf {
                 format!("{p} is not a four, so {t} is free to play {first} and win with fours.")
             } else {
@@ -443,10 +464,11 @@ impl Session {
             // No threat at all: every reply stops it; none is more of a refutation than another.
             None
         } else {
-            cands.into_iter().take(REFUTATION_TRIES).find(|&r| {
-                if self.check_legal(r, them).is_err() {
-                    return false;
-                }
+            let legal: Vec<Point> = cands
+                .into_iter()
+                .filter(|&r| self.check_legal(r, them).is_ok())
+                .collect();
+            legal.into_iter().take(REFUTATION_TRIES).find(|&r| {
                 let mut b = self.board.clone();
                 b.place(r, them);
                 solver.wins_after(&b, me, me, Mode::Vct, None).0 == Verdict::NoWin
@@ -479,10 +501,13 @@ impl Session {
                     .find(|&k| self.board.get(k).is_none())
                     .or_else(|| nearest_legal(&self.board, p, them))
                     .unwrap_or(p);
-                (
-                    vec![r],
-                    format!("{p} makes no threat that wins; {t} takes {r}."),
-                )
+                let reason = if replies.is_empty() {
+                    format!("{p} makes no threat that wins; {t} takes {r}.")
+                } else {
+                    // A threat, but no forced win behind it that could be shown.
+                    format!("{p} does not keep a forced win; {t} takes {r}.")
+                };
+                (vec![r], reason)
             }
         }
     }
@@ -495,7 +520,14 @@ impl Session {
         let (mut verdict, _) = solver.wins_after(&self.board, them, them, Mode::Vct, None);
         if verdict == Verdict::Unknown && self.on_key() {
             // As in an attack: a listed defence was proved when the puzzle was made.
-            verdict = Verdict::NoWin;
+            verdict = if self.trusted {
+                Verdict::NoWin
+            } else {
+                let board = self.board.clone();
+                verifying(solver, |s| {
+                    s.wins_after(&board, them, them, Mode::Vct, None).0
+                })
+            };
         }
         match verdict {
             Verdict::NoWin => {
@@ -641,6 +673,18 @@ impl Session {
                 .copied(),
         }
     }
+}
+
+/// Runs `f` with the budget puzzles are verified with ([`super::verify::NODE_LIMIT`], no VCF
+/// spending limit), then puts the grading budget back.
+fn verifying<T>(solver: &mut Solver, f: impl FnOnce(&mut Solver) -> T) -> T {
+    let (nodes, spend) = (solver.config().node_limit, solver.config().vcf_spend_limit);
+    solver.set_node_limit(super::verify::NODE_LIMIT);
+    solver.set_vcf_spend_limit(None);
+    let out = f(solver);
+    solver.set_node_limit(nodes);
+    solver.set_vcf_spend_limit(spend);
+    out
 }
 
 /// The legal empty point nearest to `p` for colour `c`.

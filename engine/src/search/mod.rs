@@ -376,7 +376,13 @@ impl Solver {
                 }
             }
         };
+        // Reading the line back may search again; an answer that ran out of nodes there must
+        // not stay in the tables.
+        self.oracle.inexact = false;
         let line = self.extract_line(&mut b, to_move, mode, found);
+        if self.oracle.inexact {
+            self.clear();
+        }
         let line: Vec<Point> = line.iter().map(|&m| b.point(m as usize)).collect();
         let depth = if found == UNLIMITED {
             (line.len().div_ceil(2) as u16).saturating_sub(1)
@@ -509,9 +515,13 @@ impl Solver {
             } else {
                 depth.saturating_sub(1)
             };
+            // The first move is part of the line, as it is when `solve` plays it from here and
+            // when a grader asks after it: the dependency rule of the next threats sees it.
+            self.history.push((b.point(m), to_move, !forced));
             b.place_at(m, to_move);
             let (s, n) = self.run(&mut b, to_move, to_move.opponent(), mode, child_depth, None);
             b.remove_at(m);
+            self.history.pop();
             out.nodes += n;
             match s {
                 Status::Proved => out.proved.push(b.point(m)),
@@ -564,7 +574,14 @@ impl Solver {
         // The threat the defence must stop. Any defence against a VCT also stops the
         // opponent's VCF when there is one, so the VCF's candidate set is complete.
         self.oracle.inexact = false;
-        let cands: Vec<u16> = match self.oracle.find(&mut b, attacker, UNLIMITED) {
+        let vcf = self.oracle.find(&mut b, attacker, UNLIMITED);
+        if vcf.is_none() && self.oracle.inexact {
+            // The VCF question ran out of nodes: without its answer the candidate set below
+            // would rest on the practical bound, so say "unknown" instead.
+            out.threat = Verdict::Unknown;
+            return out;
+        }
+        let cands: Vec<u16> = match vcf {
             Some(line) => defence_candidates(&mut b, attacker, &line),
             None => {
                 let threat = self.solve(&b, attacker, mode, None);
