@@ -83,6 +83,8 @@ fn main() {
             for p in set.puzzles {
                 puzzles += 1;
                 let mut s = Session::new(p.clone());
+                // As the app grades the built-in library.
+                s.trust_key(true);
                 // The player follows the stored line; where the reply leaves it, the player
                 // takes the move the third hint gives (what a player would do). A defence
                 // puzzle is played with its first listed defence.

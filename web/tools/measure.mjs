@@ -137,6 +137,8 @@ try {
         t.trustKey(true); // as Tonight grades the built-in library
         const moves = p.goal === 'defend' ? [p.solution.first_moves[0]] : p.solution.line.filter((_, i) => i % 2 === 0);
         for (const mv of moves) {
+          // Where the app's reply left the stored line, the line's next move may be taken.
+          if (t.stoneAt(mv) !== '') break;
           const t0 = performance.now();
           const a = t.play(mv);
           const dt = performance.now() - t0;
