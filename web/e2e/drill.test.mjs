@@ -101,7 +101,13 @@ test('the theme and rule filters decide what the worker makes next', async () =>
   assert.deepEqual(await page.$$eval('#drill-theme option', (o) => o.map((x) => x.value)), ['four-three', 'vcf', 'vct', 'defend']);
   await page.selectOption('#drill-theme', 'four-three');
   assert.equal(await page.getAttribute('#drill', 'data-waiting'), 'true');
-  await page.waitForSelector(`#${BOARD}[data-mode="puzzle"][data-rule="standard"]`, { timeout: 60000 });
+  // A puzzle made for the earlier filters may still be on the board while the new one is
+  // made: wait for the new one.
+  await page.waitForFunction(() => {
+    const d = JSON.parse(localStorage.getItem('fivefold.drill'))?.data;
+    return d?.current?.puzzle.theme === 'four-three' && document.getElementById('drill').dataset.waiting === 'false';
+  }, null, { timeout: 60000 });
+  await page.waitForSelector(`#${BOARD}[data-mode="puzzle"][data-rule="standard"]`);
   assert.match(await page.textContent('#drill-message'), /find the four-three and win$/);
   const d = await stored(page);
   assert.equal(d.current.puzzle.theme, 'four-three');
