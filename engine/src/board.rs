@@ -68,6 +68,30 @@ impl fmt::Display for Stone {
     }
 }
 
+/// Text that is neither `black` nor `white`.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct StoneParseError(pub String);
+
+impl fmt::Display for StoneParseError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        write!(f, "'{}' is not black or white", self.0)
+    }
+}
+
+impl std::error::Error for StoneParseError {}
+
+impl std::str::FromStr for Stone {
+    type Err = StoneParseError;
+    /// `black` or `white`, as [`Stone::name`] writes them.
+    fn from_str(s: &str) -> Result<Stone, StoneParseError> {
+        match s {
+            "black" => Ok(Stone::Black),
+            "white" => Ok(Stone::White),
+            _ => Err(StoneParseError(s.to_string())),
+        }
+    }
+}
+
 const EMPTY: u8 = 0;
 const WALL: u8 = 3;
 

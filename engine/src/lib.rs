@@ -20,7 +20,7 @@ pub mod rules;
 pub mod search;
 pub mod suite;
 
-pub use board::{Board, PointThreats, Stone};
+pub use board::{Board, PointThreats, Stone, StoneParseError};
 pub use geometry::{Direction, Point, Symmetry};
 pub use patterns::LineShape;
 pub use rules::{Forbidden, Game, MoveError, Outcome, Rule};

@@ -211,11 +211,9 @@ pub fn parse(text: &str) -> Result<Vec<Case>, SuiteError> {
         let size: u8 = f[1]
             .parse()
             .map_err(|_| err(format!("bad size '{}'", f[1])))?;
-        let to_move = match f[2] {
-            "black" => Stone::Black,
-            "white" => Stone::White,
-            other => return Err(err(format!("bad side '{other}'"))),
-        };
+        let to_move: Stone = f[2]
+            .parse()
+            .map_err(|_| err(format!("bad side '{}'", f[2])))?;
         let mode = match f[3] {
             "vcf" => Mode::Vcf,
             "vct" => Mode::Vct,

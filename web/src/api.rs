@@ -17,7 +17,8 @@ use wasm_bindgen::prelude::*;
 use crate::library;
 use crate::words;
 
-fn err(e: impl std::fmt::Display) -> JsValue {
+/// A message for JavaScript (thrown as a string).
+pub(crate) fn err(e: impl std::fmt::Display) -> JsValue {
     JsValue::from_str(&e.to_string())
 }
 
@@ -225,11 +226,7 @@ pub fn solve_position(query: JsValue) -> Result<JsValue, JsValue> {
             words::colour_word(w)
         )));
     }
-    let to_move = match q.to_move.as_str() {
-        "black" => Stone::Black,
-        "white" => Stone::White,
-        other => return Err(err(format!("'{other}' is not black or white"))),
-    };
+    let to_move: Stone = q.to_move.parse().map_err(err)?;
     let names = |v: &[engine::Point]| v.iter().map(|p| p.to_string()).collect::<Vec<_>>();
     let out = with_solver(|solver| {
         if let Some(n) = q.nodes {

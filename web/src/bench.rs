@@ -2,6 +2,7 @@
 //! `engine::suite::time_all` with the same solver settings as `cargo bench --bench solver`,
 //! timed with `performance.now()`. Used by `web/tools/measure.mjs`.
 
+use crate::api::err;
 use engine::search::Solver;
 use engine::suite;
 use js_sys::{Function, Reflect};
@@ -25,7 +26,7 @@ fn now() -> f64 {
 /// `total_ms`, `nodes`) and the `mismatches` with the recorded verdicts.
 #[wasm_bindgen(js_name = benchSuite)]
 pub fn bench_suite(text: &str) -> Result<String, JsValue> {
-    let cases = suite::parse(text).map_err(|e| JsValue::from_str(&e.to_string()))?;
+    let cases = suite::parse(text).map_err(err)?;
     let run = suite::time_all(&cases, &mut Solver::default(), now);
-    serde_json::to_string(&run).map_err(|e| JsValue::from_str(&e.to_string()))
+    serde_json::to_string(&run).map_err(err)
 }

@@ -18,14 +18,10 @@ use wasm_bindgen::prelude::*;
 use wasm_bindgen::JsCast;
 use web_sys::{CanvasRenderingContext2d, HtmlCanvasElement};
 
-use crate::api::with_solver;
+use crate::api::{err, with_solver};
 use crate::layout::Layout;
 use crate::render::{self, Marks};
 use crate::words::{self, colour_word};
-
-fn err(e: impl std::fmt::Display) -> JsValue {
-    JsValue::from_str(&e.to_string())
-}
 
 fn to_js<T: Serialize>(v: &T) -> Result<JsValue, JsValue> {
     v.serialize(&serde_wasm_bindgen::Serializer::json_compatible())
@@ -700,9 +696,14 @@ impl Trainer {
     pub fn study_new(&mut self, size: u8, rule: &str) -> Result<JsValue, JsValue> {
         let rule = Rule::from_str(rule).map_err(err)?;
         let board = Board::new(size, rule).map_err(err)?;
+        self.start_study(board, Stone::Black)
+    }
+
+    /// A study board on `board` with `to_move` to play, nothing else carried over.
+    fn start_study(&mut self, board: Board, to_move: Stone) -> Result<JsValue, JsValue> {
         self.mode = Mode::Study(Box::new(StudyState {
             board,
-            to_move: Stone::Black,
+            to_move,
             tool: Tool::Play,
             edits: Vec::new(),
             line: Vec::new(),
@@ -710,6 +711,7 @@ impl Trainer {
             line_shown: 0,
         }));
         self.ghost = None;
+        self.growing = None;
         self.cursor = None;
         self.fit(self.dpr)?;
         self.status()
@@ -729,25 +731,8 @@ impl Trainer {
     ) -> Result<JsValue, JsValue> {
         let rule = Rule::from_str(rule).map_err(err)?;
         let board = notation::setup(size, rule, &black.join(" "), &white.join(" ")).map_err(err)?;
-        let to_move = match to_move {
-            "black" => Stone::Black,
-            "white" => Stone::White,
-            other => return Err(err(format!("'{other}' is not black or white"))),
-        };
-        self.mode = Mode::Study(Box::new(StudyState {
-            board,
-            to_move,
-            tool: Tool::Play,
-            edits: Vec::new(),
-            line: Vec::new(),
-            line_first: Stone::Black,
-            line_shown: 0,
-        }));
-        self.ghost = None;
-        self.growing = None;
-        self.cursor = None;
-        self.fit(self.dpr)?;
-        self.status()
+        let to_move: Stone = to_move.parse().map_err(err)?;
+        self.start_study(board, to_move)
     }
 
     /// The study tool: "play" (alternate by the rules), "black", "white" or "erase".
@@ -769,11 +754,7 @@ impl Trainer {
     /// Sets the side to move in the study position: "black" or "white".
     #[wasm_bindgen(js_name = studyToMove)]
     pub fn study_to_move(&mut self, side: &str) -> Result<JsValue, JsValue> {
-        let c = match side {
-            "black" => Stone::Black,
-            "white" => Stone::White,
-            other => return Err(err(format!("'{other}' is not black or white"))),
-        };
+        let c: Stone = side.parse().map_err(err)?;
         if let Mode::Study(s) = &mut self.mode {
             s.to_move = c;
             s.line.clear();

@@ -321,14 +321,10 @@ fn parse_puzzle(n: usize, v: &Value) -> Result<Puzzle, SetError> {
         return Err(err("size", format!("{size} is not a board size (5 to 19)")));
     }
     let size = size as u8;
-    let to_move = match string(obj, "to_move")
+    let to_move: Stone = string(obj, "to_move")
         .map_err(|m| err("to_move", m))?
-        .as_str()
-    {
-        "black" => Stone::Black,
-        "white" => Stone::White,
-        other => return Err(err("to_move", format!("'{other}' is not black or white"))),
-    };
+        .parse()
+        .map_err(|e: crate::StoneParseError| err("to_move", e.to_string()))?;
     let points =
         |field: &str, v: Option<&Value>, seen: &mut Vec<Point>| -> Result<Vec<Point>, SetError> {
             let arr = v

@@ -278,6 +278,11 @@ impl Session {
             };
         }
         let (refutation, reason) = self.refute_attack(solver, p);
+        self.fail(refutation, reason)
+    }
+
+    /// Puts a wrong move's refutation on the board and ends the try.
+    fn fail(&mut self, refutation: Vec<Point>, reason: String) -> Grade {
         for &r in &refutation {
             if self.board.get(r).is_none() {
                 let side = self.to_move;
@@ -296,18 +301,24 @@ impl Session {
             Goal::Win if self.history.len() == 1 => {
                 self.puzzle.first_moves.contains(&self.history[0].0)
             }
-            Goal::Win => {
-                self.history.len() <= self.puzzle.line.len()
-                    && self
-                        .history
-                        .iter()
-                        .zip(&self.puzzle.line)
-                        .all(|(h, &l)| h.0 == l)
-            }
+            Goal::Win => self.on_line(),
             Goal::Defend => {
                 self.history.len() == 1 && self.puzzle.first_moves.contains(&self.history[0].0)
             }
         }
+    }
+
+    /// Whether the moves so far are the start of the stored main line.
+    fn on_line(&self) -> bool {
+        let line = &self.puzzle.line;
+        self.history.len() <= line.len() && self.history.iter().zip(line).all(|(h, &l)| h.0 == l)
+    }
+
+    /// The stored main line's next move, while the moves so far follow it and that point is
+    /// free.
+    fn next_on_line(&self) -> Option<Point> {
+        let next = *self.puzzle.line.get(self.history.len())?;
+        (self.on_line() && self.board.get(next).is_none()).then_some(next)
     }
 
     /// While the player follows the stored main line, the defender answers as the line does
@@ -319,15 +330,7 @@ impl Session {
         me: Stone,
         mode: Mode,
     ) -> Option<(Point, String)> {
-        let line = &self.puzzle.line;
-        let n = self.history.len();
-        if n >= line.len() || self.history.iter().zip(line).any(|(h, &l)| h.0 != l) {
-            return None;
-        }
-        let r = line[n];
-        if self.board.get(r).is_some() {
-            return None;
-        }
+        let r = self.next_on_line()?;
         let them = me.opponent();
         let t = capitalised(them);
         let fives: Vec<Point> = self
@@ -562,15 +565,7 @@ impl Session {
                     }
                     _ => format!("{p} could not be proved to stop {t}'s attack."),
                 };
-                let refutation = sol.line.clone();
-                for &r in &refutation {
-                    if self.board.get(r).is_none() {
-                        let side = self.to_move;
-                        self.put(r, side);
-                    }
-                }
-                self.state = State::Failed;
-                Grade::Wrong { refutation, reason }
+                self.fail(sol.line, reason)
             }
         }
     }
@@ -646,14 +641,11 @@ impl Session {
                 return self.puzzle.first_moves.first().copied();
             }
         }
-        let line = &self.puzzle.line;
-        let n = self.history.len();
-        let on_line = self.puzzle.goal() == Goal::Win
-            && n < line.len()
-            && self.history.iter().zip(line).all(|(h, &l)| h.0 == l);
-        if on_line && self.board.get(line[n]).is_none() {
-            // Still on the answer key: its next move is proved.
-            return Some(line[n]);
+        if self.puzzle.goal() == Goal::Win {
+            if let Some(next) = self.next_on_line() {
+                // Still on the answer key: its next move is proved.
+                return Some(next);
+            }
         }
         match self.puzzle.goal() {
             Goal::Win => {

@@ -520,12 +520,12 @@ impl<'b> ThreatSpace<'b> {
     /// threat-space search (Allis, van den Herik and Huntjens 1993), bounded to recent threats
     /// so that a node's moves depend on little of the path (which is part of the key).
     fn dependent(&self, c: usize) -> bool {
-        let recent = self.recent_threats();
-        if recent.is_empty() {
+        let mut recent = self.recent_threats().peekable();
+        if recent.peek().is_none() {
             return true;
         }
         let p = self.board.point(c);
-        recent.iter().any(|&m| {
+        recent.any(|m| {
             let q = self.board.point(m as usize);
             let (dx, dy) = (q.x as i32 - p.x as i32, q.y as i32 - p.y as i32);
             (dx == 0 || dy == 0 || dx.abs() == dy.abs()) && dx.abs().max(dy.abs()) <= 4
@@ -534,30 +534,27 @@ impl<'b> ThreatSpace<'b> {
 
     /// The attacker's last [`RECENT`] threats since the root, newest first.
     #[inline]
-    fn recent_threats(&self) -> Vec<u16> {
+    fn recent_threats(&self) -> impl Iterator<Item = u16> + '_ {
         self.played
             .iter()
             .rev()
             .filter(|x| x.1)
             .take(RECENT)
             .map(|x| x.0)
-            .collect()
     }
 
     /// The key of the recent threats (their order does not matter to the rule).
     #[inline]
     fn recent_key(&self) -> u64 {
-        self.recent_threats()
-            .iter()
-            .fold(0, |k, &m| k ^ played_key(m))
+        self.recent_threats().fold(0, |k, m| k ^ played_key(m))
     }
 
     /// The recent-threat key after the attacker's threat `m`.
     #[inline]
     fn recent_key_after(&self, m: u16) -> u64 {
-        let mut r = self.recent_threats();
-        r.truncate(RECENT - 1);
-        r.iter().fold(played_key(m), |k, &x| k ^ played_key(x))
+        self.recent_threats()
+            .take(RECENT - 1)
+            .fold(played_key(m), |k, x| k ^ played_key(x))
     }
 
     /// Whether the attacker, to move, is forced to block a defender four.
