@@ -2,9 +2,10 @@
 //! ratings, generation and solving. Sets cross the boundary as set-file JSON text (the wire
 //! format of `engine::formats::setfile`), so the page never holds an engine type.
 
-use engine::formats::result::{self, Outcome};
+use engine::formats::result;
 use engine::formats::{setfile, share};
 use engine::notation;
+use engine::puzzle::attempt::Attempt;
 use engine::puzzle::generate::{self, Options};
 use engine::puzzle::{grade, Theme};
 use engine::rating::Rating;
@@ -52,21 +53,16 @@ pub fn share_decode(code: &str) -> Result<String, JsValue> {
     Ok(setfile::to_json(&set))
 }
 
-fn outcome(name: &str) -> Outcome {
-    match name {
-        "clean" => Outcome::Clean,
-        "helped" => Outcome::Helped,
-        "failed" => Outcome::Failed,
-        _ => Outcome::Untried,
-    }
-}
-
-/// The result code a student sends back: `outcomes` has one of "clean", "helped", "failed"
-/// or "untried" per puzzle of the set, in order.
+/// The result code a student sends back: `outcomes` has one attempt name per puzzle of the
+/// set, in order ("untried", "trying", "clean", "helped" or "failed"; see `Attempt`).
 #[wasm_bindgen(js_name = resultCode)]
 pub fn result_code(set_json: &str, name: &str, outcomes: Vec<String>) -> Result<String, JsValue> {
     let set = setfile::parse(set_json).map_err(err)?;
-    let outs: Vec<Outcome> = outcomes.iter().map(|o| outcome(o)).collect();
+    let outs = outcomes
+        .iter()
+        .map(|o| o.parse::<Attempt>())
+        .collect::<Result<Vec<_>, _>>()
+        .map_err(err)?;
     Ok(result::encode(result::fingerprint(&set), name, &outs))
 }
 

@@ -10,6 +10,7 @@ use std::str::FromStr;
 
 use engine::formats::setfile;
 use engine::notation;
+use engine::puzzle::attempt::Attempt;
 use engine::puzzle::grade::{Grade, Hint, Session, State};
 use engine::puzzle::Puzzle;
 use engine::{Board, Point, Rule, Stone};
@@ -21,7 +22,7 @@ use web_sys::{CanvasRenderingContext2d, HtmlCanvasElement};
 use crate::api::{err, with_solver};
 use crate::layout::Layout;
 use crate::render::{self, Marks};
-use crate::words::{self, colour_word};
+use crate::words::colour_word;
 
 fn to_js<T: Serialize>(v: &T) -> Result<JsValue, JsValue> {
     v.serialize(&serde_wasm_bindgen::Serializer::json_compatible())
@@ -104,7 +105,7 @@ struct Status {
     wrong: u32,
     hints: u8,
     pending: usize,
-    /// How the puzzle went ([`words::outcome`]); "" on a study board.
+    /// How the puzzle went (an [`Attempt`] name); "" on a study board.
     outcome: &'static str,
 }
 
@@ -598,7 +599,7 @@ impl Trainer {
                     wrong: p.wrong,
                     hints: p.hints,
                     pending: h.len().saturating_sub(p.revealed),
-                    outcome: words::outcome(p.session.state(), p.wrong, p.hints, h.len()),
+                    outcome: Attempt::of(p.session.state(), p.wrong, p.hints, h.len()).name(),
                 }
             }
             Mode::Study(s) => Status {

@@ -1,26 +1,11 @@
 //! The sentences and small decisions the page shows, apart from the bindings so that they are
-//! tested natively: how a puzzle went, what a study search found, which rating band a drill
+//! tested natively: what a study search found, which rating band a drill
 //! asks the generator for.
 
-use engine::puzzle::grade::State;
 use engine::puzzle::Theme;
 use engine::{Point, Rule, Stone};
 
 pub use engine::puzzle::capitalised as colour_word;
-
-/// How a puzzle went, for progress and result codes: "untried" (nothing done yet), "trying"
-/// (moves, hints or a wrong try, not finished), "clean" (solved without a wrong move or a
-/// hint), "helped" (solved after a wrong move or with a hint) or "failed" (the last move was
-/// wrong and its refutation is on the board).
-pub fn outcome(state: State, wrong: u32, hints: u8, moves: usize) -> &'static str {
-    match state {
-        State::Solved if wrong == 0 && hints == 0 => "clean",
-        State::Solved => "helped",
-        State::Failed => "failed",
-        State::Playing if wrong == 0 && hints == 0 && moves == 0 => "untried",
-        State::Playing => "trying",
-    }
-}
 
 /// Half the width of a drill's rating band.
 pub const BAND: u32 = 200;
@@ -160,18 +145,6 @@ mod tests {
         s.split_whitespace()
             .map(|t| Point::from_str(t).unwrap())
             .collect()
-    }
-
-    #[test]
-    fn outcomes_follow_the_result_code_meanings() {
-        assert_eq!(outcome(State::Playing, 0, 0, 0), "untried");
-        assert_eq!(outcome(State::Playing, 0, 0, 2), "trying");
-        assert_eq!(outcome(State::Playing, 1, 0, 0), "trying");
-        assert_eq!(outcome(State::Playing, 0, 1, 0), "trying");
-        assert_eq!(outcome(State::Solved, 0, 0, 7), "clean");
-        assert_eq!(outcome(State::Solved, 1, 0, 7), "helped");
-        assert_eq!(outcome(State::Solved, 0, 3, 7), "helped");
-        assert_eq!(outcome(State::Failed, 1, 0, 2), "failed");
     }
 
     #[test]

@@ -10,31 +10,7 @@
 use std::fmt;
 
 use super::setfile::PuzzleSet;
-
-/// What happened to one puzzle.
-#[derive(Clone, Copy, PartialEq, Eq, Debug)]
-pub enum Outcome {
-    /// Not tried.
-    Untried = 0,
-    /// Solved at the first go, without hints.
-    Clean = 1,
-    /// Solved after a wrong move or with hints.
-    Helped = 2,
-    /// Given up or not solved.
-    Failed = 3,
-}
-
-impl Outcome {
-    /// The outcome's name.
-    pub const fn name(self) -> &'static str {
-        match self {
-            Outcome::Untried => "untried",
-            Outcome::Clean => "solved",
-            Outcome::Helped => "solved with help",
-            Outcome::Failed => "failed",
-        }
-    }
-}
+use crate::puzzle::attempt::Attempt;
 
 /// A decoded result code.
 #[derive(Clone, Debug, PartialEq, Eq)]
@@ -43,8 +19,9 @@ pub struct Results {
     pub set: u32,
     /// The student's name as typed.
     pub name: String,
-    /// One outcome per puzzle, in set order.
-    pub outcomes: Vec<Outcome>,
+    /// One outcome per puzzle, in set order, as [`Attempt::recorded`] gives it (never
+    /// `Trying`).
+    pub outcomes: Vec<Attempt>,
 }
 
 /// Why a result code could not be read.
@@ -138,8 +115,18 @@ fn from_base32(text: &str) -> Result<Vec<u8>, ResultError> {
     Ok(out)
 }
 
-/// Encodes a student's results on a set.
-pub fn encode(set: u32, name: &str, outcomes: &[Outcome]) -> String {
+/// The two bits a puzzle's outcome takes in a code.
+fn bits(a: Attempt) -> u8 {
+    match a.recorded() {
+        Attempt::Untried => 0,
+        Attempt::Clean => 1,
+        Attempt::Helped => 2,
+        _ => 3,
+    }
+}
+
+/// Encodes a student's results on a set (each outcome as [`Attempt::recorded`] gives it).
+pub fn encode(set: u32, name: &str, outcomes: &[Attempt]) -> String {
     let mut name = name.trim().to_string();
     while name.len() > 24 {
         name.pop();
@@ -152,7 +139,7 @@ pub fn encode(set: u32, name: &str, outcomes: &[Outcome]) -> String {
     for chunk in outcomes.chunks(4) {
         let mut b = 0u8;
         for (i, o) in chunk.iter().enumerate() {
-            b |= (*o as u8) << (2 * i);
+            b |= bits(*o) << (2 * i);
         }
         raw.push(b);
     }
@@ -196,10 +183,10 @@ pub fn decode(code: &str) -> Result<Results, ResultError> {
     }
     let outcomes = (0..count)
         .map(|i| match packed[i / 4] >> (2 * (i % 4)) & 3 {
-            0 => Outcome::Untried,
-            1 => Outcome::Clean,
-            2 => Outcome::Helped,
-            _ => Outcome::Failed,
+            0 => Attempt::Untried,
+            1 => Attempt::Clean,
+            2 => Attempt::Helped,
+            _ => Attempt::Failed,
         })
         .collect();
     Ok(Results {
@@ -216,11 +203,11 @@ mod tests {
     #[test]
     fn round_trips_and_reads_forgivingly() {
         let outs = [
-            Outcome::Clean,
-            Outcome::Failed,
-            Outcome::Helped,
-            Outcome::Untried,
-            Outcome::Clean,
+            Attempt::Clean,
+            Attempt::Failed,
+            Attempt::Helped,
+            Attempt::Untried,
+            Attempt::Clean,
         ];
         let code = encode(0xDEAD_BEEF, "Mira of Harbour Street", &outs);
         let r = decode(&code).unwrap();
@@ -232,7 +219,7 @@ mod tests {
 
     #[test]
     fn a_typo_is_refused() {
-        let code = encode(7, "Tomas", &[Outcome::Clean; 10]);
+        let code = encode(7, "Tomas", &[Attempt::Clean; 10]);
         let mut chars: Vec<char> = code.chars().collect();
         let i = chars.iter().position(|&c| c != '-').unwrap() + 5;
         chars[i] = if chars[i] == 'Z' { 'Y' } else { 'Z' };

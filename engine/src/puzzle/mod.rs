@@ -6,6 +6,7 @@
 //! by [`grade::Session`], which accepts any move that keeps a proved forced win (or, in a defence
 //! puzzle, any move after which the opponent has none), not only the stored ones.
 
+pub mod attempt;
 pub mod difficulty;
 pub mod generate;
 pub mod grade;
