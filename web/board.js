@@ -1,9 +1,10 @@
-// One board on the page: a canvas and the Rust `Trainer` that draws on it and grades on it.
-// This file forwards taps, keys and resizes, paces the moves the app plays (a reply after a
-// short pause, a refutation slowly, one move at a time), runs the stone animation and writes
-// every sentence the Trainer returns to the message line, the move log and the live region.
+// One board on the page: a canvas and the Rust board handle that draws on it (a PuzzleBoard,
+// which grades, or a StudyBoard). This file forwards taps, keys and resizes, paces the moves the
+// app plays (a reply after a short pause, a refutation slowly, one move at a time), runs the
+// stone animation and writes every sentence the handle returns to the message line, the move
+// log and the live region.
 
-import { Trainer } from './pkg/fivefold_web.js';
+import { PuzzleBoard, StudyBoard } from './pkg/fivefold_web.js';
 import { announce, el } from './ui.js';
 
 // Pauses before the app's moves are shown, in milliseconds.
@@ -16,15 +17,16 @@ let firstBoardMarked = false;
 
 export class BoardView {
   /**
-   * `canvas`: the board's canvas; `log`: an element for the move log; `message`: the message
-   * line; `onChange(status, why)`: called after every change the player or the app makes.
+   * `canvas`: the board's canvas; `kind`: "puzzle" or "study"; `log`: an element for the move
+   * log; `message`: the message line; `onChange(status, why)`: called after every change the
+   * player or the app makes.
    */
-  constructor(canvas, { log, message, onChange = () => {} }) {
+  constructor(canvas, { kind = 'puzzle', log, message, onChange = () => {} }) {
     this.canvas = canvas;
     this.log = log;
     this.message = message;
     this.onChange = onChange;
-    this.trainer = new Trainer(canvas);
+    this.trainer = kind === 'study' ? new StudyBoard(canvas) : new PuzzleBoard(canvas);
     this.token = 0;
     this.animating = false;
     this.lastPointer = 'mouse';
@@ -64,9 +66,7 @@ export class BoardView {
   }
 
   setOptions({ confirm, forbidden, numbers }) {
-    this.trainer.setOption('confirm', !!confirm);
-    this.trainer.setOption('forbidden', !!forbidden);
-    this.trainer.setOption('numbers', !!numbers);
+    this.trainer.setOptions(!!confirm, !!forbidden, !!numbers);
   }
 
   /** Stops any pacing of the app's moves (a new puzzle, undo, retry). */
@@ -86,8 +86,8 @@ export class BoardView {
     d.state = s.state;
     d.pending = String(s.pending);
     d.moves = s.moves.join(' ');
-    d.outcome = s.outcome;
-    d.hints = String(s.hints);
+    d.outcome = s.attempt ?? '';
+    d.hints = String(s.record?.hints ?? 0);
     d.toMove = s.toMove;
     d.rule = s.rule;
     this.canvas.setAttribute('aria-label', this.trainer.describe());
@@ -120,18 +120,16 @@ export class BoardView {
   }
 
   /**
-   * Loads a puzzle, and replays the player's moves of it so far (`played`, after a reload).
-   * `trusted`: the puzzle's answer key was proved by this app (the built-in library, Drill).
+   * Loads a puzzle with its saved record (`{played, wrong, hints, attempt}`, or null): the
+   * player's moves so far are replayed after a reload. `trusted`: the puzzle's answer key was
+   * proved by this app (the built-in library, Drill).
    */
-  load(puzzleJson, { played = [], wrong = 0, hints = 0, trusted = false } = {}) {
+  load(puzzleJson, { record = null, trusted = false } = {}) {
     this.cancelPacing();
     this.clearLog();
-    this.trainer.loadPuzzle(puzzleJson);
-    this.trainer.trustKey(trusted);
-    let s = this.trainer.status();
-    if (played.length || wrong || hints) s = this.trainer.restore(played, wrong, hints);
+    this.trainer.load(puzzleJson, trusted, record);
     this.fit();
-    s = this.changed('load');
+    const s = this.changed('load');
     this.markFirstBoard();
     this.note(s.goal, 'goal');
     return s;

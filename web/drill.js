@@ -1,7 +1,7 @@
 // Drill: an endless stream of puzzles at the player's level, filtered by theme and rule,
 // generated a few ahead in the worker so that the next one is ready when it is wanted.
 
-import { drillBand, parseSet, ratingAfter, themes } from './pkg/fivefold_web.js';
+import { attemptWords, drillBand, parseSet, ratingAfter, themes } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
 import { save } from './store.js';
@@ -25,7 +25,8 @@ export function checkDrill(d) {
   if (c !== null) {
     if (!c || typeof c.puzzle !== 'object' || !Array.isArray(c.played) ||
         !c.played.every((m) => typeof m === 'string' && POINT_NAME.test(m)) ||
-        !isInt(c.wrong, 0, 1e6) || !isInt(c.hints, 0, 3) || typeof c.rated !== 'boolean') {
+        !isInt(c.wrong, 0, 1e6) || !isInt(c.hints, 0, 3) || typeof c.rated !== 'boolean' ||
+        (c.attempt !== undefined && !Object.hasOwn(JSON.parse(attemptWords()), c.attempt))) {
       return 'the current puzzle is malformed';
     }
   }
@@ -196,7 +197,8 @@ export class Drill {
     this.waiting(false);
     this.loading = true;
     try {
-      this.board.load(JSON.stringify(c.puzzle), { ...c, trusted: true });
+      const record = { played: c.played, wrong: c.wrong, hints: c.hints, attempt: c.attempt ?? null };
+      this.board.load(JSON.stringify(c.puzzle), { record, trusted: true });
     } finally {
       this.loading = false;
     }
@@ -241,10 +243,11 @@ export class Drill {
       return;
     }
     const c = this.data.current;
-    c.played = s.played;
-    c.wrong = s.wrong;
-    c.hints = s.hints;
-    if (!c.rated && s.state !== 'playing') this.rate(s.outcome === 'clean');
+    c.played = s.record.played;
+    c.wrong = s.record.wrong;
+    c.hints = s.record.hints;
+    c.attempt = s.record.attempt;
+    if (!c.rated && s.state !== 'playing') this.rate(s.attempt === 'clean');
     if (why !== 'reveal' || s.pending === 0) this.save();
     this.renderPlay(s);
   }
@@ -254,7 +257,7 @@ export class Drill {
     const over = s.state !== 'playing';
     const none = !this.data.current;
     root.querySelector('[data-act="hint"]').disabled = none || over || s.pending > 0;
-    root.querySelector('[data-act="undo"]').disabled = none || s.played.length === 0;
+    root.querySelector('[data-act="undo"]').disabled = none || s.record.played.length === 0;
     root.querySelector('[data-act="retry"]').disabled = none || s.moves.length === 0;
     root.querySelector('[data-act="next"]').classList.toggle('ready', over && s.pending === 0);
   }

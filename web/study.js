@@ -34,6 +34,7 @@ export class Study {
     this.data = emptyStudy();
     this.jobs = new Jobs();
     this.board = new BoardView($('study-board'), {
+      kind: 'study',
       log: $('study-log'),
       message: $('study-message'),
       onChange: (s, why) => this.changed(s, why),
@@ -44,13 +45,13 @@ export class Study {
     for (const r of document.querySelectorAll('#study-tools input')) {
       r.addEventListener('change', () => {
         this.data.tool = r.value;
-        this.t.studyTool(r.value);
+        this.t.setTool(r.value);
         this.save();
       });
     }
     for (const r of document.querySelectorAll('#study-side input')) {
       r.addEventListener('change', () => {
-        this.t.studyToMove(r.value);
+        this.t.setToMove(r.value);
         this.board.changed('side');
       });
     }
@@ -64,7 +65,7 @@ export class Study {
       this.board.undo();
     });
     $('study-clear').addEventListener('click', () => {
-      this.t.studyClear();
+      this.t.clear();
       this.board.say(['The board is cleared.'], 'info');
       this.board.changed('clear');
     });
@@ -76,13 +77,13 @@ export class Study {
     this.data = data ?? emptyStudy();
     const d = this.data;
     try {
-      this.t.studyLoad(d.size, d.rule, d.black, d.white, d.toMove);
+      this.t.load(d.size, d.rule, d.black, d.white, d.toMove);
     } catch (e) {
       this.board.note(`The saved position could not be set up (${e}); the board is empty.`, 'refused');
       this.data = emptyStudy();
-      this.t.studyNew(15, 'freestyle');
+      this.t.reset(15, 'freestyle');
     }
-    this.t.studyTool(this.data.tool);
+    this.t.setTool(this.data.tool);
     this.board.clearLog();
     this.board.changed('load');
     this.renderControls();
@@ -106,9 +107,8 @@ export class Study {
 
   changed(s, why) {
     if (s.mode !== 'study') return;
-    const pos = this.t.studyPosition();
-    Object.assign(this.data, { size: pos.size, rule: pos.rule, black: pos.black, white: pos.white, toMove: pos.toMove });
-    for (const r of document.querySelectorAll('#study-side input')) r.checked = r.value === pos.toMove;
+    Object.assign(this.data, { size: s.size, rule: s.rule, black: s.black, white: s.white, toMove: s.toMove, tool: s.tool });
+    for (const r of document.querySelectorAll('#study-side input')) r.checked = r.value === s.toMove;
     if (why !== 'step') {
       // A search under way answers for the position it was asked about, not this one.
       this.edits = (this.edits ?? 0) + 1;
@@ -120,16 +120,16 @@ export class Study {
   setSize(size) {
     const d = this.data;
     try {
-      this.t.studyLoad(size, d.rule, d.black, d.white, d.toMove);
+      this.t.load(size, d.rule, d.black, d.white, d.toMove);
     } catch {
       if (!window.confirm(`Some stones do not fit on ${size} × ${size}. Clear the board to change the size?`)) {
         $('study-size').value = String(d.size);
         return;
       }
-      this.t.studyNew(size, d.rule);
+      this.t.reset(size, d.rule);
       this.board.say([`The stones did not fit on ${size} × ${size}: the board is empty.`], 'info');
     }
-    this.t.studyTool(d.tool);
+    this.t.setTool(d.tool);
     this.board.changed('size');
     this.renderControls();
   }
@@ -137,27 +137,27 @@ export class Study {
   setRule(rule) {
     const d = this.data;
     try {
-      this.t.studyLoad(d.size, rule, d.black, d.white, d.toMove);
+      this.t.load(d.size, rule, d.black, d.white, d.toMove);
     } catch (e) {
       this.board.say([`${e}`], 'refused');
       this.renderControls();
       return;
     }
-    this.t.studyTool(d.tool);
+    this.t.setTool(d.tool);
     this.board.changed('rule');
     this.renderControls();
   }
 
   paste() {
     const text = $('study-moves').value;
+    let n;
     try {
-      this.t.studyPaste(text);
+      n = this.t.paste(text);
     } catch (e) {
       this.board.say([`Not set up: ${e}.`], 'refused');
       return;
     }
-    this.data.tool = 'play';
-    this.board.say([`Set up ${text.trim().split(/[\s,;]+/).filter(Boolean).length} moves.`], 'info');
+    this.board.say([`Set up ${n} move${n === 1 ? '' : 's'}.`], 'info');
     this.board.changed('paste');
     this.renderControls();
   }
@@ -170,7 +170,7 @@ export class Study {
   }
 
   async ask(search) {
-    const pos = this.t.studyPosition();
+    const pos = this.t.status();
     const name = { vcf: 'a win with fours (VCF)', vct: 'a win with threes and fours (VCT)', defend: 'the defences' }[search];
     this.busy(true, `Searching for ${name}…`);
     $('study-answer').replaceChildren();
@@ -179,7 +179,8 @@ export class Study {
     const edits = this.edits ?? 0;
     let r;
     try {
-      r = await this.jobs.run('solve', { query: { ...pos, search, nodes: NODES } });
+      const query = { rule: pos.rule, size: pos.size, black: pos.black, white: pos.white, toMove: pos.toMove, search, nodes: NODES };
+      r = await this.jobs.run('solve', { query });
     } catch (e) {
       this.busy(false);
       if (e instanceof Cancelled) return;
@@ -194,8 +195,7 @@ export class Study {
     const secs = ((performance.now() - started) / 1000).toFixed(1);
     this.answer([...r.say, `(${r.nodes.toLocaleString('en')} positions searched in ${secs} s.)`], r.result);
     if (r.line.length) {
-      const first = search === 'defend' ? (pos.toMove === 'black' ? 'white' : 'black') : pos.toMove;
-      this.t.studyShowLine(r.line, first);
+      this.t.showLine(r.line, r.first);
       this.lineTotal = r.line.length;
       $('study-stepper').hidden = false;
       $('study-step').textContent = `0 of ${r.line.length}`;
@@ -219,7 +219,7 @@ export class Study {
   }
 
   step(delta) {
-    const r = this.t.studyStep(delta);
+    const r = this.t.step(delta);
     $('study-step').textContent = r.shown ? `${r.shown} of ${r.total}: ${r.say.replace(/^\d+\. /, '')}` : `0 of ${r.total}`;
     $('study').dataset.shown = String(r.shown);
     announce(r.say);

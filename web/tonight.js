@@ -1,19 +1,14 @@
 // Tonight: the sets a student has been given (from a link, a file or the starter library),
 // played puzzle by puzzle with progress, and a summary with a result code at the end.
 
-import { librarySets, parseSet, resultCode, setKey, shareEncode, shareDecode } from './pkg/fivefold_web.js';
+import { attemptWords, librarySets, parseSet, recordedAttempt, resultCode, setKey, shareEncode, shareDecode } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
 import { save } from './store.js';
 import { $, POINT_NAME, announce, banner, el, fill, isInt, own, put } from './ui.js';
 
-const OUTCOMES = ['untried', 'trying', 'clean', 'helped', 'failed'];
-const OUTCOME_WORDS = {
-  untried: 'not tried',
-  trying: 'in progress',
-  clean: 'solved',
-  helped: 'solved with help',
-  failed: 'failed',
-};
+// Attempt names and their words, from the engine (read once the engine has started).
+let outcomeWords = null;
+const OUTCOME_WORDS = () => (outcomeWords ??= JSON.parse(attemptWords()));
 const MAX_SET_BYTES = 2_000_000;
 
 /** Why a stored list of sets cannot be used, or null. */
@@ -44,7 +39,7 @@ export function checkTonight(d) {
     }
     for (const [id, r] of Object.entries(p.puzzles)) {
       if (!r || !Array.isArray(r.played) || !r.played.every((m) => typeof m === 'string' && POINT_NAME.test(m)) ||
-          !isInt(r.wrong, 0, 1e6) || !isInt(r.hints, 0, 3) || !OUTCOMES.includes(r.outcome)) {
+          !isInt(r.wrong, 0, 1e6) || !isInt(r.hints, 0, 3) || !Object.hasOwn(OUTCOME_WORDS(), r.outcome)) {
         return `the record of puzzle ${id} is malformed`;
       }
     }
@@ -309,7 +304,8 @@ export class Tonight {
     const rec = own(prog.puzzles, p.id);
     this.loading = true;
     try {
-      this.board.load(JSON.stringify(p), { ...(rec ?? {}), trusted: this.fromLibrary(key) });
+      const record = rec ? { played: rec.played, wrong: rec.wrong, hints: rec.hints, attempt: rec.outcome } : null;
+      this.board.load(JSON.stringify(p), { record, trusted: this.fromLibrary(key) });
     } finally {
       this.loading = false;
     }
@@ -325,15 +321,9 @@ export class Tonight {
     const key = this.data.open;
     const prog = this.progressOf(key);
     const p = this.puzzlesOf(key)[prog.index];
-    const before = own(prog.puzzles, p.id);
-    const rec = { played: s.played, wrong: s.wrong, hints: s.hints, outcome: before?.outcome ?? 'untried' };
-    // The first finish counts: a puzzle solved stays solved when it is tried again.
-    const solved = (o) => o === 'clean' || o === 'helped';
-    if (!solved(rec.outcome)) {
-      if (s.outcome === 'clean' || s.outcome === 'helped' || s.outcome === 'failed') rec.outcome = s.outcome;
-      else if (s.outcome === 'trying' && rec.outcome === 'untried') rec.outcome = 'trying';
-    }
-    put(prog.puzzles, p.id, rec);
+    // The board keeps the record, merged over every try (engine::puzzle::attempt).
+    const r = s.record;
+    put(prog.puzzles, p.id, { played: r.played, wrong: r.wrong, hints: r.hints, outcome: r.attempt });
     if (why !== 'reveal' || s.pending === 0) this.saveProgress();
     this.renderPlay(s);
   }
@@ -354,7 +344,7 @@ export class Tonight {
       const o = own(prog.puzzles, p.id)?.outcome ?? 'untried';
       const b = marks.children[i].firstElementChild;
       b.dataset.outcome = o;
-      b.setAttribute('aria-label', `Puzzle ${i + 1}: ${OUTCOME_WORDS[o]}`);
+      b.setAttribute('aria-label', `Puzzle ${i + 1}: ${OUTCOME_WORDS()[o]}`);
       if (i === prog.index) b.setAttribute('aria-current', 'step');
       else b.removeAttribute('aria-current');
     });
@@ -362,8 +352,8 @@ export class Tonight {
     const play = $('tonight-play');
     const over = s.state !== 'playing';
     play.querySelector('[data-act="hint"]').disabled = over || s.pending > 0;
-    play.querySelector('[data-act="undo"]').disabled = s.played.length === 0;
-    play.querySelector('[data-act="retry"]').disabled = s.moves.length === 0 && s.played.length === 0;
+    play.querySelector('[data-act="undo"]').disabled = s.record.played.length === 0;
+    play.querySelector('[data-act="retry"]').disabled = s.moves.length === 0 && s.record.played.length === 0;
     const next = play.querySelector('[data-act="next"]');
     next.textContent = prog.index + 1 >= puzzles.length ? 'Finish' : 'Next';
     next.classList.toggle('ready', over && s.pending === 0);
@@ -384,12 +374,7 @@ export class Tonight {
 
   outcomes(key) {
     const recs = this.progressOf(key).puzzles;
-    return this.puzzlesOf(key).map((p) => {
-      const r = own(recs, p.id);
-      if (!r || r.outcome === 'untried') return 'untried';
-      if (r.outcome === 'trying') return 'failed';
-      return r.outcome;
-    });
+    return this.puzzlesOf(key).map((p) => recordedAttempt(own(recs, p.id)?.outcome ?? 'untried'));
   }
 
   showSummary() {

@@ -15,7 +15,8 @@ use std::time::{Duration, Instant};
 
 use engine::formats::setfile;
 use engine::puzzle::generate::{self, Options};
-use engine::puzzle::grade::{self, Grade, Hint, Session};
+use engine::puzzle::grade::{self, Grade, Session};
+use engine::puzzle::hints::Hint;
 use engine::puzzle::{Goal, Theme};
 use engine::search::Solver;
 use engine::Rule;

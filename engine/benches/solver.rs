@@ -3,7 +3,9 @@
 //! `benchSuite` runs, so that the two can be compared). Prints the median, 95th percentile,
 //! maximum and total time and the nodes per second, for VCF and VCT, and checks every verdict
 //! against the one recorded in the suite (so a faster solver that answers differently fails
-//! instead of looking good).
+//! instead of looking good). Its last line is the node-count signature: the nodes searched
+//! over the whole suite, per kind, which a refactor keeps and a change to the search changes
+//! (the benchmark notes record it).
 //!
 //!     cargo bench -p fivefold-engine --bench solver
 //!
@@ -40,6 +42,13 @@ fn main() {
     println!("suite: {path} ({} positions)", cases.len());
     report("vcf", &run.vcf);
     report("vct", &run.vct);
+    // The node-count signature: a change to search behaviour changes it, a refactor keeps it.
+    println!(
+        "signature: vcf {} vct {} total {}",
+        run.vcf.nodes,
+        run.vct.nodes,
+        run.vcf.nodes + run.vct.nodes
+    );
     for m in &run.mismatches {
         eprintln!("mismatch: {m}");
     }

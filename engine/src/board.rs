@@ -15,82 +15,11 @@ use std::fmt;
 use crate::bitset::CellSet;
 use crate::geometry::{Direction, Point, Symmetry, MAX_SIDE};
 use crate::patterns::{self, LineInfo, LineShape, ShapeTable, BLOCKED, OWN};
-use crate::rules::Rule;
+use crate::types::{Rule, Stone};
+use crate::zobrist::STONE_KEYS;
 
 /// Wall cells on each side of the board.
 pub(crate) const MARGIN: usize = 5;
-
-/// A stone colour.
-#[derive(Clone, Copy, PartialEq, Eq, Hash, Debug, PartialOrd, Ord)]
-pub enum Stone {
-    /// Black, who moves first.
-    Black,
-    /// White.
-    White,
-}
-
-impl Stone {
-    /// Both colours, black first.
-    pub const ALL: [Stone; 2] = [Stone::Black, Stone::White];
-
-    /// The other colour.
-    #[inline]
-    pub const fn opponent(self) -> Stone {
-        match self {
-            Stone::Black => Stone::White,
-            Stone::White => Stone::Black,
-        }
-    }
-
-    /// 0 for black, 1 for white.
-    #[inline]
-    pub const fn index(self) -> usize {
-        self as usize
-    }
-
-    /// `"black"` or `"white"`.
-    pub const fn name(self) -> &'static str {
-        match self {
-            Stone::Black => "black",
-            Stone::White => "white",
-        }
-    }
-
-    #[inline]
-    const fn cell(self) -> u8 {
-        self as u8 + 1
-    }
-}
-
-impl fmt::Display for Stone {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        f.write_str(self.name())
-    }
-}
-
-/// Text that is neither `black` nor `white`.
-#[derive(Clone, Debug, PartialEq, Eq)]
-pub struct StoneParseError(pub String);
-
-impl fmt::Display for StoneParseError {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        write!(f, "'{}' is not black or white", self.0)
-    }
-}
-
-impl std::error::Error for StoneParseError {}
-
-impl std::str::FromStr for Stone {
-    type Err = StoneParseError;
-    /// `black` or `white`, as [`Stone::name`] writes them.
-    fn from_str(s: &str) -> Result<Stone, StoneParseError> {
-        match s {
-            "black" => Ok(Stone::Black),
-            "white" => Ok(Stone::White),
-            _ => Err(StoneParseError(s.to_string())),
-        }
-    }
-}
 
 const EMPTY: u8 = 0;
 const WALL: u8 = 3;
@@ -144,27 +73,6 @@ impl fmt::Display for BoardError {
 }
 
 impl std::error::Error for BoardError {}
-
-/// Zobrist keys, one per (colour, point of a 19x19 grid), from a fixed splitmix64 stream so that
-/// hashes are identical on every platform.
-const ZOBRIST: [[u64; 361]; 2] = {
-    let mut keys = [[0u64; 361]; 2];
-    let mut state: u64 = 0x5EED_F1FE_F01D_0001;
-    let mut c = 0;
-    while c < 2 {
-        let mut i = 0;
-        while i < 361 {
-            state = state.wrapping_add(0x9E37_79B9_7F4A_7C15);
-            let mut z = state;
-            z = (z ^ (z >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
-            z = (z ^ (z >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
-            keys[c][i] = z ^ (z >> 31);
-            i += 1;
-        }
-        c += 1;
-    }
-    keys
-};
 
 /// The shape state of one cell, for both colours (kept together for locality).
 #[derive(Clone, Copy, Default)]
@@ -221,14 +129,6 @@ pub struct Board {
     hashes: [u64; 8],
     counts: [u16; 2],
     shapes: Option<Box<Shapes>>,
-    /// When tracing: the points whose forbidden status was decided by more than one line.
-    trace: Option<Vec<u16>>,
-}
-
-impl fmt::Debug for Board {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        write!(f, "{}", crate::notation::diagram(self))
-    }
 }
 
 impl Board {
@@ -290,7 +190,6 @@ impl Board {
             hashes: [0; 8],
             counts: [0; 2],
             shapes: None,
-            trace: None,
         };
         if k == 5 {
             board.shapes = Some(Box::new(board.fresh_shapes()));
@@ -493,13 +392,13 @@ impl Board {
     /// The hash the position would have after a stone of `c` on the empty cell `idx`.
     #[inline]
     pub fn hash_after(&self, idx: usize, c: Stone) -> u64 {
-        self.hashes[0] ^ ZOBRIST[c.index()][self.images[idx][0] as usize]
+        self.hashes[0] ^ STONE_KEYS[c.index()][self.images[idx][0] as usize]
     }
 
     /// The canonical hash ([`Board::canonical_hash`]) the position would have after a stone of
     /// `c` on the empty cell `idx`.
     pub fn canonical_hash_after(&self, idx: usize, c: Stone) -> u64 {
-        let z = &ZOBRIST[c.index()];
+        let z = &STONE_KEYS[c.index()];
         let hashes = self.all_hashes();
         (0..8)
             .filter(|i| self.symmetries >> i & 1 == 1)
@@ -598,7 +497,7 @@ impl Board {
     #[inline]
     fn toggle_hash(&mut self, idx: usize, c: Stone) {
         let img = &self.images[idx];
-        let z = &ZOBRIST[c.index()];
+        let z = &STONE_KEYS[c.index()];
         if !self.track_symmetries {
             self.hashes[0] ^= z[img[0] as usize];
             return;
@@ -620,7 +519,7 @@ impl Board {
         let mut h = [0u64; 8];
         for idx in self.indices() {
             if let Some(c) = self.stone_at(idx) {
-                let z = &ZOBRIST[c.index()];
+                let z = &STONE_KEYS[c.index()];
                 for (i, hv) in h.iter_mut().enumerate() {
                     if self.symmetries >> i & 1 == 1 {
                         *hv ^= z[self.images[idx][i] as usize];
@@ -757,25 +656,6 @@ impl Board {
         self.indices()
             .find(|&i| self.is_winning_stone(i))
             .and_then(|i| self.stone_at(i))
-    }
-
-    /// Starts recording the points at which the renju forbidden test had to weigh several lines
-    /// (see [`Board::forbidden_at`]).
-    pub fn start_trace(&mut self) {
-        self.trace = Some(Vec::new());
-    }
-
-    /// Stops recording and returns the points recorded since [`Board::start_trace`].
-    pub fn take_trace(&mut self) -> Vec<u16> {
-        self.trace.take().unwrap_or_default()
-    }
-
-    /// Records a point for the trace, if one is running.
-    #[inline]
-    pub(crate) fn note_sensitive(&mut self, idx: usize) {
-        if let Some(t) = self.trace.as_mut() {
-            t.push(idx as u16);
-        }
     }
 
     /// Compares the incremental shape state and the hashes with a recomputation from scratch.

@@ -34,6 +34,13 @@ impl fmt::Display for Point {
     }
 }
 
+/// A point serialises as its name, like `"h8"` (the app's answers carry points this way).
+impl serde::Serialize for Point {
+    fn serialize<S: serde::Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+        s.collect_str(self)
+    }
+}
+
 /// Why a piece of text is not a coordinate.
 #[derive(Clone, Debug, PartialEq, Eq)]
 pub struct PointParseError {

@@ -18,9 +18,15 @@ pub mod puzzle;
 pub mod rating;
 pub mod rules;
 pub mod search;
+pub mod study;
 pub mod suite;
+pub mod trainer;
+pub mod types;
+pub mod words;
+pub mod zobrist;
 
-pub use board::{Board, PointThreats, Stone, StoneParseError};
+pub use board::{Board, PointThreats};
 pub use geometry::{Direction, Point, Symmetry};
 pub use patterns::LineShape;
-pub use rules::{Forbidden, Game, MoveError, Outcome, Rule};
+pub use rules::{Forbidden, Game, MoveError, Played};
+pub use types::{Rule, RuleParseError, Stone, StoneParseError};

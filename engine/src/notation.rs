@@ -7,9 +7,11 @@
 
 use std::fmt;
 
-use crate::board::{Board, Stone};
+use crate::board::Board;
 use crate::geometry::Point;
-use crate::rules::{Game, MoveError, Rule};
+use crate::rules::{Game, MoveError};
+use crate::types::Rule;
+use crate::types::Stone;
 
 /// What is wrong with one token of a move or stone list.
 #[derive(Clone, Debug, PartialEq, Eq)]
@@ -221,6 +223,13 @@ pub fn format_points(points: &[Point]) -> String {
         .map(|p| p.to_string())
         .collect::<Vec<_>>()
         .join(" ")
+}
+
+/// A board prints as its text diagram (see [`diagram`]).
+impl fmt::Debug for Board {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(&diagram(self))
+    }
 }
 
 /// A text diagram of the board: rows from the top, `X` black, `O` white, `.` empty.

@@ -10,9 +10,11 @@
 use rand_chacha::rand_core::{RngCore, SeedableRng};
 use rand_chacha::ChaCha8Rng;
 
-use crate::board::{threat, Board, Stone};
+use crate::board::{threat, Board};
 use crate::geometry::Point;
 use crate::rules::Game;
+use crate::types::Rule;
+use crate::types::Stone;
 
 /// How the player chooses.
 #[derive(Clone, Debug, PartialEq)]
@@ -52,6 +54,31 @@ pub fn rng(seed: u64) -> ChaCha8Rng {
 pub fn below(rng: &mut ChaCha8Rng, n: u32) -> u32 {
     // Multiply-shift keeps the result free of modulo bias for all practical purposes.
     ((rng.next_u32() as u64 * n as u64) >> 32) as u32
+}
+
+/// A seeded opening on an empty board of `size` under `rule`: black's stone on the centre,
+/// then stones of alternating colour at random points within two of it, until the board
+/// holds `stones` stones or `tries` points have been drawn (a drawn point that is taken is
+/// skipped). Generation and the benchmark suite's harvest both start their games here.
+pub fn opening(size: u8, rule: Rule, rng: &mut ChaCha8Rng, stones: usize, tries: u32) -> Game {
+    let board = Board::new(size, rule).expect("opening sizes are checked by the caller");
+    let mut game = Game::new(board);
+    let c = size / 2;
+    let _ = game.play(Point::new(c, c));
+    let mut drawn = 0;
+    while game.board().stones() < stones && drawn < tries {
+        drawn += 1;
+        let dx = below(rng, 5) as i32 - 2;
+        let dy = below(rng, 5) as i32 - 2;
+        let p = Point::new((c as i32 + dx) as u8, (c as i32 + dy) as u8);
+        let _ = game.play(p);
+    }
+    game
+}
+
+/// The next 64 bits of a seeded stream (a seed for a sub-stream, such as a player's).
+pub fn next_seed(rng: &mut ChaCha8Rng) -> u64 {
+    rng.next_u64()
 }
 
 impl Player {
@@ -287,7 +314,7 @@ pub fn self_play(game: &mut Game, seed: u64, config: &PlayerConfig, max_moves: u
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::rules::Rule;
+    use crate::types::Rule;
 
     #[test]
     fn same_seed_same_game() {

@@ -30,10 +30,10 @@ impl Default for Rating {
     }
 }
 
-/// One game of a rating period: the opponent's rating and deviation, and the score (1 win,
-/// 0.5 draw, 0 loss).
+/// One encounter of a rating period (a game, or a puzzle tried): the opponent's rating and
+/// deviation, and the score (1 win, 0.5 draw, 0 loss).
 #[derive(Clone, Copy, Debug, PartialEq)]
-pub struct Game {
+pub struct Encounter {
     /// The opponent's rating.
     pub rating: f64,
     /// The opponent's rating deviation.
@@ -49,7 +49,7 @@ fn g(phi: f64) -> f64 {
 impl Rating {
     /// The rating after one rating period with the given games (Glicko-2, steps 1 to 8). With no
     /// games only the deviation grows.
-    pub fn update(self, games: &[Game]) -> Rating {
+    pub fn update(self, games: &[Encounter]) -> Rating {
         let mu = (self.rating - 1500.0) / SCALE;
         let phi = self.deviation / SCALE;
         let sigma = self.volatility;
@@ -122,7 +122,7 @@ impl Rating {
     /// The rating after one puzzle: a win against the puzzle's rating if solved, a loss if not.
     /// Puzzles are taken to have a deviation of 100.
     pub fn after_puzzle(self, puzzle_rating: f64, solved: bool) -> Rating {
-        self.update(&[Game {
+        self.update(&[Encounter {
             rating: puzzle_rating,
             deviation: 100.0,
             score: if solved { 1.0 } else { 0.0 },
@@ -145,17 +145,17 @@ mod tests {
             volatility: 0.06,
         };
         let games = [
-            Game {
+            Encounter {
                 rating: 1400.0,
                 deviation: 30.0,
                 score: 1.0,
             },
-            Game {
+            Encounter {
                 rating: 1550.0,
                 deviation: 100.0,
                 score: 0.0,
             },
-            Game {
+            Encounter {
                 rating: 1700.0,
                 deviation: 300.0,
                 score: 0.0,

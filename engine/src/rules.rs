@@ -10,86 +10,11 @@
 //!   checked recursively, with the earlier stones in place.
 
 use std::fmt;
-use std::str::FromStr;
 
-use crate::board::{Board, Stone};
+use crate::board::Board;
 use crate::geometry::Point;
 use crate::patterns::LineShape;
-
-/// A rule set.
-#[derive(Clone, Copy, PartialEq, Eq, Hash, Debug)]
-pub enum Rule {
-    /// Five or more in a row wins.
-    Freestyle,
-    /// Exactly five in a row wins, for both colours.
-    Standard,
-    /// The International Rules of Renju (RIF 1996/1998).
-    Renju,
-}
-
-impl Rule {
-    /// All rules.
-    pub const ALL: [Rule; 3] = [Rule::Freestyle, Rule::Standard, Rule::Renju];
-
-    /// Whether colour `c` wins only with exactly five (an overline does not count).
-    #[inline]
-    pub const fn exact_five(self, c: Stone) -> bool {
-        match self {
-            Rule::Freestyle => false,
-            Rule::Standard => true,
-            Rule::Renju => matches!(c, Stone::Black),
-        }
-    }
-
-    /// Whether colour `c` has forbidden points under this rule.
-    #[inline]
-    pub const fn has_forbidden(self, c: Stone) -> bool {
-        matches!((self, c), (Rule::Renju, Stone::Black))
-    }
-
-    /// `"freestyle"`, `"standard"` or `"renju"`.
-    pub const fn name(self) -> &'static str {
-        match self {
-            Rule::Freestyle => "freestyle",
-            Rule::Standard => "standard",
-            Rule::Renju => "renju",
-        }
-    }
-}
-
-impl fmt::Display for Rule {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        f.write_str(self.name())
-    }
-}
-
-/// Text that names no rule.
-#[derive(Clone, Debug, PartialEq, Eq)]
-pub struct RuleParseError(pub String);
-
-impl fmt::Display for RuleParseError {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        write!(
-            f,
-            "unknown rule '{}' (expected freestyle, standard or renju)",
-            self.0
-        )
-    }
-}
-
-impl std::error::Error for RuleParseError {}
-
-impl FromStr for Rule {
-    type Err = RuleParseError;
-    fn from_str(s: &str) -> Result<Rule, RuleParseError> {
-        match s.to_ascii_lowercase().as_str() {
-            "freestyle" => Ok(Rule::Freestyle),
-            "standard" => Ok(Rule::Standard),
-            "renju" => Ok(Rule::Renju),
-            _ => Err(RuleParseError(s.to_string())),
-        }
-    }
-}
+use crate::types::Stone;
 
 /// Why a point is forbidden for black under renju.
 #[derive(Clone, Copy, PartialEq, Eq, Hash, Debug)]
@@ -134,6 +59,17 @@ impl Board {
     ///
     /// The board is changed while the recursive three test runs and restored before returning.
     pub fn forbidden_at(&mut self, idx: usize) -> Option<Forbidden> {
+        self.forbidden_noting(idx, &mut ())
+    }
+
+    /// [`Board::forbidden_at`], telling `notes` every point at which the decision had to weigh
+    /// more than one line (the recursion of the three rule included). The search's renju
+    /// defence sets replay a line with a recorder; every other caller passes `()`.
+    pub(crate) fn forbidden_noting<N: Notes>(
+        &mut self,
+        idx: usize,
+        notes: &mut N,
+    ) -> Option<Forbidden> {
         if !self.rule().has_forbidden(Stone::Black) || !self.has_shapes() {
             return None;
         }
@@ -155,17 +91,17 @@ impl Board {
             }
         }
         if overline {
-            self.note_sensitive(idx);
+            notes.note(idx);
             return Some(Forbidden::Overline);
         }
         if fours >= 2 {
-            self.note_sensitive(idx);
+            notes.note(idx);
             return Some(Forbidden::DoubleFour);
         }
         if threes < 2 {
             return None;
         }
-        self.note_sensitive(idx);
+        notes.note(idx);
         // Each candidate three is real only if one of its straight-four points is itself not
         // forbidden, with this stone on the board.
         let lines: Vec<_> = (0..4)
@@ -177,7 +113,7 @@ impl Board {
         for (d, info) in lines {
             let is_real = info.offsets().any(|off| {
                 let q = self.offset(idx, d, off as isize);
-                self.is_empty_at(q) && self.forbidden_at(q).is_none()
+                self.is_empty_at(q) && self.forbidden_noting(q, notes).is_none()
             });
             if is_real {
                 real += 1;
@@ -218,10 +154,53 @@ impl Board {
         out
     }
 
+    /// Whether colour `c` may play on `p` under the board's rule: on the board, free, and (for
+    /// renju black) not a forbidden point, unless the stone makes five. The one legality test
+    /// of the engine: games, the grader and the study board all ask it.
+    pub fn check_move(&self, p: Point, c: Stone) -> Result<(), MoveError> {
+        if !self.contains(p) {
+            return Err(MoveError::OffBoard(p));
+        }
+        if self.get(p).is_some() {
+            return Err(MoveError::Occupied(p));
+        }
+        if self.rule().has_forbidden(c) {
+            if let Some(why) = self.forbidden(p) {
+                return Err(MoveError::Forbidden(p, why));
+            }
+        }
+        Ok(())
+    }
+
     /// Whether colour `c` may play on the empty cell `idx` under the board's rule.
     #[inline]
     pub fn legal_at(&mut self, idx: usize, c: Stone) -> bool {
-        !self.rule().has_forbidden(c) || self.forbidden_at(idx).is_none()
+        self.legal_noting(idx, c, &mut ())
+    }
+
+    /// [`Board::legal_at`], telling `notes` where a renju decision weighed several lines.
+    #[inline]
+    pub(crate) fn legal_noting<N: Notes>(&mut self, idx: usize, c: Stone, notes: &mut N) -> bool {
+        !self.rule().has_forbidden(c) || self.forbidden_noting(idx, notes).is_none()
+    }
+}
+
+/// A recorder of the points a renju decision looked at (see [`Board::forbidden_noting`]).
+pub(crate) trait Notes {
+    /// The decision at the padded cell `idx` weighed more than one line.
+    fn note(&mut self, idx: usize);
+}
+
+/// No recording: the decision is all that is wanted.
+impl Notes for () {
+    #[inline]
+    fn note(&mut self, _idx: usize) {}
+}
+
+/// Every point noted, in order (with repeats).
+impl Notes for Vec<u16> {
+    fn note(&mut self, idx: usize) {
+        self.push(idx as u16);
     }
 }
 
@@ -255,7 +234,7 @@ impl std::error::Error for MoveError {}
 
 /// What a legal move led to.
 #[derive(Clone, Copy, PartialEq, Eq, Debug)]
-pub enum Outcome {
+pub enum Played {
     /// The game goes on.
     Continue,
     /// The mover made a winning line.
@@ -320,22 +299,11 @@ impl Game {
         if self.is_over() {
             return Err(MoveError::GameOver);
         }
-        if !self.board.contains(p) {
-            return Err(MoveError::OffBoard(p));
-        }
-        if self.board.get(p).is_some() {
-            return Err(MoveError::Occupied(p));
-        }
-        if self.board.rule().has_forbidden(self.to_move) {
-            if let Some(why) = self.board.forbidden(p) {
-                return Err(MoveError::Forbidden(p, why));
-            }
-        }
-        Ok(())
+        self.board.check_move(p, self.to_move)
     }
 
     /// Plays a move for the side to move. On error nothing changes.
-    pub fn play(&mut self, p: Point) -> Result<Outcome, MoveError> {
+    pub fn play(&mut self, p: Point) -> Result<Played, MoveError> {
         self.check(p)?;
         let idx = self.board.index(p);
         let c = self.to_move;
@@ -345,12 +313,12 @@ impl Game {
         self.to_move = c.opponent();
         if wins {
             self.winner = Some(c);
-            return Ok(Outcome::Win(c));
+            return Ok(Played::Win(c));
         }
         if self.board.is_full() {
-            return Ok(Outcome::Draw);
+            return Ok(Played::Draw);
         }
-        Ok(Outcome::Continue)
+        Ok(Played::Continue)
     }
 
     /// Takes back the last move played in this game, if any.

@@ -10,12 +10,12 @@
 
 use std::fmt;
 
-use crate::board::Stone;
 use crate::geometry::Point;
 use crate::notation::{self, PositionError};
 use crate::play::{self, PlayerConfig};
-use crate::rules::{Game, Rule};
-use crate::search::{Mode, Solver, SolverConfig, Verdict};
+use crate::search::{Budget, Mode, Solver, Verdict};
+use crate::types::Rule;
+use crate::types::Stone;
 use crate::Board;
 
 /// One benchmark position.
@@ -152,7 +152,9 @@ pub fn time_all(cases: &[Case], solver: &mut Solver, mut clock: impl FnMut() -> 
         let board = case.board();
         solver.clear();
         let start = clock();
-        let sol = solver.solve(&board, case.to_move, case.mode, None);
+        let sol = solver
+            .ask(Budget::VERIFICATION)
+            .solve(&board, case.to_move, case.mode);
         let ms = clock() - start;
         if sol.verdict != case.verdict || (sol.verdict == Verdict::Win && sol.depth != case.fours) {
             mismatches.push(format!(
@@ -294,6 +296,10 @@ impl Quotas {
     }
 }
 
+/// The budget of the harvest's searches: small, so that harvesting stays quick; the kept
+/// positions are then solved again with [`Budget::VERIFICATION`].
+const HARVEST: Budget = Budget::nodes(60_000);
+
 /// Harvests a suite from seeded self-play: games from seeded openings under the three rules;
 /// every position from the eighth stone on is searched for a VCF and, failing that, a VCT, and
 /// kept while its kind's quota lasts. `progress` is called with the number of games played.
@@ -303,10 +309,7 @@ pub fn harvest(
     max_games: u64,
     mut progress: impl FnMut(u64, usize),
 ) -> Vec<Case> {
-    let mut solver = Solver::new(SolverConfig {
-        node_limit: 60_000,
-        ..SolverConfig::default()
-    });
+    let mut solver = Solver::default();
     let mut out = Vec::new();
     let mut rng = play::rng(seed);
     let config = PlayerConfig {
@@ -320,17 +323,9 @@ pub fn harvest(
         }
         progress(g, out.len());
         let rule = Rule::ALL[(g % 3) as usize];
-        let mut game = Game::new(Board::new(15, rule).expect("15 is a valid size"));
         // A seeded opening: the centre and two more stones close to it.
-        let centre = Point::new(7, 7);
-        let _ = game.play(centre);
-        for _ in 0..2 {
-            let dx = play::below(&mut rng, 5) as i32 - 2;
-            let dy = play::below(&mut rng, 5) as i32 - 2;
-            let p = Point::new((7 + dx) as u8, (7 + dy) as u8);
-            let _ = game.play(p);
-        }
-        let game_seed = rng_next(&mut rng);
+        let mut game = play::opening(15, rule, &mut rng, 3, 2);
+        let game_seed = play::next_seed(&mut rng);
         let mut player = play::Player::new(game_seed, config.clone());
         while !game.is_over() && game.board().stones() < 150 {
             if game.board().stones() >= 8 {
@@ -350,7 +345,9 @@ pub fn harvest(
     // the suite checks the solver as it is used.
     let mut full = Solver::default();
     out.retain_mut(|case| {
-        let sol = full.solve(&case.board(), case.to_move, case.mode, None);
+        let sol = full
+            .ask(Budget::VERIFICATION)
+            .solve(&case.board(), case.to_move, case.mode);
         case.verdict = sol.verdict;
         case.fours = sol.depth;
         sol.verdict != Verdict::Unknown
@@ -399,7 +396,7 @@ fn extend(solver: &mut Solver, quotas: &mut Quotas, out: &mut Vec<Case>) {
                     if fives != [board.index(b)] {
                         continue;
                     }
-                    let sol = solver.solve(&board, attacker, Mode::Vcf, None);
+                    let sol = solver.ask(HARVEST).solve(&board, attacker, Mode::Vcf);
                     let d = sol.depth as usize;
                     if sol.verdict == Verdict::Win && d > n as usize && d <= 15 && quotas.vcf[d] > 0
                     {
@@ -418,11 +415,6 @@ fn extend(solver: &mut Solver, quotas: &mut Quotas, out: &mut Vec<Case>) {
             }
         }
     }
-}
-
-fn rng_next(rng: &mut rand_chacha::ChaCha8Rng) -> u64 {
-    use rand_chacha::rand_core::RngCore;
-    rng.next_u64()
 }
 
 fn consider(
@@ -450,7 +442,7 @@ fn consider(
     {
         return;
     }
-    let vcf = solver.solve(board, me, Mode::Vcf, None);
+    let vcf = solver.ask(HARVEST).solve(board, me, Mode::Vcf);
     match vcf.verdict {
         Verdict::Win => {
             let fours = vcf.depth;
@@ -471,7 +463,7 @@ fn consider(
         }
         return;
     }
-    let vct = solver.solve(board, me, Mode::Vct, None);
+    let vct = solver.ask(HARVEST).solve(board, me, Mode::Vct);
     match vct.verdict {
         Verdict::Win => {
             let threats = vct.depth;

@@ -84,3 +84,7 @@ mod solver_determinism;
 /// regenerates byte for byte from its seed; the fixture set (checked in the browser too) is
 /// what the generator makes.
 mod library;
+
+/// `tidy`: guards on the code's shape: every engine module in the DEVELOPERS.md code map with
+/// an invariant, no web crate in the engine, no two public types with one name, no `unsafe`.
+mod tidy;

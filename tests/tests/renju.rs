@@ -27,14 +27,14 @@
 //! state); the engine's forbidden points must equal its answers on 400 generated positions.
 
 use engine::notation::diagram as print_diagram;
-use engine::{Board, Forbidden, Game, MoveError, Outcome, Rule, Stone};
+use engine::{Board, Forbidden, Game, MoveError, Played, Rule, Stone};
 
 use crate::common::{diagram, game, p, stones};
 
 /// Checks that black's move `at` is forbidden for the given reason (or allowed, for `None`)
 /// by every way the engine can say so, and what `Game::play` does with it. Returns the outcome
 /// of an allowed move.
-fn expect(board: &Board, at: &str, want: Option<Forbidden>) -> Option<Outcome> {
+fn expect(board: &Board, at: &str, want: Option<Forbidden>) -> Option<Played> {
     let q = p(at);
     assert_eq!(
         board.get(q),
@@ -349,7 +349,7 @@ fn a_four_that_could_only_make_six_does_not_count() {
     // and is allowed (under freestyle the same stones are a double four in one line).
     let b = stones(Rule::Renju, "d8 e8 g8 i8 k8", "");
     assert_eq!(b.threats(p("h8"), Stone::Black).fours(), 1);
-    assert_eq!(expect(&b, "h8", None), Some(Outcome::Continue));
+    assert_eq!(expect(&b, "h8", None), Some(Played::Continue));
     let free = stones(Rule::Freestyle, "d8 e8 g8 i8 k8", "");
     assert_eq!(free.threats(p("h8"), Stone::Black).fours(), 2);
 }
@@ -415,12 +415,12 @@ fn overline_under_standard_and_freestyle() {
     // not refused); under freestyle five or more wins.
     let (black, white) = ("e8 f8 g8 i8 j8", "a1 c1 e1 g1 i1");
     let mut g = game(stones(Rule::Standard, black, white), Stone::Black);
-    assert_eq!(g.play(p("h8")), Ok(Outcome::Continue));
+    assert_eq!(g.play(p("h8")), Ok(Played::Continue));
     assert_eq!(g.winner(), None);
     assert!(!g.is_over());
     assert_eq!(g.board().find_winner(), None);
     let mut g = game(stones(Rule::Freestyle, black, white), Stone::Black);
-    assert_eq!(g.play(p("h8")), Ok(Outcome::Win(Stone::Black)));
+    assert_eq!(g.play(p("h8")), Ok(Played::Win(Stone::Black)));
     assert_eq!(g.winner(), Some(Stone::Black));
 }
 
@@ -434,7 +434,7 @@ fn five_with_a_double_four_wins() {
     let b = stones(Rule::Renju, "e8 f8 g8 i8 h9 h10 h11 i9 j10 k11", "");
     let t = b.threats(p("h8"), Stone::Black);
     assert!(t.five() && t.fours() >= 2, "{t:?}");
-    assert_eq!(expect(&b, "h8", None), Some(Outcome::Win(Stone::Black)));
+    assert_eq!(expect(&b, "h8", None), Some(Played::Win(Stone::Black)));
 }
 
 #[test]
@@ -442,7 +442,7 @@ fn five_with_a_double_three_wins() {
     // RIF (five first): h8 completes e8-i8 and also makes the threes h8-h10 and h8-j10.
     let b = stones(Rule::Renju, "e8 f8 g8 i8 h9 h10 i9 j10", "");
     assert!(b.threats(p("h8"), Stone::Black).threes() >= 2);
-    assert_eq!(expect(&b, "h8", None), Some(Outcome::Win(Stone::Black)));
+    assert_eq!(expect(&b, "h8", None), Some(Played::Win(Stone::Black)));
 }
 
 #[test]
@@ -452,7 +452,7 @@ fn four_three_is_allowed() {
     let b = stones(Rule::Renju, "i8 j8 k8 h9 h10", "g8");
     let t = b.threats(p("h8"), Stone::Black);
     assert!(t.four_three(), "{t:?}");
-    assert_eq!(expect(&b, "h8", None), Some(Outcome::Continue));
+    assert_eq!(expect(&b, "h8", None), Some(Played::Continue));
     // A straight four with a three is allowed too.
     expect(&stones(Rule::Renju, "i8 j8 k8 h9 h10", ""), "h8", None);
 }
@@ -473,7 +473,7 @@ fn white_has_no_forbidden_points() {
         // stones are white.
         assert_eq!(b.forbidden(p("h8")), None, "{shape}");
         let mut g = game(b, Stone::White);
-        assert_eq!(g.play(p("h8")), Ok(Outcome::Continue), "{shape}");
+        assert_eq!(g.play(p("h8")), Ok(Played::Continue), "{shape}");
         assert_eq!(g.board().get(p("h8")), Some(Stone::White));
     }
 }
@@ -483,7 +483,7 @@ fn white_overline_wins_under_renju() {
     // RIF (white, five): white's six in a row e8-j8 wins.
     let b = stones(Rule::Renju, "a1 c1 e1 g1 i1 k1", "e8 f8 g8 i8 j8");
     let mut g = game(b, Stone::White);
-    assert_eq!(g.play(p("h8")), Ok(Outcome::Win(Stone::White)));
+    assert_eq!(g.play(p("h8")), Ok(Played::Win(Stone::White)));
     assert_eq!(g.winner(), Some(Stone::White));
     assert!(g.is_over());
     // And black's reply is refused: the game is over.
@@ -495,7 +495,7 @@ fn black_exact_five_wins_under_renju() {
     // RIF (five): exactly five wins for black.
     let b = stones(Rule::Renju, "e8 f8 g8 i8", "a1 c1 e1 g1");
     let mut g = game(b, Stone::Black);
-    assert_eq!(g.play(p("h8")), Ok(Outcome::Win(Stone::Black)));
+    assert_eq!(g.play(p("h8")), Ok(Played::Win(Stone::Black)));
     // Undo takes the win back.
     assert_eq!(g.undo(), Some(p("h8")));
     assert_eq!(g.winner(), None);
@@ -535,7 +535,7 @@ fn refused_move_in_a_game_changes_nothing() {
     // and the forbidden point stays forbidden.
     let mut g = Game::new(Board::new(15, Rule::Renju).unwrap());
     for m in ["i8", "a1", "j8", "a3", "h9", "a5", "h10", "a7"] {
-        assert_eq!(g.play(p(m)), Ok(Outcome::Continue), "{m}");
+        assert_eq!(g.play(p(m)), Ok(Played::Continue), "{m}");
     }
     let before = (g.board().hash(), g.moves().to_vec(), g.to_move());
     assert_eq!(
@@ -547,9 +547,9 @@ fn refused_move_in_a_game_changes_nothing() {
         g.check(p("h8")),
         Err(MoveError::Forbidden(p("h8"), Forbidden::DoubleThree))
     );
-    assert_eq!(g.play(p("o15")), Ok(Outcome::Continue));
+    assert_eq!(g.play(p("o15")), Ok(Played::Continue));
     // White may take the point black may not.
-    assert_eq!(g.play(p("h8")), Ok(Outcome::Continue));
+    assert_eq!(g.play(p("h8")), Ok(Played::Continue));
     assert_eq!(g.board().get(p("h8")), Some(Stone::White));
 }
 

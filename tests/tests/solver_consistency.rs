@@ -17,7 +17,7 @@
 //! before (see `solver_determinism` for why that matters).
 
 use engine::notation::format_points;
-use engine::search::{Mode, Solver, SolverConfig, Verdict};
+use engine::search::{Budget, Mode, Solver, SolverConfig, Verdict};
 use engine::{Board, Forbidden, Point, Rule, Stone, Symmetry};
 
 use crate::common::{p, stones};
@@ -28,9 +28,11 @@ const SEED: u64 = 0xC0_5157_E27C;
 const VCT_POSITIONS: usize = 600;
 const SYMMETRY_STEP: usize = 6;
 
+/// The budget of these questions.
+const BUDGET: Budget = Budget::nodes(400_000);
+
 fn solver() -> Solver {
     Solver::new(SolverConfig {
-        node_limit: 400_000,
         table_megabytes: 4,
         vcf_table_megabytes: 2,
         ..SolverConfig::default()
@@ -39,8 +41,19 @@ fn solver() -> Solver {
 
 /// Solves with cleared tables.
 fn solve(s: &mut Solver, b: &Board, c: Stone, mode: Mode) -> engine::search::Solution {
+    solve_within(s, BUDGET, b, c, mode)
+}
+
+/// Solves with cleared tables within `budget`.
+fn solve_within(
+    s: &mut Solver,
+    budget: Budget,
+    b: &Board,
+    c: Stone,
+    mode: Mode,
+) -> engine::search::Solution {
     s.clear();
-    s.solve(b, c, mode, None)
+    s.ask(budget).solve(b, c, mode)
 }
 
 #[test]
@@ -88,7 +101,7 @@ fn answers_are_invariant_under_the_eight_symmetries() {
             let base = solve(&mut s, &sample.board, sample.to_move, mode);
             let firsts = |s: &mut Solver, b: &Board, back: Symmetry| -> (Vec<Point>, bool) {
                 s.clear();
-                let w = s.winning_moves(b, sample.to_move, mode);
+                let w = s.ask(BUDGET).winning_moves(b, sample.to_move, mode);
                 let mut v: Vec<Point> = w.proved.iter().map(|&q| image(back, q, n)).collect();
                 v.sort();
                 (v, w.unknown.is_empty())
@@ -194,7 +207,9 @@ fn an_overline_four_wins_under_freestyle_but_not_under_standard() {
     // Freestyle: six wins, so h8 is a double four and wins at once.
     let b = stones(Rule::Freestyle, black, white);
     let mut s = Solver::default();
-    let sol = s.solve(&b, Stone::Black, Mode::Vcf, None);
+    let sol = s
+        .ask(Budget::VERIFICATION)
+        .solve(&b, Stone::Black, Mode::Vcf);
     assert_eq!(sol.verdict, Verdict::Win, "freestyle");
     assert_eq!(sol.line[0], p("h8"), "{}", format_points(&sol.line));
     assert_eq!(sol.line.len(), 3, "{}", format_points(&sol.line));
@@ -208,7 +223,9 @@ fn an_overline_four_wins_under_freestyle_but_not_under_standard() {
     // Standard: exactly five wins, so g8 completes nothing and h8 is a single four: after the
     // block h7 black has no four left.
     let b = stones(Rule::Standard, black, white);
-    let sol = s.solve(&b, Stone::Black, Mode::Vcf, None);
+    let sol = s
+        .ask(Budget::VERIFICATION)
+        .solve(&b, Stone::Black, Mode::Vcf);
     assert_eq!(
         sol.verdict,
         Verdict::NoWin,
@@ -223,7 +240,9 @@ fn an_overline_four_wins_under_freestyle_but_not_under_standard() {
     // Renju judges black's five the same way (exactly five): no VCF either.
     let b = stones(Rule::Renju, black, white);
     assert_eq!(
-        s.solve(&b, Stone::Black, Mode::Vcf, None).verdict,
+        s.ask(Budget::VERIFICATION)
+            .solve(&b, Stone::Black, Mode::Vcf)
+            .verdict,
         Verdict::NoWin,
         "renju"
     );
@@ -246,7 +265,9 @@ fn forbidden_trap(extra_black: &str, extra_white: &str, why: Forbidden) {
         "referee: h8 is forbidden for black"
     );
     let mut s = Solver::default();
-    let sol = s.solve(&b, Stone::White, Mode::Vcf, None);
+    let sol = s
+        .ask(Budget::VERIFICATION)
+        .solve(&b, Stone::White, Mode::Vcf);
     assert_eq!(sol.verdict, Verdict::Win, "renju ({why:?})");
     assert_eq!(sol.line[0], p("d4"), "{}", format_points(&sol.line));
     assert_eq!(
@@ -266,7 +287,8 @@ fn forbidden_trap(extra_black: &str, extra_white: &str, why: Forbidden) {
         "referee ({why:?})"
     );
     assert!(
-        s.winning_moves(&b, Stone::White, Mode::Vcf)
+        s.ask(Budget::VERIFICATION)
+            .winning_moves(&b, Stone::White, Mode::Vcf)
             .proved
             .contains(&p("d4")),
         "d4 among the winning first moves"
@@ -274,7 +296,9 @@ fn forbidden_trap(extra_black: &str, extra_white: &str, why: Forbidden) {
     // Freestyle: the same stones, nothing forbidden, no VCF for white.
     let b = stones(Rule::Freestyle, &black, &white);
     assert_eq!(b.forbidden(p("h8")), None);
-    let sol = s.solve(&b, Stone::White, Mode::Vcf, None);
+    let sol = s
+        .ask(Budget::VERIFICATION)
+        .solve(&b, Stone::White, Mode::Vcf);
     assert_eq!(
         sol.verdict,
         Verdict::NoWin,
@@ -319,20 +343,17 @@ fn renju_white_wins_by_a_four_whose_block_is_an_overline() {
 #[test]
 fn an_exhausted_vcf_budget_never_becomes_a_verdict() {
     let mut full = solver();
-    let starved = |limit| {
-        Solver::new(SolverConfig {
-            vcf_spend_limit: Some(limit),
-            table_megabytes: 4,
-            vcf_table_megabytes: 2,
-            ..SolverConfig::default()
-        })
+    let starved = |limit| Budget {
+        vcf_spend: Some(limit),
+        ..Budget::VERIFICATION
     };
-    let mut starved = [starved(300), starved(3_000), starved(30_000)];
+    let starved = [starved(300), starved(3_000), starved(30_000)];
+    let mut cut = solver();
     let (mut agreed, mut unknown, mut wins) = (0, 0, 0);
     for (i, sample) in positions(SEED ^ 0x5_7A2E, 150, 9).into_iter().enumerate() {
         let (b, c) = (&sample.board, sample.to_move);
         let want = solve(&mut full, b, c, Mode::Vct).verdict;
-        let got = solve(&mut starved[i % 3], b, c, Mode::Vct).verdict;
+        let got = solve_within(&mut cut, starved[i % 3], b, c, Mode::Vct).verdict;
         match (want, got) {
             (_, Verdict::Unknown) => unknown += 1,
             (w, g) if w == g => {

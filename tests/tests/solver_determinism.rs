@@ -12,7 +12,7 @@
 //! hand-built 15x15 one.
 
 use engine::notation::format_points;
-use engine::search::{Mode, Solver, SolverConfig, Verdict};
+use engine::search::{Budget, Mode, Solver, SolverConfig, Verdict};
 use engine::{Rule, Stone};
 
 use crate::common::stones;
@@ -21,9 +21,8 @@ use crate::samples::positions;
 const SEED: u64 = 0xDE7E_2415;
 const POSITIONS: usize = 200;
 
-fn config(node_limit: u64) -> SolverConfig {
+fn config() -> SolverConfig {
     SolverConfig {
-        node_limit,
         table_megabytes: 8,
         vcf_table_megabytes: 2,
         ..SolverConfig::default()
@@ -35,8 +34,16 @@ fn the_same_question_gives_the_same_answer_nodes_and_line() {
     let mut decided = 0;
     for sample in positions(SEED, POSITIONS / 3, 9) {
         for mode in [Mode::Vcf, Mode::Vct] {
-            let a = Solver::new(config(100_000)).solve(&sample.board, sample.to_move, mode, None);
-            let b = Solver::new(config(100_000)).solve(&sample.board, sample.to_move, mode, None);
+            let a = Solver::new(config()).ask(Budget::nodes(100_000)).solve(
+                &sample.board,
+                sample.to_move,
+                mode,
+            );
+            let b = Solver::new(config()).ask(Budget::nodes(100_000)).solve(
+                &sample.board,
+                sample.to_move,
+                mode,
+            );
             assert_eq!(a, b, "{} {mode:?}: two fresh solvers differ", sample.label);
             decided += (a.verdict != Verdict::Unknown) as usize;
         }
@@ -56,8 +63,12 @@ fn a_small_budget_runs_out_the_same_way_every_time() {
     let mut unknown = 0;
     for budget in [50u64, 200, 1_000] {
         for mode in [Mode::Vcf, Mode::Vct] {
-            let x = Solver::new(config(budget)).solve(&b, Stone::Black, mode, None);
-            let y = Solver::new(config(budget)).solve(&b, Stone::Black, mode, None);
+            let x = Solver::new(config())
+                .ask(Budget::nodes(budget))
+                .solve(&b, Stone::Black, mode);
+            let y = Solver::new(config())
+                .ask(Budget::nodes(budget))
+                .solve(&b, Stone::Black, mode);
             assert_eq!(x, y, "budget {budget} {mode:?}");
             if x.verdict == Verdict::Unknown {
                 unknown += 1;
@@ -69,8 +80,16 @@ fn a_small_budget_runs_out_the_same_way_every_time() {
     // The seeded positions under a budget that often runs out.
     let mut unknown = 0;
     for sample in positions(SEED, 40, 9) {
-        let x = Solver::new(config(300)).solve(&sample.board, sample.to_move, Mode::Vct, None);
-        let y = Solver::new(config(300)).solve(&sample.board, sample.to_move, Mode::Vct, None);
+        let x = Solver::new(config()).ask(Budget::nodes(300)).solve(
+            &sample.board,
+            sample.to_move,
+            Mode::Vct,
+        );
+        let y = Solver::new(config()).ask(Budget::nodes(300)).solve(
+            &sample.board,
+            sample.to_move,
+            Mode::Vct,
+        );
         assert_eq!(x, y, "{}", sample.label);
         unknown += (x.verdict == Verdict::Unknown) as usize;
     }
@@ -80,12 +99,18 @@ fn a_small_budget_runs_out_the_same_way_every_time() {
 #[test]
 fn a_reused_solver_gives_the_verdicts_of_a_fresh_one_for_vcf() {
     // One solver answers every question in turn; a fresh solver answers each alone.
-    let mut reused = Solver::new(config(200_000));
+    let mut reused = Solver::new(config());
     let mut compared = 0;
     for sample in positions(SEED, POSITIONS, 9) {
-        let again = reused.solve(&sample.board, sample.to_move, Mode::Vcf, None);
-        let fresh =
-            Solver::new(config(200_000)).solve(&sample.board, sample.to_move, Mode::Vcf, None);
+        let again =
+            reused
+                .ask(Budget::nodes(200_000))
+                .solve(&sample.board, sample.to_move, Mode::Vcf);
+        let fresh = Solver::new(config()).ask(Budget::nodes(200_000)).solve(
+            &sample.board,
+            sample.to_move,
+            Mode::Vcf,
+        );
         assert_eq!(again.verdict, fresh.verdict, "{}: VCF", sample.label);
         assert_eq!(
             again.line.len(),
@@ -103,12 +128,18 @@ fn a_reused_solver_gives_the_verdicts_of_a_fresh_one_for_vcf() {
 #[test]
 fn a_reused_solver_gives_the_verdicts_of_a_fresh_one_for_vct() {
     // The same for VCT, with the default depth; every mismatch is listed in the failure.
-    let mut reused = Solver::new(config(200_000));
+    let mut reused = Solver::new(config());
     let (mut same, mut differ) = (0, Vec::new());
     for sample in positions(SEED, POSITIONS, 9) {
-        let again = reused.solve(&sample.board, sample.to_move, Mode::Vct, None);
-        let fresh =
-            Solver::new(config(200_000)).solve(&sample.board, sample.to_move, Mode::Vct, None);
+        let again =
+            reused
+                .ask(Budget::nodes(200_000))
+                .solve(&sample.board, sample.to_move, Mode::Vct);
+        let fresh = Solver::new(config()).ask(Budget::nodes(200_000)).solve(
+            &sample.board,
+            sample.to_move,
+            Mode::Vct,
+        );
         if again.verdict == fresh.verdict {
             same += 1;
         } else {
@@ -156,30 +187,42 @@ fn winning_moves_do_not_depend_on_an_earlier_search() {
     // every defender counter-four), a reused one must say the same.
     let mut d7 = x.clone();
     d7.place(crate::common::p("d7"), Stone::White);
-    let (v, _) =
-        Solver::new(cfg.clone()).wins_after(&d7, Stone::White, Stone::Black, Mode::Vct, None);
+    let (v, _) = Solver::new(cfg.clone())
+        .ask(Budget::VERIFICATION)
+        .wins_after(&d7, Stone::White, Stone::Black, Mode::Vct);
     let (v_again, _) = {
         let mut s = Solver::new(cfg.clone());
-        let _ = s.solve(&x, Stone::White, Mode::Vct, None);
-        s.wins_after(&d7, Stone::White, Stone::Black, Mode::Vct, None)
+        let _ = s
+            .ask(Budget::VERIFICATION)
+            .solve(&x, Stone::White, Mode::Vct);
+        s.ask(Budget::VERIFICATION)
+            .wins_after(&d7, Stone::White, Stone::Black, Mode::Vct)
     };
     assert_eq!(
         v, v_again,
         "d7 after an earlier search, against a fresh solver"
     );
     let mut fresh = Solver::new(cfg.clone())
+        .ask(Budget::VERIFICATION)
         .winning_moves(&x, Stone::White, Mode::Vct)
         .proved;
     fresh.sort();
     let fresh_verdict = Solver::new(cfg.clone())
-        .solve(&x, Stone::White, Mode::Vct, None)
+        .ask(Budget::VERIFICATION)
+        .solve(&x, Stone::White, Mode::Vct)
         .verdict;
     let mut reused = Solver::new(cfg);
     assert_eq!(
-        reused.solve(&x, Stone::White, Mode::Vct, None).verdict,
+        reused
+            .ask(Budget::VERIFICATION)
+            .solve(&x, Stone::White, Mode::Vct)
+            .verdict,
         fresh_verdict
     );
-    let mut again = reused.winning_moves(&x, Stone::White, Mode::Vct).proved;
+    let mut again = reused
+        .ask(Budget::VERIFICATION)
+        .winning_moves(&x, Stone::White, Mode::Vct)
+        .proved;
     again.sort();
     assert_eq!(
         format_points(&again),

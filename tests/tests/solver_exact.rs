@@ -40,17 +40,19 @@
 
 use std::time::Instant;
 
-use engine::search::{ExactValue, Solver, SolverConfig};
+use engine::search::{Budget, ExactValue, Solver, SolverConfig};
 use engine::{Board, Point, Stone};
 
 /// A solver with room for the largest of these games.
 fn solver() -> Solver {
     Solver::new(SolverConfig {
-        node_limit: 20_000_000,
         table_megabytes: 64,
         ..SolverConfig::default()
     })
 }
+
+/// The budget of these searches.
+const BUDGET: Budget = Budget::nodes(20_000_000);
 
 /// Whether the stones of `c` on `cells` (indexed `y * w + x`) hold `k` in a row: our own scan.
 fn has_k_in_a_row(cells: &[Option<Stone>], w: i32, h: i32, k: i32, c: Stone) -> bool {
@@ -72,7 +74,7 @@ fn check(w: u8, h: u8, k: u8, want: ExactValue) {
     let start = Instant::now();
     let board = Board::mnk(w, h, k).expect("a valid m,n,k board");
     let mut s = solver();
-    let sol = s.exact(&board, Stone::Black, None);
+    let sol = s.ask(BUDGET).exact(&board, Stone::Black);
     assert_eq!(
         sol.value, want,
         "{w}x{h} k={k}: the engine says {:?} after {} nodes",
@@ -90,7 +92,7 @@ fn check(w: u8, h: u8, k: u8, want: ExactValue) {
         for &m in &sol.first_moves {
             let mut b = board.clone();
             b.place(m, Stone::Black);
-            let v = s.exact(&b, Stone::White, None).value;
+            let v = s.ask(BUDGET).exact(&b, Stone::White).value;
             assert_eq!(
                 v,
                 ExactValue::Loss,
@@ -181,7 +183,7 @@ fn five_by_four_k4_is_not_a_second_player_win() {
     // Not sourced (see the module notes): only the strategy-stealing bound is asserted.
     let start = Instant::now();
     let board = Board::mnk(5, 4, 4).unwrap();
-    let sol = solver().exact(&board, Stone::Black, None);
+    let sol = solver().ask(BUDGET).exact(&board, Stone::Black);
     assert!(
         matches!(sol.value, ExactValue::Win | ExactValue::Draw),
         "5x4 k=4: {:?}",

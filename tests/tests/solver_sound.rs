@@ -50,7 +50,7 @@
 
 use std::time::Instant;
 
-use engine::search::{Mode, Solver, SolverConfig, Verdict};
+use engine::search::{Budget, Mode, Solver, SolverConfig, Verdict};
 use engine::{Board, Point, Stone};
 
 use crate::referee::{path_text, through_counter_four, Fail, Referee};
@@ -75,11 +75,9 @@ const TOLERATE_COUNTER_FOUR_BUG: bool = false;
 
 fn solver() -> Solver {
     Solver::new(SolverConfig {
-        node_limit: NODE_LIMIT,
         vct_depth: VCT_DEPTH,
         table_megabytes: 16,
         vcf_table_megabytes: 4,
-        ..SolverConfig::default()
     })
 }
 
@@ -170,7 +168,7 @@ fn run_referee(
     let mut board = s.board.clone();
     let mut stale = 0;
     let mut adviser = |b: &Board, a: Stone| -> Option<Point> {
-        let sol = solver.solve(b, a, mode, None);
+        let sol = solver.ask(Budget::nodes(NODE_LIMIT)).solve(b, a, mode);
         if sol.verdict == Verdict::Win {
             return Some(sol.line[0]);
         }
@@ -179,7 +177,7 @@ fn run_referee(
         // `solver_determinism::winning_moves_do_not_depend_on_an_earlier_search`): ask again
         // with cleared tables, and count it.
         solver.clear();
-        let sol = solver.solve(b, a, mode, None);
+        let sol = solver.ask(Budget::nodes(NODE_LIMIT)).solve(b, a, mode);
         if sol.verdict == Verdict::Win {
             stale += 1;
             return Some(sol.line[0]);
@@ -262,7 +260,9 @@ fn check_position(solver: &mut Solver, s: &Sample, c: &mut Counts) {
     let mut referee = Referee::of(&s.board);
     let own_vcf = referee.vcf(a);
 
-    let vcf = solver.solve(&s.board, a, Mode::Vcf, None);
+    let vcf = solver
+        .ask(Budget::nodes(NODE_LIMIT))
+        .solve(&s.board, a, Mode::Vcf);
     match vcf.verdict {
         Verdict::Win => {
             c.vcf_win += 1;
@@ -299,7 +299,9 @@ fn check_position(solver: &mut Solver, s: &Sample, c: &mut Counts) {
 
     c.t_vcf += t0.elapsed().as_secs_f64();
     let t1 = Instant::now();
-    let vct = solver.solve(&s.board, a, Mode::Vct, None);
+    let vct = solver
+        .ask(Budget::nodes(NODE_LIMIT))
+        .solve(&s.board, a, Mode::Vct);
     c.t_vct_solve += t1.elapsed().as_secs_f64();
     match vct.verdict {
         Verdict::Win => {

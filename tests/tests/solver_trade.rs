@@ -18,7 +18,7 @@
 //! each says what the correct answer is. They were fixed and the tests guard them.
 
 use engine::notation::format_points;
-use engine::search::{Mode, Solver, Verdict};
+use engine::search::{Budget, Mode, Solver, Verdict};
 use engine::{Board, Point, Rule, Stone};
 
 use crate::common::{p, stones};
@@ -32,7 +32,7 @@ fn pts(list: &str) -> Vec<Point> {
 /// off the line the referee continues with its own VCF, else with the solver's advice).
 fn referee_confirms(solver: &mut Solver, board: &Board, a: Stone, line: &[Point], mode: Mode) {
     let mut adviser = |b: &Board, c: Stone| -> Option<Point> {
-        let s = solver.solve(b, c, mode, None);
+        let s = solver.ask(Budget::VERIFICATION).solve(b, c, mode);
         (s.verdict == Verdict::Win).then(|| s.line[0])
     };
     let mut r = Referee::of(board);
@@ -73,7 +73,9 @@ fn a_four_three_wins_by_vcf() {
     assert!(r.makes_four(k8, Stone::Black), "referee: k8 is a four");
 
     let mut s = Solver::default();
-    let sol = s.solve(&b, Stone::Black, Mode::Vcf, None);
+    let sol = s
+        .ask(Budget::VERIFICATION)
+        .solve(&b, Stone::Black, Mode::Vcf);
     assert_eq!(sol.verdict, Verdict::Win);
     // The line: k8 (four), l8 (the only block), k7 or k11 (a straight four), a block, five.
     let line = &sol.line;
@@ -100,14 +102,18 @@ fn a_four_three_wins_by_vcf() {
     referee_confirms(&mut s, &b, Stone::Black, line, Mode::Vcf);
     // k8 is the only winning first move by fours: l8 first is blocked at k8, and nothing else
     // is a four.
-    let w = s.winning_moves(&b, Stone::Black, Mode::Vcf);
+    let w = s
+        .ask(Budget::VERIFICATION)
+        .winning_moves(&b, Stone::Black, Mode::Vcf);
     assert_eq!(w.proved, pts("k8"), "{w:?}");
     assert!(w.unknown.is_empty());
     // The same stones win the same way under every rule (nothing here is an overline or a
     // forbidden point).
     for rule in [Rule::Standard, Rule::Renju] {
         let b = stones(rule, FOUR_THREE_BLACK, FOUR_THREE_WHITE);
-        let sol = s.solve(&b, Stone::Black, Mode::Vcf, None);
+        let sol = s
+            .ask(Budget::VERIFICATION)
+            .solve(&b, Stone::Black, Mode::Vcf);
         assert_eq!((sol.verdict, sol.line.len()), (Verdict::Win, 5), "{rule}");
         assert_eq!(sol.line[0], p("k8"), "{rule}");
     }
@@ -122,7 +128,9 @@ fn a_four_three_loses_to_a_counter_four_made_by_the_block() {
     let white = "g8 l9 l10 l11 a1 o1";
     let b = stones(Rule::Freestyle, &black, white);
     let mut s = Solver::default();
-    let sol = s.solve(&b, Stone::Black, Mode::Vcf, None);
+    let sol = s
+        .ask(Budget::VERIFICATION)
+        .solve(&b, Stone::Black, Mode::Vcf);
     assert_eq!(
         sol.verdict,
         Verdict::NoWin,
@@ -164,7 +172,9 @@ fn a_four_three_loses_to_a_counter_four_made_by_the_block() {
     // Without white's l9-l11 the same four-three wins (the control).
     let control = stones(Rule::Freestyle, &black, "g8 a1 o1 a15");
     assert_eq!(
-        s.solve(&control, Stone::Black, Mode::Vcf, None).verdict,
+        s.ask(Budget::VERIFICATION)
+            .solve(&control, Stone::Black, Mode::Vcf)
+            .verdict,
         Verdict::Win
     );
 }
@@ -178,7 +188,9 @@ fn a_four_three_loses_to_a_counter_four_made_by_the_block() {
 fn check_defences(rule: Rule, black: &str, white: &str, want: &str) {
     let b = stones(rule, black, white);
     let mut s = Solver::default();
-    let d = s.defences(&b, Stone::White, Mode::Vct);
+    let d = s
+        .ask(Budget::VERIFICATION)
+        .defences(&b, Stone::White, Mode::Vct);
     assert_eq!(d.threat, Verdict::Win, "{rule}: black's three is a threat");
     assert!(d.moves.unknown.is_empty(), "{rule}: {d:?}");
     let mut got = d.moves.proved.clone();
@@ -201,12 +213,16 @@ fn check_defences(rule: Rule, black: &str, white: &str, want: &str) {
                 "{rule}: after {q} black still has a VCF"
             );
             assert_eq!(
-                s.solve(&after, Stone::Black, Mode::Vct, None).verdict,
+                s.ask(Budget::VERIFICATION)
+                    .solve(&after, Stone::Black, Mode::Vct)
+                    .verdict,
                 Verdict::NoWin,
                 "{rule}: after the defence {q}"
             );
         } else {
-            let sol = s.solve(&after, Stone::Black, Mode::Vct, None);
+            let sol = s
+                .ask(Budget::VERIFICATION)
+                .solve(&after, Stone::Black, Mode::Vct);
             assert_eq!(sol.verdict, Verdict::Win, "{rule}: {q} should not defend");
             referee_confirms(&mut s, &after, Stone::Black, &sol.line, Mode::Vct);
             losing += 1;
@@ -253,7 +269,9 @@ fn no_threat_means_every_move_defends() {
     // lists nothing (every move defends).
     let b = stones(Rule::Freestyle, "h8 j10", "a1 o15");
     let mut s = Solver::default();
-    let d = s.defences(&b, Stone::White, Mode::Vct);
+    let d = s
+        .ask(Budget::VERIFICATION)
+        .defences(&b, Stone::White, Mode::Vct);
     assert_eq!(d.threat, Verdict::NoWin);
     assert!(
         d.moves.proved.is_empty() && d.moves.unknown.is_empty(),
@@ -261,7 +279,9 @@ fn no_threat_means_every_move_defends() {
     );
     assert_eq!(referee_vcf(&b, Stone::Black), None);
     assert_eq!(
-        s.threat(&b, Stone::White, Mode::Vct).verdict,
+        s.ask(Budget::VERIFICATION)
+            .threat(&b, Stone::White, Mode::Vct)
+            .verdict,
         Verdict::NoWin
     );
 }
@@ -285,13 +305,17 @@ fn a_counter_four_that_wins_is_not_dismissed() {
     // (line j8 j6 k8 g8 l8) and lists no defence after it: after black's c6 and white's block
     // c7 it replays white's threat as if white were to move, but black is.
     let mut s = Solver::default();
-    let sol = s.solve(&b, Stone::White, Mode::Vct, None);
+    let sol = s
+        .ask(Budget::VERIFICATION)
+        .solve(&b, Stone::White, Mode::Vct);
     assert!(
         sol.verdict != Verdict::Win || sol.line[0] != p("j8"),
         "the engine claims a VCT win starting with j8: {}",
         format_points(&sol.line)
     );
-    let d = s.defences(&after, Stone::Black, Mode::Vct);
+    let d = s
+        .ask(Budget::VERIFICATION)
+        .defences(&after, Stone::Black, Mode::Vct);
     assert!(
         d.moves.proved.contains(&p("c6")),
         "c6 must be listed as a defence: {d:?}"
@@ -307,7 +331,9 @@ fn line_never_shows_a_forbidden_block() {
     // other five point, after which white plays h7).
     let b = stones(Rule::Renju, "i7 j7 g6 f5 d8 h3", "h4 h5 h6 e8 f8 g8");
     assert_eq!(b.forbidden(p("h7")), Some(engine::Forbidden::DoubleThree));
-    let sol = Solver::default().solve(&b, Stone::White, Mode::Vcf, None);
+    let sol = Solver::default()
+        .ask(Budget::VERIFICATION)
+        .solve(&b, Stone::White, Mode::Vcf);
     assert_eq!(sol.verdict, Verdict::Win);
     let mut r = Referee::of(&b);
     for (k, &q) in sol.line.iter().enumerate() {

@@ -9,14 +9,15 @@ use engine::puzzle::attempt::Attempt;
 use engine::puzzle::generate::{self, Options};
 use engine::puzzle::{grade, Theme};
 use engine::rating::Rating;
-use engine::search::{Mode, Solver, Verdict};
-use engine::{Rule, Stone};
+use engine::search::{Budget, Solver};
+use engine::study::{study, StudyAnswer, StudySearch};
+use engine::words;
+use engine::{Point, Rule, Stone};
 use serde::{Deserialize, Serialize};
 use std::cell::RefCell;
 use wasm_bindgen::prelude::*;
 
 use crate::library;
-use crate::words;
 
 /// A message for JavaScript (thrown as a string).
 pub(crate) fn err(e: impl std::fmt::Display) -> JsValue {
@@ -66,6 +67,25 @@ pub fn result_code(set_json: &str, name: &str, outcomes: Vec<String>) -> Result<
     Ok(result::encode(result::fingerprint(&set), name, &outs))
 }
 
+/// Every attempt name with its words for the player: `{"untried": "not tried", ...}` as
+/// JSON (see `engine::puzzle::attempt`).
+#[wasm_bindgen(js_name = attemptWords)]
+pub fn attempt_words() -> String {
+    let map: serde_json::Map<String, serde_json::Value> = Attempt::ALL
+        .iter()
+        .map(|&a| (a.name().to_string(), words::attempt(a).into()))
+        .collect();
+    serde_json::Value::Object(map).to_string()
+}
+
+/// What a result code and a summary record for an attempt named `name` (an unfinished try
+/// counts as failed); an unknown name is refused.
+#[wasm_bindgen(js_name = recordedAttempt)]
+pub fn recorded_attempt(name: &str) -> Result<String, JsValue> {
+    let a: Attempt = name.parse().map_err(err)?;
+    Ok(a.recorded().name().to_string())
+}
+
 #[derive(Serialize, Deserialize)]
 struct RatingJs {
     rating: f64,
@@ -108,7 +128,7 @@ thread_local! {
 }
 
 /// Runs `f` with the one solver of this thread (the page's boards share it; the worker has its
-/// own), with the grading settings of [`grade::solver_config`].
+/// own), with the grading tables of [`grade::solver_config`]; each question brings its budget.
 pub(crate) fn with_solver<T>(f: impl FnOnce(&mut Solver) -> T) -> T {
     SOLVER.with(|s| {
         let mut s = s.borrow_mut();
@@ -170,7 +190,7 @@ pub fn generate_set(
     })
     .map_err(err)?;
     Ok(setfile::to_json(&setfile::PuzzleSet {
-        title: format!("Drill: {}", theme.words()),
+        title: format!("Drill: {}", words::theme(theme)),
         created: today(),
         puzzles,
         generator: None,
@@ -201,15 +221,18 @@ struct SolveJs {
 struct SolveOut {
     result: &'static str,
     say: Vec<String>,
-    line: Vec<String>,
-    first_moves: Vec<String>,
-    unknown: Vec<String>,
+    line: Vec<Point>,
+    /// The side that plays the line's first move.
+    first: Stone,
+    first_moves: Vec<Point>,
+    unknown: Vec<Point>,
     nodes: u64,
 }
 
-/// Solves a study position (in the worker): `{rule, size, black, white, toMove, search:
-/// "vcf"|"vct"|"defend", nodes}`; returns `{result, line, firstMoves, unknown, nodes}`, where
-/// for "defend" `firstMoves` are the defences and `line` is the threat.
+/// Answers a study question (in the worker): `{rule, size, black, white, toMove, search:
+/// "vcf"|"vct"|"defend", nodes}`; returns `{result, say, line, first, firstMoves, unknown,
+/// nodes}` (see `engine::study`), where for "defend" `firstMoves` are the defences and `line`
+/// is the threat, and `first` is the side that starts `line`.
 #[wasm_bindgen(js_name = solvePosition)]
 pub fn solve_position(query: JsValue) -> Result<JsValue, JsValue> {
     let q: SolveJs = serde_wasm_bindgen::from_value(query).map_err(err)?;
@@ -217,85 +240,43 @@ pub fn solve_position(query: JsValue) -> Result<JsValue, JsValue> {
     let board =
         notation::setup(q.size, rule, &q.black.join(" "), &q.white.join(" ")).map_err(err)?;
     if let Some(w) = board.find_winner() {
-        return Err(err(format!(
-            "{} has already made five",
-            words::colour_word(w)
-        )));
+        return Err(err(format!("{} has already made five", words::colour(w))));
     }
     let to_move: Stone = q.to_move.parse().map_err(err)?;
-    let names = |v: &[engine::Point]| v.iter().map(|p| p.to_string()).collect::<Vec<_>>();
-    let out = with_solver(|solver| {
-        if let Some(n) = q.nodes {
-            // A study question asked with its own budget (in the worker, cancellable) gets it
-            // whole: no VCF spending limit either.
-            solver.set_node_limit(n.clamp(1_000, 20_000_000));
-            solver.set_vcf_spend_limit(None);
-        }
-        let out = match q.search.as_str() {
-            "vcf" | "vct" => {
-                let mode = if q.search == "vcf" {
-                    Mode::Vcf
-                } else {
-                    Mode::Vct
-                };
-                let sol = solver.solve(&board, to_move, mode, None);
-                let mut out = SolveOut {
-                    result: sol.verdict.name(),
-                    say: Vec::new(),
-                    line: names(&sol.line),
-                    first_moves: Vec::new(),
-                    unknown: Vec::new(),
-                    nodes: sol.nodes,
-                };
-                if sol.verdict == Verdict::Win {
-                    let w = solver.winning_moves(&board, to_move, mode);
-                    out.first_moves = names(&w.proved);
-                    out.unknown = names(&w.unknown);
-                    out.nodes += w.nodes;
-                }
-                Ok(out)
-            }
-            "defend" => {
-                let d = solver.defences(&board, to_move, Mode::Vct);
-                let threat = if d.threat == Verdict::Win {
-                    solver.threat(&board, to_move, Mode::Vct).line
-                } else {
-                    Vec::new()
-                };
-                Ok(SolveOut {
-                    say: Vec::new(),
-                    result: match d.threat {
-                        Verdict::Win => "threat",
-                        Verdict::NoWin => "no-threat",
-                        Verdict::Unknown => "unknown",
-                    },
-                    line: names(&threat),
-                    first_moves: names(&d.moves.proved),
-                    unknown: names(&d.moves.unknown),
-                    nodes: d.moves.nodes,
-                })
-            }
-            other => Err(err(format!(
-                "unknown search '{other}' (vcf, vct or defend)"
-            ))),
-        };
-        solver.set_node_limit(grade::NODE_LIMIT);
-        solver.set_vcf_spend_limit(grade::solver_config().vcf_spend_limit);
-        out
-    })?;
-    let mut out = out;
-    let pts =
-        |v: &[String]| -> Vec<engine::Point> { v.iter().filter_map(|s| s.parse().ok()).collect() };
-    out.say = words::solve_words(
-        &q.search,
-        to_move,
-        out.result,
-        &pts(&out.line),
-        &pts(&out.first_moves),
-        &pts(&out.unknown),
-        out.nodes,
-    );
-    serde_wasm_bindgen::to_value(&out).map_err(err)
+    let search: StudySearch = q.search.parse().map_err(err)?;
+    // A study question asked with its own budget (in the worker, cancellable) gets it whole.
+    let budget = Budget {
+        nodes: q
+            .nodes
+            .unwrap_or(Budget::STUDY.nodes)
+            .clamp(1_000, 20_000_000),
+        ..Budget::STUDY
+    };
+    let s = with_solver(|solver| study(solver, &board, to_move, search, budget, None));
+    let (line, first) = s.answer.shown_line(to_move);
+    let (first_moves, unknown) = match &s.answer {
+        StudyAnswer::Win {
+            first_moves,
+            undecided,
+            ..
+        } => (first_moves.clone(), undecided.clone()),
+        StudyAnswer::Threat {
+            defences,
+            undecided,
+            ..
+        } => (defences.clone(), undecided.clone()),
+        _ => (Vec::new(), Vec::new()),
+    };
+    let out = SolveOut {
+        result: s.answer.result(),
+        say: words::study(&s),
+        line: line.to_vec(),
+        first,
+        first_moves,
+        unknown,
+        nodes: s.nodes,
+    };
+    crate::boards::to_js(&out)
 }
 
 #[derive(Serialize)]
@@ -314,7 +295,7 @@ pub fn themes() -> String {
         .iter()
         .map(|&t| ThemeJs {
             name: t.name(),
-            words: t.words(),
+            words: words::theme(t),
             goal: t.goal().name(),
             rules: [Rule::Freestyle, Rule::Standard, Rule::Renju]
                 .into_iter()
@@ -327,7 +308,7 @@ pub fn themes() -> String {
 }
 
 /// The rating band `[lo, hi]` a drill of `theme` under `rule` asks the generator for, for a
-/// player rated `rating` (see [`words::drill_band`]).
+/// player rated `rating` (see [`crate::drill::drill_band`]).
 #[wasm_bindgen(js_name = drillBand)]
 pub fn drill_band(theme: &str, rule: &str, rating: f64) -> Result<Vec<u32>, JsValue> {
     let theme: Theme = theme.parse().map_err(err)?;
@@ -337,7 +318,7 @@ pub fn drill_band(theme: &str, rule: &str, rating: f64) -> Result<Vec<u32>, JsVa
             "the theme {theme} exists only under renju, not {rule}"
         )));
     }
-    let (lo, hi) = words::drill_band(&library::ratings(theme, rule), rating);
+    let (lo, hi) = crate::drill::drill_band(&library::ratings(theme, rule), rating);
     Ok(vec![lo, hi])
 }
 

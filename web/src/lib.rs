@@ -1,20 +1,23 @@
 //! The Fivefold web app's Rust side.
 //!
 //! The page's scripts only forward events (a tap, a key, a button, a resize) and write out the
-//! text they get back. Every rule, grade and sentence comes from the engine or from here:
-//! [`trainer`] is the board handle (one per canvas: a puzzle being played or a position being
-//! studied), [`api`] holds the plain functions (sets, share and result codes, ratings,
-//! generation and solving for the worker), [`layout`] places the grid and [`render`] draws it;
-//! [`bench`] times the solver's benchmark suite in the browser.
+//! text they get back. Every rule, grade and sentence comes from the engine (its board
+//! controllers in `engine::trainer`, its sentences in `engine::words`): [`boards`] holds the
+//! two board handles (a puzzle board and a study board, each a thin shell over an engine
+//! controller and one canvas), [`api`] the plain functions (sets, share and result codes,
+//! ratings, generation and solving for the worker), [`drill`] the choice of a drill's rating
+//! band, [`layout`] places the grid and [`render`] draws it; [`bench`] times the solver's
+//! benchmark suite in the browser.
 #![deny(missing_docs)]
 
 pub mod api;
 pub mod bench;
+pub mod boards;
+pub mod drill;
 pub mod layout;
 pub mod library;
 pub mod render;
-pub mod trainer;
-pub mod words;
+mod surface;
 
 use wasm_bindgen::prelude::*;
 

@@ -63,7 +63,7 @@ mod tests {
     #[test]
     fn ratings_are_known_for_every_theme_under_every_rule_it_allows() {
         for rule in [Rule::Freestyle, Rule::Standard, Rule::Renju] {
-            for theme in crate::words::themes_for(rule) {
+            for theme in crate::drill::themes_for(rule) {
                 let r = ratings(theme, rule);
                 assert!(!r.is_empty(), "{theme} under {rule}");
                 assert!(r.iter().all(|&x| (600..=2600).contains(&x)));

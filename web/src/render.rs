@@ -9,7 +9,8 @@
 //! small squares for the reference points, a diamond for the last move, a ring on each stone of
 //! a winning line, and a cross on black's forbidden points.
 
-use engine::{Board, Point, Stone};
+use engine::trainer::View;
+use engine::{Point, Stone};
 use wasm_bindgen::JsValue;
 use web_sys::CanvasRenderingContext2d;
 
@@ -32,34 +33,6 @@ pub const CURSOR: &str = "#1d4fa3";
 
 /// Stone radius, in grid steps.
 pub const STONE: f64 = 0.46;
-
-/// What to mark besides the stones. Every marker has its own shape, so none depends on colour
-/// alone: a diamond for the last move, rings on a winning line, a cross on a forbidden point, a
-/// dashed square for a hint's area, a double ring for a hinted move, corner brackets for the
-/// keyboard cursor, a hollow square on a refuted move, and a half-clear stone for a preview.
-#[derive(Clone, Debug, Default)]
-pub struct Marks {
-    /// The last move played.
-    pub last: Option<Point>,
-    /// Stones that are part of a winning line.
-    pub winning: Vec<Point>,
-    /// Points where black may not play.
-    pub forbidden: Vec<Point>,
-    /// A previewed stone (first tap of a two-tap move).
-    pub ghost: Option<(Point, Stone)>,
-    /// The area of a hint, corner to corner.
-    pub hint_area: Option<(Point, Point)>,
-    /// A hinted move.
-    pub hint_move: Option<Point>,
-    /// The keyboard cursor.
-    pub cursor: Option<Point>,
-    /// Move numbers to write on stones.
-    pub numbers: Vec<(Point, u16)>,
-    /// A stone that is still appearing, and how far (0 to 1).
-    pub growing: Option<(Point, f64)>,
-    /// A move that was refuted.
-    pub refuted: Option<Point>,
-}
 
 /// The reference points of a board of side `size`.
 pub fn star_points(size: u8) -> Vec<Point> {
@@ -248,29 +221,21 @@ impl Pen<'_> {
     }
 }
 
-/// Draws `board` with `marks` on a canvas whose backing store is `layout`'s CSS size times `dpr`.
+/// Draws a board's [`View`] on a canvas whose backing store is `layout`'s CSS size times
+/// `dpr`; `growing` is a stone still appearing, and how far (0 to 1). Every marker of the
+/// view's [`engine::trainer::Marks`] has its own shape, so none depends on colour alone: a
+/// diamond for the last move, rings on a winning line, a cross on a forbidden point, a dashed
+/// square for a hint's area, a double ring for a hinted move, corner brackets for the keyboard
+/// cursor, a hollow square on a refuted move, and a half-clear stone for a preview.
 pub fn draw(
     ctx: &CanvasRenderingContext2d,
     layout: &Layout,
     dpr: f64,
-    board: &Board,
-    marks: &Marks,
+    view: &View,
+    growing: Option<(Point, f64)>,
 ) -> Result<(), JsValue> {
-    let stones: Vec<(Point, Stone)> = board
-        .points()
-        .filter_map(|p| board.get(p).map(|c| (p, c)))
-        .collect();
-    draw_stones(ctx, layout, dpr, &stones, marks)
-}
-
-/// Draws the given stones with `marks` (the general form of [`draw`]).
-pub fn draw_stones(
-    ctx: &CanvasRenderingContext2d,
-    layout: &Layout,
-    dpr: f64,
-    stones: &[(Point, Stone)],
-    marks: &Marks,
-) -> Result<(), JsValue> {
+    let stones = &view.stones;
+    let marks = &view.marks;
     ctx.set_transform(1.0, 0.0, 0.0, 1.0, 0.0, 0.0)?;
     ctx.set_fill_style_str(BOARD);
     ctx.fill_rect(
@@ -298,7 +263,7 @@ pub fn draw_stones(
     }
     let colour_at = |p: Point| stones.iter().find(|s| s.0 == p).map(|s| s.1);
     for &(p, c) in stones {
-        match marks.growing {
+        match growing {
             Some((g, f)) if g == p => pen.stone_scaled(p, c, 0.55 + 0.45 * f.clamp(0.0, 1.0))?,
             _ => pen.stone(p, c)?,
         }

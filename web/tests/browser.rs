@@ -1,11 +1,14 @@
 //! The bindings and the renderer in a real browser (headless Chromium through
-//! wasm-bindgen-test-runner): the `Trainer` board handle (puzzles, study boards, hints, the
-//! two-tap preview, the keyboard cursor), the plain functions of `api`, and what is drawn on
-//! the canvas at several device pixel ratios. Natively these compile to no tests.
+//! wasm-bindgen-test-runner): the two board handles (puzzles, study boards, hints, the two-tap
+//! preview, the keyboard cursor) as the page drives them, with taps at pixel positions, the
+//! plain functions of `api`, and what is drawn on the canvas at several device pixel ratios.
+//! The controllers' decisions are tested natively in `engine::trainer`; these tests check that
+//! the handles carry them across the boundary and onto the canvas. Natively these compile to
+//! no tests.
 
 use fivefold_web::api;
+use fivefold_web::boards::{PuzzleBoardHandle as Trainer, StudyBoardHandle as Study};
 use fivefold_web::render::{BOARD, FORBIDDEN, HINT, STONE};
-use fivefold_web::trainer::Trainer;
 use serde_json::Value;
 use wasm_bindgen::{JsCast, JsValue};
 use wasm_bindgen_test::*;
@@ -66,7 +69,7 @@ fn club_puzzle(css: u32, dpr: f64) -> (HtmlCanvasElement, Trainer, Value) {
     let mut t = Trainer::new(c.clone()).unwrap();
     t.fit(dpr).unwrap();
     let p = library_puzzle("Win with fours: club", 0);
-    json(t.load_puzzle(&p.to_string()));
+    json(t.load(&p.to_string(), false, JsValue::NULL));
     (c, t, p)
 }
 
@@ -128,6 +131,20 @@ fn settle(t: &mut Trainer) {
     t.frame(10_000.0).unwrap();
 }
 
+/// Finishes the stone animation of a study board.
+fn settle_study(t: &mut Study) {
+    t.frame(0.0).unwrap();
+    t.frame(10_000.0).unwrap();
+}
+
+/// A saved record for `PuzzleBoard.load`.
+fn record(played: &[String], wrong: u32, hints: u8) -> JsValue {
+    use serde::Serialize;
+    let v = serde_json::json!({ "played": played, "wrong": wrong, "hints": hints });
+    v.serialize(&serde_wasm_bindgen::Serializer::json_compatible())
+        .unwrap()
+}
+
 /// A tap at a point's centre, in viewport coordinates.
 fn tap(t: &mut Trainer, c: &HtmlCanvasElement, name: &str, touch: bool) -> Value {
     let rect = c.get_bounding_client_rect();
@@ -144,7 +161,7 @@ fn a_library_vcf_puzzle_is_graded_tap_by_tap_with_replies_revealed() {
     assert_eq!(s["mode"], "puzzle");
     assert_eq!(s["goal"], "Black to play and win with fours");
     assert_eq!(s["state"], "playing");
-    assert_eq!(s["outcome"], "untried");
+    assert_eq!(s["attempt"], "untried");
     let line = strs(&p["solution"]["line"]);
     let board = hex(BOARD);
     for (i, m) in line.iter().enumerate() {
@@ -177,10 +194,10 @@ fn a_library_vcf_puzzle_is_graded_tap_by_tap_with_replies_revealed() {
     }
     let s = json(t.status());
     assert_eq!(s["state"], "solved");
-    assert_eq!(s["outcome"], "clean");
+    assert_eq!(s["attempt"], "clean");
     assert_eq!(strs(&s["moves"]), line);
     let played: Vec<String> = line.iter().step_by(2).cloned().collect();
-    assert_eq!(strs(&s["played"]), played);
+    assert_eq!(strs(&s["record"]["played"]), played);
     // Solved: more taps are refused.
     let a = tap(&mut t, &c, "a1", false);
     assert_eq!(a["kind"], "finished");
@@ -188,9 +205,8 @@ fn a_library_vcf_puzzle_is_graded_tap_by_tap_with_replies_revealed() {
     let c2 = canvas(300, 300);
     let mut t2 = Trainer::new(c2.clone()).unwrap();
     t2.fit(1.0).unwrap();
-    json(t2.load_puzzle(&p.to_string()));
-    let s2 = json(t2.restore(played, Some(0), Some(0)));
-    assert_eq!(s2["state"], "solved");
+    let s2 = json(t2.load(&p.to_string(), false, record(&played, 0, 0)));
+    assert_eq!(s2["state"], "solved", "{s2}");
     assert_eq!(strs(&s2["moves"]), line);
     assert_eq!(s2["pending"], 0);
     c.remove();
@@ -203,7 +219,7 @@ fn a_wrong_move_is_refuted_one_move_at_a_time_with_a_reason() {
     let mut t = Trainer::new(c.clone()).unwrap();
     t.fit(1.0).unwrap();
     let p = library_puzzle("Win with fours: club", 1);
-    json(t.load_puzzle(&p.to_string()));
+    json(t.load(&p.to_string(), false, JsValue::NULL));
     let a = json(t.play("a1"));
     assert_eq!(a["kind"], "wrong");
     let reason = a["reason"].as_str().unwrap().to_string();
@@ -226,14 +242,18 @@ fn a_wrong_move_is_refuted_one_move_at_a_time_with_a_reason() {
     assert_eq!(shown, pending);
     let s = json(t.status());
     assert_eq!(s["state"], "failed");
-    assert_eq!(s["outcome"], "failed");
-    assert_eq!(strs(&s["played"]), vec!["a1"]);
-    assert_eq!(s["wrong"], 1);
+    assert_eq!(s["attempt"], "failed");
+    assert_eq!(strs(&s["record"]["played"]), vec!["a1"]);
+    assert_eq!(s["record"]["wrong"], 1);
     // Undo takes back the move and its refutation; a retry then solves it "with help".
     let s = json(t.undo());
     assert_eq!(s["state"], "playing");
     assert!(strs(&s["moves"]).is_empty());
-    assert_eq!(s["outcome"], "trying");
+    assert_eq!(s["attempt"], "trying");
+    assert_eq!(
+        s["record"]["attempt"], "failed",
+        "the failure stays on the record"
+    );
     c.remove();
 }
 
@@ -290,11 +310,11 @@ fn the_three_hints_are_said_and_drawn() {
         close(near(&c, dpr, &m, 0.5, 0.0), hint),
         "the target ring is drawn"
     );
-    assert_eq!(json(t.status())["hints"], 3);
+    assert_eq!(json(t.status())["record"]["hints"], 3);
     let a = json(t.play(&m));
     assert_eq!(a["kind"], "accepted");
     // Hints count: solving now is "with help", and the hint marks are gone.
-    assert_eq!(json(t.status())["outcome"], "trying");
+    assert_eq!(json(t.status())["attempt"], "trying");
     c.remove();
 }
 
@@ -317,7 +337,7 @@ fn touch_taps_preview_a_ghost_stone_until_confirmed() {
     json(t.retry());
     assert_eq!(tap(&mut t, &c, &m, false)["kind"], "accepted");
     json(t.retry());
-    t.set_option("confirm", false).unwrap();
+    t.set_options(false, false, false).unwrap();
     assert_eq!(tap(&mut t, &c, &m, true)["kind"], "accepted");
     // A tap off the grid does nothing.
     let rect = c.get_bounding_client_rect();
@@ -325,16 +345,15 @@ fn touch_taps_preview_a_ghost_stone_until_confirmed() {
         json(t.tap(rect.left() + 1.0, rect.top() + 1.0, true))["kind"],
         "none"
     );
-    assert!(t.set_option("sparkles", true).is_err());
     c.remove();
 }
 
 #[wasm_bindgen_test]
 fn the_keyboard_cursor_moves_and_places() {
     let c = canvas(300, 300);
-    let mut t = Trainer::new(c.clone()).unwrap();
+    let mut t = Study::new(c.clone()).unwrap();
     t.fit(1.0).unwrap();
-    json(t.study_new(15, "freestyle"));
+    json(t.reset(15, "freestyle"));
     assert_eq!(
         json(t.place_at_cursor())["say"][0],
         "Move the cursor with the arrow keys first."
@@ -360,13 +379,13 @@ fn the_keyboard_cursor_moves_and_places() {
     assert_eq!(t.stone_at("a1"), "black");
     // A cursor left on s19 of a 19x19 board does not survive a change to 15x15 (it used to
     // point off the board, and Enter crashed the module).
-    json(t.study_new(19, "freestyle"));
+    json(t.reset(19, "freestyle"));
     t.move_cursor(0, 0).unwrap();
     for _ in 0..20 {
         t.move_cursor(1, 1).unwrap();
     }
     assert_eq!(t.move_cursor(0, 0).unwrap(), "s19");
-    json(t.study_new(15, "freestyle"));
+    json(t.reset(15, "freestyle"));
     assert_eq!(json(t.place_at_cursor())["kind"], "none");
     assert_eq!(
         t.move_cursor(0, 0).unwrap(),
@@ -381,11 +400,11 @@ fn the_keyboard_cursor_moves_and_places() {
 fn study_board_edits_paste_and_lines() {
     let dpr = 2.0;
     let c = canvas(360, 360);
-    let mut t = Trainer::new(c.clone()).unwrap();
+    let mut t = Study::new(c.clone()).unwrap();
     t.fit(dpr).unwrap();
-    json(t.study_new(15, "renju"));
-    let s = json(t.study_paste("i8 a1 j8 a3 h9 a5 h10 a7"));
-    assert_eq!(s["toMove"], "black");
+    json(t.reset(15, "renju"));
+    assert_eq!(t.paste("i8 a1 j8 a3 h9 a5 h10 a7").unwrap(), 8);
+    assert_eq!(json(t.status())["toMove"], "black");
     let a = json(t.play("h8"));
     assert_eq!(a["kind"], "refused");
     assert_eq!(
@@ -395,58 +414,62 @@ fn study_board_edits_paste_and_lines() {
     // Forbidden points are marked when the option is on.
     let board = hex(BOARD);
     assert_eq!(near(&c, dpr, "h8", 0.16, 0.16), board);
-    t.set_option("forbidden", true).unwrap();
+    t.set_options(true, true, false).unwrap();
     let mark = near(&c, dpr, "h8", 0.1, 0.1);
     let f = hex(FORBIDDEN);
     assert!(
         mark.iter().zip(f).all(|(a, b)| a.abs_diff(b) < 50),
         "{mark:?}"
     );
-    t.set_option("forbidden", false).unwrap();
+    t.set_options(true, false, false).unwrap();
     // A bad paste names the token and changes nothing.
-    let e = err_text(t.study_paste("h8 h9 zz"));
+    let e = err_text(t.paste("h8 h9 zz"));
     assert!(e.contains("zz"), "{e}");
     assert_eq!(t.stone_at("i8"), "black");
     // Set-up tools and the side to move.
-    t.study_tool("white").unwrap();
+    t.set_tool("white").unwrap();
     assert_eq!(json(t.play("c3"))["kind"], "placed");
     assert_eq!(t.stone_at("c3"), "white");
-    t.study_tool("erase").unwrap();
+    t.set_tool("erase").unwrap();
     json(t.play("c3"));
     assert_eq!(t.stone_at("c3"), "");
-    assert!(t.study_tool("paint").is_err());
-    json(t.study_to_move("white"));
-    let pos = json(t.study_position());
+    assert!(t.set_tool("paint").is_err());
+    json(t.set_to_move("white"));
+    let pos = json(t.status());
     assert_eq!(pos["toMove"], "white");
     assert_eq!(pos["rule"], "renju");
     assert_eq!(strs(&pos["black"]).len(), 4);
     // A line is shown move by move, numbered, and hidden again.
-    t.study_show_line(vec!["o15".into(), "n15".into()], "white")
+    t.show_line(vec!["o15".into(), "n15".into()], "white")
         .unwrap();
     assert_eq!(t.stone_at("o15"), "");
-    let st = json(t.study_step(1));
+    let st = json(t.step(1));
     assert_eq!(st["shown"], 1);
     assert_eq!(st["say"], "1. White o15");
     assert_eq!(t.stone_at("o15"), "white");
-    let st = json(t.study_step(5));
+    let st = json(t.step(5));
     assert_eq!(st["shown"], 2);
     assert_eq!(t.stone_at("n15"), "black");
-    json(t.study_step(-2));
+    json(t.step(-2));
     assert_eq!(t.stone_at("o15"), "");
-    assert!(t.study_show_line(vec!["i8".into()], "white").is_err());
+    assert!(t.show_line(vec!["i8".into()], "white").is_err());
     // A saved position loads back.
     let c2 = canvas(200, 200);
-    let mut t2 = Trainer::new(c2.clone()).unwrap();
-    json(t2.study_load(
+    let mut t2 = Study::new(c2.clone()).unwrap();
+    json(t2.load(
         15,
         "renju",
         strs(&pos["black"]),
         strs(&pos["white"]),
         "white",
     ));
-    assert_eq!(json(t2.study_position()), pos);
+    let pos2 = json(t2.status());
+    assert_eq!(
+        (&pos2["black"], &pos2["white"], &pos2["toMove"]),
+        (&pos["black"], &pos["white"], &pos["toMove"])
+    );
     assert!(t2
-        .study_load(15, "renju", vec!["h8".into()], vec!["h8".into()], "white")
+        .load(15, "renju", vec!["h8".into()], vec!["h8".into()], "white")
         .is_err());
     assert!(t
         .describe()
@@ -458,8 +481,8 @@ fn study_board_edits_paste_and_lines() {
 #[wasm_bindgen_test]
 fn backing_store_is_css_size_times_the_pixel_ratio() {
     let c = canvas(300, 300);
-    let mut t = Trainer::new(c.clone()).unwrap();
-    json(t.study_new(15, "freestyle"));
+    let mut t = Study::new(c.clone()).unwrap();
+    json(t.reset(15, "freestyle"));
     for (dpr, want) in [(1.0, 300), (2.0, 600), (1.5, 450), (3.0, 900)] {
         t.fit(dpr).unwrap();
         assert_eq!((c.width(), c.height()), (want, want), "at ratio {dpr}");
@@ -477,7 +500,7 @@ fn backing_store_is_css_size_times_the_pixel_ratio() {
     assert!((centre[1] - (number(&c, "data-y0") - 7.0 * step)).abs() < 0.01);
     assert!(t.centre("p16").is_empty());
     // A 19x19 board fits the same canvas with a smaller step.
-    json(t.study_new(19, "freestyle"));
+    json(t.reset(19, "freestyle"));
     assert_eq!(number(&c, "data-size"), 19.0);
     assert!(number(&c, "data-step") < step);
     assert_eq!(t.centre("s19").len(), 2);
@@ -488,9 +511,9 @@ fn backing_store_is_css_size_times_the_pixel_ratio() {
 fn stones_change_the_pixels_at_their_points_at_every_ratio() {
     for dpr in [1.0, 1.5, 2.0, 3.0] {
         let c = canvas(360, 360);
-        let mut t = Trainer::new(c.clone()).unwrap();
+        let mut t = Study::new(c.clone()).unwrap();
         t.fit(dpr).unwrap();
-        json(t.study_new(15, "standard"));
+        json(t.reset(15, "standard"));
         let board = hex(BOARD);
         assert_eq!(inside(&c, dpr, "h8"), board);
         json(t.play("h8"));
@@ -500,14 +523,14 @@ fn stones_change_the_pixels_at_their_points_at_every_ratio() {
             board,
             "the new stone starts small at {dpr}"
         );
-        settle(&mut t);
+        settle_study(&mut t);
         let black = inside(&c, dpr, "h8");
         assert!(
             brightness(black) < 40,
             "black stone at h8 is {black:?} at {dpr}"
         );
         json(t.play("i9"));
-        settle(&mut t);
+        settle_study(&mut t);
         let white = inside(&c, dpr, "i9");
         assert!(brightness(white) > 230, "white stone at i9 is {white:?}");
         assert_eq!(inside(&c, dpr, "j10"), board);
@@ -531,7 +554,7 @@ fn move_numbers_are_written_on_the_stones() {
     json(t.play(&m));
     settle(&mut t);
     let before = c.to_data_url().unwrap();
-    t.set_option("numbers", true).unwrap();
+    t.set_options(true, false, true).unwrap();
     assert_ne!(c.to_data_url().unwrap(), before);
     // The number is written in white on the black stone's centre.
     assert!(brightness(near(&c, dpr, &m, 0.0, 0.0)) > 150);

@@ -84,10 +84,13 @@ pub fn run(args: &GenerateArgs) -> Result<(), String> {
     };
     options.check().map_err(|e| e.to_string())?;
     let created = args.created.clone().unwrap_or_else(today);
-    let title = args
-        .title
-        .clone()
-        .unwrap_or_else(|| format!("{} ({rule}), seed {}", theme.words(), args.seed));
+    let title = args.title.clone().unwrap_or_else(|| {
+        format!(
+            "{} ({rule}), seed {}",
+            engine::words::theme(theme),
+            args.seed
+        )
+    });
     let bar = if args.quiet {
         ProgressBar::hidden()
     } else {
@@ -145,7 +148,7 @@ pub fn read_set(path: &str) -> Result<PuzzleSet, String> {
 
 pub fn verify(args: &VerifyArgs) -> Result<(), String> {
     let set = read_set(&args.file)?;
-    let mut solver = verify::solver();
+    let mut solver = engine::search::Solver::default();
     let bar = if args.quiet {
         ProgressBar::hidden()
     } else {

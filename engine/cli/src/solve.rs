@@ -3,7 +3,8 @@
 use std::time::{Duration, Instant};
 
 use clap::{Args, ValueEnum};
-use engine::search::{Mode, Solver, SolverConfig, Verdict};
+use engine::search::{Budget, Solver, SolverConfig};
+use engine::study::{study, StudyAnswer, StudySearch};
 use engine::{notation, Board, Point, Stone};
 use serde::Serialize;
 
@@ -78,8 +79,11 @@ pub fn run(args: &SolveArgs) -> Result<(), String> {
     let config = SolverConfig {
         table_megabytes: args.memory * 3 / 4,
         vcf_table_megabytes: args.memory - args.memory * 3 / 4,
-        node_limit: args.nodes,
         ..SolverConfig::default()
+    };
+    let budget = Budget {
+        nodes: args.nodes,
+        ..Budget::STUDY
     };
     let mut solver = Solver::new(config);
     let start = Instant::now();
@@ -99,7 +103,7 @@ pub fn run(args: &SolveArgs) -> Result<(), String> {
                 to_move = to_move.opponent();
             }
         }
-        let sol = solver.exact(&board, to_move, Some(&mut stop));
+        let sol = solver.ask(budget).watch(&mut stop).exact(&board, to_move);
         report.search = "exact";
         report.to_move = if to_move == Stone::Black {
             "first"
@@ -118,48 +122,50 @@ pub fn run(args: &SolveArgs) -> Result<(), String> {
         if let Some(w) = pos.board.find_winner() {
             return Err(format!("the game is already over: {w} has five"));
         }
-        report.to_move = pos.to_move.name();
-        match args.search {
-            SearchKind::Vcf | SearchKind::Vct => {
-                let mode = if args.search == SearchKind::Vcf {
-                    Mode::Vcf
-                } else {
-                    Mode::Vct
-                };
-                report.search = if mode == Mode::Vcf { "vcf" } else { "vct" };
-                let sol = solver.solve(&pos.board, pos.to_move, mode, Some(&mut stop));
-                report.result = sol.verdict.name();
-                report.line = names(&sol.line);
-                report.nodes = sol.nodes;
-                if sol.verdict == Verdict::Win {
-                    let wins = solver.winning_moves(&pos.board, pos.to_move, mode);
-                    report.first_moves = names(&wins.proved);
-                    report.unknown = names(&wins.unknown);
-                    report.nodes += wins.nodes;
-                }
-            }
-            SearchKind::Defend => {
-                report.search = "defend";
-                let d = solver.defences(&pos.board, pos.to_move, Mode::Vct);
-                report.threat = Some(d.threat.name());
-                report.result = match d.threat {
-                    Verdict::Win if d.moves.proved.is_empty() && d.moves.unknown.is_empty() => {
-                        "lost"
-                    }
-                    Verdict::Win => "defended",
-                    Verdict::NoWin => "no-threat",
-                    Verdict::Unknown => "unknown",
-                };
-                report.defences = Some(names(&d.moves.proved));
-                report.first_moves = names(&d.moves.proved);
-                report.unknown = names(&d.moves.unknown);
-                report.nodes = d.moves.nodes;
-                if d.threat == Verdict::Win {
-                    let t = solver.threat(&pos.board, pos.to_move, Mode::Vct);
-                    report.line = names(&t.line);
-                }
-            }
+        let search = match args.search {
+            SearchKind::Vcf => StudySearch::Vcf,
+            SearchKind::Vct => StudySearch::Vct,
+            SearchKind::Defend => StudySearch::Defend,
             SearchKind::Exact => unreachable!("handled above"),
+        };
+        // A defence question is not stopped by the clock (it is many searches, each within
+        // the node budget).
+        let stop: Option<&mut dyn FnMut() -> bool> = if search == StudySearch::Defend {
+            None
+        } else {
+            Some(&mut stop)
+        };
+        let s = study(&mut solver, &pos.board, pos.to_move, search, budget, stop);
+        report.to_move = pos.to_move.name();
+        report.search = search.name();
+        report.result = s.answer.result();
+        report.nodes = s.nodes;
+        match &s.answer {
+            StudyAnswer::Win {
+                line,
+                first_moves,
+                undecided,
+                ..
+            } => {
+                report.line = names(line);
+                report.first_moves = names(first_moves);
+                report.unknown = names(undecided);
+            }
+            StudyAnswer::Threat {
+                threat,
+                defences,
+                undecided,
+            } => {
+                report.line = names(threat);
+                report.first_moves = names(defences);
+                report.defences = Some(names(defences));
+                report.unknown = names(undecided);
+            }
+            StudyAnswer::NoWin | StudyAnswer::NoThreat | StudyAnswer::Undecided => {}
+        }
+        if search == StudySearch::Defend {
+            report.threat = s.threat.map(|v| v.name());
+            report.defences.get_or_insert_with(Vec::new);
         }
     }
     report.ms = start.elapsed().as_millis() as u64;

@@ -23,10 +23,10 @@ use std::fmt;
 use serde::Serialize;
 use serde_json::{Map, Value};
 
-use crate::board::Stone;
 use crate::geometry::Point;
 use crate::puzzle::{Puzzle, Theme};
-use crate::rules::Rule;
+use crate::types::Rule;
+use crate::types::Stone;
 
 /// The value of the `format` field.
 pub const FORMAT: &str = "fivefold-set";

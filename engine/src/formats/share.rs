@@ -20,10 +20,10 @@ use base64::engine::general_purpose::URL_SAFE_NO_PAD;
 use base64::Engine as _;
 
 use super::setfile::{self, PuzzleSet};
-use crate::board::Stone;
 use crate::geometry::Point;
 use crate::puzzle::{Puzzle, Theme};
-use crate::rules::Rule;
+use crate::types::Rule;
+use crate::types::Stone;
 
 const VERSION: u8 = 1;
 

@@ -2,9 +2,9 @@
 //! key on a separate page. One self-contained HTML page; every text from the set (title, ids)
 //! is escaped, so a set cannot inject markup.
 
-use crate::board::Stone;
 use crate::formats::setfile::PuzzleSet;
 use crate::puzzle::Puzzle;
+use crate::types::Stone;
 
 /// Escapes text for HTML element content and attribute values.
 pub fn escape(s: &str) -> String {
@@ -32,7 +32,7 @@ pub fn diagram_svg(p: &Puzzle) -> String {
     let at = |i: usize| PAD + CELL * i as f64;
     let mut s = format!(
         "<svg xmlns=\"http://www.w3.org/2000/svg\" viewBox=\"0 0 {side} {side}\" class=\"board\" role=\"img\" aria-label=\"{}\">",
-        escape(&p.goal_words())
+        escape(&crate::words::goal(p))
     );
     s.push_str(&format!(
         "<rect x=\"0\" y=\"0\" width=\"{side}\" height=\"{side}\" fill=\"#fff\"/>"
@@ -109,7 +109,7 @@ b.n{display:inline-block;min-width:6mm}\
             "<figure>{}<figcaption><b class=\"n\">{}.</b> {} <small>({}, {})</small></figcaption></figure>\n",
             diagram_svg(p),
             i + 1,
-            escape(&p.goal_words()),
+            escape(&crate::words::goal(p)),
             p.rule,
             escape(&p.id)
         ));

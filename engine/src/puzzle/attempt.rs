@@ -96,6 +96,13 @@ impl Attempt {
     }
 }
 
+/// An attempt serialises as its name, like `"helped"`.
+impl serde::Serialize for Attempt {
+    fn serialize<S: serde::Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+        s.serialize_str(self.name())
+    }
+}
+
 impl fmt::Display for Attempt {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         f.write_str(self.name())

@@ -13,11 +13,12 @@ use std::fmt;
 
 use super::difficulty::{self, Features};
 use super::{Goal, Puzzle, Theme};
-use crate::board::{threat, Board, Stone};
+use crate::board::{threat, Board};
 use crate::geometry::Point;
 use crate::play::{self, Player, PlayerConfig};
-use crate::rules::{Game, Rule};
-use crate::search::{Mode, Solver, SolverConfig, Verdict};
+use crate::search::{Asking, Budget, Mode, Solver, Verdict};
+use crate::types::Rule;
+use crate::types::Stone;
 
 /// What to generate.
 #[derive(Clone, Debug, PartialEq, Eq)]
@@ -109,10 +110,6 @@ impl Options {
     }
 }
 
-/// The node budget of every search made while generating (and when re-proving a puzzle): a
-/// puzzle whose proof needs more is not kept, which also keeps grading it quick.
-pub const NODE_LIMIT: u64 = 50_000;
-
 /// Games to play per puzzle asked for before giving up (the forbidden-point themes are rare).
 fn games_per_puzzle(theme: Theme) -> u64 {
     match theme {
@@ -136,10 +133,7 @@ pub fn generate(
     mut progress: impl FnMut(Progress),
 ) -> Result<Vec<Puzzle>, GenerateError> {
     options.check()?;
-    let mut solver = Solver::new(SolverConfig {
-        node_limit: NODE_LIMIT,
-        ..SolverConfig::default()
-    });
+    let mut solver = Solver::default();
     let mut rng = play::rng(options.seed);
     let mut seen = HashSet::new();
     let mut out = Vec::new();
@@ -154,13 +148,14 @@ pub fn generate(
             });
         }
         games += 1;
-        let mut game = opening(options, &mut rng);
+        let extra = 2 + play::below(&mut rng, 4) as usize;
+        let mut game = play::opening(options.size, options.rule, &mut rng, 1 + extra, 50);
         let config = PlayerConfig {
             depth: 2,
             width: 8,
             noise: 50 + play::below(&mut rng, 60) as i32,
         };
-        let mut player = Player::new(next(&mut rng), config);
+        let mut player = Player::new(play::next_seed(&mut rng), config);
         let max_stones = 40 + play::below(&mut rng, 50) as usize;
         while !game.is_over() && game.board().stones() < max_stones && out.len() < options.count {
             if game.board().stones() >= 8 {
@@ -199,31 +194,9 @@ pub fn generate(
     Ok(out)
 }
 
-fn next(rng: &mut rand_chacha::ChaCha8Rng) -> u64 {
-    use rand_chacha::rand_core::RngCore;
-    rng.next_u64()
-}
-
-/// A seeded opening: the centre, then two to five stones within two points of it.
-fn opening(options: &Options, rng: &mut rand_chacha::ChaCha8Rng) -> Game {
-    let board = Board::new(options.size, options.rule).expect("size checked");
-    let mut game = Game::new(board);
-    let c = options.size / 2;
-    let _ = game.play(Point::new(c, c));
-    let extra = 2 + play::below(rng, 4);
-    let mut tries = 0;
-    while game.board().stones() < 1 + extra as usize && tries < 50 {
-        tries += 1;
-        let dx = play::below(rng, 5) as i32 - 2;
-        let dy = play::below(rng, 5) as i32 - 2;
-        let p = Point::new((c as i32 + dx) as u8, (c as i32 + dy) as u8);
-        let _ = game.play(p);
-    }
-    game
-}
-
 /// Decides whether the position, with `to_move` to play, is a puzzle of the theme, and if so
-/// makes it (with its proved answers, main line and rating).
+/// makes it (with its proved answers, main line and rating). Every search is asked with
+/// [`Budget::GENERATION`]: a puzzle whose proof needs more is not kept.
 pub fn analyse(solver: &mut Solver, board: &Board, to_move: Stone, theme: Theme) -> Option<Puzzle> {
     if !theme.allowed(board.rule()) || board.find_winner().is_some() {
         return None;
@@ -242,20 +215,21 @@ pub fn analyse(solver: &mut Solver, board: &Board, to_move: Stone, theme: Theme)
     if !counts_fit {
         return None;
     }
+    let mut ask = solver.ask(Budget::GENERATION);
     match theme.goal() {
-        Goal::Win => analyse_win(solver, board, to_move, theme),
-        Goal::Defend => analyse_defence(solver, board, to_move),
+        Goal::Win => analyse_win(&mut ask, board, to_move, theme),
+        Goal::Defend => analyse_defence(&mut ask, board, to_move),
     }
 }
 
-fn analyse_win(solver: &mut Solver, board: &Board, me: Stone, theme: Theme) -> Option<Puzzle> {
-    let vcf = solver.solve(board, me, Mode::Vcf, None);
+fn analyse_win(ask: &mut Asking, board: &Board, me: Stone, theme: Theme) -> Option<Puzzle> {
+    let vcf = ask.solve(board, me, Mode::Vcf);
     let sol = match theme {
         Theme::Vct => {
             if vcf.verdict != Verdict::NoWin {
                 return None;
             }
-            let vct = solver.solve(board, me, Mode::Vct, None);
+            let vct = ask.solve(board, me, Mode::Vct);
             if vct.verdict != Verdict::Win || vct.depth < 1 {
                 return None;
             }
@@ -296,7 +270,7 @@ fn analyse_win(solver: &mut Solver, board: &Board, me: Stone, theme: Theme) -> O
         Theme::Vct | Theme::Defend => {}
     }
     // More than three correct answers make a poor puzzle: stop counting there.
-    let wins = solver.winning_moves_up_to(board, me, mode, 3);
+    let wins = ask.winning_moves_up_to(board, me, mode, 3);
     if !wins.unknown.is_empty() || wins.proved.is_empty() || wins.proved.len() > 3 {
         return None;
     }
@@ -305,7 +279,7 @@ fn analyse_win(solver: &mut Solver, board: &Board, me: Stone, theme: Theme) -> O
     let features = Features {
         length: depth as u32,
         tempting: (wins.tried.saturating_sub(wins.proved.len())) as u32,
-        branching: solver.line_branching(board, me, mode, &sol.line),
+        branching: ask.line_branching(board, me, mode, &sol.line),
         counter_fours: counter_four_traps(board, me),
         spread: spread(&sol.line),
         answers: first_moves.len() as u32,
@@ -321,10 +295,10 @@ fn analyse_win(solver: &mut Solver, board: &Board, me: Stone, theme: Theme) -> O
     ))
 }
 
-fn analyse_defence(solver: &mut Solver, board: &Board, me: Stone) -> Option<Puzzle> {
+fn analyse_defence(ask: &mut Asking, board: &Board, me: Stone) -> Option<Puzzle> {
     // First the threat (cheap when it is a VCF), then the player's own chances, then the
     // defences, which cost one search per candidate.
-    let threat = match solver.threat(board, me, Mode::Vcf) {
+    let threat = match ask.threat(board, me, Mode::Vcf) {
         t if t.verdict == Verdict::Win => t,
         t if t.verdict == Verdict::NoWin => {
             // Threats with threes: keep them shallow, so that the defence can be found by a
@@ -332,7 +306,7 @@ fn analyse_defence(solver: &mut Solver, board: &Board, me: Stone) -> Option<Puzz
             if board.stones() < 14 {
                 return None;
             }
-            let t = solver.threat(board, me, Mode::Vct);
+            let t = ask.threat(board, me, Mode::Vct);
             if t.verdict != Verdict::Win || t.depth > 2 {
                 return None;
             }
@@ -342,12 +316,12 @@ fn analyse_defence(solver: &mut Solver, board: &Board, me: Stone) -> Option<Puzz
     };
     // The player must not have a win of its own: then the puzzle would not be about defending.
     for mode in [Mode::Vcf, Mode::Vct] {
-        if solver.solve(board, me, mode, None).verdict != Verdict::NoWin {
+        if ask.solve(board, me, mode).verdict != Verdict::NoWin {
             return None;
         }
     }
     // At most three defences, all proved: stop trying as soon as that fails.
-    let d = solver.defences_up_to(board, me, Mode::Vct, 3);
+    let d = ask.defences_up_to(board, me, Mode::Vct, 3);
     if d.threat != Verdict::Win || !d.moves.unknown.is_empty() {
         return None;
     }

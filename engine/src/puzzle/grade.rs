@@ -2,66 +2,145 @@
 //!
 //! A [`Session`] holds the position as it stands. [`Session::play`] takes the player's move and
 //! answers with a [`Grade`]: the move is illegal (and nothing changes), wrong (with the
-//! refutation and one sentence of why), accepted (and the opponent's reply, the one that resists
-//! longest, is already on the board) or the puzzle is solved. Any move that keeps a proved
-//! forced win is accepted, not only the stored one; in a defence puzzle any move after which
-//! the opponent has no forced win is.
+//! refutation and the reason, see `refute.rs`), accepted (and the opponent's reply, the one that
+//! resists longest, is already on the board) or the puzzle is solved. Any move that keeps a
+//! proved forced win is accepted, not only the stored one; in a defence puzzle any move after
+//! which the opponent has no forced win is. Hints are in `hints.rs`.
+//!
+//! Grades carry structured reasons ([`ReplyNote`], [`WrongReason`], [`SolvedBy`], and the
+//! engine's [`MoveError`] for an illegal move); [`crate::words`] turns them into sentences.
+//!
+//! Every question is asked with [`Budget::GRADING`] and the moves since the puzzle's start, so
+//! that a question in the middle of a line searches the same VCT class as the proof from the
+//! start did.
 
-use super::{capitalised, Goal, Puzzle, Theme};
-use crate::board::{threat, Board, Stone};
+use super::{Goal, Puzzle};
+use crate::board::{threat, Board};
 use crate::geometry::Point;
-use crate::rules::Forbidden;
-use crate::search::{Mode, Solver, SolverConfig, Verdict};
+use crate::rules::{Forbidden, MoveError};
+use crate::search::{Asking, Budget, Mode, Solver, SolverConfig, Verdict};
+use crate::types::Stone;
 
-/// The node budget of one grading search: what a phone answers within a frame or two for
-/// nearly every move (see engine/benches/README.md for the measured latencies).
-pub const NODE_LIMIT: u64 = 50_000;
-
-/// Nodes the VCF questions inside one grading search may use together.
-pub const VCF_SPEND_LIMIT: u64 = 150_000;
-
-/// How many defender replies a refutation tries before it settles for the plain answer.
-const REFUTATION_TRIES: usize = 8;
-
-/// The solver settings moves are graded with, in the browser and in the tests that stand for
-/// it: 12 + 4 MB of tables, [`NODE_LIMIT`] nodes per search and [`VCF_SPEND_LIMIT`] for the
-/// VCF questions inside one.
+/// The tables moves are graded with, in the browser and in the tests that stand for it:
+/// 12 + 4 MB. Each question is asked with [`Budget::GRADING`].
 pub fn solver_config() -> SolverConfig {
     SolverConfig {
         table_megabytes: 12,
         vcf_table_megabytes: 4,
-        node_limit: NODE_LIMIT,
-        vcf_spend_limit: Some(VCF_SPEND_LIMIT),
         ..SolverConfig::default()
     }
+}
+
+/// What the opponent's reply to an accepted move does.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum ReplyNote {
+    /// Blocks the player's four.
+    Blocks,
+    /// Blocks one of two five points; the other stays open.
+    BlocksOneOfTwo,
+    /// Blocks the four, and the block makes a four of its own.
+    BlocksWithFour,
+    /// Cannot block the four at `at`: the point is forbidden for black; the reply is the
+    /// nearest legal point.
+    CannotBlock {
+        /// The five point black may not take.
+        at: Point,
+        /// Why it is forbidden.
+        why: Forbidden,
+    },
+    /// Answers the player's threat with a four of its own.
+    AnswersWithFour,
+    /// Defends against the player's threat.
+    Defends,
+    /// The player's defence made a four: the opponent must block it, and the player defends
+    /// again.
+    MustBlock,
+}
+
+/// How a puzzle was solved.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum SolvedBy {
+    /// The player made five.
+    Five,
+    /// The player's move stopped the opponent's forced win (a defence puzzle).
+    Stopped,
+}
+
+/// Why a move is wrong. The refutation that shows it is in [`Grade::Wrong`].
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum WrongReason {
+    /// The move was a four; the forced block at `block` leaves no winning follow-up.
+    NoFollowUp {
+        /// The opponent's block.
+        block: Point,
+        /// Whether the block makes a four of the opponent's own.
+        counter_four: bool,
+    },
+    /// The opponent answers with a win of its own by fours, starting at `first`.
+    OpponentWins {
+        /// The opponent's first move.
+        first: Point,
+        /// Whether the puzzle asks for fours (so the point is that the move was no four).
+        not_a_four: bool,
+    },
+    /// The opponent's reply at `at` stops the attack (proved: the attacker has no forced
+    /// win after it).
+    Stopped {
+        /// The reply.
+        at: Point,
+        /// Whether the reply is a four of the opponent's own.
+        counter_four: bool,
+        /// Whether the puzzle asks for fours (so the point is that the move was no four).
+        not_a_four: bool,
+    },
+    /// The move makes no threat that wins; the opponent takes `at`.
+    NoThreat {
+        /// The opponent's move.
+        at: Point,
+    },
+    /// The move is a threat, but no forced win behind it could be shown; the opponent takes
+    /// `at`.
+    NotKept {
+        /// The opponent's move.
+        at: Point,
+    },
+    /// A defence puzzle: the move does not stop the opponent, who plays `first` and wins.
+    DoesNotStop {
+        /// The opponent's first move of its win.
+        first: Point,
+        /// Whether the opponent's win is by fours alone.
+        with_fours: bool,
+    },
+    /// A defence puzzle: the move could not be proved to stop the opponent's attack.
+    NotProved,
 }
 
 /// The answer to one move.
 #[derive(Clone, Debug, PartialEq, Eq)]
 pub enum Grade {
-    /// The move is good; the opponent's reply (already played) and a note for the player.
+    /// The move is good; the opponent's reply is already played.
     Accepted {
         /// The opponent's reply.
         reply: Point,
-        /// Plain words about the reply, e.g. "White blocks at g8."
-        note: String,
+        /// What the reply does.
+        note: ReplyNote,
     },
     /// The puzzle is solved.
     Solved {
-        /// Plain words, e.g. "Five in a row."
-        note: String,
+        /// How.
+        by: SolvedBy,
     },
     /// The move is wrong. The refutation starts with the opponent's answer.
     Wrong {
         /// The opponent's moves that refute it, to be shown one by one.
         refutation: Vec<Point>,
-        /// One sentence of why.
-        reason: String,
+        /// Why.
+        reason: WrongReason,
     },
     /// The move is not allowed; nothing changed.
     Illegal {
-        /// Why, in plain words.
-        reason: String,
+        /// Why.
+        reason: MoveError,
     },
     /// The puzzle is over (solved or failed): undo or retry first.
     Finished,
@@ -78,36 +157,37 @@ pub enum State {
     Failed,
 }
 
-/// One of the three hint steps.
-#[derive(Clone, Debug, PartialEq, Eq)]
-pub enum Hint {
-    /// The theme and the length, in words.
-    Theme(String),
-    /// The area of the key move: the corners of a square of points, inclusive.
-    Area {
-        /// Lower-left corner.
-        from: Point,
-        /// Upper-right corner.
-        to: Point,
-    },
-    /// The move itself.
-    Move(Point),
+impl State {
+    /// `"playing"`, `"solved"` or `"failed"`.
+    pub const fn name(self) -> &'static str {
+        match self {
+            State::Playing => "playing",
+            State::Solved => "solved",
+            State::Failed => "failed",
+        }
+    }
+}
+
+/// A state serialises as its name, like `"failed"`.
+impl serde::Serialize for State {
+    fn serialize<S: serde::Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+        s.serialize_str(self.name())
+    }
 }
 
 /// A puzzle being played.
 #[derive(Clone, Debug)]
 pub struct Session {
-    puzzle: Puzzle,
-    /// The position at the start, which the solver is told the moves since (see
-    /// [`Solver::set_history`]).
-    start: Board,
-    board: Board,
-    to_move: Stone,
+    pub(super) puzzle: Puzzle,
+    /// The position at the start, which every question is told the moves since.
+    pub(super) start: Board,
+    pub(super) board: Board,
+    pub(super) to_move: Stone,
     /// Every move on the board since the start, with its colour, and how many of them belong
     /// to each of the player's turns (so that undo takes back a whole turn).
-    history: Vec<(Point, Stone)>,
+    pub(super) history: Vec<(Point, Stone)>,
     turns: Vec<usize>,
-    state: State,
+    pub(super) state: State,
     /// Whether the answer key may settle a move the grading budget cannot decide (see
     /// [`Session::trust_key`]).
     trusted: bool,
@@ -133,8 +213,8 @@ impl Session {
     /// Says whether this puzzle's answer key was proved by this program (the built-in library,
     /// which the tests re-prove, or a puzzle generated here). Then a key move that the grading
     /// budget cannot decide is taken as proved. Otherwise (a set from a file or a link, whose
-    /// key nobody here has checked) such a move is searched again with the budget puzzles are
-    /// verified with, which is slower but proves it. Off by default.
+    /// key nobody here has checked) such a move is searched again with
+    /// [`Budget::VERIFICATION`], which is slower but proves it. Off by default.
     pub fn trust_key(&mut self, trusted: bool) {
         self.trusted = trusted;
     }
@@ -164,8 +244,18 @@ impl Session {
         &self.history
     }
 
-    fn player(&self) -> Stone {
+    pub(super) fn player(&self) -> Stone {
         self.puzzle.to_move
+    }
+
+    pub(super) fn mode(&self) -> Mode {
+        self.puzzle.theme.mode()
+    }
+
+    /// A question about the position as it stands, asked with `budget` and the moves since
+    /// the start.
+    pub(super) fn ask<'s>(&self, solver: &'s mut Solver, budget: Budget) -> Asking<'s, 's> {
+        solver.ask(budget).after(&self.start, &self.history)
     }
 
     fn put(&mut self, p: Point, c: Stone) {
@@ -201,48 +291,24 @@ impl Session {
             return Grade::Finished;
         }
         let me = self.player();
-        if let Err(reason) = self.check_legal(p, me) {
+        if let Err(reason) = self.board.check_move(p, me) {
             return Grade::Illegal { reason };
         }
         let before = self.history.len();
         let idx = self.board.index(p);
         let five = self.board.wins_at(idx, me);
         self.put(p, me);
-        solver.set_history(&self.start, &self.history);
         let grade = if five {
             self.state = State::Solved;
-            Grade::Solved {
-                note: "Five in a row.".to_string(),
-            }
+            Grade::Solved { by: SolvedBy::Five }
         } else {
             match self.puzzle.goal() {
                 Goal::Win => self.after_attack(solver, p),
-                Goal::Defend => self.after_defence(solver, p),
+                Goal::Defend => self.after_defence(solver),
             }
         };
-        solver.set_history(&self.start, &[]);
         self.turns.push(self.history.len() - before);
         grade
-    }
-
-    fn check_legal(&self, p: Point, me: Stone) -> Result<(), String> {
-        if !self.board.contains(p) {
-            return Err(format!("{p} is off the board."));
-        }
-        if self.board.get(p).is_some() {
-            return Err(format!("{p} is already taken."));
-        }
-        let idx = self.board.index(p);
-        if self.board.rule().has_forbidden(me) && !self.board.wins_at(idx, me) {
-            if let Some(why) = self.board.forbidden(p) {
-                return Err(forbidden_words(p, why));
-            }
-        }
-        Ok(())
-    }
-
-    fn mode(&self) -> Mode {
-        self.puzzle.theme.mode()
     }
 
     /// The player attacked with `p`: does the win survive? The attacker is the player; the
@@ -251,10 +317,11 @@ impl Session {
         let me = self.player();
         let them = me.opponent();
         let mode = self.mode();
-        let (mut verdict, _) = solver.wins_after(&self.board, me, them, mode, None);
+        let mut ask = self.ask(solver, Budget::GRADING);
+        let (mut verdict, _) = ask.wins_after(&self.board, me, them, mode);
         if verdict != Verdict::Win && mode == Mode::Vcf {
             // A win is a win, even with a three in a puzzle about fours.
-            verdict = solver.wins_after(&self.board, me, them, Mode::Vct, None).0;
+            verdict = ask.wins_after(&self.board, me, them, Mode::Vct).0;
         }
         if verdict == Verdict::Unknown && self.on_key() {
             // The phone's budget cannot decide, but the move is the answer key's, which was
@@ -262,27 +329,26 @@ impl Session {
             verdict = if self.trusted {
                 Verdict::Win
             } else {
-                let board = self.board.clone();
-                verifying(solver, |s| s.wins_after(&board, me, them, mode, None).0)
+                self.ask(solver, Budget::VERIFICATION)
+                    .wins_after(&self.board, me, them, mode)
+                    .0
             };
         }
+        let mut ask = self.ask(solver, Budget::GRADING);
         if verdict == Verdict::Win {
-            let reply = match self.stored_reply(solver, me, mode) {
+            let (reply, note) = match self.stored_reply(&mut ask, me, mode) {
                 Some(r) => r,
-                None => self.longest_defence(solver, me, mode),
+                None => self.longest_defence(&mut ask, me, mode),
             };
-            self.put(reply.0, them);
-            return Grade::Accepted {
-                reply: reply.0,
-                note: reply.1,
-            };
+            self.put(reply, them);
+            return Grade::Accepted { reply, note };
         }
-        let (refutation, reason) = self.refute_attack(solver, p);
+        let (refutation, reason) = self.refute_attack(&mut ask, p);
         self.fail(refutation, reason)
     }
 
     /// Puts a wrong move's refutation on the board and ends the try.
-    fn fail(&mut self, refutation: Vec<Point>, reason: String) -> Grade {
+    fn fail(&mut self, refutation: Vec<Point>, reason: WrongReason) -> Grade {
         for &r in &refutation {
             if self.board.get(r).is_none() {
                 let side = self.to_move;
@@ -316,7 +382,7 @@ impl Session {
 
     /// The stored main line's next move, while the moves so far follow it and that point is
     /// free.
-    fn next_on_line(&self) -> Option<Point> {
+    pub(super) fn next_on_line(&self) -> Option<Point> {
         let next = *self.puzzle.line.get(self.history.len())?;
         (self.on_line() && self.board.get(next).is_none()).then_some(next)
     }
@@ -324,15 +390,9 @@ impl Session {
     /// While the player follows the stored main line, the defender answers as the line does
     /// (so that play matches the answer key), provided that reply is one the defender could
     /// make: the block of a four, or one of the replies the search considers.
-    fn stored_reply(
-        &mut self,
-        solver: &mut Solver,
-        me: Stone,
-        mode: Mode,
-    ) -> Option<(Point, String)> {
+    fn stored_reply(&self, ask: &mut Asking, me: Stone, mode: Mode) -> Option<(Point, ReplyNote)> {
         let r = self.next_on_line()?;
         let them = me.opponent();
-        let t = capitalised(them);
         let fives: Vec<Point> = self
             .board
             .cells_with(me, threat::FIVE)
@@ -346,62 +406,59 @@ impl Session {
                 return None;
             }
             let note = if fives.len() >= 2 {
-                format!("{t} blocks at {r}, but cannot block both ends.")
+                ReplyNote::BlocksOneOfTwo
             } else if makes_four {
-                format!("{t} blocks at {r} and makes a four of its own.")
+                ReplyNote::BlocksWithFour
             } else {
-                format!("{t} blocks at {r}.")
+                ReplyNote::Blocks
             };
             return Some((r, note));
         }
-        if !solver.defender_replies(&self.board, me, mode).contains(&r) {
+        if !ask.defender_replies(&self.board, me, mode).contains(&r) {
             return None;
         }
-        let note = if makes_four {
-            format!("{t} answers at {r} with a four.")
+        Some((r, self.threat_reply_note(r)))
+    }
+
+    /// The note of a reply to a threat that is not a four.
+    fn threat_reply_note(&self, r: Point) -> ReplyNote {
+        let idx = self.board.index(r);
+        if self.board.flags_at(idx, self.player().opponent()) & threat::FOUR != 0 {
+            ReplyNote::AnswersWithFour
         } else {
-            format!("{t} defends at {r}.")
-        };
-        Some((r, note))
+            ReplyNote::Defends
+        }
     }
 
     /// The defender's reply after an attacking move that keeps the win: the one after which the
     /// attacker's shortest win is longest.
-    fn longest_defence(&mut self, solver: &mut Solver, me: Stone, mode: Mode) -> (Point, String) {
+    fn longest_defence(&self, ask: &mut Asking, me: Stone, mode: Mode) -> (Point, ReplyNote) {
         let them = me.opponent();
         let fives: Vec<usize> = self.board.cells_with(me, threat::FIVE).iter().collect();
-        let t = capitalised(them);
         if let Some(&f) = fives.first() {
             let fp = self.board.point(f);
             if fives.len() >= 2 {
-                return (
-                    fp,
-                    format!("{t} blocks at {fp}, but cannot block both ends."),
-                );
+                return (fp, ReplyNote::BlocksOneOfTwo);
             }
-            if self.board.rule().has_forbidden(them) && !self.board.wins_at(f, them) {
-                if let Some(why) = self.board.forbidden(fp) {
-                    let other = nearest_legal(&self.board, fp, them).unwrap_or(fp);
-                    return (
-                        other,
-                        format!("{t} cannot block at {fp}: {}", forbidden_reason(why)),
-                    );
-                }
+            if let Err(MoveError::Forbidden(_, why)) = self.board.check_move(fp, them) {
+                let other = nearest_legal(&self.board, fp, them).unwrap_or(fp);
+                return (other, ReplyNote::CannotBlock { at: fp, why });
             }
             let note = if self.board.flags_at(f, them) & threat::FOUR != 0 {
-                format!("{t} blocks at {fp} and makes a four of its own.")
+                ReplyNote::BlocksWithFour
             } else {
-                format!("{t} blocks at {fp}.")
+                ReplyNote::Blocks
             };
             return (fp, note);
         }
-        let replies = solver.defender_replies(&self.board, me, mode);
+        let replies = ask.defender_replies(&self.board, me, mode);
+        let depth = ask.config().vct_depth;
         let mut best: Option<(Point, u16)> = None;
         for r in replies {
             let mut b = self.board.clone();
             b.place(r, them);
-            let len = solver
-                .shortest_win(&b, me, me, mode, solver.config().vct_depth)
+            let len = ask
+                .shortest_win(&b, me, me, mode, depth)
                 .unwrap_or(u16::MAX);
             if best.is_none_or(|(_, l)| len > l) {
                 best = Some((r, len));
@@ -415,121 +472,24 @@ impl Session {
             )
             .unwrap_or(Point::new(0, 0))
         });
-        let idx = self.board.index(r);
-        let note = if self.board.flags_at(idx, them) & threat::FOUR != 0 {
-            format!("{t} answers at {r} with a four.")
-        } else {
-            format!("{t} defends at {r}.")
-        };
-        (r, note)
+        (r, self.threat_reply_note(r))
     }
 
-    /// Why the attacking move `p` fails, and the opponent's answer that shows it.
-    fn refute_attack(&mut self, solver: &mut Solver, p: Point) -> (Vec<Point>, String) {
+    /// The player defended: is the opponent's win gone?
+    fn after_defence(&mut self, solver: &mut Solver) -> Grade {
         let me = self.player();
         let them = me.opponent();
-        let (m, t) = (capitalised(me), capitalised(them));
-        let fives: Vec<usize> = self.board.cells_with(me, threat::FIVE).iter().collect();
-        if let Some(&f) = fives.first() {
-            // The move was a four: the block is forced.
-            let b = self.board.point(f);
-            let reason = if self.board.flags_at(f, them) & threat::FOUR != 0 {
-                format!(
-                    "{t} blocks at {b} with a four of its own, and {m} has no winning follow-up."
-                )
-            } else {
-                format!("{t} blocks at {b}, and {m} has no winning follow-up.")
-            };
-            return (vec![b], reason);
-        }
-        // Not a four: the opponent has a free move.
-        let own = solver.solve(&self.board, them, Mode::Vcf, None);
-        if let (Verdict::Win, Some(&first)) = (own.verdict, own.line.first()) {
-            let reason = if self.mode() == Mode::Vcf {
-                format!("{p} is not a four, so {t} is free to play {first} and win with fours.")
-            } else {
-                format!("{t} answers with a win of its own, starting at {first}.")
-            };
-            return (own.line, reason);
-        }
-        // One reply that stops the attack is enough: the key's points first (taking the point
-        // the attacker needed is the plainest refutation), then the replies the search
-        // considers against the attacker's threat, until one is proved to leave no win. This
-        // is one search per reply tried, not the full defence list.
-        let replies = solver.defender_replies(&self.board, me, Mode::Vct);
-        let mut cands: Vec<Point> = Vec::new();
-        for &k in self.puzzle.first_moves.iter().chain(&replies) {
-            if self.board.get(k).is_none() && !cands.contains(&k) {
-                cands.push(k);
-            }
-        }
-        let pick = if replies.is_empty() {
-            // No threat at all: every reply stops it; none is more of a refutation than another.
-            None
-        } else {
-            let legal: Vec<Point> = cands
-                .into_iter()
-                .filter(|&r| self.check_legal(r, them).is_ok())
-                .collect();
-            legal.into_iter().take(REFUTATION_TRIES).find(|&r| {
-                let mut b = self.board.clone();
-                b.place(r, them);
-                solver.wins_after(&b, me, me, Mode::Vct, None).0 == Verdict::NoWin
-            })
-        };
-        let not_four = self.mode() == Mode::Vcf;
-        match pick {
-            Some(r) => {
-                let idx = self.board.index(r);
-                let counter = self.board.flags_at(idx, them) & threat::FOUR != 0;
-                let reason = match (not_four, counter) {
-                    (_, true) => {
-                        format!("{t} answers at {r} with a four of its own, and the attack stalls.")
-                    }
-                    (true, false) => {
-                        format!("{p} is not a four, so {t} has time to defend at {r}.")
-                    }
-                    (false, false) => {
-                        format!("{t} defends at {r}, and {m} has no more threats that win.")
-                    }
-                };
-                (vec![r], reason)
-            }
-            None => {
-                let r = self
-                    .puzzle
-                    .first_moves
-                    .iter()
-                    .copied()
-                    .find(|&k| self.board.get(k).is_none())
-                    .or_else(|| nearest_legal(&self.board, p, them))
-                    .unwrap_or(p);
-                let reason = if replies.is_empty() {
-                    format!("{p} makes no threat that wins; {t} takes {r}.")
-                } else {
-                    // A threat, but no forced win behind it that could be shown.
-                    format!("{p} does not keep a forced win; {t} takes {r}.")
-                };
-                (vec![r], reason)
-            }
-        }
-    }
-
-    /// The player defended with `p`: is the opponent's win gone?
-    fn after_defence(&mut self, solver: &mut Solver, p: Point) -> Grade {
-        let me = self.player();
-        let them = me.opponent();
-        let (t, m) = (capitalised(them), capitalised(me));
-        let (mut verdict, _) = solver.wins_after(&self.board, them, them, Mode::Vct, None);
+        let (mut verdict, _) =
+            self.ask(solver, Budget::GRADING)
+                .wins_after(&self.board, them, them, Mode::Vct);
         if verdict == Verdict::Unknown && self.on_key() {
             // As in an attack: a listed defence was proved when the puzzle was made.
             verdict = if self.trusted {
                 Verdict::NoWin
             } else {
-                let board = self.board.clone();
-                verifying(solver, |s| {
-                    s.wins_after(&board, them, them, Mode::Vct, None).0
-                })
+                self.ask(solver, Budget::VERIFICATION)
+                    .wins_after(&self.board, them, them, Mode::Vct)
+                    .0
             };
         }
         match verdict {
@@ -541,146 +501,33 @@ impl Session {
                     self.put(b, them);
                     return Grade::Accepted {
                         reply: b,
-                        note: format!("{t} must block at {b}. Now stop the threat."),
+                        note: ReplyNote::MustBlock,
                     };
                 }
                 self.state = State::Solved;
                 Grade::Solved {
-                    note: format!("{m} has stopped {t}'s attack."),
+                    by: SolvedBy::Stopped,
                 }
             }
             Verdict::Win | Verdict::Unknown => {
-                let sol = solver.solve(&self.board, them, Mode::Vct, None);
+                let mut ask = self.ask(solver, Budget::GRADING);
+                let sol = ask.solve(&self.board, them, Mode::Vct);
                 let reason = match sol.line.first() {
-                    Some(&f) if sol.verdict == Verdict::Win => {
-                        let how = if sol.depth == 0
-                            || solver.solve(&self.board, them, Mode::Vcf, None).verdict
-                                == Verdict::Win
-                        {
-                            "wins with fours"
-                        } else {
-                            "wins with threes and fours"
-                        };
-                        format!("{p} does not stop it: {t} plays {f} and {how}.")
+                    Some(&first) if sol.verdict == Verdict::Win => {
+                        let with_fours = sol.depth == 0
+                            || ask.solve(&self.board, them, Mode::Vcf).verdict == Verdict::Win;
+                        WrongReason::DoesNotStop { first, with_fours }
                     }
-                    _ => format!("{p} could not be proved to stop {t}'s attack."),
+                    _ => WrongReason::NotProved,
                 };
                 self.fail(sol.line, reason)
             }
         }
     }
-
-    /// The hint of a step (1: theme and length, 2: the area, 3: the move), for the position as
-    /// it stands. `None` when the puzzle is over.
-    pub fn hint(&self, solver: &mut Solver, step: u8) -> Option<Hint> {
-        if self.state != State::Playing {
-            return None;
-        }
-        solver.set_history(&self.start, &self.history);
-        let key = self.key_move(solver);
-        solver.set_history(&self.start, &[]);
-        let key = key?;
-        Some(match step {
-            1 => Hint::Theme(self.theme_words()),
-            2 => {
-                // A 4x4 square holding the key move, placed by the move's own coordinates so
-                // that the move is not always in the same corner.
-                let n = self.board.size() as i32;
-                let ox = (key.x as i32 * 7 + key.y as i32 * 3) % 4;
-                let oy = (key.x as i32 * 5 + key.y as i32 * 11) % 4;
-                let x0 = (key.x as i32 - ox).clamp(0, n - 4);
-                let y0 = (key.y as i32 - oy).clamp(0, n - 4);
-                Hint::Area {
-                    from: Point::new(x0 as u8, y0 as u8),
-                    to: Point::new((x0 + 3) as u8, (y0 + 3) as u8),
-                }
-            }
-            _ => Hint::Move(key),
-        })
-    }
-
-    fn theme_words(&self) -> String {
-        let n = self.puzzle.length;
-        let plural = |k: u16, one: &str, many: &str| {
-            if k == 1 {
-                format!("1 {one}")
-            } else {
-                format!("{k} {many}")
-            }
-        };
-        match self.puzzle.theme {
-            Theme::FourThree => "A four-three: one move makes a four and an open three.".into(),
-            Theme::Vcf | Theme::ForbiddenWin => format!(
-                "A win with fours: {}, then the five.",
-                plural(n, "four", "fours")
-            ),
-            Theme::Vct => format!(
-                "A win with threats: {} besides fours.",
-                plural(n, "three or threat", "threes or threats")
-            ),
-            Theme::Defend => format!(
-                "A defence: {} threatens a win; find the move that stops it.",
-                capitalised(self.puzzle.attacker())
-            ),
-            Theme::ForbiddenTrap => {
-                "A forbidden-point trap: make Black's only block a forbidden point.".into()
-            }
-        }
-    }
-
-    /// The next correct move from the position as it stands.
-    fn key_move(&self, solver: &mut Solver) -> Option<Point> {
-        let me = self.player();
-        if self.history.is_empty() {
-            if let Some(&m) = self.puzzle.line.first() {
-                if self.puzzle.goal() == Goal::Win {
-                    return Some(m);
-                }
-            }
-            if self.puzzle.goal() == Goal::Defend {
-                return self.puzzle.first_moves.first().copied();
-            }
-        }
-        if self.puzzle.goal() == Goal::Win {
-            if let Some(next) = self.next_on_line() {
-                // Still on the answer key: its next move is proved.
-                return Some(next);
-            }
-        }
-        match self.puzzle.goal() {
-            Goal::Win => {
-                let sol = solver.solve(&self.board, me, self.mode(), None);
-                let sol = if sol.verdict == Verdict::Win {
-                    sol
-                } else {
-                    solver.solve(&self.board, me, Mode::Vct, None)
-                };
-                sol.line.first().copied()
-            }
-            Goal::Defend => solver
-                .defences(&self.board, me, Mode::Vct)
-                .moves
-                .proved
-                .first()
-                .copied(),
-        }
-    }
-}
-
-/// Runs `f` with the budget puzzles are verified with ([`super::verify::NODE_LIMIT`], no VCF
-/// spending limit), then puts the grading budget back.
-fn verifying<T>(solver: &mut Solver, f: impl FnOnce(&mut Solver) -> T) -> T {
-    let (nodes, spend) = (solver.config().node_limit, solver.config().vcf_spend_limit);
-    solver.set_node_limit(super::verify::NODE_LIMIT);
-    solver.set_vcf_spend_limit(None);
-    let out = f(solver);
-    solver.set_node_limit(nodes);
-    solver.set_vcf_spend_limit(spend);
-    out
 }
 
 /// The legal empty point nearest to `p` for colour `c`.
-fn nearest_legal(board: &Board, p: Point, c: Stone) -> Option<Point> {
+pub(super) fn nearest_legal(board: &Board, p: Point, c: Stone) -> Option<Point> {
     let mut cands: Vec<(u32, Point)> = board
         .points()
         .filter(|&q| board.get(q).is_none() && q != p)
@@ -698,19 +545,12 @@ fn nearest_legal(board: &Board, p: Point, c: Stone) -> Option<Point> {
         .find(|&q| !board.rule().has_forbidden(c) || board.forbidden(q).is_none())
 }
 
-fn forbidden_reason(why: Forbidden) -> String {
-    format!("it would make {} (forbidden for Black).", why.words())
-}
-
-fn forbidden_words(p: Point, why: Forbidden) -> String {
-    format!("{p} is forbidden for Black: it makes {}.", why.words())
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
     use crate::notation;
-    use crate::rules::Rule;
+    use crate::puzzle::Theme;
+    use crate::types::Rule;
 
     fn pts(s: &str) -> Vec<Point> {
         notation::parse_points(s, "moves", 15, 15).unwrap()
@@ -731,10 +571,11 @@ mod tests {
             rating: 1500,
         };
         let mut s = Solver::default();
-        let sol = s.solve(&p.board(), to_move, theme.mode(), None);
+        let mut ask = s.ask(Budget::VERIFICATION);
+        let sol = ask.solve(&p.board(), to_move, theme.mode());
         p.line = sol.line;
         p.length = sol.depth;
-        p.first_moves = s.winning_moves(&p.board(), to_move, theme.mode()).proved;
+        p.first_moves = ask.winning_moves(&p.board(), to_move, theme.mode()).proved;
         p
     }
 
@@ -785,7 +626,13 @@ mod tests {
         match s.play(&mut solver, "k8".parse().unwrap()) {
             Grade::Wrong { refutation, reason } => {
                 assert_eq!(refutation[0].to_string(), "l8");
-                assert!(reason.contains("four of its own"), "{reason}");
+                assert_eq!(
+                    reason,
+                    WrongReason::NoFollowUp {
+                        block: "l8".parse().unwrap(),
+                        counter_four: true
+                    }
+                );
                 assert_eq!(s.state(), State::Failed);
                 assert!(s.undo());
                 assert_eq!(s.board().get("k8".parse().unwrap()), None);
@@ -815,7 +662,10 @@ mod tests {
         let mut s = Session::new(p);
         let before = s.board().hash();
         match s.play(&mut solver, "h8".parse().unwrap()) {
-            Grade::Illegal { reason } => assert!(reason.contains("double three"), "{reason}"),
+            Grade::Illegal { reason } => assert_eq!(
+                reason,
+                MoveError::Forbidden("h8".parse().unwrap(), Forbidden::DoubleThree)
+            ),
             other => panic!("{other:?}"),
         }
         assert_eq!(s.board().hash(), before);

@@ -2,23 +2,28 @@
 //! player's moves are graded.
 //!
 //! A [`Puzzle`] is a position with a goal ("win" or "defend"), a theme, the proved correct first
-//! moves and one shortest main line. Puzzles are made by [`generate::generate`] and graded live
-//! by [`grade::Session`], which accepts any move that keeps a proved forced win (or, in a defence
-//! puzzle, any move after which the opponent has none), not only the stored ones.
+//! moves and one shortest main line. Puzzles are made by [`generate::generate`], re-proved by
+//! [`verify`] and graded live by [`grade::Session`], which accepts any move that keeps a proved
+//! forced win (or, in a defence puzzle, any move after which the opponent has none), not only
+//! the stored ones; `refute.rs` says why a wrong move fails and [`hints`] gives the three hint
+//! steps. [`attempt::Attempt`] is how a try went.
 
 pub mod attempt;
 pub mod difficulty;
 pub mod generate;
 pub mod grade;
+pub mod hints;
+mod refute;
 pub mod verify;
 
 use std::fmt;
 use std::str::FromStr;
 
-use crate::board::{Board, Stone};
+use crate::board::Board;
 use crate::geometry::Point;
-use crate::rules::Rule;
 use crate::search::Mode;
+use crate::types::Rule;
+use crate::types::Stone;
 
 /// What a puzzle trains. The names are the trade's.
 #[derive(Clone, Copy, PartialEq, Eq, Hash, Debug, PartialOrd, Ord)]
@@ -81,18 +86,6 @@ impl Theme {
         match self {
             Theme::ForbiddenTrap | Theme::ForbiddenWin => matches!(rule, Rule::Renju),
             _ => true,
-        }
-    }
-
-    /// A short description in plain words, for hints and sheets.
-    pub const fn words(self) -> &'static str {
-        match self {
-            Theme::FourThree => "a four-three",
-            Theme::Vcf => "a win with fours",
-            Theme::Vct => "a win with threes and fours",
-            Theme::Defend => "a defence",
-            Theme::ForbiddenTrap => "a forbidden-point trap",
-            Theme::ForbiddenWin => "a win past the forbidden points",
         }
     }
 }
@@ -199,24 +192,6 @@ impl Puzzle {
         b
     }
 
-    /// The goal in plain words, for the player: "Black to play and win with fours".
-    pub fn goal_words(&self) -> String {
-        let me = capitalised(self.to_move);
-        let them = capitalised(self.to_move.opponent());
-        match self.theme {
-            Theme::FourThree => format!("{me} to play: find the four-three and win"),
-            Theme::Vcf => format!("{me} to play and win with fours"),
-            Theme::Vct => format!("{me} to play and win with threes and fours"),
-            Theme::Defend => format!("{me} to play: stop {them}'s win"),
-            Theme::ForbiddenTrap => {
-                format!("{me} to play and win: drive {them} onto a forbidden point")
-            }
-            Theme::ForbiddenWin => {
-                format!("{me} to play and win with fours; mind the forbidden points")
-            }
-        }
-    }
-
     /// The side that attacks in this puzzle (the player in a win puzzle, the opponent in a
     /// defence puzzle).
     pub fn attacker(&self) -> Stone {
@@ -224,13 +199,5 @@ impl Puzzle {
             Goal::Win => self.to_move,
             Goal::Defend => self.to_move.opponent(),
         }
-    }
-}
-
-/// "Black" or "White".
-pub fn capitalised(s: Stone) -> &'static str {
-    match s {
-        Stone::Black => "Black",
-        Stone::White => "White",
     }
 }

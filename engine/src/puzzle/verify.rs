@@ -2,22 +2,11 @@
 
 use super::{Goal, Puzzle};
 use crate::geometry::Point;
-use crate::search::{Mode, Solver, Verdict};
+use crate::search::{Budget, Mode, Solver, Verdict};
 
-/// The node budget of a re-proof: larger than the generator's, because a fresh table may need
-/// more nodes than the generator's warm one did for the same answer (the answers themselves do
-/// not depend on the table).
-pub const NODE_LIMIT: u64 = 1_000_000;
-
-/// The solver settings puzzles are checked (and graded) with.
-pub fn solver() -> Solver {
-    Solver::new(crate::search::SolverConfig {
-        node_limit: NODE_LIMIT,
-        ..crate::search::SolverConfig::default()
-    })
-}
-
-/// Re-proves one puzzle; the problems found, in words.
+/// Re-proves one puzzle with [`Budget::VERIFICATION`] (larger than the generator's, because a
+/// fresh table may need more nodes than the generator's warm one did for the same answer; the
+/// answers themselves do not depend on the table); the problems found, in words.
 pub fn check(solver: &mut Solver, p: &Puzzle) -> Vec<String> {
     let mut problems = Vec::new();
     let board = p.board();
@@ -28,7 +17,9 @@ pub fn check(solver: &mut Solver, p: &Puzzle) -> Vec<String> {
     let mode = p.theme.mode();
     match p.goal() {
         Goal::Win => {
-            let sol = solver.solve(&board, p.to_move, mode, None);
+            let sol = solver
+                .ask(Budget::VERIFICATION)
+                .solve(&board, p.to_move, mode);
             if sol.verdict != Verdict::Win {
                 problems.push(format!("no forced win found ({})", sol.verdict.name()));
                 return problems;
@@ -41,18 +32,20 @@ pub fn check(solver: &mut Solver, p: &Puzzle) -> Vec<String> {
                 }
                 b.place(m, p.to_move);
                 // Asked as the grader asks it: with the first move as part of the line.
-                solver.set_history(&board, &[(m, p.to_move)]);
                 let win = b.find_winner() == Some(p.to_move)
                     || solver
-                        .wins_after(&b, p.to_move, p.to_move.opponent(), mode, None)
+                        .ask(Budget::VERIFICATION)
+                        .after(&board, &[(m, p.to_move)])
+                        .wins_after(&b, p.to_move, p.to_move.opponent(), mode)
                         .0
                         == Verdict::Win;
-                solver.set_history(&board, &[]);
                 if !win {
                     problems.push(format!("first move {m} does not keep the win"));
                 }
             }
-            let wins = solver.winning_moves(&board, p.to_move, mode);
+            let wins = solver
+                .ask(Budget::VERIFICATION)
+                .winning_moves(&board, p.to_move, mode);
             for w in &wins.proved {
                 if !p.first_moves.contains(w) {
                     problems.push(format!("{w} also wins but is not listed"));
@@ -66,7 +59,9 @@ pub fn check(solver: &mut Solver, p: &Puzzle) -> Vec<String> {
             }
         }
         Goal::Defend => {
-            let d = solver.defences(&board, p.to_move, Mode::Vct);
+            let d = solver
+                .ask(Budget::VERIFICATION)
+                .defences(&board, p.to_move, Mode::Vct);
             if d.threat != Verdict::Win {
                 problems.push(format!(
                     "the opponent has no forced win to stop ({})",

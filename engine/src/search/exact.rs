@@ -7,7 +7,8 @@
 
 use super::dfpn::{Node, Space};
 use super::threats::side_key;
-use crate::board::{Board, Stone};
+use crate::board::Board;
+use crate::types::Stone;
 
 pub(crate) struct ExactSpace<'b> {
     board: &'b mut Board,

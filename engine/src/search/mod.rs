@@ -1,65 +1,72 @@
 //! Forcing-line search: VCF, VCT, defences and exact solving of small boards.
 //!
 //! One proof-number core ([`dfpn`]) is driven by move generators ([`threats`] for VCF and VCT,
-//! `exact` for small m,n,k boards). A [`Solver`] owns the bounded tables and answers the
-//! questions the rest of Fivefold asks:
-//! * [`Solver::solve`]: does the side to move win by VCF (or VCT), and the shortest main line;
-//! * [`Solver::wins_after`]: after a move, does the attacker still have a forced win (grading);
-//! * [`Solver::winning_moves`]: every winning first move;
-//! * [`Solver::defences`]: every move that stops the opponent's forced win;
-//! * [`Solver::proof_tree`]: the proof with every searched defender reply and its refutation;
-//! * [`Solver::exact`]: the game-theoretic value of a small m,n,k board.
+//! `exact` for small m,n,k boards). A [`Solver`] owns the bounded tables; a question to it is a
+//! value: [`Solver::ask`] takes the question's [`Budget`], [`Asking::after`] the moves that led
+//! to the position (a VCT's dependency rule looks back at them) and [`Asking::watch`] a stop
+//! check, and the [`Asking`] answers:
+//! * [`Asking::solve`]: does the side to move win by VCF (or VCT), and the shortest main line;
+//! * [`Asking::wins_after`]: after a move, does the attacker still have a forced win (grading);
+//! * [`Asking::winning_moves`]: every winning first move;
+//! * [`Asking::defences`]: every move that stops the opponent's forced win;
+//! * [`Asking::proof_tree`]: the proof with every searched defender reply and its refutation;
+//! * [`Asking::exact`]: the game-theoretic value of a small m,n,k board.
 //!
+//! Nothing a question sets outlives it, so no caller saves and restores solver settings.
 //! Results are [`Verdict::Win`] (proved), [`Verdict::NoWin`] (disproved within the class) or
 //! [`Verdict::Unknown`] (a budget ran out), never a guess. Under a node budget every answer is
 //! deterministic.
+//!
+//! The module is split along its seams: [`budget`] (named budgets), [`threats`] (the VCF and
+//! VCT generators), `vcf` (the VCF oracle a VCT asks), `defence` (the defender's replies and
+//! their soundness argument), `line` (main lines and proof trees read back from the table),
+//! `exact` (small boards), [`dfpn`] and [`tt`] (the core and its table).
 
+pub mod budget;
+mod defence;
 pub mod dfpn;
 mod exact;
+mod line;
 pub mod threats;
 pub mod tt;
+mod vcf;
 
-use crate::board::{threat, Board, Stone};
+use crate::board::{threat, Board};
 use crate::geometry::Point;
+use crate::types::Stone;
+pub use budget::Budget;
+use defence::defence_candidates;
 use dfpn::{Dfpn, Node, Space, Status};
 use exact::ExactSpace;
-use threats::{defence_candidates, ThreatSpace, VcfOracle};
-pub use threats::{Mode, VcfLine, UNLIMITED};
+pub use line::ProofStep;
+use threats::ThreatSpace;
+pub use threats::{Mode, UNLIMITED};
 use tt::Table;
+pub use vcf::VcfLine;
+use vcf::VcfOracle;
 
 /// The longest line, in attacker moves, that iterative deepening looks for.
 const MAX_LINE: u16 = 60;
 
-/// Limits and memory of a [`Solver`].
+/// Memory of a [`Solver`] and the class of lines a VCT searches. Node limits are not here:
+/// each question carries its own [`Budget`].
 #[derive(Clone, Debug, PartialEq, Eq)]
 pub struct SolverConfig {
     /// Memory of the main table, in megabytes.
     pub table_megabytes: usize,
     /// Memory of the table for VCF questions asked inside a VCT, in megabytes.
     pub vcf_table_megabytes: usize,
-    /// Nodes one search may expand (the VCF questions inside a VCT are counted apart).
-    pub node_limit: u64,
-    /// Nodes one VCF question inside a VCT may expand.
-    pub vcf_node_limit: u64,
     /// The most threats (attacker moves that are not fours) a VCT may use.
     pub vct_depth: u16,
-    /// Nodes all the VCF questions inside one VCT search may expand together; past it every
-    /// further question counts as unknown (so the search ends soon, as `Unknown` unless it
-    /// was already proved). `None`: only the per-question limit applies. This bounds the
-    /// time of one question, which the node limit alone does not.
-    pub vcf_spend_limit: Option<u64>,
 }
 
 impl Default for SolverConfig {
-    /// 24 + 8 = 32 MB of tables, a million nodes per search.
+    /// 24 + 8 = 32 MB of tables, up to six threats in a VCT.
     fn default() -> Self {
         SolverConfig {
             table_megabytes: 24,
             vcf_table_megabytes: 8,
-            node_limit: 1_000_000,
-            vcf_node_limit: 100_000,
             vct_depth: 6,
-            vcf_spend_limit: None,
         }
     }
 }
@@ -178,33 +185,11 @@ pub struct ExactSolution {
     pub nodes: u64,
 }
 
-/// One attacker move of a proof and what follows it.
-#[derive(Clone, Debug, PartialEq, Eq)]
-pub struct ProofStep {
-    /// The attacker's move.
-    pub attack: Point,
-    /// Whether the move is the five that ends the game.
-    pub five: bool,
-    /// Every defender reply that the search had to refute, each with the attacker's answer.
-    pub replies: Vec<(Point, ProofStep)>,
-    /// When replies were left out because they cannot stop it: the attacker's VCF that wins
-    /// against all of them (as if the defender had passed).
-    pub otherwise: Vec<Point>,
-    /// Replies whose refutation could not be shown within the step budget (or, if the budget
-    /// was ample, a sign of a bug): never silently dropped.
-    pub unrefuted: Vec<Point>,
-}
-
-/// A stop signal polled during long searches: return `true` to stop.
-pub type Stop<'a> = Option<&'a mut dyn FnMut() -> bool>;
-
-/// Owns the tables and answers forcing-line questions.
+/// Owns the tables; questions are asked through [`Solver::ask`].
 pub struct Solver {
     tt: Table,
     oracle: VcfOracle,
     config: SolverConfig,
-    /// The moves since the start of the line being asked about (see [`Solver::set_history`]).
-    history: Vec<(Point, Stone, bool)>,
 }
 
 impl Default for Solver {
@@ -214,48 +199,21 @@ impl Default for Solver {
 }
 
 impl Solver {
-    /// A solver with the given limits; the tables are allocated here, once.
+    /// A solver with the given tables and class; the tables are allocated here, once.
     pub fn new(config: SolverConfig) -> Solver {
         Solver {
             tt: Table::with_megabytes(config.table_megabytes),
-            oracle: VcfOracle::new(config.vcf_table_megabytes, config.vcf_node_limit),
+            oracle: VcfOracle::new(
+                config.vcf_table_megabytes,
+                Budget::VERIFICATION.vcf_question,
+            ),
             config,
-            history: Vec::new(),
         }
     }
 
-    /// Tells later questions which moves led from `start` to the position they are asked
-    /// about (colours included, in order): a VCT's dependency rule looks back at the
-    /// attacker's last threats, so a grader asking in the middle of a puzzle's line must pass
-    /// the line so far to search the same class of lines the proof from the start did. Every
-    /// result stays sound either way; only which lines count as inside the class changes.
-    /// An empty list (the default) starts the class afresh at each question.
-    pub fn set_history(&mut self, start: &Board, moves: &[(Point, Stone)]) {
-        let mut b = start.clone();
-        self.history.clear();
-        for &(p, c) in moves {
-            if !b.contains(p) || b.get(p).is_some() {
-                break;
-            }
-            let forced = !b.cells_with(c.opponent(), threat::FIVE).is_empty();
-            self.history.push((p, c, !forced));
-            b.place(p, c);
-        }
-    }
-
-    /// The limits in use.
+    /// The tables and class in use.
     pub fn config(&self) -> &SolverConfig {
         &self.config
-    }
-
-    /// Changes the node limit of later searches.
-    pub fn set_node_limit(&mut self, nodes: u64) {
-        self.config.node_limit = nodes;
-    }
-
-    /// Changes the VCF spending limit of later searches (see [`SolverConfig::vcf_spend_limit`]).
-    pub fn set_vcf_spend_limit(&mut self, nodes: Option<u64>) {
-        self.config.vcf_spend_limit = nodes;
     }
 
     /// Memory of the tables in bytes.
@@ -269,14 +227,86 @@ impl Solver {
         self.oracle.clear();
     }
 
-    fn depth_for(&self, mode: Mode) -> u16 {
-        match mode {
-            Mode::Vcf => UNLIMITED,
-            Mode::Vct => self.config.vct_depth,
+    /// Starts a question with the given budget, asked afresh (no moves before it) and with no
+    /// stop check; see [`Asking::after`] and [`Asking::watch`].
+    pub fn ask<'w>(&mut self, budget: Budget) -> Asking<'_, 'w> {
+        self.oracle.node_limit = budget.vcf_question;
+        Asking {
+            solver: self,
+            budget,
+            history: Vec::new(),
+            stop: None,
+        }
+    }
+}
+
+/// A stop check polled during long searches: return `true` to stop.
+pub type StopCheck<'w> = &'w mut dyn FnMut() -> bool;
+
+/// Questions asked with one budget, about positions reached by one line. Each call is one
+/// question with the whole budget; nothing it sets outlives it.
+pub struct Asking<'s, 'w> {
+    solver: &'s mut Solver,
+    budget: Budget,
+    /// The moves since the start of the line being asked about, each with its colour and
+    /// whether it was a threat (not the forced block of a four).
+    history: Vec<(Point, Stone, bool)>,
+    stop: Option<StopCheck<'w>>,
+}
+
+impl<'s, 'w> Asking<'s, 'w> {
+    /// Says which moves led from `start` to the positions asked about (colours included, in
+    /// order): a VCT's dependency rule looks back at the attacker's last threats, so a grader
+    /// asking in the middle of a puzzle's line must pass the line so far to search the same
+    /// class of lines the proof from the start did. Every result stays sound either way; only
+    /// which lines count as inside the class changes. Moves that do not fit the board are
+    /// ignored from the first one on.
+    pub fn after(mut self, start: &Board, moves: &[(Point, Stone)]) -> Self {
+        let mut b = start.clone();
+        self.history.clear();
+        for &(p, c) in moves {
+            if !b.contains(p) || b.get(p).is_some() {
+                break;
+            }
+            let forced = !b.cells_with(c.opponent(), threat::FIVE).is_empty();
+            self.history.push((p, c, !forced));
+            b.place(p, c);
+        }
+        self
+    }
+
+    /// Polls `stop` during the long searches of these questions (a VCT's deepening, the first
+    /// search of a VCF, [`Asking::wins_after`], [`Asking::exact`]); when it returns `true` the
+    /// search ends as `Unknown`.
+    pub fn watch<'v>(self, stop: StopCheck<'v>) -> Asking<'s, 'v> {
+        Asking {
+            solver: self.solver,
+            budget: self.budget,
+            history: self.history,
+            stop: Some(stop),
         }
     }
 
-    /// Runs one proof-number search from the given node. Returns the status and the nodes used.
+    /// The budget of these questions.
+    pub fn budget(&self) -> Budget {
+        self.budget
+    }
+
+    /// The tables and class of the solver asked.
+    pub fn config(&self) -> &SolverConfig {
+        &self.solver.config
+    }
+
+    fn depth_for(&self, mode: Mode) -> u16 {
+        match mode {
+            Mode::Vcf => UNLIMITED,
+            Mode::Vct => self.solver.config.vct_depth,
+        }
+    }
+
+    /// Runs one proof-number search from the given node with at most `limit` nodes. Returns the
+    /// status and the nodes used (the VCF questions of a VCT included).
+    #[allow(clippy::too_many_arguments)]
     fn run(
         &mut self,
         board: &mut Board,
@@ -284,42 +314,43 @@ impl Solver {
         to_move: Stone,
         mode: Mode,
         depth: u16,
-        stop: Stop,
+        limit: u64,
+        polled: bool,
     ) -> (Status, u64) {
-        self.oracle.inexact = false;
-        let before = self.oracle.nodes;
-        self.oracle.spend_limit = self
-            .config
-            .vcf_spend_limit
-            .map_or(u64::MAX, |l| before.saturating_add(l));
-        let oracle = (mode == Mode::Vct).then_some(&mut self.oracle);
+        let spend = self.budget.vcf_spend;
+        let stop = polled_stop(&mut self.stop, polled);
+        let s = &mut *self.solver;
+        s.oracle.inexact = false;
+        let before = s.oracle.nodes;
+        s.oracle.spend_limit = spend.map_or(u64::MAX, |l| before.saturating_add(l));
+        let oracle = (mode == Mode::Vct).then_some(&mut s.oracle);
         let mut sp = ThreatSpace::new(board, attacker, to_move, mode, depth, oracle)
             .with_history(&self.history);
-        let mut dfpn = Dfpn::new(&mut self.tt, self.config.node_limit, stop);
+        let mut dfpn = Dfpn::new(&mut s.tt, limit, stop);
         let mut status = dfpn.solve(&mut sp);
-        let nodes = dfpn.nodes + self.oracle.nodes - before;
-        self.oracle.spend_limit = u64::MAX;
-        if self.oracle.inexact {
+        let nodes = dfpn.nodes + s.oracle.nodes - before;
+        s.oracle.spend_limit = u64::MAX;
+        if s.oracle.inexact {
             // Some VCF question ran out of nodes and was taken as "no": a disproof built on it is
             // not a proof, and the stored results that depend on it must not be reused.
             if status == Status::Disproved {
                 status = Status::Unknown;
             }
-            self.clear();
+            s.clear();
         }
         (status, nodes)
     }
 
     /// Does `to_move` win by forcing moves of `mode`? With the shortest main line when it does.
-    pub fn solve(&mut self, board: &Board, to_move: Stone, mode: Mode, mut stop: Stop) -> Solution {
+    pub fn solve(&mut self, board: &Board, to_move: Stone, mode: Mode) -> Solution {
         let mut b = board.clone();
         let depth = self.depth_for(mode);
-        let limit = self.config.node_limit;
+        let limit = self.budget.nodes;
         let mut nodes = 0;
         let found = match mode {
             Mode::Vcf => {
                 // VCF trees are narrow: prove first, then deepen up to the proof's length.
-                let (status, n) = self.run(&mut b, to_move, to_move, mode, depth, stop);
+                let (status, n) = self.run(&mut b, to_move, to_move, mode, depth, limit, true);
                 nodes += n;
                 if status != Status::Proved {
                     return Solution::without_win(verdict(status), nodes);
@@ -327,7 +358,7 @@ impl Solver {
                 let upper = self.stored_depth(&b, to_move, to_move, mode, depth);
                 let mut found = depth;
                 for d in 0..=upper.min(MAX_LINE) {
-                    let (s, n) = self.run(&mut b, to_move, to_move, mode, d, None);
+                    let (s, n) = self.run(&mut b, to_move, to_move, mode, d, limit, false);
                     nodes += n;
                     if s == Status::Proved {
                         found = d;
@@ -346,9 +377,7 @@ impl Solver {
                         unknown = true;
                         break;
                     }
-                    self.config.node_limit = limit - nodes;
-                    let again = stop.as_mut().map(|f| &mut **f as &mut dyn FnMut() -> bool);
-                    let (s, n) = self.run(&mut b, to_move, to_move, mode, d, again);
+                    let (s, n) = self.run(&mut b, to_move, to_move, mode, d, limit - nodes, true);
                     nodes += n;
                     match s {
                         Status::Proved => {
@@ -362,7 +391,6 @@ impl Solver {
                         Status::Disproved => {}
                     }
                 }
-                self.config.node_limit = limit;
                 match found {
                     Some(d) => d,
                     None => {
@@ -378,10 +406,10 @@ impl Solver {
         };
         // Reading the line back may search again; an answer that ran out of nodes there must
         // not stay in the tables.
-        self.oracle.inexact = false;
+        self.solver.oracle.inexact = false;
         let line = self.extract_line(&mut b, to_move, mode, found);
-        if self.oracle.inexact {
-            self.clear();
+        if self.solver.oracle.inexact {
+            self.solver.clear();
         }
         let line: Vec<Point> = line.iter().map(|&m| b.point(m as usize)).collect();
         let depth = if found == UNLIMITED {
@@ -411,26 +439,27 @@ impl Solver {
             ^ threats::salt(mode, attacker, b.rule(), b.width(), b.height())
             ^ threats::side_key(to_move)
             ^ threats::depth_key(depth);
-        self.tt
+        self.solver
+            .tt
             .get(key)
             .filter(|e| e.pn == 0)
             .map_or(UNLIMITED, |e| e.depth.saturating_sub(1).max(1))
     }
 
-    /// After the side `to_move` has played, does `attacker` still win? `to_move` is the side to
-    /// move now: the defender when grading an attacker's move, the attacker when grading a
-    /// defence.
+    /// After the side `to_move` has played, does `attacker` still have a forced win? `to_move`
+    /// is the side to move now: the defender when grading an attacker's move, the attacker
+    /// when grading a defence.
     pub fn wins_after(
         &mut self,
         board: &Board,
         attacker: Stone,
         to_move: Stone,
         mode: Mode,
-        stop: Stop,
     ) -> (Verdict, u64) {
         let mut b = board.clone();
         let depth = self.depth_for(mode);
-        let (s, n) = self.run(&mut b, attacker, to_move, mode, depth, stop);
+        let limit = self.budget.nodes;
+        let (s, n) = self.run(&mut b, attacker, to_move, mode, depth, limit, true);
         (verdict(s), n)
     }
 
@@ -445,7 +474,10 @@ impl Solver {
         max: u16,
     ) -> Option<u16> {
         let mut b = board.clone();
-        (0..=max).find(|&d| self.run(&mut b, attacker, to_move, mode, d, None).0 == Status::Proved)
+        let limit = self.budget.nodes;
+        (0..=max).find(|&d| {
+            self.run(&mut b, attacker, to_move, mode, d, limit, false).0 == Status::Proved
+        })
     }
 
     /// Every first move with which `to_move` wins by `mode`, among the moves of that class.
@@ -453,7 +485,7 @@ impl Solver {
         self.winning_moves_impl(board, to_move, mode, usize::MAX, false)
     }
 
-    /// [`Solver::winning_moves`] for a caller that only wants positions with few answers, all
+    /// [`Asking::winning_moves`] for a caller that only wants positions with few answers, all
     /// proved: stops as soon as more than `limit` winning moves are proved (then `proved`
     /// holds `limit + 1` of them) or one move's status is unknown; the moves after that are
     /// not tried.
@@ -484,7 +516,8 @@ impl Solver {
         }
         let mut cands = Vec::new();
         {
-            let oracle = (mode == Mode::Vct).then_some(&mut self.oracle);
+            let s = &mut *self.solver;
+            let oracle = (mode == Mode::Vct).then_some(&mut s.oracle);
             let mut sp = ThreatSpace::new(&mut b, to_move, to_move, mode, UNLIMITED, oracle)
                 .with_history(&self.history);
             let dfives = *sp.board.cells_with(to_move.opponent(), threat::FIVE);
@@ -500,6 +533,7 @@ impl Solver {
             }
         }
         let depth = self.depth_for(mode);
+        let node_limit = self.budget.nodes;
         let forced = !b.cells_with(to_move.opponent(), threat::FIVE).is_empty();
         out.tried = cands.len();
         for m in cands {
@@ -519,7 +553,15 @@ impl Solver {
             // when a grader asks after it: the dependency rule of the next threats sees it.
             self.history.push((b.point(m), to_move, !forced));
             b.place_at(m, to_move);
-            let (s, n) = self.run(&mut b, to_move, to_move.opponent(), mode, child_depth, None);
+            let (s, n) = self.run(
+                &mut b,
+                to_move,
+                to_move.opponent(),
+                mode,
+                child_depth,
+                node_limit,
+                false,
+            );
             b.remove_at(m);
             self.history.pop();
             out.nodes += n;
@@ -535,7 +577,15 @@ impl Solver {
     /// The opponent's forced win if `defender` (to move) passed, as a main line; empty if the
     /// opponent has none.
     pub fn threat(&mut self, board: &Board, defender: Stone, mode: Mode) -> Solution {
-        self.solve(board, defender.opponent(), mode, None)
+        self.solve_unwatched(board, defender.opponent(), mode)
+    }
+
+    /// [`Asking::solve`] without the stop check (a part of a larger question).
+    fn solve_unwatched(&mut self, board: &Board, to_move: Stone, mode: Mode) -> Solution {
+        let stop = self.stop.take();
+        let sol = self.solve(board, to_move, mode);
+        self.stop = stop;
+        sol
     }
 
     /// Every move for `defender` (to move) after which the opponent has no forced win by
@@ -544,7 +594,7 @@ impl Solver {
         self.defences_impl(board, defender, mode, usize::MAX, false)
     }
 
-    /// [`Solver::defences`] for a caller that only wants positions with few defences, all
+    /// [`Asking::defences`] for a caller that only wants positions with few defences, all
     /// proved: stops as soon as more than `limit` defences are proved or one move's status is
     /// unknown (then the lists are partial and `moves.tried` counts the moves tried so far).
     pub fn defences_up_to(
@@ -573,9 +623,9 @@ impl Solver {
         };
         // The threat the defence must stop. Any defence against a VCT also stops the
         // opponent's VCF when there is one, so the VCF's candidate set is complete.
-        self.oracle.inexact = false;
-        let vcf = self.oracle.find(&mut b, attacker, UNLIMITED);
-        if vcf.is_none() && self.oracle.inexact {
+        self.solver.oracle.inexact = false;
+        let vcf = self.solver.oracle.find(&mut b, attacker, UNLIMITED);
+        if vcf.is_none() && self.solver.oracle.inexact {
             // The VCF question ran out of nodes: without its answer the candidate set below
             // would rest on the practical bound, so say "unknown" instead.
             out.threat = Verdict::Unknown;
@@ -584,7 +634,7 @@ impl Solver {
         let cands: Vec<u16> = match vcf {
             Some(line) => defence_candidates(&mut b, attacker, &line),
             None => {
-                let threat = self.solve(&b, attacker, mode, None);
+                let threat = self.solve_unwatched(&b, attacker, mode);
                 out.moves.nodes += threat.nodes;
                 out.threat = threat.verdict;
                 if threat.verdict != Verdict::Win {
@@ -595,6 +645,7 @@ impl Solver {
         };
         let mut seen = vec![false; b.cell_count()];
         let depth = self.depth_for(mode);
+        let node_limit = self.budget.nodes;
         for m in cands {
             let m = m as usize;
             if out.moves.proved.len() > limit || (stop_on_unknown && !out.moves.unknown.is_empty())
@@ -616,7 +667,7 @@ impl Solver {
                 continue;
             }
             b.place_at(m, defender);
-            let (s, n) = self.run(&mut b, attacker, attacker, mode, depth, None);
+            let (s, n) = self.run(&mut b, attacker, attacker, mode, depth, node_limit, false);
             b.remove_at(m);
             out.moves.nodes += n;
             match s {
@@ -635,16 +686,11 @@ impl Solver {
     /// attacker has no threat (or has already won).
     pub fn defender_replies(&mut self, board: &Board, attacker: Stone, mode: Mode) -> Vec<Point> {
         let mut b = board.clone();
-        let oracle = (mode == Mode::Vct).then_some(&mut self.oracle);
-        let mut sp = ThreatSpace::new(
-            &mut b,
-            attacker,
-            attacker.opponent(),
-            mode,
-            self.config.vct_depth,
-            oracle,
-        )
-        .with_history(&self.history);
+        let depth = self.solver.config.vct_depth;
+        let s = &mut *self.solver;
+        let oracle = (mode == Mode::Vct).then_some(&mut s.oracle);
+        let mut sp = ThreatSpace::new(&mut b, attacker, attacker.opponent(), mode, depth, oracle)
+            .with_history(&self.history);
         let mut replies = Vec::new();
         let node = sp.expand(&mut replies);
         drop(sp);
@@ -666,6 +712,7 @@ impl Solver {
     ) -> u32 {
         let mut b = board.clone();
         let defender = attacker.opponent();
+        let depth = self.solver.config.vct_depth;
         let mut total = 0;
         for (i, &p) in line.iter().enumerate() {
             let idx = b.index(p);
@@ -677,16 +724,10 @@ impl Solver {
                 if b.flags_at(idx, defender) & threat::FOUR != 0 {
                     total += 1;
                 }
-                let oracle = (mode == Mode::Vct).then_some(&mut self.oracle);
-                let mut sp = ThreatSpace::new(
-                    &mut b,
-                    attacker,
-                    defender,
-                    mode,
-                    self.config.vct_depth,
-                    oracle,
-                )
-                .with_history(&self.history);
+                let s = &mut *self.solver;
+                let oracle = (mode == Mode::Vct).then_some(&mut s.oracle);
+                let mut sp = ThreatSpace::new(&mut b, attacker, defender, mode, depth, oracle)
+                    .with_history(&self.history);
                 let mut replies = Vec::new();
                 if sp.expand(&mut replies) == Node::And {
                     total += replies.len().saturating_sub(1) as u32;
@@ -697,175 +738,11 @@ impl Solver {
         total
     }
 
-    /// Reads the main line of a node proved at `depth`: the attacker takes its shortest proved
-    /// move, the defender the reply whose refutation is longest.
-    fn extract_line(&mut self, b: &mut Board, attacker: Stone, mode: Mode, depth: u16) -> Vec<u16> {
-        let mut line: Vec<u16> = Vec::new();
-        let node_limit = self.config.node_limit;
-        let oracle = (mode == Mode::Vct).then_some(&mut self.oracle);
-        let mut sp = ThreatSpace::new(b, attacker, attacker, mode, depth, oracle)
-            .with_history(&self.history);
-        let mut dfpn = Dfpn::new(&mut self.tt, node_limit, None);
-        let mut moves = Vec::new();
-        let mut played = 0usize;
-        for _ in 0..400 {
-            moves.clear();
-            let node = sp.expand(&mut moves);
-            let m = match node {
-                Node::Loss => break,
-                Node::Win(_) => {
-                    if sp.to_move() == attacker
-                        && sp.board.cells_with(attacker, threat::FIVE).is_empty()
-                    {
-                        // A VCT node won by a VCF: append the VCF.
-                        if let Some(v) = sp.oracle_vcf() {
-                            for &mv in &v.moves {
-                                line.push(mv);
-                                sp.play(mv);
-                                played += 1;
-                            }
-                        }
-                    }
-                    finish(&mut sp, attacker, &mut line, &mut played);
-                    break;
-                }
-                Node::Or => {
-                    let mut best: Option<(u16, u16)> = None;
-                    for &m in &moves {
-                        if let Some(e) = dfpn.entry(sp.child_key(m)) {
-                            if e.pn == 0 && best.is_none_or(|(_, d)| e.depth < d) {
-                                best = Some((m, e.depth));
-                            }
-                        }
-                    }
-                    if best.is_none() {
-                        for &m in &moves {
-                            sp.play(m);
-                            let s = dfpn.solve(&mut sp);
-                            sp.undo(m);
-                            if s == Status::Proved {
-                                best = Some((m, 0));
-                                break;
-                            }
-                        }
-                    }
-                    match best {
-                        Some((m, _)) => m,
-                        None => break,
-                    }
-                }
-                Node::And => {
-                    if moves.is_empty() {
-                        finish(&mut sp, attacker, &mut line, &mut played);
-                        break;
-                    }
-                    let mut best: Option<(u16, u16)> = None;
-                    for &m in &moves {
-                        let d = dfpn
-                            .entry(sp.child_key(m))
-                            .filter(|e| e.pn == 0)
-                            .map_or(0, |e| e.depth);
-                        if best.is_none_or(|(_, bd)| d > bd) {
-                            best = Some((m, d));
-                        }
-                    }
-                    match best {
-                        Some((m, _)) => m,
-                        None => break,
-                    }
-                }
-            };
-            line.push(m);
-            sp.play(m);
-            played += 1;
-        }
-        for &m in line[..played].iter().rev() {
-            sp.undo(m);
-        }
-        line
-    }
-
-    /// The proof of a won node as a tree (bounded to `max_steps` attacker moves in all).
-    pub fn proof_tree(
-        &mut self,
-        board: &Board,
-        to_move: Stone,
-        mode: Mode,
-        max_steps: usize,
-    ) -> Option<ProofStep> {
-        let sol = self.solve(board, to_move, mode, None);
-        if sol.verdict != Verdict::Win {
-            return None;
-        }
-        let mut b = board.clone();
-        let mut budget = max_steps;
-        self.proof_step(&mut b, to_move, mode, &mut budget)
-    }
-
-    fn proof_step(
-        &mut self,
-        b: &mut Board,
-        attacker: Stone,
-        mode: Mode,
-        budget: &mut usize,
-    ) -> Option<ProofStep> {
-        if *budget == 0 {
-            return None;
-        }
-        *budget -= 1;
-        let sol = self.solve(b, attacker, mode, None);
-        let first = *sol.line.first()?;
-        let idx = b.index(first);
-        let five = b.flags_at(idx, attacker) & threat::FIVE != 0;
-        let mut step = ProofStep {
-            attack: first,
-            five,
-            replies: Vec::new(),
-            otherwise: Vec::new(),
-            unrefuted: Vec::new(),
-        };
-        if five {
-            return Some(step);
-        }
-        b.place_at(idx, attacker);
-        let defender = attacker.opponent();
-        let mut replies = Vec::new();
-        {
-            let oracle = (mode == Mode::Vct).then_some(&mut self.oracle);
-            let mut sp =
-                ThreatSpace::new(b, attacker, defender, mode, self.config.vct_depth, oracle)
-                    .with_history(&self.history);
-            let node = sp.expand(&mut replies);
-            if let Node::And = node {
-            } else {
-                replies.clear();
-            }
-        }
-        if mode == Mode::Vct && b.cells_with(attacker, threat::FIVE).is_empty() {
-            let mut o = VcfOracle::new(1, self.config.vcf_node_limit);
-            if let Some(v) = o.find(b, attacker, UNLIMITED) {
-                step.otherwise = v.moves.iter().map(|&m| b.point(m as usize)).collect();
-            }
-        }
-        for r in replies {
-            let r = r as usize;
-            b.place_at(r, defender);
-            if let Some(sub) = self.proof_step(b, attacker, mode, budget) {
-                step.replies.push((b.point(r), sub));
-            } else {
-                step.unrefuted.push(b.point(r));
-            }
-            b.remove_at(r);
-        }
-        b.remove_at(idx);
-        Some(step)
-    }
-
     /// Solves a small m,n,k board exactly for the side to move (all moves, both sides).
-    pub fn exact(&mut self, board: &Board, to_move: Stone, stop: Stop) -> ExactSolution {
+    pub fn exact(&mut self, board: &Board, to_move: Stone) -> ExactSolution {
         let mut b = board.clone();
         let mut nodes = 0;
-        let (first, n) = self.run_exact(&mut b, to_move, to_move, stop);
+        let (first, n) = self.run_exact(&mut b, to_move, to_move, true);
         nodes += n;
         let mut out = ExactSolution {
             value: ExactValue::Unknown,
@@ -883,7 +760,7 @@ impl Solver {
             }
             Status::Unknown => {}
             Status::Disproved => {
-                let (second, n) = self.run_exact(&mut b, to_move.opponent(), to_move, None);
+                let (second, n) = self.run_exact(&mut b, to_move.opponent(), to_move, false);
                 nodes += n;
                 out.value = match second {
                     Status::Proved => ExactValue::Loss,
@@ -901,111 +778,14 @@ impl Solver {
         b: &mut Board,
         attacker: Stone,
         to_move: Stone,
-        stop: Stop,
+        polled: bool,
     ) -> (Status, u64) {
+        let limit = self.budget.nodes;
+        let stop = polled_stop(&mut self.stop, polled);
         let mut sp = ExactSpace::new(b, attacker, to_move);
-        let mut dfpn = Dfpn::new(&mut self.tt, self.config.node_limit, stop);
+        let mut dfpn = Dfpn::new(&mut self.solver.tt, limit, stop);
         let s = dfpn.solve(&mut sp);
         (s, dfpn.nodes)
-    }
-
-    /// The main line and the winning first moves of a small board won by `attacker` (to move).
-    fn exact_line(&mut self, b: &mut Board, attacker: Stone) -> (Vec<Point>, Vec<Point>, u64) {
-        let mut first_moves = Vec::new();
-        let mut line = Vec::new();
-        let node_limit = self.config.node_limit;
-        let mut sp = ExactSpace::new(b, attacker, attacker);
-        let mut dfpn = Dfpn::new(&mut self.tt, node_limit, None);
-        let mut moves = Vec::new();
-        // Winning first moves: every root move whose position is proved.
-        sp.expand(&mut moves);
-        for &m in &moves {
-            sp.play(m);
-            let s = dfpn.solve(&mut sp);
-            sp.undo(m);
-            if s == Status::Proved {
-                first_moves.push(m);
-            }
-        }
-        let mut played = 0;
-        for _ in 0..400 {
-            moves.clear();
-            let pick = match sp.expand(&mut moves) {
-                Node::Win(_) | Node::Loss => {
-                    line.extend(sp.finishing_moves());
-                    break;
-                }
-                Node::Or => moves
-                    .iter()
-                    .copied()
-                    .filter(|&m| dfpn.entry(sp.child_key(m)).is_some_and(|e| e.pn == 0))
-                    .min_by_key(|&m| dfpn.entry(sp.child_key(m)).map_or(u16::MAX, |e| e.depth)),
-                Node::And => moves
-                    .iter()
-                    .copied()
-                    .max_by_key(|&m| dfpn.entry(sp.child_key(m)).map_or(0, |e| e.depth)),
-            };
-            let Some(m) = pick else { break };
-            line.push(m);
-            sp.play(m);
-            played += 1;
-        }
-        let nodes = dfpn.nodes;
-        for &m in line[..played].iter().rev() {
-            sp.undo(m);
-        }
-        drop(sp);
-        let to_points = |v: &[u16]| v.iter().map(|&m| b.point(m as usize)).collect::<Vec<_>>();
-        (to_points(&line), to_points(&first_moves), nodes)
-    }
-}
-
-/// Ends a line whose attacker has won: the defender blocks one five point if it can (or plays
-/// the legal point nearest to it if it cannot), then the attacker plays the five.
-fn finish(sp: &mut ThreatSpace, attacker: Stone, line: &mut Vec<u16>, played: &mut usize) {
-    let fives = sp.attacker_fives();
-    let Some(&first) = fives.first() else { return };
-    if sp.to_move() == attacker {
-        line.push(first);
-        return;
-    }
-    let defender = attacker.opponent();
-    let board = &mut *sp.board;
-    // The defender blocks a five point it may legally take; if it may take none (renju black
-    // facing forbidden points), it plays its legal point nearest to the first.
-    let legal_block = fives.iter().copied().find(|&f| {
-        board.flags_at(f as usize, defender) & threat::FIVE != 0
-            || board.legal_at(f as usize, defender)
-    });
-    let reply = if let Some(b) = legal_block.filter(|_| fives.len() >= 2) {
-        Some(b)
-    } else {
-        // The defender cannot block: show its nearest legal move.
-        let fp = board.point(first as usize);
-        let mut cands: Vec<(u32, usize)> = board
-            .indices()
-            .filter(|&i| board.is_empty_at(i) && !fives.contains(&(i as u16)))
-            .map(|i| {
-                let p = board.point(i);
-                let d = (p.x as i32 - fp.x as i32)
-                    .unsigned_abs()
-                    .max((p.y as i32 - fp.y as i32).unsigned_abs());
-                (d, i)
-            })
-            .collect();
-        cands.sort();
-        cands
-            .into_iter()
-            .find(|&(_, i)| board.legal_at(i, defender))
-            .map(|(_, i)| i as u16)
-    };
-    let Some(r) = reply else { return };
-    line.push(r);
-    sp.play(r);
-    *played += 1;
-    let five = sp.attacker_fives().into_iter().next();
-    if let Some(f) = five {
-        line.push(f);
     }
 }
 
@@ -1032,6 +812,17 @@ fn near_line(b: &Board, defender: Stone, line: &[Point]) -> Vec<u16> {
         }
     }
     out
+}
+
+/// The stop check of a question, reborrowed for one search, when that search is `polled`.
+fn polled_stop<'a>(
+    stop: &'a mut Option<StopCheck<'_>>,
+    polled: bool,
+) -> Option<&'a mut dyn FnMut() -> bool> {
+    if !polled {
+        return None;
+    }
+    stop.as_mut().map(|f| &mut **f as &mut dyn FnMut() -> bool)
 }
 
 fn verdict(s: Status) -> Verdict {

@@ -11,23 +11,17 @@
 //! **VCT.** The attacker also plays threes, broken threes and closed threes (moves that create a
 //! new four) after which it would win by VCF if the defender passed; a defender four must be
 //! blocked (by any move). At the defender's turn, after a non-four threat, the attacker's VCF
-//! `P` (found as if the defender passed) is the threat to stop; a defender with a VCF of its own
-//! wins at once. The replies searched are all the defender's fours (each gains a tempo, after
-//! which the defender moves again), every point of `P`, and every point where a defender stone
-//! could change `P`'s outcome: under freestyle and standard, the points that together with `P`'s defender
-//! stones could give the defender a five; under renju, where a stone can change which points
-//! are forbidden far away, every empty point whose stone makes `P` fail when `P` is replayed.
-//! Every other reply leaves `P` a valid VCF, so the attacker still wins: the set is never
-//! smaller than soundness needs.
-//!
-//! A VCT search asks many VCF questions; they are answered by a [`VcfOracle`] with its own table,
-//! so the same question is never searched twice while its answer is still stored.
+//! (found by the [`VcfOracle`] as if the defender passed) is the threat to stop; a defender with
+//! a VCF of its own wins at once; the replies searched are the [`defence_candidates`], whose
+//! module argues why no other reply needs trying.
 
-use super::dfpn::{Dfpn, Node, Space, Status};
-use super::tt::Table;
-use crate::board::{threat, Board, Stone};
+use super::defence::defence_candidates;
+use super::dfpn::{Node, Space};
+use super::vcf::{VcfLine, VcfOracle};
+use crate::board::{threat, Board};
 use crate::geometry::Point;
-use crate::rules::Rule;
+use crate::types::{Rule, Stone};
+use crate::zobrist::splitmix64;
 
 /// Which forcing moves the attacker may use.
 #[derive(Clone, Copy, PartialEq, Eq, Debug, Hash)]
@@ -51,13 +45,6 @@ pub const RECENT: usize = 2;
 /// many replies that the search could not bound them.
 pub const THREAT_FOURS: u16 = 2;
 
-const fn splitmix(mut z: u64) -> u64 {
-    z = z.wrapping_add(0x9E37_79B9_7F4A_7C15);
-    z = (z ^ (z >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
-    z = (z ^ (z >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
-    z ^ (z >> 31)
-}
-
 /// Mixes everything a node's value depends on besides the stones into its key.
 pub(crate) fn salt(mode: Mode, attacker: Stone, rule: Rule, width: u8, height: u8) -> u64 {
     let m = match mode {
@@ -69,7 +56,7 @@ pub(crate) fn salt(mode: Mode, attacker: Stone, rule: Rule, width: u8, height: u
         Rule::Standard => 2,
         Rule::Renju => 3,
     };
-    splitmix(
+    splitmix64(
         m << 40 | (attacker.index() as u64) << 32 | r << 24 | (width as u64) << 8 | height as u64,
     )
 }
@@ -86,7 +73,7 @@ pub(crate) fn side_key(c: Stone) -> u64 {
 /// its keys leave it out).
 #[inline]
 fn played_key(m: u16) -> u64 {
-    splitmix(0x91A7_0000_0000 + m as u64)
+    splitmix64(0x91A7_0000_0000 + m as u64)
 }
 
 #[inline]
@@ -94,210 +81,8 @@ pub(crate) fn depth_key(depth: u16) -> u64 {
     if depth == UNLIMITED {
         0
     } else {
-        splitmix(0xDE97_0000 + depth as u64)
+        splitmix64(0xDE97_0000 + depth as u64)
     }
-}
-
-/// A VCF found by the oracle: the moves from the attacker's first four to its last, defender
-/// replies in between, and the attacker's five points at the end.
-#[derive(Clone, Debug, PartialEq, Eq, Default)]
-pub struct VcfLine {
-    /// Attacker and defender moves alternating, attacker first.
-    pub moves: Vec<u16>,
-    /// The attacker's five points after the last move (one or more).
-    pub fives: Vec<u16>,
-}
-
-impl VcfLine {
-    /// Attacker moves in the line, the five included.
-    pub fn attacker_moves(&self) -> u16 {
-        (self.moves.len().div_ceil(2) + 1) as u16
-    }
-}
-
-/// Answers "does the attacker, to move, have a VCF here?" with a table of its own.
-pub struct VcfOracle {
-    tt: Table,
-    /// Nodes one question may take before its answer counts as unknown.
-    pub node_limit: u64,
-    /// Set when some question ran out of nodes (so a "no" is not a proof).
-    pub inexact: bool,
-    /// The value of `nodes` past which every question counts as unknown without a search
-    /// (`u64::MAX`: never); the solver sets it for one search at a time.
-    pub spend_limit: u64,
-    /// Nodes searched over all questions.
-    pub nodes: u64,
-    /// The attacker's VCT candidates of recently expanded nodes, so that the proof-number
-    /// search, which comes back to the same node many times, does not test them again.
-    moves: MoveCache,
-}
-
-/// A direct-mapped cache of generated move lists, keyed by node key.
-struct MoveCache {
-    keys: Vec<u64>,
-    lists: Vec<Vec<u16>>,
-}
-
-impl MoveCache {
-    const SLOTS: usize = 1 << 14;
-
-    fn new() -> MoveCache {
-        MoveCache {
-            keys: vec![0; Self::SLOTS],
-            lists: vec![Vec::new(); Self::SLOTS],
-        }
-    }
-
-    fn get(&self, key: u64) -> Option<&[u16]> {
-        let i = (key as usize) & (Self::SLOTS - 1);
-        (self.keys[i] == key).then(|| self.lists[i].as_slice())
-    }
-
-    fn put(&mut self, key: u64, moves: &[u16]) {
-        let i = (key as usize) & (Self::SLOTS - 1);
-        self.keys[i] = key;
-        self.lists[i].clear();
-        self.lists[i].extend_from_slice(moves);
-    }
-
-    fn clear(&mut self) {
-        self.keys.fill(0);
-    }
-}
-
-impl VcfOracle {
-    /// An oracle with a table of `megabytes` and a per-question node limit.
-    pub fn new(megabytes: usize, node_limit: u64) -> VcfOracle {
-        VcfOracle {
-            tt: Table::with_megabytes(megabytes),
-            node_limit,
-            inexact: false,
-            spend_limit: u64::MAX,
-            nodes: 0,
-            moves: MoveCache::new(),
-        }
-    }
-
-    /// Forgets all stored answers.
-    pub fn clear(&mut self) {
-        self.tt.clear();
-        self.moves.clear();
-        self.inexact = false;
-    }
-
-    /// The attacker's VCF from this position with the attacker to move, using at most `depth`
-    /// attacker moves before the five, if there is one within the node limit.
-    pub fn find(&mut self, board: &mut Board, attacker: Stone, depth: u16) -> Option<VcfLine> {
-        let Some(limit) = self.question_limit() else {
-            self.inexact = true;
-            return None;
-        };
-        let mut sp = ThreatSpace::new(board, attacker, attacker, Mode::Vcf, depth, None);
-        let mut dfpn = Dfpn::new(&mut self.tt, limit, None);
-        let status = dfpn.solve(&mut sp);
-        self.nodes += dfpn.nodes;
-        match status {
-            Status::Proved => {
-                let line = vcf_line(&mut dfpn, &mut sp, self.node_limit);
-                if line.is_none() {
-                    self.inexact = true;
-                }
-                line
-            }
-            Status::Disproved => None,
-            Status::Unknown => {
-                self.inexact = true;
-                None
-            }
-        }
-    }
-}
-
-impl VcfOracle {
-    /// The node limit of the next question: the per-question limit, or what is left of the
-    /// spending limit if that is less; `None` when nothing is left.
-    fn question_limit(&self) -> Option<u64> {
-        let left = self.spend_limit.saturating_sub(self.nodes);
-        (left > 0).then(|| self.node_limit.min(left))
-    }
-
-    /// Whether `side` (to move) has a VCF, asked of the defender of a VCT: a yes refutes the
-    /// attacker's threat. When the question runs out of nodes the answer is the cautious one,
-    /// yes (so that no attacker win rests on it), and the oracle becomes inexact (so that no
-    /// attacker no-win rests on it either).
-    pub fn has_vcf(&mut self, board: &mut Board, side: Stone) -> bool {
-        let Some(limit) = self.question_limit() else {
-            self.inexact = true;
-            return true;
-        };
-        let mut sp = ThreatSpace::new(board, side, side, Mode::Vcf, UNLIMITED, None);
-        let mut dfpn = Dfpn::new(&mut self.tt, limit, None);
-        let status = dfpn.solve(&mut sp);
-        self.nodes += dfpn.nodes;
-        match status {
-            Status::Proved => true,
-            Status::Disproved => false,
-            Status::Unknown => {
-                self.inexact = true;
-                true
-            }
-        }
-    }
-}
-
-/// Reads the proved VCF of the current node back from the table, re-searching where an entry
-/// was overwritten. Leaves the space as it found it.
-pub(crate) fn vcf_line(
-    dfpn: &mut Dfpn<'_, '_>,
-    sp: &mut ThreatSpace,
-    budget: u64,
-) -> Option<VcfLine> {
-    let mut line = VcfLine::default();
-    let mut scratch = Vec::new();
-    let mut result = None;
-    for _ in 0..200 {
-        scratch.clear();
-        match sp.expand(&mut scratch) {
-            Node::Win(_) => {
-                line.fives = sp.attacker_fives();
-                result = Some(());
-                break;
-            }
-            Node::Loss => break,
-            Node::And => {
-                if scratch.is_empty() {
-                    line.fives = sp.attacker_fives();
-                    result = Some(());
-                    break;
-                }
-                let m = scratch[0];
-                line.moves.push(m);
-                sp.play(m);
-            }
-            Node::Or => {
-                let mut e = dfpn.entry(sp.key());
-                if !matches!(e, Some(x) if x.pn == 0) {
-                    let before = dfpn.nodes;
-                    if dfpn.solve(sp) != Status::Proved || dfpn.nodes - before > budget {
-                        break;
-                    }
-                    e = dfpn.entry(sp.key());
-                }
-                let Some(m) = e
-                    .map(|x| x.best)
-                    .filter(|&m| (m as usize) < sp.board.cell_count())
-                else {
-                    break;
-                };
-                line.moves.push(m);
-                sp.play(m);
-            }
-        }
-    }
-    for &m in line.moves.iter().rev() {
-        sp.undo(m);
-    }
-    result.map(|_| line)
 }
 
 /// The search space of a forcing-line search on a gomoku board.
@@ -753,179 +538,4 @@ impl Space for ThreatSpace<'_> {
             self.played.pop();
         }
     }
-}
-
-/// The defender's replies that need refuting when the attacker threatens the VCF `line` (found
-/// with the defender passing). See the module documentation for why the set is sound.
-pub(crate) fn defence_candidates(board: &mut Board, attacker: Stone, line: &VcfLine) -> Vec<u16> {
-    let d = attacker.opponent();
-    let n = board.cell_count();
-    let mut mark = vec![false; n];
-    let mut out: Vec<u16> = Vec::new();
-    let push = |m: usize, mark: &mut Vec<bool>, out: &mut Vec<u16>| {
-        if !mark[m] {
-            mark[m] = true;
-            out.push(m as u16);
-        }
-    };
-    // The defender's own fours gain a tempo: the attacker must block, and then the defender
-    // moves again with two more stones on the board, so every one of them is a reply to try.
-    let fours: Vec<usize> = board.cells_with(d, threat::FOUR).iter().collect();
-    for c in fours {
-        push(c, &mut mark, &mut out);
-    }
-    // Every point of the line and every final five point.
-    for &m in line.moves.iter().chain(line.fives.iter()) {
-        push(m as usize, &mut mark, &mut out);
-    }
-    if board.rule() == Rule::Renju {
-        // Renju: a stone can also change which points are forbidden. Whether a point is
-        // forbidden depends only on the lines through it, and a stone can only change the
-        // answer at a point that is forbidden or has two threes or more (a white stone removes
-        // black shapes, a black stone adds them, and neither turns a point with at most one
-        // three and one four into a forbidden one). The replay records every such point the
-        // rules looked at, the recursion of the three rule included; a stone off all their
-        // lines changes no decision of the replay. Replay the line against the stones on them.
-        board.start_trace();
-        replay(board, attacker, line);
-        let touched = board.take_trace();
-        let mut seen = vec![false; n];
-        for x in touched {
-            for dir in 0..4 {
-                for t in -5isize..=5 {
-                    let m = board.offset(x as usize, dir, t);
-                    if seen[m] || mark[m] || !board.is_empty_at(m) {
-                        continue;
-                    }
-                    seen[m] = true;
-                    if !replay_survives(board, attacker, line, m) {
-                        push(m, &mut mark, &mut out);
-                    }
-                }
-            }
-        }
-    }
-    // Freestyle and standard: a defender stone off the line can only break it by giving the
-    // defender a five point together with the defender's replies in the line, so it must share
-    // a five-window with one of them that holds no attacker stone and enough defender stones.
-    let replies: Vec<usize> = line
-        .moves
-        .iter()
-        .skip(1)
-        .step_by(2)
-        .map(|&m| m as usize)
-        .collect();
-    let (w, h) = (board.width() as i32, board.height() as i32);
-    for &b in &replies {
-        let pb = board.point(b);
-        for dir in crate::geometry::Direction::ALL {
-            let (dx, dy) = dir.step();
-            // The cell k steps from b along this line, if it is on the board.
-            let at = |k: i32| -> Option<usize> {
-                let (x, y) = (pb.x as i32 + dx as i32 * k, pb.y as i32 + dy as i32 * k);
-                ((0..w).contains(&x) && (0..h).contains(&y))
-                    .then(|| board.index(crate::geometry::Point::new(x as u8, y as u8)))
-            };
-            for t in -4i32..=4 {
-                let Some(m) = at(t) else { continue };
-                if t == 0 || mark[m] || !board.is_empty_at(m) {
-                    continue;
-                }
-                // Windows of five on this line through both b (offset 0) and m (offset t) that
-                // hold no attacker stone and at least four defender stones once m and the
-                // line's replies are counted.
-                let (lo, hi) = (t.min(0), t.max(0));
-                let threat_found = ((hi - 4)..=lo).any(|start| {
-                    let mut count = 0;
-                    for k in start..start + 5 {
-                        match at(k) {
-                            Some(c)
-                                if k == t || replies.contains(&c) || board.is_stone_at(c, d) =>
-                            {
-                                count += 1
-                            }
-                            Some(c) if board.is_empty_at(c) => {}
-                            _ => return false,
-                        }
-                    }
-                    count >= 4
-                });
-                if threat_found {
-                    push(m, &mut mark, &mut out);
-                }
-            }
-        }
-    }
-    out
-}
-
-/// Whether the VCF `line` still wins for `attacker` after a defender stone on `m`, replaying it
-/// under the same rules as the search (conservatively: any deviation counts as failure).
-pub(crate) fn replay_survives(
-    board: &mut Board,
-    attacker: Stone,
-    line: &VcfLine,
-    m: usize,
-) -> bool {
-    board.place_at(m, attacker.opponent());
-    let ok = replay(board, attacker, line);
-    board.remove_at(m);
-    ok
-}
-
-/// Replays the VCF `line` (attacker to move) under the search's rules; any deviation from the
-/// line counts as failure. Leaves the board as it found it.
-fn replay(board: &mut Board, attacker: Stone, line: &VcfLine) -> bool {
-    let d = attacker.opponent();
-    let mut placed: Vec<usize> = Vec::new();
-    let ok = (|| {
-        let mut i = 0;
-        loop {
-            // Attacker to move.
-            if !board.cells_with(attacker, threat::FIVE).is_empty() {
-                return true;
-            }
-            let Some(&mv) = line.moves.get(i) else {
-                return false;
-            };
-            let mv = mv as usize;
-            let dfives = board.cells_with(d, threat::FIVE);
-            if !dfives.is_empty() && (dfives.len() >= 2 || dfives.first() != Some(mv)) {
-                return false;
-            }
-            if !board.is_empty_at(mv)
-                || board.flags_at(mv, attacker) & threat::FOUR == 0
-                || !board.legal_at(mv, attacker)
-            {
-                return false;
-            }
-            board.place_at(mv, attacker);
-            placed.push(mv);
-            i += 1;
-            // Defender to move.
-            if !board.cells_with(d, threat::FIVE).is_empty() {
-                return false;
-            }
-            let afives = *board.cells_with(attacker, threat::FIVE);
-            if afives.len() >= 2 {
-                return true;
-            }
-            let Some(b) = afives.first() else {
-                return false;
-            };
-            if board.flags_at(b, d) & threat::FIVE == 0 && !board.legal_at(b, d) {
-                return true;
-            }
-            if line.moves.get(i).map(|&x| x as usize) != Some(b) {
-                return false;
-            }
-            board.place_at(b, d);
-            placed.push(b);
-            i += 1;
-        }
-    })();
-    for &c in placed.iter().rev() {
-        board.remove_at(c);
-    }
-    ok
 }

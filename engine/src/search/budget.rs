@@ -1,0 +1,65 @@
+//! What a question may spend: named node budgets instead of solver settings that callers
+//! change and put back.
+//!
+//! Every question to the solver carries its [`Budget`] (see [`super::Solver::ask`]); nothing
+//! about it outlives the question. The named budgets are the ones Fivefold asks with: a grade
+//! in the player's browser must answer within a frame or two, a puzzle is only kept if its
+//! proof fits the generation budget, a re-proof from a fresh table gets more room, and a
+//! question the player asks on the Study board gets the most.
+
+/// Node limits of one question.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
+pub struct Budget {
+    /// Nodes one proof-number search of the question may expand (the VCF questions inside a
+    /// VCT are counted apart, below).
+    pub nodes: u64,
+    /// Nodes one VCF question inside a VCT may expand.
+    pub vcf_question: u64,
+    /// Nodes all the VCF questions inside one VCT search may expand together; past it every
+    /// further question counts as unknown (so the search ends soon, as `Unknown` unless it was
+    /// already proved). `None`: only the per-question limit applies.
+    pub vcf_spend: Option<u64>,
+}
+
+impl Budget {
+    /// Grading a move in the player's browser: what a phone answers within a frame or two for
+    /// nearly every move (engine/benches/README.md has the measured latencies).
+    pub const GRADING: Budget = Budget {
+        nodes: 50_000,
+        vcf_question: 100_000,
+        vcf_spend: Some(150_000),
+    };
+
+    /// Every search made while generating puzzles: a puzzle whose proof needs more is not
+    /// kept, which also keeps grading it quick.
+    pub const GENERATION: Budget = Budget {
+        nodes: 50_000,
+        vcf_question: 100_000,
+        vcf_spend: None,
+    };
+
+    /// Re-proving a puzzle (`fivefold verify`, the library tests) and settling a listed answer
+    /// that the grading budget could not decide: larger than the generator's, because a fresh
+    /// table may need more nodes than the generator's warm one did for the same answer.
+    pub const VERIFICATION: Budget = Budget {
+        nodes: 1_000_000,
+        vcf_question: 100_000,
+        vcf_spend: None,
+    };
+
+    /// A question the player asks on the Study board (in the worker, cancellable).
+    pub const STUDY: Budget = Budget {
+        nodes: 3_000_000,
+        vcf_question: 100_000,
+        vcf_spend: None,
+    };
+
+    /// The verification budget with another node limit per search (the command line's
+    /// `--nodes`, the tests' own limits).
+    pub const fn nodes(nodes: u64) -> Budget {
+        Budget {
+            nodes,
+            ..Budget::VERIFICATION
+        }
+    }
+}

@@ -1,0 +1,570 @@
+//! The puzzle board: a puzzle being played, with the app's replies revealed one by one, the
+//! three hints, the wrong tries, and the record the page saves.
+//!
+//! Moves that the app plays (a defender's reply, a refutation) are added to the position at
+//! once but shown one by one: the shell calls [`PuzzleBoard::reveal`] after a pause for each,
+//! so a refutation plays out slowly. The record ([`Record`]) is what saved progress holds: the
+//! player's own moves (to replay after a reload), the wrong tries and hint steps counted, and
+//! the attempt merged over every try ([`Attempt::merge`]), so the page stores what this
+//! returns and decides nothing.
+
+use serde::Serialize;
+
+use super::{
+    describe, winning_stones, Answer, AnswerKind, Cursor, HintAnswer, Marks, Revealed, Settings,
+    View,
+};
+use crate::geometry::Point;
+use crate::puzzle::attempt::Attempt;
+use crate::puzzle::grade::{Grade, Session, State};
+use crate::puzzle::hints::Hint;
+use crate::puzzle::Puzzle;
+use crate::search::Solver;
+use crate::types::{Rule, Stone};
+use crate::words;
+
+/// What saved progress keeps of a puzzle.
+#[derive(Clone, Debug, PartialEq, Eq, Serialize)]
+pub struct Record {
+    /// The player's own moves since the start, in order (replayed after a reload).
+    pub played: Vec<Point>,
+    /// Wrong tries so far (over every try).
+    pub wrong: u32,
+    /// Hint steps seen (0 to 3, over every try).
+    pub hints: u8,
+    /// How the puzzle went, merged over every try.
+    pub attempt: Attempt,
+}
+
+impl Default for Record {
+    fn default() -> Self {
+        Record {
+            played: Vec::new(),
+            wrong: 0,
+            hints: 0,
+            attempt: Attempt::Untried,
+        }
+    }
+}
+
+/// Where a puzzle board stands, for the page.
+#[derive(Clone, Debug, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "camelCase")]
+pub struct PuzzleStatus {
+    /// Points per side.
+    pub size: u8,
+    /// The rule.
+    pub rule: Rule,
+    /// The side to move now.
+    pub to_move: Stone,
+    /// The goal in words.
+    pub goal: String,
+    /// Playing, solved or failed.
+    pub state: State,
+    /// The moves on show since the start (the player's and the app's).
+    pub moves: Vec<Point>,
+    /// Moves the app played that are still to be revealed.
+    pub pending: usize,
+    /// How this try stands.
+    pub attempt: Attempt,
+    /// What saved progress keeps.
+    pub record: Record,
+}
+
+/// A puzzle being played.
+#[derive(Clone, Debug)]
+pub struct PuzzleBoard {
+    session: Session,
+    /// How many moves of the session's history are shown.
+    revealed: usize,
+    hints: u8,
+    hint_area: Option<(Point, Point)>,
+    hint_move: Option<Point>,
+    wrong: u32,
+    refuted: Option<Point>,
+    /// The attempt merged over every try, including those before a reload.
+    attempt: Attempt,
+    options: Settings,
+    ghost: Option<Point>,
+    cursor: Cursor,
+}
+
+impl PuzzleBoard {
+    /// A board at the puzzle's start. `trusted`: the puzzle's answer key was proved by this
+    /// program (see [`Session::trust_key`]).
+    pub fn new(puzzle: Puzzle, trusted: bool) -> PuzzleBoard {
+        let mut session = Session::new(puzzle);
+        session.trust_key(trusted);
+        PuzzleBoard {
+            session,
+            revealed: 0,
+            hints: 0,
+            hint_area: None,
+            hint_move: None,
+            wrong: 0,
+            refuted: None,
+            attempt: Attempt::Untried,
+            options: Settings::default(),
+            ghost: None,
+            cursor: Cursor::default(),
+        }
+    }
+
+    /// The puzzle.
+    pub fn puzzle(&self) -> &Puzzle {
+        self.session.puzzle()
+    }
+
+    /// Points per side.
+    pub fn size(&self) -> u8 {
+        self.session.board().size()
+    }
+
+    /// Changes the display settings (a preview in progress is dropped).
+    pub fn set_options(&mut self, options: Settings) {
+        self.options = options;
+        self.ghost = None;
+    }
+
+    /// Brings back a record after a reload: the player's moves are graded again, replies
+    /// included, and everything is shown at once; the wrong tries, hint steps and attempt
+    /// counted before are kept (they decide how the puzzle went).
+    pub fn restore(&mut self, solver: &mut Solver, record: &Record) {
+        for &p in &record.played {
+            let a = self.play_point(solver, p);
+            if matches!(
+                a.kind,
+                AnswerKind::Wrong | AnswerKind::Illegal | AnswerKind::Finished
+            ) {
+                break;
+            }
+        }
+        while self.reveal().is_some() {}
+        self.wrong = self.wrong.max(record.wrong);
+        self.hints = self.hints.max(record.hints.min(3));
+        self.attempt = record.attempt.merge(self.attempt);
+        self.settle();
+    }
+
+    /// Folds the live attempt into the record's.
+    fn settle(&mut self) {
+        self.attempt = self.attempt.merge(self.live());
+    }
+
+    /// How this try stands.
+    fn live(&self) -> Attempt {
+        Attempt::of(
+            self.session.state(),
+            self.wrong,
+            self.hints,
+            self.session.history().len(),
+        )
+    }
+
+    /// A tap on `p`. With `touch` and the confirm option on, the first tap on a point only
+    /// previews the stone and a second tap on it plays it.
+    pub fn touch(&mut self, solver: &mut Solver, p: Point, touch: bool) -> Answer {
+        self.cursor = Cursor::default();
+        if self.options.confirm && touch && self.ghost != Some(p) {
+            let free = self.session.board().contains(p) && self.session.board().get(p).is_none();
+            if free && self.session.state() == State::Playing {
+                self.ghost = Some(p);
+                let mut a = Answer::saying(AnswerKind::Ghost, words::selected(p));
+                a.point = Some(p);
+                return a;
+            }
+        }
+        self.ghost = None;
+        self.play_point(solver, p)
+    }
+
+    /// Plays `p` as a confirmed move.
+    pub fn play(&mut self, solver: &mut Solver, p: Point) -> Answer {
+        self.ghost = None;
+        self.play_point(solver, p)
+    }
+
+    fn play_point(&mut self, solver: &mut Solver, p: Point) -> Answer {
+        // Everything the app already played is on show once the player moves again.
+        self.revealed = self.session.history().len();
+        let me = self.session.to_move();
+        let grade = self.session.play(solver, p);
+        let mut a = Answer::of(AnswerKind::None);
+        a.point = Some(p);
+        match grade {
+            Grade::Illegal { reason } => {
+                a.kind = AnswerKind::Illegal;
+                a.say.push(words::not_played(&reason));
+            }
+            Grade::Finished => {
+                a.kind = AnswerKind::Finished;
+                a.say.push(words::FINISHED.into());
+            }
+            Grade::Solved { by } => {
+                a.kind = AnswerKind::Solved;
+                a.say.push(words::played(me, p));
+                a.say.push(words::solved(by, me));
+                self.revealed = self.session.history().len();
+            }
+            Grade::Accepted { reply, note } => {
+                a.kind = AnswerKind::Accepted;
+                a.say.push(words::correct(me, p));
+                a.say.push(words::reply(note, reply, me));
+                self.revealed += 1;
+            }
+            Grade::Wrong { reason, .. } => {
+                a.kind = AnswerKind::Wrong;
+                self.wrong += 1;
+                self.refuted = Some(p);
+                let why = words::wrong(reason, p, me);
+                a.say.push(words::not_right(me, p));
+                a.say.push(why.clone());
+                a.reason = Some(why);
+                self.revealed += 1;
+            }
+        }
+        if a.kind != AnswerKind::Illegal {
+            self.hint_area = None;
+            self.hint_move = None;
+        }
+        if matches!(
+            a.kind,
+            AnswerKind::Accepted | AnswerKind::Solved | AnswerKind::Wrong
+        ) {
+            a.grow = Some(p);
+        }
+        a.pending = self.pending();
+        self.settle();
+        a
+    }
+
+    fn pending(&self) -> usize {
+        self.session.history().len().saturating_sub(self.revealed)
+    }
+
+    /// Shows the next move the app has played (a reply, or the next move of a refutation);
+    /// `None` when nothing is left to show.
+    pub fn reveal(&mut self) -> Option<Revealed> {
+        let history = self.session.history();
+        let &(point, colour) = history.get(self.revealed)?;
+        self.revealed += 1;
+        Some(Revealed {
+            point,
+            colour,
+            say: words::played(colour, point),
+            more: self.revealed < history.len(),
+        })
+    }
+
+    /// Takes back the player's last turn.
+    pub fn undo(&mut self) {
+        self.session.undo();
+        self.revealed = self.session.history().len();
+        self.refuted = None;
+        self.clear_marks();
+        self.settle();
+    }
+
+    /// Back to the puzzle's start; the hints already seen stay counted.
+    pub fn retry(&mut self) {
+        self.session.retry();
+        self.revealed = 0;
+        self.refuted = None;
+        self.clear_marks();
+        self.settle();
+    }
+
+    fn clear_marks(&mut self) {
+        self.hint_area = None;
+        self.hint_move = None;
+        self.ghost = None;
+    }
+
+    /// The next hint: 1 the theme and length, 2 the area of the key move, 3 the move.
+    pub fn hint(&mut self, solver: &mut Solver) -> HintAnswer {
+        let step = (self.hints + 1).min(3);
+        let Some(h) = self.session.hint(solver, step) else {
+            return HintAnswer {
+                step: 0,
+                say: words::NO_HINT.into(),
+            };
+        };
+        self.hints = self.hints.max(step);
+        match h {
+            Hint::Area { from, to } => self.hint_area = Some((from, to)),
+            Hint::Move(m) => self.hint_move = Some(m),
+            Hint::Theme { .. } => {}
+        }
+        self.settle();
+        HintAnswer {
+            step,
+            say: words::hint(&h),
+        }
+    }
+
+    /// Moves the keyboard cursor by (`dx`, `dy`) points (up is +1); returns its point.
+    pub fn move_cursor(&mut self, dx: i32, dy: i32) -> Point {
+        self.cursor.step(self.size(), dx, dy)
+    }
+
+    /// Plays the point under the keyboard cursor.
+    pub fn place_at_cursor(&mut self, solver: &mut Solver) -> Answer {
+        match self.cursor.0 {
+            Some(p) => self.play(solver, p),
+            None => Answer::saying(AnswerKind::None, words::NO_CURSOR),
+        }
+    }
+
+    /// Where things stand.
+    pub fn status(&self) -> PuzzleStatus {
+        let h = self.session.history();
+        PuzzleStatus {
+            size: self.size(),
+            rule: self.session.board().rule(),
+            to_move: self.session.to_move(),
+            goal: words::goal(self.session.puzzle()),
+            state: self.session.state(),
+            moves: h[..self.revealed.min(h.len())]
+                .iter()
+                .map(|m| m.0)
+                .collect(),
+            pending: self.pending(),
+            attempt: self.live(),
+            record: Record {
+                played: self.played(),
+                wrong: self.wrong,
+                hints: self.hints,
+                attempt: self.attempt,
+            },
+        }
+    }
+
+    /// The player's own moves since the start. Every turn of the player is one move and one
+    /// reply, except the last, which may be a five or a wrong move with its refutation after
+    /// it.
+    fn played(&self) -> Vec<Point> {
+        let h = self.session.history();
+        let mut v: Vec<Point> = h.iter().step_by(2).map(|m| m.0).collect();
+        if let (State::Failed, Some(r)) = (self.session.state(), self.refuted) {
+            if let Some(i) = v.iter().position(|&m| m == r) {
+                v.truncate(i + 1);
+            }
+        }
+        v
+    }
+
+    /// The stones on show: the position with the revealed moves.
+    fn shown_stones(&self) -> Vec<(Point, Stone)> {
+        let puzzle = self.session.puzzle();
+        let mut v: Vec<(Point, Stone)> = puzzle
+            .black
+            .iter()
+            .map(|&p| (p, Stone::Black))
+            .chain(puzzle.white.iter().map(|&p| (p, Stone::White)))
+            .collect();
+        let h = self.session.history();
+        v.extend(h[..self.revealed.min(h.len())].iter().copied());
+        v
+    }
+
+    /// The stone on show on `p`, if any.
+    pub fn stone_at(&self, p: Point) -> Option<Stone> {
+        self.shown_stones().iter().find(|s| s.0 == p).map(|s| s.1)
+    }
+
+    /// What to draw.
+    pub fn view(&self) -> View {
+        let h = self.session.history();
+        let shown = &h[..self.revealed.min(h.len())];
+        let state = self.session.state();
+        let b = self.session.board();
+        let all_shown = self.revealed >= h.len();
+        let mut m = Marks {
+            cursor: self.cursor.0,
+            last: shown.last().map(|x| x.0),
+            hint_area: self.hint_area,
+            hint_move: self.hint_move,
+            refuted: self.refuted.filter(|_| state == State::Failed),
+            ghost: self.ghost.map(|g| (g, self.session.to_move())),
+            ..Marks::default()
+        };
+        if self.options.numbers {
+            m.numbers = shown
+                .iter()
+                .enumerate()
+                .map(|(i, x)| (x.0, i as u16 + 1))
+                .collect();
+        }
+        if self.options.forbidden
+            && state == State::Playing
+            && b.rule().has_forbidden(self.session.to_move())
+            && all_shown
+        {
+            m.forbidden = b.forbidden_points().into_iter().map(|x| x.0).collect();
+        }
+        if state == State::Solved && all_shown {
+            m.winning = winning_stones(b);
+        }
+        View {
+            size: self.size(),
+            stones: self.shown_stones(),
+            marks: m,
+        }
+    }
+
+    /// The board in words, for a screen reader.
+    pub fn describe(&self) -> String {
+        let head = format!("{}.", words::goal(self.session.puzzle()));
+        describe(&head, &self.shown_stones(), self.view().marks.last)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::formats::setfile;
+    use crate::search::SolverConfig;
+
+    /// The fixture set's first puzzle (a VCF under freestyle), as the browser test loads it.
+    fn fixture() -> Vec<Puzzle> {
+        let text = include_str!("../../../tests/data/fixture_set.json");
+        setfile::parse(text).unwrap().puzzles
+    }
+
+    fn solver() -> Solver {
+        Solver::new(crate::puzzle::grade::solver_config())
+    }
+
+    fn touch_options() -> Settings {
+        Settings {
+            confirm: true,
+            ..Settings::default()
+        }
+    }
+
+    #[test]
+    fn a_first_touch_previews_and_a_second_plays() {
+        let p = fixture().into_iter().next().unwrap();
+        let first = p.line[0];
+        let mut b = PuzzleBoard::new(p, true);
+        b.set_options(touch_options());
+        let mut s = solver();
+        let a = b.touch(&mut s, first, true);
+        assert_eq!(a.kind, AnswerKind::Ghost);
+        assert_eq!(b.view().marks.ghost, Some((first, b.status().to_move)));
+        assert!(b.status().moves.is_empty(), "a preview plays nothing");
+        // A tap elsewhere moves the preview; a tap on it plays.
+        let other = Point::new(0, 0);
+        assert_eq!(b.touch(&mut s, other, true).kind, AnswerKind::Ghost);
+        assert_eq!(b.touch(&mut s, other, true).kind, AnswerKind::Wrong);
+        // A mouse click plays at once, whatever the setting.
+        b.retry();
+        assert_eq!(b.touch(&mut s, first, false).kind, AnswerKind::Accepted);
+    }
+
+    #[test]
+    fn replies_are_revealed_one_by_one_and_the_line_solves() {
+        let p = fixture().into_iter().next().unwrap();
+        let line = p.line.clone();
+        let mut b = PuzzleBoard::new(p, true);
+        let mut s = solver();
+        for (i, pair) in line.chunks(2).enumerate() {
+            let a = b.play(&mut s, pair[0]);
+            if pair.len() == 1 {
+                assert_eq!(a.kind, AnswerKind::Solved, "move {i}");
+                assert_eq!(a.pending, 0);
+                break;
+            }
+            assert_eq!(a.kind, AnswerKind::Accepted, "move {i}: {:?}", a.say);
+            assert_eq!(a.pending, 1);
+            assert_eq!(b.stone_at(pair[1]), None, "the reply waits to be revealed");
+            let r = b.reveal().unwrap();
+            assert_eq!(r.point, pair[1]);
+            assert!(!r.more);
+            assert!(b.reveal().is_none());
+            assert!(b.stone_at(pair[1]).is_some());
+        }
+        let st = b.status();
+        assert_eq!(st.state, State::Solved);
+        assert_eq!(st.attempt, Attempt::Clean);
+        assert_eq!(st.record.attempt, Attempt::Clean);
+        assert!(!b.view().marks.winning.is_empty());
+    }
+
+    #[test]
+    fn a_wrong_move_is_refuted_slowly_and_undo_takes_it_back() {
+        let p = fixture().into_iter().next().unwrap();
+        let mut b = PuzzleBoard::new(p, true);
+        let mut s = solver();
+        let a = b.play(&mut s, Point::new(0, 0));
+        assert_eq!(a.kind, AnswerKind::Wrong);
+        assert!(a.reason.is_some());
+        assert!(a.pending >= 1);
+        while b.reveal().is_some() {}
+        assert_eq!(b.status().state, State::Failed);
+        assert_eq!(b.view().marks.refuted, Some(Point::new(0, 0)));
+        assert_eq!(b.status().record.played, vec![Point::new(0, 0)]);
+        assert_eq!(b.status().record.attempt, Attempt::Failed);
+        b.undo();
+        assert_eq!(b.status().state, State::Playing);
+        assert!(b.status().moves.is_empty());
+        // The failure stays on the record; a solve after it counts as helped.
+        assert_eq!(b.status().record.attempt, Attempt::Failed);
+        assert_eq!(b.status().attempt, Attempt::Trying);
+    }
+
+    #[test]
+    fn hints_go_in_three_steps_and_count() {
+        let p = fixture().into_iter().next().unwrap();
+        let key = p.line[0];
+        let mut b = PuzzleBoard::new(p, true);
+        let mut s = solver();
+        let h1 = b.hint(&mut s);
+        assert_eq!(h1.step, 1);
+        assert!(h1.say.starts_with("A four-three"), "{}", h1.say);
+        let h2 = b.hint(&mut s);
+        assert_eq!(h2.step, 2);
+        let (from, to) = b.view().marks.hint_area.unwrap();
+        assert!((from.x..=to.x).contains(&key.x) && (from.y..=to.y).contains(&key.y));
+        let h3 = b.hint(&mut s);
+        assert_eq!(h3.step, 3);
+        assert_eq!(h3.say, format!("The key move is {key}."));
+        assert_eq!(b.view().marks.hint_move, Some(key));
+        assert_eq!(b.status().record.hints, 3);
+        assert_eq!(b.status().attempt, Attempt::Trying);
+    }
+
+    #[test]
+    fn a_record_restores_the_position_and_the_counts() {
+        let p = fixture().into_iter().next().unwrap();
+        let line = p.line.clone();
+        let mut s = solver();
+        let mut b = PuzzleBoard::new(p.clone(), true);
+        b.play(&mut s, line[0]);
+        b.hint(&mut s);
+        let rec = b.status().record;
+        let mut again = PuzzleBoard::new(p, true);
+        again.restore(&mut s, &rec);
+        let st = again.status();
+        assert_eq!(
+            st.moves,
+            line[..2].to_vec(),
+            "the move and its reply, shown at once"
+        );
+        assert_eq!(st.pending, 0);
+        assert_eq!(st.record, rec);
+    }
+
+    #[test]
+    fn the_keyboard_cursor_starts_at_the_centre_and_stays_on_the_board() {
+        let p = fixture().into_iter().next().unwrap();
+        let mut b = PuzzleBoard::new(p, true);
+        let mut s = Solver::new(SolverConfig::default());
+        assert_eq!(b.place_at_cursor(&mut s).kind, AnswerKind::None);
+        assert_eq!(b.move_cursor(1, 0), "h8".parse().unwrap());
+        for _ in 0..20 {
+            b.move_cursor(-1, 1);
+        }
+        assert_eq!(b.move_cursor(0, 0), "a15".parse().unwrap());
+    }
+}

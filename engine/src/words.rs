@@ -1,0 +1,521 @@
+//! Every sentence the player reads about the game, in one place.
+//!
+//! The engine decides in values (a [`Grade`] with its [`ReplyNote`] or [`WrongReason`], a
+//! [`Hint`], a [`StudyAnswer`], an [`Attempt`]); this module turns them into plain English, so
+//! the wording can be read, tidied and tested in one file, natively. Error types keep their own
+//! `Display` (they say what is wrong with an input); here they only get the frame the app shows
+//! them in ("Not played: ...").
+
+use crate::geometry::Point;
+use crate::puzzle::attempt::Attempt;
+use crate::puzzle::grade::{ReplyNote, SolvedBy, WrongReason};
+use crate::puzzle::hints::Hint;
+use crate::puzzle::{Puzzle, Theme};
+use crate::rules::{Forbidden, MoveError};
+use crate::study::{Study, StudyAnswer, StudySearch};
+use crate::types::Stone;
+
+/// "Black" or "White".
+pub const fn colour(c: Stone) -> &'static str {
+    match c {
+        Stone::Black => "Black",
+        Stone::White => "White",
+    }
+}
+
+/// The theme in a few words, as a noun phrase: "a win with fours".
+pub const fn theme(t: Theme) -> &'static str {
+    match t {
+        Theme::FourThree => "a four-three",
+        Theme::Vcf => "a win with fours",
+        Theme::Vct => "a win with threes and fours",
+        Theme::Defend => "a defence",
+        Theme::ForbiddenTrap => "a forbidden-point trap",
+        Theme::ForbiddenWin => "a win past the forbidden points",
+    }
+}
+
+/// How a try went, for marks and summaries: "not tried", "in progress", "solved", "solved
+/// with help", "failed".
+pub const fn attempt(a: Attempt) -> &'static str {
+    match a {
+        Attempt::Untried => "not tried",
+        Attempt::Trying => "in progress",
+        Attempt::Clean => "solved",
+        Attempt::Helped => "solved with help",
+        Attempt::Failed => "failed",
+    }
+}
+
+/// The goal of a puzzle, for the player: "Black to play and win with fours".
+pub fn goal(p: &Puzzle) -> String {
+    let me = colour(p.to_move);
+    let them = colour(p.to_move.opponent());
+    match p.theme {
+        Theme::FourThree => format!("{me} to play: find the four-three and win"),
+        Theme::Vcf => format!("{me} to play and win with fours"),
+        Theme::Vct => format!("{me} to play and win with threes and fours"),
+        Theme::Defend => format!("{me} to play: stop {them}'s win"),
+        Theme::ForbiddenTrap => {
+            format!("{me} to play and win: drive {them} onto a forbidden point")
+        }
+        Theme::ForbiddenWin => {
+            format!("{me} to play and win with fours; mind the forbidden points")
+        }
+    }
+}
+
+/// "a double three" (what a forbidden point would make).
+pub const fn forbidden(why: Forbidden) -> &'static str {
+    why.words()
+}
+
+/// A move that was not played, and why.
+pub fn not_played(e: &MoveError) -> String {
+    match e {
+        MoveError::OffBoard(p) => format!("Not played: {p} is off the board."),
+        MoveError::Occupied(p) => format!("Not played: {p} is already taken."),
+        MoveError::Forbidden(p, why) => format!(
+            "Not played: {p} is forbidden for Black: it makes {}.",
+            forbidden(*why)
+        ),
+        MoveError::GameOver => "Not played: the game is over.".to_string(),
+    }
+}
+
+/// A stone played: "Black h8."
+pub fn played(c: Stone, p: Point) -> String {
+    format!("{} {p}.", colour(c))
+}
+
+/// The player's move was accepted: "Black h8: correct."
+pub fn correct(c: Stone, p: Point) -> String {
+    format!("{} {p}: correct.", colour(c))
+}
+
+/// The player's move was wrong: "Black h8: not right."
+pub fn not_right(c: Stone, p: Point) -> String {
+    format!("{} {p}: not right.", colour(c))
+}
+
+/// A point chosen with the first of two taps.
+pub fn selected(p: Point) -> String {
+    format!("{p} selected: tap it again to play.")
+}
+
+/// A move after the puzzle ended.
+pub const FINISHED: &str = "The puzzle is over: undo or try again.";
+
+/// Enter pressed before the keyboard cursor was moved.
+pub const NO_CURSOR: &str = "Move the cursor with the arrow keys first.";
+
+/// What the opponent's reply to an accepted move does; `player` is the side solving.
+pub fn reply(note: ReplyNote, reply: Point, player: Stone) -> String {
+    let t = colour(player.opponent());
+    match note {
+        ReplyNote::Blocks => format!("{t} blocks at {reply}."),
+        ReplyNote::BlocksOneOfTwo => format!("{t} blocks at {reply}, but cannot block both ends."),
+        ReplyNote::BlocksWithFour => format!("{t} blocks at {reply} and makes a four of its own."),
+        ReplyNote::CannotBlock { at, why } => format!(
+            "{t} cannot block at {at}: it would make {} (forbidden for Black).",
+            forbidden(why)
+        ),
+        ReplyNote::AnswersWithFour => format!("{t} answers at {reply} with a four."),
+        ReplyNote::Defends => format!("{t} defends at {reply}."),
+        ReplyNote::MustBlock => format!("{t} must block at {reply}. Now stop the threat."),
+    }
+}
+
+/// The puzzle is solved: "Solved. Five in a row."
+pub fn solved(by: SolvedBy, player: Stone) -> String {
+    match by {
+        SolvedBy::Five => "Solved. Five in a row.".to_string(),
+        SolvedBy::Stopped => format!(
+            "Solved. {} has stopped {}'s attack.",
+            colour(player),
+            colour(player.opponent())
+        ),
+    }
+}
+
+/// Why the player's move `p` is wrong, in one sentence.
+pub fn wrong(reason: WrongReason, p: Point, player: Stone) -> String {
+    let (m, t) = (colour(player), colour(player.opponent()));
+    match reason {
+        WrongReason::NoFollowUp {
+            block,
+            counter_four: true,
+        } => format!(
+            "{t} blocks at {block} with a four of its own, and {m} has no winning follow-up."
+        ),
+        WrongReason::NoFollowUp {
+            block,
+            counter_four: false,
+        } => format!("{t} blocks at {block}, and {m} has no winning follow-up."),
+        WrongReason::OpponentWins {
+            first,
+            not_a_four: true,
+        } => format!("{p} is not a four, so {t} is free to play {first} and win with fours."),
+        WrongReason::OpponentWins {
+            first,
+            not_a_four: false,
+        } => format!("{t} answers with a win of its own, starting at {first}."),
+        WrongReason::Stopped {
+            at,
+            counter_four: true,
+            ..
+        } => format!("{t} answers at {at} with a four of its own, and the attack stalls."),
+        WrongReason::Stopped {
+            at,
+            not_a_four: true,
+            ..
+        } => format!("{p} is not a four, so {t} has time to defend at {at}."),
+        WrongReason::Stopped { at, .. } => {
+            format!("{t} defends at {at}, and {m} has no more threats that win.")
+        }
+        WrongReason::NoThreat { at } => format!("{p} makes no threat that wins; {t} takes {at}."),
+        WrongReason::NotKept { at } => format!("{p} does not keep a forced win; {t} takes {at}."),
+        WrongReason::DoesNotStop { first, with_fours } => {
+            let how = if with_fours {
+                "wins with fours"
+            } else {
+                "wins with threes and fours"
+            };
+            format!("{p} does not stop it: {t} plays {first} and {how}.")
+        }
+        WrongReason::NotProved => format!("{p} could not be proved to stop {t}'s attack."),
+    }
+}
+
+fn count(k: u16, one: &str, many: &str) -> String {
+    if k == 1 {
+        format!("1 {one}")
+    } else {
+        format!("{k} {many}")
+    }
+}
+
+/// A hint in words.
+pub fn hint(h: &Hint) -> String {
+    match *h {
+        Hint::Theme {
+            theme,
+            length,
+            attacker,
+        } => match theme {
+            Theme::FourThree => "A four-three: one move makes a four and an open three.".into(),
+            Theme::Vcf | Theme::ForbiddenWin => format!(
+                "A win with fours: {}, then the five.",
+                count(length, "four", "fours")
+            ),
+            Theme::Vct => format!(
+                "A win with threats: {} besides fours.",
+                count(length, "three or threat", "threes or threats")
+            ),
+            Theme::Defend => format!(
+                "A defence: {} threatens a win; find the move that stops it.",
+                colour(attacker)
+            ),
+            Theme::ForbiddenTrap => {
+                "A forbidden-point trap: make Black's only block a forbidden point.".into()
+            }
+        },
+        Hint::Area { from, to } => format!("The key move is between {from} and {to}."),
+        Hint::Move(m) => format!("The key move is {m}."),
+    }
+}
+
+/// No hint is given once the puzzle is over.
+pub const NO_HINT: &str = "No hint: the puzzle is over.";
+
+/// The heading of a study board's description: "Study board, renju rules, 15 by 15. Black to
+/// move."
+pub fn study_heading(rule: crate::types::Rule, size: u8, to_move: Stone) -> String {
+    format!(
+        "Study board, {} rules, {size} by {size}. {} to move.",
+        rule.name(),
+        colour(to_move)
+    )
+}
+
+/// A study board's side to move: "Black to move".
+pub fn to_move(c: Stone) -> String {
+    format!("{} to move", colour(c))
+}
+
+/// A board in words, for a screen reader: `head`, then every stone by colour (each list in
+/// row order from a1), then the last move.
+pub fn board(head: &str, black: &[Point], white: &[Point], last: Option<(Point, Stone)>) -> String {
+    let names = |v: &[Point]| {
+        if v.is_empty() {
+            "none".to_string()
+        } else {
+            commas(v)
+        }
+    };
+    let mut out = format!(
+        "{head} Black stones ({}): {}. White stones ({}): {}.",
+        black.len(),
+        names(black),
+        white.len(),
+        names(white)
+    );
+    if let Some((p, c)) = last {
+        out.push_str(&format!(" Last move: {} {p}.", colour(c)));
+    }
+    out
+}
+
+/// A stone set up on the study board: "Black h8 (set up)."
+pub fn set_up(c: Stone, p: Point) -> String {
+    format!("{} {p} (set up).", colour(c))
+}
+
+/// A stone taken off the study board: "Removed black h8."
+pub fn removed(c: Stone, p: Point) -> String {
+    format!("Removed {} {p}.", c.name())
+}
+
+/// A five made on the study board.
+pub fn five_made(c: Stone) -> String {
+    format!("{} has five in a row.", colour(c))
+}
+
+/// One step of a line shown on the study board: "3. Black h8", or that it is hidden.
+pub fn line_step(shown: usize, c: Stone, p: Option<Point>) -> String {
+    match p {
+        Some(p) if shown > 0 => format!("{shown}. {} {p}", colour(c)),
+        _ => "The line is hidden.".to_string(),
+    }
+}
+
+fn list(points: &[Point]) -> String {
+    points
+        .iter()
+        .map(|p| p.to_string())
+        .collect::<Vec<_>>()
+        .join(" ")
+}
+
+fn commas(points: &[Point]) -> String {
+    points
+        .iter()
+        .map(|p| p.to_string())
+        .collect::<Vec<_>>()
+        .join(", ")
+}
+
+/// What a study search found, in sentences.
+pub fn study(s: &Study) -> Vec<String> {
+    let me = colour(s.to_move);
+    let them = colour(s.to_move.opponent());
+    let mut out = Vec::new();
+    match &s.answer {
+        StudyAnswer::Win {
+            line,
+            first_moves,
+            undecided,
+            ..
+        } => {
+            let how = if s.search == StudySearch::Vcf {
+                "with fours"
+            } else {
+                "with threes and fours"
+            };
+            let moves = line.len().div_ceil(2);
+            out.push(format!(
+                "{me} wins {how} in {moves} move{}: {}.",
+                if moves == 1 { "" } else { "s" },
+                list(line)
+            ));
+            let others: Vec<Point> = first_moves
+                .iter()
+                .copied()
+                .filter(|p| Some(p) != line.first())
+                .collect();
+            if !others.is_empty() {
+                out.push(format!("Other first moves that win: {}.", commas(&others)));
+            }
+            if !undecided.is_empty() {
+                out.push(format!(
+                    "Not decided within the budget: {}.",
+                    commas(undecided)
+                ));
+            }
+        }
+        StudyAnswer::NoWin if s.search == StudySearch::Vcf => {
+            out.push(format!("{me} has no win with fours here."))
+        }
+        StudyAnswer::NoWin => out.push(format!(
+            "{me} has no win with threes and fours here (the search allows up to six threes)."
+        )),
+        StudyAnswer::Threat {
+            threat,
+            defences,
+            undecided,
+        } => {
+            out.push(format!(
+                "{them} threatens to win: {} (step through it below).",
+                list(threat)
+            ));
+            if defences.is_empty() && undecided.is_empty() {
+                out.push(format!("No move stops it: {me} loses."));
+            } else if !defences.is_empty() {
+                let n = defences.len();
+                out.push(format!(
+                    "{n} move{} stop{} it: {}.",
+                    if n == 1 { "" } else { "s" },
+                    if n == 1 { "s" } else { "" },
+                    commas(defences)
+                ));
+            }
+            if !undecided.is_empty() {
+                out.push(format!(
+                    "Not decided within the budget: {}.",
+                    commas(undecided)
+                ));
+            }
+        }
+        StudyAnswer::NoThreat => out.push(format!(
+            "{them} has no win with threes and fours to stop: {me} is free to play anywhere."
+        )),
+        StudyAnswer::Undecided => out.push(format!(
+            "The search stopped at its budget ({} positions) without an answer; a smaller \
+             question (VCF) may still be answered.",
+            s.nodes
+        )),
+    }
+    out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use std::str::FromStr;
+
+    fn pts(s: &str) -> Vec<Point> {
+        s.split_whitespace()
+            .map(|t| Point::from_str(t).unwrap())
+            .collect()
+    }
+
+    fn study_of(search: StudySearch, side: Stone, answer: StudyAnswer, nodes: u64) -> Study {
+        Study {
+            search,
+            to_move: side,
+            answer,
+            threat: None,
+            nodes,
+        }
+    }
+
+    #[test]
+    fn study_results_in_words() {
+        let w = study(&study_of(
+            StudySearch::Vcf,
+            Stone::Black,
+            StudyAnswer::Win {
+                line: pts("d8 d9 f10 h10 g11"),
+                depth: 2,
+                first_moves: pts("d8 f10"),
+                undecided: vec![],
+            },
+            120,
+        ));
+        assert_eq!(
+            w,
+            vec![
+                "Black wins with fours in 3 moves: d8 d9 f10 h10 g11.",
+                "Other first moves that win: f10."
+            ]
+        );
+        let w = study(&study_of(
+            StudySearch::Vct,
+            Stone::White,
+            StudyAnswer::NoWin,
+            9,
+        ));
+        assert_eq!(
+            w,
+            vec![
+                "White has no win with threes and fours here (the search allows up to six threes)."
+            ]
+        );
+        let w = study(&study_of(
+            StudySearch::Defend,
+            Stone::Black,
+            StudyAnswer::Threat {
+                threat: pts("h8 h9 h10"),
+                defences: pts("h9"),
+                undecided: pts("j9"),
+            },
+            9,
+        ));
+        assert_eq!(
+            w,
+            vec![
+                "White threatens to win: h8 h9 h10 (step through it below).",
+                "1 move stops it: h9.",
+                "Not decided within the budget: j9."
+            ]
+        );
+        let lost = StudyAnswer::Threat {
+            threat: pts("h8"),
+            defences: vec![],
+            undecided: vec![],
+        };
+        assert_eq!(lost.result(), "lost");
+        let w = study(&study_of(StudySearch::Defend, Stone::Black, lost, 9));
+        assert_eq!(w[1], "No move stops it: Black loses.");
+        let w = study(&study_of(
+            StudySearch::Defend,
+            Stone::White,
+            StudyAnswer::NoThreat,
+            9,
+        ));
+        assert_eq!(
+            w,
+            vec!["Black has no win with threes and fours to stop: White is free to play anywhere."]
+        );
+        let w = study(&study_of(
+            StudySearch::Vct,
+            Stone::Black,
+            StudyAnswer::Undecided,
+            500,
+        ));
+        assert!(w[0].starts_with("The search stopped at its budget (500 positions)"));
+    }
+
+    #[test]
+    fn wrong_moves_are_explained_from_the_player_side() {
+        let p: Point = "k8".parse().unwrap();
+        let l8: Point = "l8".parse().unwrap();
+        assert_eq!(
+            wrong(
+                WrongReason::NoFollowUp {
+                    block: l8,
+                    counter_four: true
+                },
+                p,
+                Stone::Black
+            ),
+            "White blocks at l8 with a four of its own, and Black has no winning follow-up."
+        );
+        assert_eq!(
+            wrong(
+                WrongReason::Stopped {
+                    at: l8,
+                    counter_four: false,
+                    not_a_four: true
+                },
+                p,
+                Stone::White
+            ),
+            "k8 is not a four, so Black has time to defend at l8."
+        );
+        assert_eq!(
+            not_played(&MoveError::Forbidden(p, Forbidden::DoubleThree)),
+            "Not played: k8 is forbidden for Black: it makes a double three."
+        );
+    }
+}
