@@ -6,8 +6,9 @@
 //!   with exactly five; black's double three, double four and overline are forbidden; a five
 //!   made together with a forbidden shape wins; white wins with five or more and has no
 //!   restrictions. A "three", for the double-three rule, is a line that one more stone turns
-//!   into a straight four, where that stone itself must not be on a forbidden point; this is
-//!   checked recursively, with the earlier stones in place.
+//!   into a straight four, where that stone must not make a five at the same time (in another
+//!   line) and must not itself be on a forbidden point; this is checked recursively, with the
+//!   earlier stones in place.
 
 use std::fmt;
 
@@ -102,8 +103,10 @@ impl Board {
             return None;
         }
         notes.note(idx);
-        // Each candidate three is real only if one of its straight-four points is itself not
-        // forbidden, with this stone on the board.
+        // Each candidate three is real only if one of its straight-four points, with this stone
+        // on the board, makes no five at the same time (RIF section 3: a three is a row "to
+        // which you, without at the same time a five in a row is made, can add one more stone
+        // to attain a straight four") and is itself not forbidden.
         let lines: Vec<_> = (0..4)
             .map(|d| (d, self.line_at(idx, Stone::Black, d)))
             .filter(|(_, l)| l.shape().is_three())
@@ -113,7 +116,9 @@ impl Board {
         for (d, info) in lines {
             let is_real = info.offsets().any(|off| {
                 let q = self.offset(idx, d, off as isize);
-                self.is_empty_at(q) && self.forbidden_noting(q, notes).is_none()
+                self.is_empty_at(q)
+                    && !self.wins_at(q, Stone::Black)
+                    && self.forbidden_noting(q, notes).is_none()
             });
             if is_real {
                 real += 1;

@@ -240,11 +240,14 @@ fn a_three_whose_straight_four_point_is_forbidden_is_no_three() {
         "h8",
         Some(Forbidden::DoubleThree),
     );
-    // With f6 f7 . f9 f10 instead, f8 makes exactly five: a winning move is never forbidden,
-    // so the row-8 three is real and h8 is a double three again.
+    // With f6 f7 . f9 f10 instead, f8 makes exactly five. A five is never forbidden, but the
+    // stone that turns the row-8 three into a straight four must make no five at the same
+    // time (RIF section 3, the definition of a three: "a row with three stones to which you,
+    // without at the same time a five in a row is made, can add one more stone to attain a
+    // straight four"). So the row-8 "three" is no three and h8 is allowed.
     let b = stones(Rule::Renju, &format!("{row} f6 f7 f9 f10"), "k8");
     assert_eq!(b.forbidden(p("f8")), None);
-    expect(&b, "h8", Some(Forbidden::DoubleThree));
+    expect(&b, "h8", None);
     // With f9 f10 f11 and white on f7, f8 would make a four in column f as well as the
     // straight four f8-i8 in row 8: a double four, so again the three is not real.
     let b = stones(Rule::Renju, &format!("{row} f9 f10 f11"), "k8 f7");
@@ -321,6 +324,80 @@ fn a_three_with_one_allowed_straight_four_point_is_a_three() {
     );
     assert_eq!(b.forbidden(p("k8")), Some(Forbidden::Overline));
     expect(&b, "h8", None);
+}
+
+#[test]
+fn a_three_whose_only_straight_four_points_make_a_five_elsewhere_is_no_three() {
+    // RIF section 3 (International Rules of Renju, 1996 with the 1998 correction), the
+    // definition of a three: "a row with three stones to which you, without at the same time
+    // a five in a row is made, can add one more stone to attain a straight four". Row 8:
+    // h8 i8 j8 (h8 the point tried) reaches a straight four at g8 or at k8; column h holds
+    // h9 h10 for the second three. Column g holds g6 g7 . g9 g10, so g8 also makes five in
+    // column g: that way does not count, but k8 still does, the row-8 three is real, and h8 is
+    // a double three.
+    let b = stones(Rule::Renju, "i8 j8 h9 h10 g6 g7 g9 g10", "a1");
+    assert!(b.threats(p("g8"), Stone::Black).five(), "g8 makes five in column g");
+    expect(&b, "h8", Some(Forbidden::DoubleThree));
+    // With column k holding k6 k7 . k9 k10 as well, both straight-four points make a five
+    // elsewhere: the row-8 "three" is no three and h8 is allowed (black has other ways to
+    // win, but h8 is no double three).
+    let b = stones(
+        Rule::Renju,
+        "i8 j8 h9 h10 g6 g7 g9 g10 k6 k7 k9 k10",
+        "a1 a2",
+    );
+    assert!(b.threats(p("k8"), Stone::Black).five());
+    expect(&b, "h8", None);
+    assert_eq!(reading::Grid::of(&b).forbidden_points(), b.forbidden_points());
+}
+
+#[test]
+fn a_four_three_three_is_saved_when_one_three_can_only_become_five() {
+    // RIF section 3 and section 9.3 (a double three is forbidden, whatever fours come with
+    // it). h8 makes a four in column h (h5 h6 h7 h8, closed by white h4), a three in row 8
+    // (i8 j8: straight-four points g8 and k8) and a three on the diagonal (i9 j10: g7 and
+    // k11). That is four-three-three: forbidden as a double three.
+    let base = "h5 h6 h7 i8 j8 i9 j10";
+    let b = stones(Rule::Renju, base, "h4 a1");
+    assert_eq!(b.threats(p("h8"), Stone::Black).fours(), 1);
+    expect(&b, "h8", Some(Forbidden::DoubleThree));
+    // Put g6 g7 . g9 g10 in column g and k6 k7 . k9 k10 in column k: both straight-four points
+    // of the row-8 three now make a five elsewhere, so it is no three; h8 is a four-three,
+    // which is allowed. (g7 is also a straight-four point of the diagonal three, and black has
+    // taken it, so the diagonal's only way is k11.)
+    let b = stones(
+        Rule::Renju,
+        &format!("{base} g6 g9 g10 k6 k7 k9 k10"),
+        "h4 a1 a2 a3 a4",
+    );
+    expect(&b, "h8", None);
+    assert_eq!(reading::Grid::of(&b).forbidden_points(), b.forbidden_points());
+}
+
+#[test]
+fn the_clause_decides_an_extension_point_in_the_recursion() {
+    // As in `the_three_test_recurses`: h8 makes the row-8 three g8 . i8 (white k8, only
+    // straight-four point f8) and the column three h9 h10; f8, with h8 on the board, makes the
+    // straight four f8-i8 and two threes of its own, f8-f9-f10 and d10-e9-f8 (anti-diagonal,
+    // closed by white h6, so its only straight-four point is c11). Column c holds c8 c9 c10 .
+    // c12, so c11 makes exactly five in column c. By the RIF definition of a three (section 3:
+    // no five "at the same time"), c11 is no way to a straight four, the anti-diagonal is no
+    // three, f8 makes one three and a four and is allowed, the row-8 three through h8 is real,
+    // and h8 is a double three. Without the clause, c11 would count, f8 would be a double
+    // three, and h8 would be allowed.
+    let b = stones(
+        Rule::Renju,
+        "g8 i8 h9 h10 f9 f10 e9 d10 c8 c9 c10 c12",
+        "k8 h6 a1 a2",
+    );
+    let mut after = b.clone();
+    after.place(p("h8"), Stone::Black);
+    after.place(p("f8"), Stone::Black);
+    assert!(after.threats(p("c11"), Stone::Black).five(), "c11 makes five");
+    after.remove(p("f8"));
+    assert_eq!(after.forbidden(p("f8")), None);
+    expect(&b, "h8", Some(Forbidden::DoubleThree));
+    assert_eq!(reading::Grid::of(&b).forbidden_points(), b.forbidden_points());
 }
 
 #[test]
@@ -645,7 +722,8 @@ pub(crate) mod reading {
         }
 
         /// A real three through (x, y) along d: one more stone on the line, itself allowed
-        /// with (x, y) on the board, makes a straight four through (x, y).
+        /// with (x, y) on the board and making no five at the same time, makes a straight four
+        /// through (x, y).
         fn three(&mut self, x: i32, y: i32, d: (i32, i32)) -> bool {
             if self.fours(x, y, d) > 0 {
                 return false;
@@ -657,8 +735,11 @@ pub(crate) mod reading {
                 }
                 self.set(qx, qy, 1);
                 let straight = self.straight_four(x, y, d);
+                // RIF section 3: the stone that makes the straight four must not make a five
+                // in a row at the same time (in any line through it).
+                let five = STEPS.iter().any(|&e| self.run(qx, qy, e) == 5);
                 self.set(qx, qy, 0);
-                if straight && self.forbidden(qx, qy).is_none() {
+                if straight && !five && self.forbidden(qx, qy).is_none() {
                     return true;
                 }
             }
