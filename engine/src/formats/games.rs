@@ -81,35 +81,55 @@ impl Position {
     /// The position of byte `offset` of `bytes` (an offset past the end gives the position
     /// just after the last byte).
     pub fn of_byte(bytes: &[u8], offset: usize) -> Position {
-        Position::of_bytes(bytes, &[offset])[0]
+        Cursor::new(bytes).at(offset)
+    }
+}
+
+/// Walks a file forward and names the positions of byte offsets asked for in ascending order,
+/// so that naming many places costs one pass over the file (an offset before the last one
+/// asked for starts the walk again from the top).
+pub(crate) struct Cursor<'a> {
+    bytes: &'a [u8],
+    i: usize,
+    here: Position,
+    /// Bytes stepped over so far, restarts included.
+    pub(crate) steps: usize,
+}
+
+impl<'a> Cursor<'a> {
+    /// A cursor at the start of `bytes`.
+    pub(crate) fn new(bytes: &'a [u8]) -> Cursor<'a> {
+        Cursor {
+            bytes,
+            i: 0,
+            here: Position::START,
+            steps: 0,
+        }
     }
 
-    /// The positions of several byte offsets of `bytes`, in the order given, found in one pass
-    /// over the bytes (so that naming many places costs no more than naming one).
-    pub fn of_bytes(bytes: &[u8], offsets: &[usize]) -> Vec<Position> {
-        let mut order: Vec<usize> = (0..offsets.len()).collect();
-        order.sort_by_key(|&i| offsets[i]);
-        let mut out = vec![Position::START; offsets.len()];
-        let mut here = Position::START;
-        let mut i = 0;
-        for k in order {
-            let target = offsets[k].min(bytes.len());
-            while i < target {
-                let b = bytes[i];
-                let line_break = b == b'\n' || (b == b'\r' && bytes.get(i + 1) != Some(&b'\n'));
-                if line_break {
-                    here = Position {
-                        line: here.line + 1,
-                        column: 1,
-                    };
-                } else if b != b'\r' && (b & 0xC0) != 0x80 {
-                    here.column += 1;
-                }
-                i += 1;
-            }
-            out[k] = here;
+    /// The position of byte `offset` (clamped to the end of the file).
+    pub(crate) fn at(&mut self, offset: usize) -> Position {
+        let target = offset.min(self.bytes.len());
+        if target < self.i {
+            self.i = 0;
+            self.here = Position::START;
         }
-        out
+        while self.i < target {
+            let b = self.bytes[self.i];
+            let next = self.bytes.get(self.i + 1);
+            if b == b'\n' || (b == b'\r' && next != Some(&b'\n')) {
+                self.here = Position {
+                    line: self.here.line + 1,
+                    column: 1,
+                };
+            } else if b != b'\r' && (b & 0xC0) != 0x80 {
+                // A byte that starts a character (not a UTF-8 continuation byte).
+                self.here.column += 1;
+            }
+            self.i += 1;
+            self.steps += 1;
+        }
+        self.here
     }
 }
 
@@ -316,6 +336,12 @@ impl GameRecord {
     /// no information and [`Origin::MADE_HERE`]. Fails if the size is not supported (5 to 19),
     /// a move is off the board, or a point is taken twice.
     pub fn new(size: u8, moves: Vec<Point>) -> Result<GameRecord, RecordError> {
+        GameRecord::check(size, &moves)?;
+        Ok(GameRecord::checked(size, moves))
+    }
+
+    /// Why `moves` on a `size` x `size` board is not a valid record, if it is not.
+    fn check(size: u8, moves: &[Point]) -> Result<(), RecordError> {
         if !(5..=MAX_SIDE).contains(&size) {
             return Err(RecordError::Size(BoardError::BadSize(size)));
         }
@@ -335,13 +361,19 @@ impl GameRecord {
                 });
             }
         }
-        Ok(GameRecord {
+        Ok(())
+    }
+
+    /// A record whose moves the caller has already checked as [`GameRecord::new`] would.
+    pub(crate) fn checked(size: u8, moves: Vec<Point>) -> GameRecord {
+        debug_assert!(GameRecord::check(size, &moves).is_ok());
+        GameRecord {
             size,
             moves,
             rule: None,
             info: GameInfo::default(),
             origin: Origin::MADE_HERE,
-        })
+        }
     }
 
     /// The same record with the given rule (`None`: the rule is not known).
@@ -403,16 +435,18 @@ impl GameRecord {
     }
 
     /// The colour played by the player called `name`, if exactly one of the record's two
-    /// names is that name (compared without regard to case or surrounding spaces). This is a
-    /// suggestion for the "who played which colour" choice, never a decision.
+    /// names is that name (compared without surrounding spaces and without regard to the case
+    /// of ASCII letters; other letters must match as written, which spares the page the
+    /// Unicode case tables). This is a suggestion for the "who played which colour" choice,
+    /// never a decision.
     pub fn colour_of(&self, name: &str) -> Option<Stone> {
-        let wanted = name.trim().to_lowercase();
+        let wanted = name.trim();
         if wanted.is_empty() {
             return None;
         }
         let is = |n: &Option<String>| {
             n.as_deref()
-                .is_some_and(|s| s.trim().to_lowercase() == wanted)
+                .is_some_and(|s| s.trim().eq_ignore_ascii_case(wanted))
         };
         match (is(&self.info.black), is(&self.info.white)) {
             (true, false) => Some(Stone::Black),
@@ -430,8 +464,9 @@ impl GameRecord {
     /// the first move the rule does not allow (a forbidden point for black under renju, or a
     /// move after the game was already won), by number and point.
     pub fn replay(&self, rule: Rule) -> Result<Game, ReplayError> {
-        let board = crate::board::Board::new(self.size, rule)
-            .expect("a record's size is checked when it is made");
+        let Ok(board) = crate::board::Board::new(self.size, rule) else {
+            unreachable!("a record's size is checked when it is made");
+        };
         let mut game = Game::new(board);
         for (i, &p) in self.moves.iter().enumerate() {
             if let Err(error) = game.play(p) {
@@ -555,19 +590,34 @@ pub fn read_move_lists(text: &str, choices: Choices) -> Result<Vec<GameRecord>, 
     let mut games = Vec::new();
     let mut pending: Option<Pending> = None;
     let mut offset = 0;
+    // Names where each game starts, in one pass over the text.
+    let mut cursor = Cursor::new(text.as_bytes());
     for raw in text.split_inclusive('\n') {
         let start = offset;
         offset += raw.len();
         let line = raw.trim_end_matches(['\n', '\r']);
         let body = line.trim();
         if body.is_empty() {
-            if pending.as_ref().is_some_and(|p| p.moves.is_some()) {
-                let done = pending.take().expect("checked just above");
-                games.push(finish(text, done, games.len() + 1, size, choices.rule)?);
+            if let Some(done) = pending.take_if(|p| p.moves.is_some()) {
+                games.push(finish(
+                    text,
+                    &mut cursor,
+                    done,
+                    games.len() + 1,
+                    size,
+                    choices.rule,
+                )?);
             }
         } else if let Some(title) = body.strip_prefix('#') {
             if let Some(done) = pending.take() {
-                games.push(finish(text, done, games.len() + 1, size, choices.rule)?);
+                games.push(finish(
+                    text,
+                    &mut cursor,
+                    done,
+                    games.len() + 1,
+                    size,
+                    choices.rule,
+                )?);
             }
             let title = title.trim();
             pending = Some(Pending {
@@ -589,7 +639,14 @@ pub fn read_move_lists(text: &str, choices: Choices) -> Result<Vec<GameRecord>, 
         }
     }
     if let Some(done) = pending.take() {
-        games.push(finish(text, done, games.len() + 1, size, choices.rule)?);
+        games.push(finish(
+            text,
+            &mut cursor,
+            done,
+            games.len() + 1,
+            size,
+            choices.rule,
+        )?);
     }
     if games.is_empty() {
         return Err(MoveListFileError {
@@ -605,6 +662,7 @@ pub fn read_move_lists(text: &str, choices: Choices) -> Result<Vec<GameRecord>, 
 /// Turns a collected game into a record, or the error of its first bad move.
 fn finish(
     text: &str,
+    cursor: &mut Cursor<'_>,
     game: Pending,
     number: usize,
     size: u8,
@@ -638,8 +696,8 @@ fn finish(
         }
     })?;
     let start = game.title_at.unwrap_or(from);
-    let record = GameRecord::new(size, points).expect("parse_points checks board and repeats");
-    Ok(record
+    // `parse_points` has checked that every move is on the board and no point repeats.
+    Ok(GameRecord::checked(size, points)
         .with_rule(rule)
         .with_info(GameInfo {
             title: game.title,
@@ -648,7 +706,7 @@ fn finish(
         .with_origin(Origin {
             format: RecordFormat::MoveList,
             game: number,
-            at: Position::of_byte(text.as_bytes(), start),
+            at: cursor.at(start),
         }))
 }
 
@@ -764,9 +822,29 @@ mod tests {
     fn positions_count_lines_and_characters() {
         // "é" is two bytes in UTF-8 and one character; CR LF is one line break.
         let text = "ab\r\nxé z\rq";
-        let pos = Position::of_bytes(text.as_bytes(), &[9, 0, 1, 4, 7, 10, 99]);
-        let lc: Vec<(usize, usize)> = pos.iter().map(|p| (p.line, p.column)).collect();
-        assert_eq!(lc, [(2, 5), (1, 1), (1, 2), (2, 1), (2, 3), (3, 1), (3, 2)]);
+        let offsets = [0, 1, 4, 7, 9, 10, 99, 4];
+        let mut cursor = Cursor::new(text.as_bytes());
+        let lc: Vec<(usize, usize)> = offsets
+            .iter()
+            .map(|&o| cursor.at(o))
+            .map(|p| (p.line, p.column))
+            .collect();
+        // The last offset goes back, and is found again from the top.
+        let want = [
+            (1, 1),
+            (1, 2),
+            (2, 1),
+            (2, 3),
+            (2, 5),
+            (3, 1),
+            (3, 2),
+            (2, 1),
+        ];
+        assert_eq!(lc, want);
+        assert_eq!(
+            Position::of_byte(text.as_bytes(), 9),
+            Position { line: 2, column: 5 }
+        );
     }
 
     #[test]

@@ -8,13 +8,17 @@
 //!
 //! # Why our own reader
 //!
-//! A general SGF crate was weighed first. `sgf-parse` 4.2.8 added 109,378 bytes (41,164 gzipped)
-//! to a release wasm32 build of a two-line test crate, a sixth of the page's whole 250 KB
-//! budget, and its parse errors do not say where in the file they are. The subset needed here
-//! is small: the tree syntax, a dozen properties, and one coordinate type. So this is a reader
-//! of that subset, written from the specification, with every error naming the property and
-//! its line and column, and with its work counted in a test to show that it is linear in the
-//! length of the file.
+//! A general SGF crate was weighed first. `sgf-parse` 4.2.8 added 109,378 bytes (41,164
+//! gzipped) to a release wasm32 build of a two-line test crate, and 98,547 bytes (28,917
+//! gzipped, after `wasm-bindgen` as the page is built) to the app's own module when it was
+//! only asked for each game's main line; its parse errors do not say where in the file they
+//! are, either. The subset needed here is small: the tree syntax, a dozen properties and one
+//! coordinate type. So this is a reader of that subset, written from the specification, with
+//! every error naming the property and its line and column, and with its work counted in a
+//! test to show that it is linear in the length of the file. This module and
+//! [`super::games`] together (reading, replaying and writing) added 37,788 bytes (15,872
+//! gzipped) to the app's module in the same measurement. The code avoids what would pull
+//! large library code into the page: no Unicode case tables, no sorting, no maps.
 //!
 //! # What is read
 //!
@@ -72,7 +76,6 @@
 //!
 //! Nothing is half-loaded: a file with one error anywhere gives the error and no game.
 
-use std::collections::BTreeMap;
 use std::fmt;
 
 use crate::board::Stone;
@@ -80,8 +83,8 @@ use crate::geometry::{Point, MAX_SIDE};
 use crate::rules::Rule;
 
 use super::games::{
-    first_move_at, skip_bom, Choices, GameInfo, GameRecord, Loaded, Origin, Position, RecordFormat,
-    Taken,
+    first_move_at, skip_bom, Choices, Cursor, GameInfo, GameRecord, Loaded, Origin, Position,
+    RecordFormat, Taken,
 };
 
 /// What is wrong with an SGF file.
@@ -348,6 +351,11 @@ pub enum SgfWarning {
         /// How many times it appears on the games' main lines.
         count: usize,
     },
+    /// More unknown properties were skipped than are named one by one.
+    MoreSkipped {
+        /// How many.
+        count: usize,
+    },
 }
 
 impl fmt::Display for SgfWarning {
@@ -372,6 +380,9 @@ impl fmt::Display for SgfWarning {
                 }
                 Ok(())
             }
+            SgfWarning::MoreSkipped { count } => {
+                write!(f, "{count} more unknown properties were skipped")
+            }
         }
     }
 }
@@ -383,19 +394,32 @@ impl fmt::Display for SgfWarning {
 /// alone included (it names freestyle in some places and the exact-five rule in others), is
 /// `None`.
 pub fn rule_from_name(text: &str) -> Option<Rule> {
-    let words: Vec<String> = text
-        .split(|c: char| c.is_whitespace() || c == '-' || c == '_')
-        .filter(|w| !w.is_empty())
-        .map(str::to_lowercase)
-        .collect();
-    match words.join(" ").as_str() {
-        "freestyle" | "free style" | "freestyle gomoku" | "gomoku freestyle" => {
-            Some(Rule::Freestyle)
+    // The words, lower-case, separated by single spaces.
+    let mut words = String::with_capacity(text.len());
+    for c in text.chars() {
+        if c.is_whitespace() || c == '-' || c == '_' {
+            if !words.is_empty() && !words.ends_with(' ') {
+                words.push(' ');
+            }
+        } else {
+            words.push(c.to_ascii_lowercase());
         }
-        "standard" | "standard gomoku" | "gomoku standard" => Some(Rule::Standard),
-        "renju" | "rif" | "renju rif" | "rif renju" => Some(Rule::Renju),
-        _ => None,
     }
+    const NAMES: [(&str, Rule); 11] = [
+        ("freestyle", Rule::Freestyle),
+        ("free style", Rule::Freestyle),
+        ("freestyle gomoku", Rule::Freestyle),
+        ("gomoku freestyle", Rule::Freestyle),
+        ("standard", Rule::Standard),
+        ("standard gomoku", Rule::Standard),
+        ("gomoku standard", Rule::Standard),
+        ("renju", Rule::Renju),
+        ("rif", Rule::Renju),
+        ("renju rif", Rule::Renju),
+        ("rif renju", Rule::Renju),
+    ];
+    let words = words.trim_end();
+    NAMES.iter().find(|n| n.0 == words).map(|n| n.1)
 }
 
 /// Every property of the FF\[4\] general property list (properties.html): move, setup, node
@@ -434,7 +458,8 @@ struct Frame {
 struct Fail {
     game: Option<usize>,
     at: usize,
-    property: Option<String>,
+    /// The byte range of the property's name.
+    property: Option<(usize, usize)>,
     problem: SgfProblem,
 }
 
@@ -570,7 +595,6 @@ impl<'a> Reader<'a> {
 
     /// Parses the properties of one node (after its `;`); keeps them only if `keep`.
     fn node(&mut self, game: Option<usize>, keep: bool) -> Result<Vec<Prop>, Fail> {
-        let bytes = self.bytes;
         let mut props = Vec::new();
         loop {
             self.skip_space();
@@ -583,7 +607,6 @@ impl<'a> Reader<'a> {
                 return Ok(props);
             }
             let name = (start, self.i);
-            let name_text = || String::from_utf8_lossy(&bytes[name.0..name.1]).into_owned();
             let mut values = Vec::new();
             let mut count = 0;
             loop {
@@ -593,6 +616,7 @@ impl<'a> Reader<'a> {
                 }
                 let open = self.i;
                 self.i += 1;
+                self.work += 1;
                 let from = self.i;
                 loop {
                     self.work += 1;
@@ -601,12 +625,16 @@ impl<'a> Reader<'a> {
                             return Err(Fail {
                                 game,
                                 at: open,
-                                property: Some(name_text()),
+                                property: Some(name),
                                 problem: SgfProblem::UnclosedValue,
                             })
                         }
                         Some(b']') => break,
-                        Some(b'\\') => self.i += 2,
+                        Some(b'\\') => {
+                            // The escaped character is taken as it is, whatever it is.
+                            self.i += 2;
+                            self.work += 1;
+                        }
                         Some(_) => self.i += 1,
                     }
                 }
@@ -620,7 +648,7 @@ impl<'a> Reader<'a> {
                 return Err(Fail {
                     game,
                     at: start,
-                    property: Some(name_text()),
+                    property: Some(name),
                     problem: SgfProblem::NoValue,
                 });
             }
@@ -633,16 +661,12 @@ impl<'a> Reader<'a> {
     /// A value as SimpleText (sgf4.html 3.3): the escape character `\` removed (a `\` before a
     /// line break removes both), every white space character (line breaks included) turned
     /// into a space, and the ends trimmed.
-    fn simple_text(
-        &mut self,
-        game: usize,
-        name: &str,
-        range: (usize, usize),
-    ) -> Result<String, Fail> {
+    fn simple_text(&mut self, game: usize, p: &Prop, value: usize) -> Result<String, Fail> {
+        let range = p.values[value];
         let raw = std::str::from_utf8(&self.bytes[range.0..range.1]).map_err(|e| Fail {
             game: Some(game),
             at: range.0 + e.valid_up_to(),
-            property: Some(name.to_string()),
+            property: Some(p.name),
             problem: SgfProblem::NotUtf8,
         })?;
         let mut out = String::with_capacity(raw.len());
@@ -677,30 +701,32 @@ impl<'a> Reader<'a> {
         number: usize,
         tree: &Tree,
         choices: Choices,
-        skipped: &mut BTreeMap<String, (usize, usize)>,
+        skipped: &mut SkipLog,
     ) -> Result<(GameRecord, usize), Fail> {
         let bytes = self.bytes;
         self.work += 1;
-        let fail = |at: usize, property: Option<String>, problem: SgfProblem| Fail {
+        let fail = |at: usize, property: Option<(usize, usize)>, problem: SgfProblem| Fail {
             game: Some(number),
             at,
             property,
             problem,
         };
-        if tree.nodes.is_empty() {
+        // A property's own error: at its name, naming it.
+        let at_prop = |p: &Prop, problem: SgfProblem| fail(p.name.0, Some(p.name), problem);
+        let Some(root) = tree.nodes.first() else {
             return Err(fail(tree.open, None, SgfProblem::NoNode));
-        }
+        };
 
-        // Every property's name as written and with its capitals only (converting.html: the
+        // Every property's name with its capital letters only (converting.html: the
         // lower-case letters of FF[1]-FF[3] names are removed).
-        let mut names: Vec<Vec<(String, String)>> = Vec::with_capacity(tree.nodes.len());
+        let mut names: Vec<Vec<String>> = Vec::with_capacity(tree.nodes.len());
         for node in &tree.nodes {
             let mut here = Vec::with_capacity(node.len());
             for p in node {
-                let written = String::from_utf8_lossy(&bytes[p.name.0..p.name.1]).into_owned();
+                let written = &bytes[p.name.0..p.name.1];
                 self.work += written.len() as u64;
-                let capitals: String = written.chars().filter(char::is_ascii_uppercase).collect();
-                here.push((written, capitals));
+                let capitals = written.iter().filter(|b| b.is_ascii_uppercase());
+                here.push(capitals.map(|&b| char::from(b)).collect::<String>());
             }
             names.push(here);
         }
@@ -708,41 +734,35 @@ impl<'a> Reader<'a> {
         // The format version first (it decides which names are valid), then the names, then
         // the other root properties (the moves need the board size, and properties may come in
         // any order, sgf4.html 2.2), then every node of the main line in order.
-        let root = &tree.nodes[0];
-        let mut version = 1;
-        let mut ff_seen = false;
-        for (p, (written, name)) in root.iter().zip(&names[0]) {
+        let mut version = None;
+        for (p, name) in root.iter().zip(&names[0]) {
             if name == "FF" {
-                if ff_seen {
-                    return Err(fail(p.name.0, Some(written.clone()), SgfProblem::Duplicate));
+                if version.is_some() {
+                    return Err(at_prop(p, SgfProblem::Duplicate));
                 }
-                ff_seen = true;
                 if p.values.len() > 1 {
-                    let problem = SgfProblem::TooManyValues;
-                    return Err(fail(p.name.0, Some(written.clone()), problem));
+                    return Err(at_prop(p, SgfProblem::TooManyValues));
                 }
-                let text = self.simple_text(number, written, p.values[0])?;
-                version = match text.parse::<u32>() {
-                    Ok(v @ 1..=4) => v,
-                    _ => {
-                        let problem = SgfProblem::FileFormat(text);
-                        return Err(fail(p.name.0, Some(written.clone()), problem));
-                    }
-                };
+                let text = self.simple_text(number, p, 0)?;
+                match text.parse::<u32>() {
+                    Ok(v @ 1..=4) => version = Some(v),
+                    _ => return Err(at_prop(p, SgfProblem::FileFormat(text))),
+                }
             }
         }
+        let version = version.unwrap_or(1);
         for (node, node_names) in tree.nodes.iter().zip(&names) {
-            for (p, (written, name)) in node.iter().zip(node_names) {
-                if name.is_empty() || (version == 4 && name.len() != written.len()) {
-                    let problem = SgfProblem::Identifier { version };
-                    return Err(fail(p.name.0, Some(written.clone()), problem));
+            for (p, name) in node.iter().zip(node_names) {
+                let lower_case = name.len() != p.name.1 - p.name.0;
+                if name.is_empty() || (version == 4 && lower_case) {
+                    return Err(at_prop(p, SgfProblem::Identifier { version }));
                 }
             }
         }
         let mut gm = None;
         let mut sz = None;
         let mut ca = None;
-        for (p, (written, name)) in root.iter().zip(&names[0]) {
+        for (p, name) in root.iter().zip(&names[0]) {
             self.work += 1;
             let slot = match name.as_str() {
                 "GM" => &mut gm,
@@ -750,128 +770,120 @@ impl<'a> Reader<'a> {
                 "CA" => &mut ca,
                 _ => continue,
             };
-            let here = |problem| fail(p.name.0, Some(written.clone()), problem);
             if slot.is_some() {
-                return Err(here(SgfProblem::Duplicate));
+                return Err(at_prop(p, SgfProblem::Duplicate));
             }
             if p.values.len() > 1 {
-                return Err(here(SgfProblem::TooManyValues));
+                return Err(at_prop(p, SgfProblem::TooManyValues));
             }
-            let text = self.simple_text(number, written, p.values[0])?;
-            *slot = Some((text, p.name.0, written.clone()));
+            *slot = Some((self.simple_text(number, p, 0)?, p));
         }
         match gm {
             None => return Err(fail(tree.open, None, SgfProblem::MissingGameType)),
-            Some((text, at, written)) => {
+            Some((text, p)) => {
                 if text.trim_start_matches('+').parse::<u32>() != Ok(4) {
-                    return Err(fail(at, Some(written), SgfProblem::GameType(text)));
+                    return Err(at_prop(p, SgfProblem::GameType(text)));
                 }
             }
         }
-        if let Some((text, at, written)) = ca {
-            let name: String = text
+        if let Some((text, p)) = ca {
+            let mut name: String = text
                 .chars()
                 .filter(|c| !matches!(c, '-' | '_' | ' '))
-                .collect::<String>()
-                .to_lowercase();
+                .collect();
+            name.make_ascii_lowercase();
             if !matches!(name.as_str(), "utf8" | "usascii" | "ascii") {
-                return Err(fail(at, Some(written), SgfProblem::Charset(text)));
+                return Err(at_prop(p, SgfProblem::Charset(text)));
             }
         }
-        let size = match sz {
-            Some((text, at, written)) => {
-                let parse = |s: &str| s.trim().parse::<u8>().ok();
-                let side = match text.split_once(':') {
-                    None => parse(&text),
-                    Some((w, h)) => parse(w).filter(|&w| Some(w) == parse(h)),
+        let side = |s: &str| {
+            s.trim()
+                .parse::<u8>()
+                .ok()
+                .filter(|n| (5..=MAX_SIDE).contains(n))
+        };
+        let size = match (sz, choices.size) {
+            (Some((text, p)), _) => {
+                let square = match text.split_once(':') {
+                    None => side(&text),
+                    Some((w, h)) => side(w).filter(|&w| Some(w) == side(h)),
                 };
-                match side {
-                    Some(n) if (5..=MAX_SIDE).contains(&n) => n,
-                    _ => return Err(fail(at, Some(written), SgfProblem::Size(text))),
+                match square {
+                    Some(n) => n,
+                    None => return Err(at_prop(p, SgfProblem::Size(text))),
                 }
             }
-            None => match choices.size {
-                Some(n) if (5..=MAX_SIDE).contains(&n) => n,
-                Some(n) => return Err(fail(tree.open, None, SgfProblem::Size(n.to_string()))),
-                None => return Err(fail(tree.open, None, SgfProblem::MissingSize)),
-            },
+            (None, Some(n)) if (5..=MAX_SIDE).contains(&n) => n,
+            (None, Some(n)) => return Err(fail(tree.open, None, SgfProblem::Size(n.to_string()))),
+            (None, None) => return Err(fail(tree.open, None, SgfProblem::MissingSize)),
         };
 
         let mut taken = Taken::default();
         let mut moves: Vec<Point> = Vec::new();
-        let mut info: [Option<(String, usize)>; 6] = Default::default();
+        let mut info: [Option<(String, &Prop)>; 6] = Default::default();
         for (k, (node, node_names)) in tree.nodes.iter().zip(&names).enumerate() {
             let mut moved: Option<Stone> = None;
-            for (p, (written, name)) in node.iter().zip(node_names) {
+            for (p, name) in node.iter().zip(node_names) {
                 self.work += 1;
-                let here = |problem| fail(p.name.0, Some(written.clone()), problem);
-                match name.as_str() {
-                    "FF" | "GM" | "SZ" | "CA" if k > 0 => return Err(here(SgfProblem::RootOnly)),
-                    "AB" | "AW" | "AE" => return Err(here(SgfProblem::Setup)),
-                    "PL" => return Err(here(SgfProblem::PlayerToPlay)),
-                    "B" | "W" => {
-                        let colour = if name == "B" {
-                            Stone::Black
-                        } else {
-                            Stone::White
-                        };
-                        let number = moves.len() + 1;
-                        match moved {
-                            Some(c) if c == colour => return Err(here(SgfProblem::Duplicate)),
-                            Some(_) => return Err(here(SgfProblem::BothColours)),
-                            None => moved = Some(colour),
-                        }
-                        if p.values.len() > 1 {
-                            return Err(here(SgfProblem::TooManyValues));
-                        }
-                        if colour != GameRecord::colour_of_move(moves.len()) {
-                            return Err(here(SgfProblem::OutOfTurn { number, colour }));
-                        }
-                        let (from, to) = p.values[0];
-                        let value = &bytes[from..to];
-                        self.work += value.len() as u64;
-                        let point = sgf_point(value, number, size).map_err(here)?;
-                        if !taken.take(point) {
-                            let first = first_move_at(&moves, point);
-                            return Err(here(SgfProblem::Taken {
-                                number,
-                                point,
-                                first,
-                            }));
-                        }
-                        moves.push(point);
-                    }
+                let refuse = |problem| Err(at_prop(p, problem));
+                let colour = match name.as_str() {
+                    "FF" | "GM" | "SZ" | "CA" if k > 0 => return refuse(SgfProblem::RootOnly),
+                    "AB" | "AW" | "AE" => return refuse(SgfProblem::Setup),
+                    "PL" => return refuse(SgfProblem::PlayerToPlay),
+                    "B" => Stone::Black,
+                    "W" => Stone::White,
                     other => {
                         if let Some(slot) = INFO.iter().position(|&s| s == other) {
                             if info[slot].is_some() {
-                                return Err(here(SgfProblem::Duplicate));
+                                return refuse(SgfProblem::Duplicate);
                             }
                             if p.values.len() > 1 {
-                                return Err(here(SgfProblem::TooManyValues));
+                                return refuse(SgfProblem::TooManyValues);
                             }
-                            let text = self.simple_text(number, written, p.values[0])?;
-                            info[slot] = Some((text, p.name.0));
+                            info[slot] = Some((self.simple_text(number, p, 0)?, p));
                         } else if !KNOWN.contains(&other) {
-                            let entry = skipped.entry(written.clone()).or_insert((p.name.0, 0));
-                            entry.1 += 1;
+                            skipped.note(&bytes[p.name.0..p.name.1], p.name.0);
                         }
+                        continue;
                     }
+                };
+                let number = moves.len() + 1;
+                match moved {
+                    Some(c) if c == colour => return refuse(SgfProblem::Duplicate),
+                    Some(_) => return refuse(SgfProblem::BothColours),
+                    None => moved = Some(colour),
                 }
+                if p.values.len() > 1 {
+                    return refuse(SgfProblem::TooManyValues);
+                }
+                if colour != GameRecord::colour_of_move(moves.len()) {
+                    return refuse(SgfProblem::OutOfTurn { number, colour });
+                }
+                let (from, to) = p.values[0];
+                self.work += (to - from) as u64;
+                let point = sgf_point(&bytes[from..to], number, size).map_err(|e| at_prop(p, e))?;
+                if !taken.take(point) {
+                    let first = first_move_at(&moves, point);
+                    return refuse(SgfProblem::Taken {
+                        number,
+                        point,
+                        first,
+                    });
+                }
+                moves.push(point);
             }
         }
         let [black, white, gn, ev, dt, ru] = info;
-        let text = |v: Option<(String, usize)>| v.map(|(t, _)| t).filter(|t| !t.is_empty());
+        let text = |v: Option<(String, &Prop)>| v.map(|(t, _)| t).filter(|t| !t.is_empty());
         let rule = match ru {
-            Some((name, at)) if !name.is_empty() => match (rule_from_name(&name), choices.rule) {
+            Some((name, p)) if !name.is_empty() => match (rule_from_name(&name), choices.rule) {
                 (Some(rule), _) | (None, Some(rule)) => Some(rule),
-                (None, None) => {
-                    return Err(fail(at, Some("RU".into()), SgfProblem::UnknownRule(name)))
-                }
+                (None, None) => return Err(at_prop(p, SgfProblem::UnknownRule(name))),
             },
             _ => choices.rule,
         };
-        let record = GameRecord::new(size, moves)
-            .expect("the reader checks the board and taken points itself")
+        // Every move was checked above: on the board, and on a point not taken before.
+        let record = GameRecord::checked(size, moves)
             .with_rule(rule)
             .with_info(GameInfo {
                 black: text(black),
@@ -919,13 +931,13 @@ fn sgf_point(value: &[u8], number: usize, size: u8) -> Result<Point, SgfProblem>
     Ok(Point::new(x, size - 1 - y))
 }
 
-/// A move value for a message, cut after twelve characters.
+/// A move value for a message, cut after twelve bytes.
 fn shown(value: &[u8]) -> String {
-    let text = String::from_utf8_lossy(value);
-    match text.char_indices().nth(12) {
-        Some((cut, _)) => format!("{}…", &text[..cut]),
-        None => text.into_owned(),
+    let mut text = String::from_utf8_lossy(&value[..value.len().min(12)]).into_owned();
+    if value.len() > 12 {
+        text.push('…');
     }
+    text
 }
 
 /// Reads an SGF file (see the module documentation for what is read and what is refused).
@@ -948,10 +960,11 @@ fn read_counting(bytes: &[u8], choices: Choices) -> (Result<Loaded, SgfError>, u
         Ok(ok) => Ok(ok),
         Err(fail) => {
             reader.work += fail.at.min(bytes.len()) as u64;
+            let name = |(a, b): (usize, usize)| String::from_utf8_lossy(&bytes[a..b]).into_owned();
             Err(SgfError {
                 game: fail.game,
                 at: Position::of_byte(bytes, fail.at),
-                property: fail.property,
+                property: fail.property.map(name),
                 problem: fail.problem,
             })
         }
@@ -959,53 +972,72 @@ fn read_counting(bytes: &[u8], choices: Choices) -> (Result<Loaded, SgfError>, u
     (result, reader.work)
 }
 
+/// The unknown properties skipped so far: the first [`SkipLog::NAMES`] names in order of
+/// first appearance, each with where it first appears and how often, and a count of the
+/// others (so that a file full of made-up names cannot make the warnings, or the work of
+/// keeping them, grow beyond a few lines).
+#[derive(Default)]
+struct SkipLog {
+    names: Vec<(String, usize, usize)>,
+    more: usize,
+}
+
+impl SkipLog {
+    /// How many names are reported one by one.
+    const NAMES: usize = 20;
+
+    fn note(&mut self, name: &[u8], at: usize) {
+        if let Some(entry) = self.names.iter_mut().find(|e| e.0.as_bytes() == name) {
+            entry.2 += 1;
+        } else if self.names.len() < SkipLog::NAMES {
+            let name = String::from_utf8_lossy(name).into_owned();
+            self.names.push((name, at, 1));
+        } else {
+            self.more += 1;
+        }
+    }
+}
+
 /// Parses, interprets every game, and works out every position the warnings name.
 fn read_all(reader: &mut Reader<'_>, choices: Choices) -> Result<Loaded, Fail> {
     let trees = reader.parse()?;
-    let mut skipped = BTreeMap::new();
-    let mut games = Vec::with_capacity(trees.len());
+    let mut skipped = SkipLog::default();
+    let mut records = Vec::with_capacity(trees.len());
     for (i, tree) in trees.iter().enumerate() {
-        games.push(reader.game(i + 1, tree, choices, &mut skipped)?);
+        records.push(reader.game(i + 1, tree, choices, &mut skipped)?);
     }
-    // Every place to name, found in one pass over the file.
-    let mut offsets: Vec<usize> = games.iter().map(|g| g.1).collect();
-    let variations: Vec<(usize, usize)> = trees
-        .iter()
-        .enumerate()
-        .filter_map(|(i, t)| t.variation.map(|at| (i + 1, at)))
-        .collect();
-    offsets.extend(variations.iter().map(|v| v.1));
-    let mut skipped: Vec<(String, usize, usize)> = skipped
-        .into_iter()
-        .map(|(name, (at, count))| (name, at, count))
-        .collect();
-    skipped.sort_by_key(|s| s.1);
-    offsets.extend(skipped.iter().map(|s| s.1));
-    reader.work += (reader.bytes.len() + offsets.len()) as u64;
-    let mut at = Position::of_bytes(reader.bytes, &offsets).into_iter();
-    let mut next = || at.next().unwrap_or(Position::START);
-    let games = games
-        .into_iter()
-        .enumerate()
-        .map(|(i, (record, _))| {
-            record.with_origin(Origin {
-                format: RecordFormat::Sgf,
-                game: i + 1,
-                at: next(),
-            })
-        })
-        .collect();
+    // The places to name come in file order: each game's start, then its first variation
+    // (which lies inside it); the skipped properties, in order of first appearance, on a walk
+    // of their own.
+    let mut cursor = Cursor::new(reader.bytes);
+    let mut games = Vec::with_capacity(records.len());
     let mut warnings = Vec::new();
-    for (game, _) in variations {
-        warnings.push(SgfWarning::Variations { game, at: next() });
+    for (i, ((record, open), tree)) in records.into_iter().zip(&trees).enumerate() {
+        games.push(record.with_origin(Origin {
+            format: RecordFormat::Sgf,
+            game: i + 1,
+            at: cursor.at(open),
+        }));
+        if let Some(at) = tree.variation {
+            let at = cursor.at(at);
+            warnings.push(SgfWarning::Variations { game: i + 1, at });
+        }
     }
-    for (property, _, count) in skipped {
+    let mut names = Cursor::new(reader.bytes);
+    for (property, at, count) in skipped.names {
+        let at = names.at(at);
         warnings.push(SgfWarning::SkippedProperty {
             property,
-            at: next(),
+            at,
             count,
         });
     }
+    if skipped.more > 0 {
+        warnings.push(SgfWarning::MoreSkipped {
+            count: skipped.more,
+        });
+    }
+    reader.work += (cursor.steps + names.steps) as u64;
     Ok(Loaded { games, warnings })
 }
 
