@@ -592,6 +592,11 @@ pub fn read_move_lists(text: &str, choices: Choices) -> Result<Vec<GameRecord>, 
     let mut offset = 0;
     // Names where each game starts, in one pass over the text.
     let mut cursor = Cursor::new(text.as_bytes());
+    let mut close = |games: &mut Vec<GameRecord>, done: Pending| {
+        let number = games.len() + 1;
+        games.push(finish(text, &mut cursor, done, number, size, choices.rule)?);
+        Ok(())
+    };
     for raw in text.split_inclusive('\n') {
         let start = offset;
         offset += raw.len();
@@ -599,25 +604,11 @@ pub fn read_move_lists(text: &str, choices: Choices) -> Result<Vec<GameRecord>, 
         let body = line.trim();
         if body.is_empty() {
             if let Some(done) = pending.take_if(|p| p.moves.is_some()) {
-                games.push(finish(
-                    text,
-                    &mut cursor,
-                    done,
-                    games.len() + 1,
-                    size,
-                    choices.rule,
-                )?);
+                close(&mut games, done)?;
             }
         } else if let Some(title) = body.strip_prefix('#') {
             if let Some(done) = pending.take() {
-                games.push(finish(
-                    text,
-                    &mut cursor,
-                    done,
-                    games.len() + 1,
-                    size,
-                    choices.rule,
-                )?);
+                close(&mut games, done)?;
             }
             let title = title.trim();
             pending = Some(Pending {
@@ -639,14 +630,7 @@ pub fn read_move_lists(text: &str, choices: Choices) -> Result<Vec<GameRecord>, 
         }
     }
     if let Some(done) = pending.take() {
-        games.push(finish(
-            text,
-            &mut cursor,
-            done,
-            games.len() + 1,
-            size,
-            choices.rule,
-        )?);
+        close(&mut games, done)?;
     }
     if games.is_empty() {
         return Err(MoveListFileError {

@@ -323,8 +323,8 @@ impl fmt::Display for SgfError {
             SgfProblem::TooManyValues => write!(f, "{prop} has more than one value"),
             SgfProblem::UnknownRule(text) => write!(
                 f,
-                "RU[{text}] names no rule this program knows: choose the rule (freestyle, \
-                 standard or renju)"
+                "RU[{text}]: this rule name does not say whether the game was freestyle, \
+                 standard or renju: choose the rule"
             ),
         }
     }
