@@ -49,6 +49,12 @@ mod properties;
 /// and where it is, never a panic; driven in part by `tests/data/bad_move_lists.txt`.
 mod notation;
 
+/// `game_records`: the player's own game records read from `tests/data/` (hand-written SGF
+/// collections and move-list files): SGF FF[4] syntax, escapes, old lower-case names, the
+/// coordinate conversion at both corners, variations, every refusal with its place, replay
+/// under a rule, round trips through our writers, and arbitrary bytes.
+mod game_records;
+
 /// `solver_exact`: exact solving of small m,n,k boards against the published game values
 /// (Uiterwijk and van den Herik, "The advantage of the initiative", 2000).
 mod solver_exact;
