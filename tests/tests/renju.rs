@@ -336,7 +336,10 @@ fn a_three_whose_only_straight_four_points_make_a_five_elsewhere_is_no_three() {
     // column g: that way does not count, but k8 still does, the row-8 three is real, and h8 is
     // a double three.
     let b = stones(Rule::Renju, "i8 j8 h9 h10 g6 g7 g9 g10", "a1");
-    assert!(b.threats(p("g8"), Stone::Black).five(), "g8 makes five in column g");
+    assert!(
+        b.threats(p("g8"), Stone::Black).five(),
+        "g8 makes five in column g"
+    );
     expect(&b, "h8", Some(Forbidden::DoubleThree));
     // With column k holding k6 k7 . k9 k10 as well, both straight-four points make a five
     // elsewhere: the row-8 "three" is no three and h8 is allowed (black has other ways to
@@ -348,7 +351,10 @@ fn a_three_whose_only_straight_four_points_make_a_five_elsewhere_is_no_three() {
     );
     assert!(b.threats(p("k8"), Stone::Black).five());
     expect(&b, "h8", None);
-    assert_eq!(reading::Grid::of(&b).forbidden_points(), b.forbidden_points());
+    assert_eq!(
+        reading::Grid::of(&b).forbidden_points(),
+        b.forbidden_points()
+    );
 }
 
 #[test]
@@ -371,7 +377,10 @@ fn a_four_three_three_is_saved_when_one_three_can_only_become_five() {
         "h4 a1 a2 a3 a4",
     );
     expect(&b, "h8", None);
-    assert_eq!(reading::Grid::of(&b).forbidden_points(), b.forbidden_points());
+    assert_eq!(
+        reading::Grid::of(&b).forbidden_points(),
+        b.forbidden_points()
+    );
 }
 
 #[test]
@@ -393,11 +402,17 @@ fn the_clause_decides_an_extension_point_in_the_recursion() {
     let mut after = b.clone();
     after.place(p("h8"), Stone::Black);
     after.place(p("f8"), Stone::Black);
-    assert!(after.threats(p("c11"), Stone::Black).five(), "c11 makes five");
+    assert!(
+        after.threats(p("c11"), Stone::Black).five(),
+        "c11 makes five"
+    );
     after.remove(p("f8"));
     assert_eq!(after.forbidden(p("f8")), None);
     expect(&b, "h8", Some(Forbidden::DoubleThree));
-    assert_eq!(reading::Grid::of(&b).forbidden_points(), b.forbidden_points());
+    assert_eq!(
+        reading::Grid::of(&b).forbidden_points(),
+        b.forbidden_points()
+    );
 }
 
 #[test]

@@ -50,10 +50,12 @@
 
 use std::fmt;
 
-use crate::board::{BoardError, Stone};
+use crate::board::BoardError;
 use crate::geometry::{Point, MAX_SIDE};
 use crate::notation::{self, ListError};
-use crate::rules::{Game, MoveError, Rule};
+use crate::rules::{Game, MoveError};
+use crate::types::Rule;
+use crate::types::Stone;
 
 use super::sgf::{self, SgfError, SgfWarning};
 

@@ -78,9 +78,9 @@
 
 use std::fmt;
 
-use crate::board::Stone;
 use crate::geometry::{Point, MAX_SIDE};
-use crate::rules::Rule;
+use crate::types::Rule;
+use crate::types::Stone;
 
 use super::games::{
     first_move_at, skip_bom, Choices, Cursor, GameInfo, GameRecord, Loaded, Origin, Position,
