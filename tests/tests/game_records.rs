@@ -14,7 +14,7 @@
 //! make two open threes with one stone.
 
 use engine::formats::games::{
-    read_games, read_move_lists, write_move_lists, Choices, GameRecord, MoveListProblem, Position,
+    read_games, read_move_lists, write_move_lists, Choices, GameRecord, Location, MoveListProblem,
     ReadError, RecordFormat,
 };
 use engine::formats::sgf::{read_sgf, write_sgf, SgfError, SgfProblem, SgfWarning};
@@ -32,8 +32,8 @@ fn sgf(name: &str) -> Result<engine::formats::games::Loaded, SgfError> {
     read_sgf(&data(&format!("games/{name}")), Choices::default())
 }
 
-fn at(line: usize, column: usize) -> Position {
-    Position { line, column }
+fn at(line: usize, column: usize) -> Location {
+    Location { line, column }
 }
 
 #[test]

@@ -69,20 +69,20 @@ pub const DEFAULT_SIZE: u8 = 15;
 /// name with accents does not shift the column; in bytes that are not UTF-8 every byte that is
 /// not a UTF-8 continuation byte counts as one character.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord, Hash)]
-pub struct Position {
+pub struct Location {
     /// The line, from 1.
     pub line: usize,
     /// The character on the line, from 1.
     pub column: usize,
 }
 
-impl Position {
+impl Location {
     /// The start of a file.
-    pub const START: Position = Position { line: 1, column: 1 };
+    pub const START: Location = Location { line: 1, column: 1 };
 
     /// The position of byte `offset` of `bytes` (an offset past the end gives the position
     /// just after the last byte).
-    pub fn of_byte(bytes: &[u8], offset: usize) -> Position {
+    pub fn of_byte(bytes: &[u8], offset: usize) -> Location {
         Cursor::new(bytes).at(offset)
     }
 }
@@ -93,7 +93,7 @@ impl Position {
 pub(crate) struct Cursor<'a> {
     bytes: &'a [u8],
     i: usize,
-    here: Position,
+    here: Location,
     /// Bytes stepped over so far, restarts included.
     pub(crate) steps: usize,
 }
@@ -104,23 +104,23 @@ impl<'a> Cursor<'a> {
         Cursor {
             bytes,
             i: 0,
-            here: Position::START,
+            here: Location::START,
             steps: 0,
         }
     }
 
     /// The position of byte `offset` (clamped to the end of the file).
-    pub(crate) fn at(&mut self, offset: usize) -> Position {
+    pub(crate) fn at(&mut self, offset: usize) -> Location {
         let target = offset.min(self.bytes.len());
         if target < self.i {
             self.i = 0;
-            self.here = Position::START;
+            self.here = Location::START;
         }
         while self.i < target {
             let b = self.bytes[self.i];
             let next = self.bytes.get(self.i + 1);
             if b == b'\n' || (b == b'\r' && next != Some(&b'\n')) {
-                self.here = Position {
+                self.here = Location {
                     line: self.here.line + 1,
                     column: 1,
                 };
@@ -135,7 +135,7 @@ impl<'a> Cursor<'a> {
     }
 }
 
-impl fmt::Display for Position {
+impl fmt::Display for Location {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         write!(f, "line {}, column {}", self.line, self.column)
     }
@@ -169,7 +169,7 @@ pub struct Origin {
     /// The game's number in its file, counted from 1.
     pub game: usize,
     /// Where the game starts in the file.
-    pub at: Position,
+    pub at: Location,
 }
 
 impl Origin {
@@ -178,7 +178,7 @@ impl Origin {
     pub const MADE_HERE: Origin = Origin {
         format: RecordFormat::MoveList,
         game: 1,
-        at: Position::START,
+        at: Location::START,
     };
 }
 
@@ -510,7 +510,7 @@ pub struct MoveListFileError {
     /// The game's title, if it has one.
     pub title: Option<String>,
     /// Where the problem is.
-    pub at: Position,
+    pub at: Location,
     /// What the problem is.
     pub problem: MoveListProblem,
 }
@@ -585,7 +585,7 @@ pub fn read_move_lists(text: &str, choices: Choices) -> Result<Vec<GameRecord>, 
         return Err(MoveListFileError {
             game: None,
             title: None,
-            at: Position::START,
+            at: Location::START,
             problem: MoveListProblem::Size(BoardError::BadSize(size)),
         });
     }
@@ -638,7 +638,7 @@ pub fn read_move_lists(text: &str, choices: Choices) -> Result<Vec<GameRecord>, 
         return Err(MoveListFileError {
             game: None,
             title: None,
-            at: Position::START,
+            at: Location::START,
             problem: MoveListProblem::Empty,
         });
     }
@@ -657,7 +657,7 @@ fn finish(
     let Some((from, to)) = game.moves else {
         return Err(MoveListFileError {
             game: Some(number),
-            at: Position::of_byte(text.as_bytes(), game.title_at.unwrap_or(0)),
+            at: Location::of_byte(text.as_bytes(), game.title_at.unwrap_or(0)),
             title: game.title,
             problem: MoveListProblem::NoMoves,
         });
@@ -672,7 +672,7 @@ fn finish(
             .char_indices()
             .nth(e.column)
             .map_or(body.len(), |(b, _)| b);
-        let at = Position::of_byte(text.as_bytes(), from + byte);
+        let at = Location::of_byte(text.as_bytes(), from + byte);
         e.column = at.column - 1;
         MoveListFileError {
             game: Some(number),
@@ -747,7 +747,7 @@ pub enum ReadError {
     /// The file is neither SGF nor UTF-8 text.
     NotText {
         /// Where the first byte that is not UTF-8 is.
-        at: Position,
+        at: Location,
     },
 }
 
@@ -785,7 +785,7 @@ pub fn read_games(bytes: &[u8], choices: Choices) -> Result<Loaded, ReadError> {
         return sgf::read_sgf(bytes, choices).map_err(ReadError::Sgf);
     }
     let text = std::str::from_utf8(bytes).map_err(|e| ReadError::NotText {
-        at: Position::of_byte(bytes, e.valid_up_to()),
+        at: Location::of_byte(bytes, e.valid_up_to()),
     })?;
     let text = text.strip_prefix('\u{feff}').unwrap_or(text);
     let games = read_move_lists(text, choices).map_err(ReadError::MoveList)?;
@@ -828,8 +828,8 @@ mod tests {
         ];
         assert_eq!(lc, want);
         assert_eq!(
-            Position::of_byte(text.as_bytes(), 9),
-            Position { line: 2, column: 5 }
+            Location::of_byte(text.as_bytes(), 9),
+            Location { line: 2, column: 5 }
         );
     }
 
@@ -921,7 +921,7 @@ mod tests {
         let e = read_move_lists(text, Choices::default()).unwrap_err();
         assert_eq!(e.game, Some(2));
         assert_eq!(e.title.as_deref(), Some("Second"));
-        assert_eq!(e.at, Position { line: 5, column: 7 });
+        assert_eq!(e.at, Location { line: 5, column: 7 });
         let MoveListProblem::Move(ref list) = e.problem else {
             panic!("{e:?}")
         };
@@ -987,7 +987,7 @@ mod tests {
         assert_eq!(
             e,
             ReadError::NotText {
-                at: Position { line: 1, column: 4 }
+                at: Location { line: 1, column: 4 }
             }
         );
     }

@@ -83,7 +83,7 @@ use crate::types::Rule;
 use crate::types::Stone;
 
 use super::games::{
-    first_move_at, skip_bom, Choices, Cursor, GameInfo, GameRecord, Loaded, Origin, Position,
+    first_move_at, skip_bom, Choices, Cursor, GameInfo, GameRecord, Loaded, Location, Origin,
     RecordFormat, Taken,
 };
 
@@ -186,7 +186,7 @@ pub struct SgfError {
     /// The game's number in the file, from 1, when the problem is inside a game.
     pub game: Option<usize>,
     /// Where the problem is.
-    pub at: Position,
+    pub at: Location,
     /// The property concerned, as its name is written in the file, if any.
     pub property: Option<String>,
     /// What is wrong.
@@ -340,14 +340,14 @@ pub enum SgfWarning {
         /// The game's number in the file, from 1.
         game: usize,
         /// Where the first line that was not read starts.
-        at: Position,
+        at: Location,
     },
     /// A property outside the FF\[4\] index was skipped.
     SkippedProperty {
         /// The property's name, as written.
         property: String,
         /// Where it first appears.
-        at: Position,
+        at: Location,
         /// How many times it appears on the games' main lines.
         count: usize,
     },
@@ -963,7 +963,7 @@ fn read_counting(bytes: &[u8], choices: Choices) -> (Result<Loaded, SgfError>, u
             let name = |(a, b): (usize, usize)| String::from_utf8_lossy(&bytes[a..b]).into_owned();
             Err(SgfError {
                 game: fail.game,
-                at: Position::of_byte(bytes, fail.at),
+                at: Location::of_byte(bytes, fail.at),
                 property: fail.property.map(name),
                 problem: fail.problem,
             })
@@ -1137,7 +1137,7 @@ mod tests {
     fn refusals_name_the_property_and_place() {
         let e = read("(;FF[4]GM[4]SZ[15]\n;B[hh]\n;W[hh])").unwrap_err();
         assert_eq!(e.property.as_deref(), Some("W"));
-        assert_eq!(e.at, Position { line: 3, column: 2 });
+        assert_eq!(e.at, Location { line: 3, column: 2 });
         assert_eq!(
             e.problem,
             SgfProblem::Taken {
