@@ -168,6 +168,7 @@ export class BoardView {
       wrong: 'wrong',
       illegal: 'refused',
       refused: 'refused',
+      undecided: 'refused',
       finished: 'info',
       placed: 'info',
     }[a.kind] ?? 'info';

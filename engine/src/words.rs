@@ -103,6 +103,18 @@ pub fn selected(p: Point) -> String {
     format!("{p} selected: tap it again to play.")
 }
 
+/// A move whose grade could not be decided within the budget: "Black k10: not decided."
+pub fn undecided(c: Stone, p: Point) -> [String; 2] {
+    [
+        format!("{} {p}: not decided.", colour(c)),
+        format!(
+            "Neither a win after {p} nor a refutation of it could be proved within the time a \
+             phone allows, so it was taken back. Try another move, or study it on the Study \
+             board."
+        ),
+    ]
+}
+
 /// A move after the puzzle ended.
 pub const FINISHED: &str = "The puzzle is over: undo or try again.";
 
@@ -173,8 +185,12 @@ pub fn wrong(reason: WrongReason, p: Point, player: Stone) -> String {
         WrongReason::Stopped { at, .. } => {
             format!("{t} defends at {at}, and {m} has no more threats that win.")
         }
-        WrongReason::NoThreat { at } => format!("{p} makes no threat that wins; {t} takes {at}."),
-        WrongReason::NotKept { at } => format!("{p} does not keep a forced win; {t} takes {at}."),
+        WrongReason::NotForcing { fours: true } => {
+            format!("{p} is not a four; this puzzle asks for a win with fours.")
+        }
+        WrongReason::NotForcing { fours: false } => {
+            format!("{p} is not a forcing move; this puzzle asks for a win with threes and fours.")
+        }
         WrongReason::DoesNotStop { first, with_fours } => {
             let how = if with_fours {
                 "wins with fours"
@@ -183,7 +199,6 @@ pub fn wrong(reason: WrongReason, p: Point, player: Stone) -> String {
             };
             format!("{p} does not stop it: {t} plays {first} and {how}.")
         }
-        WrongReason::NotProved => format!("{p} could not be proved to stop {t}'s attack."),
     }
 }
 

@@ -91,6 +91,12 @@ mod solver_determinism;
 /// what the generator makes.
 mod library;
 
+/// `refutations`: every refutation the grader shows (for every point near the stones of a
+/// sample of the library) is checked by the Study board's own question at the verification
+/// budget: the reply leaves no win, the opponent's win is a win, a "not forcing" move forces
+/// nothing.
+mod refutations;
+
 /// `tidy`: guards on the code's shape: every engine module in the DEVELOPERS.md code map with
 /// an invariant, no web crate in the engine, no two public types with one name, no `unsafe`.
 mod tidy;

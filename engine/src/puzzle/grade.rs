@@ -93,16 +93,12 @@ pub enum WrongReason {
         /// Whether the puzzle asks for fours (so the point is that the move was no four).
         not_a_four: bool,
     },
-    /// The move makes no threat that wins; the opponent takes `at`.
-    NoThreat {
-        /// The opponent's move.
-        at: Point,
-    },
-    /// The move is a threat, but no forced win behind it could be shown; the opponent takes
-    /// `at`.
-    NotKept {
-        /// The opponent's move.
-        at: Point,
+    /// The move is not a forcing move of the puzzle's class (not a four in a puzzle about
+    /// fours, no threat in a puzzle about threats), so the opponent is free: no refutation is
+    /// shown, since any reply would be an arbitrary one.
+    NotForcing {
+        /// Whether the puzzle asks for fours (so a forcing move is a four).
+        fours: bool,
     },
     /// A defence puzzle: the move does not stop the opponent, who plays `first` and wins.
     DoesNotStop {
@@ -111,8 +107,6 @@ pub enum WrongReason {
         /// Whether the opponent's win is by fours alone.
         with_fours: bool,
     },
-    /// A defence puzzle: the move could not be proved to stop the opponent's attack.
-    NotProved,
 }
 
 /// The answer to one move.
@@ -142,6 +136,9 @@ pub enum Grade {
         /// Why.
         reason: MoveError,
     },
+    /// Neither a win after the move nor a refutation of it could be proved within the
+    /// grading budget; the move is taken back and nothing changed.
+    Undecided,
     /// The puzzle is over (solved or failed): undo or retry first.
     Finished,
 }
@@ -303,25 +300,43 @@ impl Session {
             Grade::Solved { by: SolvedBy::Five }
         } else {
             match self.puzzle.goal() {
-                Goal::Win => self.after_attack(solver, p),
+                Goal::Win => self.after_attack(solver),
                 Goal::Defend => self.after_defence(solver),
             }
         };
+        if grade == Grade::Undecided {
+            // Nothing is claimed about the move, so nothing of it stays.
+            while self.history.len() > before {
+                if let Some((q, _)) = self.history.pop() {
+                    self.board.remove(q);
+                }
+            }
+            self.to_move = me;
+            return grade;
+        }
         self.turns.push(self.history.len() - before);
         grade
     }
 
-    /// The player attacked with `p`: does the win survive? The attacker is the player; the
-    /// opponent is to move.
-    fn after_attack(&mut self, solver: &mut Solver, p: Point) -> Grade {
+    /// The player attacked: does the win survive? The attacker is the player; the
+    /// opponent is to move. A win found in the class of the line so far or afresh is a real
+    /// win and the move is accepted. The move is wrong only when neither finds a win (both
+    /// disproved), and then only with a refutation proved in both (see `refute.rs`); what
+    /// cannot be decided within the budget is said to be undecided.
+    fn after_attack(&mut self, solver: &mut Solver) -> Grade {
         let me = self.player();
         let them = me.opponent();
         let mode = self.mode();
-        let mut ask = self.ask(solver, Budget::GRADING);
-        let (mut verdict, _) = ask.wins_after(&self.board, me, them, mode);
+        let mut verdict = self.keeps_win(solver, Budget::GRADING, mode);
         if verdict != Verdict::Win && mode == Mode::Vcf {
             // A win is a win, even with a three in a puzzle about fours.
-            verdict = ask.wins_after(&self.board, me, them, Mode::Vct).0;
+            let vct = self
+                .ask(solver, Budget::GRADING)
+                .wins_after(&self.board, me, them, Mode::Vct)
+                .0;
+            if vct == Verdict::Win {
+                verdict = Verdict::Win;
+            }
         }
         if verdict == Verdict::Unknown && self.on_key() {
             // The phone's budget cannot decide, but the move is the answer key's, which was
@@ -329,22 +344,47 @@ impl Session {
             verdict = if self.trusted {
                 Verdict::Win
             } else {
-                self.ask(solver, Budget::VERIFICATION)
-                    .wins_after(&self.board, me, them, mode)
-                    .0
+                self.keeps_win(solver, Budget::VERIFICATION, mode)
             };
         }
-        let mut ask = self.ask(solver, Budget::GRADING);
-        if verdict == Verdict::Win {
-            let (reply, note) = match self.stored_reply(&mut ask, me, mode) {
-                Some(r) => r,
-                None => self.longest_defence(&mut ask, me, mode),
-            };
-            self.put(reply, them);
-            return Grade::Accepted { reply, note };
+        match verdict {
+            Verdict::Win => {
+                let mut ask = self.ask(solver, Budget::GRADING);
+                let (reply, note) = match self.stored_reply(&mut ask, me, mode) {
+                    Some(r) => r,
+                    None => self.longest_defence(&mut ask, me, mode),
+                };
+                self.put(reply, them);
+                Grade::Accepted { reply, note }
+            }
+            Verdict::Unknown => Grade::Undecided,
+            Verdict::NoWin => match self.refute_attack(solver) {
+                Some((refutation, reason)) => self.fail(refutation, reason),
+                None => Grade::Undecided,
+            },
         }
-        let (refutation, reason) = self.refute_attack(&mut ask, p);
-        self.fail(refutation, reason)
+    }
+
+    /// Whether the player (the attacker, the opponent to move) still has a forced win in
+    /// `mode`, asked in the class of the line so far and, for a VCT, afresh too: `Win` if
+    /// either proves one, `NoWin` only if both disprove it, else `Unknown`.
+    pub(super) fn keeps_win(&self, solver: &mut Solver, budget: Budget, mode: Mode) -> Verdict {
+        let me = self.player();
+        let them = me.opponent();
+        let in_line = self
+            .ask(solver, budget)
+            .wins_after(&self.board, me, them, mode)
+            .0;
+        if in_line == Verdict::Win || mode == Mode::Vcf {
+            // A VCF does not look back at the line: asked afresh, it is the same question.
+            return in_line;
+        }
+        let fresh = solver.ask(budget).wins_after(&self.board, me, them, mode).0;
+        match (in_line, fresh) {
+            (_, Verdict::Win) => Verdict::Win,
+            (Verdict::NoWin, Verdict::NoWin) => Verdict::NoWin,
+            _ => Verdict::Unknown,
+        }
     }
 
     /// Puts a wrong move's refutation on the board and ends the try.
@@ -509,18 +549,20 @@ impl Session {
                     by: SolvedBy::Stopped,
                 }
             }
-            Verdict::Win | Verdict::Unknown => {
+            Verdict::Unknown => Grade::Undecided,
+            Verdict::Win => {
+                // The opponent's win, shown move by move, is the refutation.
                 let mut ask = self.ask(solver, Budget::GRADING);
                 let sol = ask.solve(&self.board, them, Mode::Vct);
-                let reason = match sol.line.first() {
+                match sol.line.first() {
                     Some(&first) if sol.verdict == Verdict::Win => {
                         let with_fours = sol.depth == 0
                             || ask.solve(&self.board, them, Mode::Vcf).verdict == Verdict::Win;
-                        WrongReason::DoesNotStop { first, with_fours }
+                        self.fail(sol.line, WrongReason::DoesNotStop { first, with_fours })
                     }
-                    _ => WrongReason::NotProved,
-                };
-                self.fail(sol.line, reason)
+                    // Proved a win, but its line could not be read within the budget.
+                    _ => Grade::Undecided,
+                }
             }
         }
     }

@@ -463,6 +463,42 @@ impl<'s, 'w> Asking<'s, 'w> {
         (verdict(s), n)
     }
 
+    /// [`Asking::wins_after`] with the defender to move, and, when the attacker has no win,
+    /// the defender's reply the disproof found: a move after which the attacker has no win in
+    /// this class (read from the table: the disproved child of the defender's node). `None`
+    /// for the reply when the defender's node needed no reply (the attacker's last move made
+    /// no threat, or the defender wins with fours of its own) or the entry was overwritten.
+    pub fn refutation(
+        &mut self,
+        board: &Board,
+        attacker: Stone,
+        mode: Mode,
+    ) -> (Verdict, Option<Point>) {
+        let mut b = board.clone();
+        let depth = self.depth_for(mode);
+        let limit = self.budget.nodes;
+        let defender = attacker.opponent();
+        let (s, _) = self.run(&mut b, attacker, defender, mode, depth, limit, true);
+        if s != Status::Disproved {
+            return (verdict(s), None);
+        }
+        let key = {
+            let s = &mut *self.solver;
+            let oracle = (mode == Mode::Vct).then_some(&mut s.oracle);
+            let sp = ThreatSpace::new(&mut b, attacker, defender, mode, depth, oracle)
+                .with_history(&self.history);
+            sp.key()
+        };
+        let reply = self
+            .solver
+            .tt
+            .get(key)
+            .map(|e| e.best as usize)
+            .filter(|&m| m < b.cell_count() && b.is_empty_at(m))
+            .map(|m| b.point(m));
+        (Verdict::NoWin, reply)
+    }
+
     /// The fewest attacker moves before the five with which `attacker` wins from this node
     /// (`to_move` to play), trying depths up to `max`. `None` if no win within `max`.
     pub fn shortest_win(

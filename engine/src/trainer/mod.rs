@@ -40,6 +40,8 @@ pub enum AnswerKind {
     Wrong,
     /// The move is not allowed; nothing changed.
     Illegal,
+    /// The move could not be graded within the budget and was taken back; nothing changed.
+    Undecided,
     /// The puzzle is over: undo or retry first.
     Finished,
     /// A study edit was made.

@@ -134,7 +134,10 @@ impl PuzzleBoard {
             let a = self.play_point(solver, p);
             if matches!(
                 a.kind,
-                AnswerKind::Wrong | AnswerKind::Illegal | AnswerKind::Finished
+                AnswerKind::Wrong
+                    | AnswerKind::Illegal
+                    | AnswerKind::Finished
+                    | AnswerKind::Undecided
             ) {
                 break;
             }
@@ -200,6 +203,10 @@ impl PuzzleBoard {
                 a.kind = AnswerKind::Finished;
                 a.say.push(words::FINISHED.into());
             }
+            Grade::Undecided => {
+                a.kind = AnswerKind::Undecided;
+                a.say.extend(words::undecided(me, p));
+            }
             Grade::Solved { by } => {
                 a.kind = AnswerKind::Solved;
                 a.say.push(words::played(me, p));
@@ -223,7 +230,7 @@ impl PuzzleBoard {
                 self.revealed += 1;
             }
         }
-        if a.kind != AnswerKind::Illegal {
+        if !matches!(a.kind, AnswerKind::Illegal | AnswerKind::Undecided) {
             self.hint_area = None;
             self.hint_move = None;
         }
