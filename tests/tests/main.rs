@@ -84,3 +84,8 @@ mod solver_determinism;
 /// regenerates byte for byte from its seed; the fixture set (checked in the browser too) is
 /// what the generator makes.
 mod library;
+
+/// `formats`: every set the set-file reader accepts round-trips through a share code
+/// (proptest over generated sets); a set at every limit fits each format, and one step over
+/// a limit is refused with the limit named.
+mod formats;

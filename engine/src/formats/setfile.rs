@@ -387,13 +387,13 @@ fn check_puzzle(n: usize, p: &Puzzle) -> Result<(), SetError> {
     let mut points = |field: &str, list: &[Point], stone: bool| -> Result<(), SetError> {
         listed.iter_mut().for_each(|c| *c = false);
         for (i, q) in list.iter().enumerate() {
-            let f = format!("{field}[{i}]");
+            let f = || format!("{field}[{i}]");
             if q.x >= size || q.y >= size {
-                return Err(err(&f, format!("{q} is off the {size}x{size} board")));
+                return Err(err(&f(), format!("{q} is off the {size}x{size} board")));
             }
             let at = index(q);
             if listed[at] || (stone && stones[at]) {
-                return Err(err(&f, format!("{q} is given twice")));
+                return Err(err(&f(), format!("{q} is given twice")));
             }
             if !stone && stones[at] {
                 return Err(err(field, format!("{q} is already taken")));
@@ -526,9 +526,9 @@ fn parse_puzzle(n: usize, v: &Value) -> Result<Puzzle, SetError> {
         arr.iter()
             .enumerate()
             .map(|(i, x)| {
-                let f = format!("{field}[{i}]");
-                let s = x.as_str().ok_or_else(|| err(&f, "not text".into()))?;
-                s.parse().map_err(|e| err(&f, format!("{e}")))
+                let f = || format!("{field}[{i}]");
+                let s = x.as_str().ok_or_else(|| err(&f(), "not text".into()))?;
+                s.parse().map_err(|e| err(&f(), format!("{e}")))
             })
             .collect()
     };

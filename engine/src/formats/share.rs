@@ -93,7 +93,7 @@ pub const FRAGMENT: &str = "#set=";
 /// 650 KB: per puzzle at most 600 bits of id, 32 bits of fields, and at most 489 points (stones
 /// and answers share the 361 points of the largest board; a line adds 128) of at most 9 bits
 /// each with 21 bits of list headers, that is 5,100 bits; times 1,000 puzzles, plus 2 KB for the
-/// title and the set's own fields. A test encodes such a set and checks it fits.
+/// title and the set's own fields. A test encodes such a set and opens it again.
 pub const MAX_BODY_BYTES: usize = 1 << 20;
 
 /// The longest code text [`decode`] reads: the mark, then three characters per two bytes of

@@ -229,7 +229,7 @@ mod tests {
             let attr = |name: &str| -> f64 {
                 let at = svg.find(&format!("{name}=\"")).unwrap() + name.len() + 2;
                 let v = &svg[at..at + svg[at..].find('"').unwrap()];
-                v.split(' ').last().unwrap().parse().unwrap()
+                v.rsplit(' ').next().unwrap().parse().unwrap()
             };
             let (units, font) = (attr("viewBox"), attr("font-size"));
             let points = font * width_mm / units / 25.4 * 72.0;
