@@ -9,7 +9,8 @@
 //!   a file of many small puzzles over the puzzle limit (refused by count).
 //! * `share`: a valid share code of a large set, and a code of the given length with its
 //!   checksum broken.
-//! * `class`: pasted text of result codes, one per line, and text of words that are not codes.
+//! * `class`: pasted text of result codes, one per line, and text of words that are not codes
+//!   (also at 4 MiB, to see how the time grows past the processor's caches).
 //!
 //! Each input is checked for its expected answer before it is timed.
 
@@ -148,7 +149,7 @@ fn class_bench(c: &mut Criterion) {
     let results: Vec<PuzzleResult> = (0..12)
         .map(|i| PuzzleResult::new(Attempt::ALL[i % 5], (i % 4) as u8, TimeBucket::ALL[i % 5]))
         .collect();
-    for (name, n) in SIZES {
+    for (name, n) in SIZES.into_iter().chain([("4MiB", 4 << 20)]) {
         let mut text = String::new();
         let mut i = 0;
         while text.len() < n {

@@ -376,6 +376,19 @@ mod tests {
     }
 
     #[test]
+    fn positions_count_characters_not_bytes() {
+        // "é" and "✓" take 2 and 3 bytes of UTF-8 but one character each.
+        let e = parse_points("h8 é ✓ i9 zz", "moves", 15, 15).unwrap_err();
+        assert_eq!((e.index, e.column, e.token.as_str()), (2, 3, "é"));
+        let e = parse_points("h8,é✓;i9 zz", "moves", 15, 15).unwrap_err();
+        assert_eq!((e.index, e.column, e.token.as_str()), (2, 3, "é✓"));
+        let e = parse_points("é, h8 i9 ✓ zz", "black", 15, 15);
+        assert_eq!(e.unwrap_err().column, 0);
+        let e = parse_points("h8 i9 ✓✓ j10\tq", "black", 15, 15).unwrap_err();
+        assert_eq!((e.index, e.column, e.token.as_str()), (3, 6, "✓✓"));
+    }
+
+    #[test]
     fn played_lists_enforce_the_rules() {
         let g = play_moves("h8 h9 i8 i9 j8 j9 k8 k9 l8", 15, Rule::Freestyle).unwrap();
         assert_eq!(g.winner(), Some(Stone::Black));

@@ -87,19 +87,24 @@ pub fn find_codes(text: &str) -> Vec<Found> {
     found
 }
 
+/// No word ends after this many symbols.
+const NO_WORD: u32 = u32::MAX;
+
 /// Reads the codes of one piece (a part of a line between commas and semicolons).
 fn scan(line: usize, words: &[Word], found: &mut Vec<Found>) {
     // before[j]: the symbols in words[..j]; ends[s]: the first word after which exactly s
-    // symbols have been read, if any.
+    // symbols have been read, or NO_WORD.
     let mut before = Vec::with_capacity(words.len() + 1);
     before.push(0usize);
     for w in words {
         before.push(before.last().expect("one entry") + w.symbols);
     }
     let total = *before.last().expect("one entry");
-    let mut ends: Vec<Option<usize>> = vec![None; total + 1];
+    // Word numbers fit 32 bits (a text of 4 GiB would be needed to overflow them); the table
+    // then takes 4 bytes per symbol of the piece.
+    let mut ends: Vec<u32> = vec![NO_WORD; total + 1];
     for j in (0..words.len()).rev() {
-        ends[before[j + 1]] = Some(j);
+        ends[before[j + 1]] = j as u32;
     }
     let joined = |from: usize, to: usize| -> String {
         words[from..=to]
@@ -152,7 +157,7 @@ fn attempt(
     words: &[Word],
     i: usize,
     before: &[usize],
-    ends: &[Option<usize>],
+    ends: &[u32],
 ) -> Result<(Results, usize), (ResultError, usize)> {
     let next = i + 1;
     // Read the header symbol by symbol until the code's length is known. The header is at most
@@ -190,8 +195,9 @@ fn attempt(
         return Err((ResultError::Damaged, next));
     }
     // The code must end where a word ends.
-    let Some(k) = ends.get(before[i] + symbols).copied().flatten() else {
-        return Err((ResultError::Damaged, next));
+    let k = match ends.get(before[i] + symbols) {
+        Some(&k) if k != NO_WORD => k as usize,
+        _ => return Err((ResultError::Damaged, next)),
     };
     let text: String = words[i..=k].iter().map(|w| w.text).collect();
     result::decode(&text)

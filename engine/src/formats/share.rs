@@ -938,4 +938,68 @@ mod tests {
         }
         assert_eq!(decode("hello there"), Err(ShareError::NotACode));
     }
+
+    /// A version 2 code around any body, compressed or not, with a good checksum: what a
+    /// crafted code looks like.
+    fn wrap(body: &[u8], compressed: bool) -> String {
+        let mut bytes = vec![VERSION << 4 | (compressed as u8) << 3];
+        if compressed {
+            let mut d = flate2::write::DeflateEncoder::new(Vec::new(), flate2::Compression::best());
+            d.write_all(body).unwrap();
+            bytes.extend_from_slice(&d.finish().unwrap());
+        } else {
+            bytes.extend_from_slice(body);
+        }
+        let crc = crc32fast::hash(&bytes);
+        bytes.extend_from_slice(&crc.to_be_bytes());
+        let mut code = String::from(MARK);
+        for pair in bytes.chunks(2) {
+            let (mut n, digits) = match pair {
+                [a, b] => ((*a as usize) << 8 | *b as usize, 3),
+                [a] => (*a as usize, 2),
+                _ => unreachable!(),
+            };
+            for _ in 0..digits {
+                code.push(ALPHABET[n % 41] as char);
+                n /= 41;
+            }
+        }
+        code
+    }
+
+    #[test]
+    fn a_code_that_inflates_past_the_limit_is_refused_unread() {
+        // Two megabytes of zeros compress to a few kilobytes; the reader stops at its limit.
+        let bomb = wrap(&vec![0u8; 2 * MAX_BODY_BYTES], true);
+        assert!(bomb.len() < 10_000, "{}", bomb.len());
+        assert_eq!(
+            decode(&bomb),
+            Err(ShareError::Malformed("the compressed body (too large)"))
+        );
+        // The same wrapping of a real body opens, so the refusal above is the limit's.
+        let body = body_bits(&sample()).into_bytes();
+        assert_eq!(decode(&wrap(&body, true)), Ok(sample()));
+    }
+
+    #[test]
+    fn a_code_over_a_limit_is_refused_with_the_limit_named() {
+        let mut set = sample();
+        set.title = "Harbour Street ".repeat(14);
+        assert!(set.title.len() > limits::MAX_TITLE_BYTES);
+        let code = wrap(&body_bits(&set).into_bytes(), false);
+        match decode(&code) {
+            Err(ShareError::Invalid(e)) => {
+                assert_eq!(e.field, "title");
+                assert!(e.to_string().contains("at most 200 bytes"), "{e}");
+            }
+            other => panic!("{other:?}"),
+        }
+        // Stray bits after the last puzzle are refused.
+        let mut body = body_bits(&sample()).into_bytes();
+        body.push(0);
+        assert_eq!(
+            decode(&wrap(&body, false)),
+            Err(ShareError::Malformed("the end of the code"))
+        );
+    }
 }

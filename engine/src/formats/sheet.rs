@@ -65,9 +65,11 @@ pub fn diagram_svg(p: &Puzzle) -> String {
             b + pad - font / 3,
             (b'a' + i as u8) as char
         ));
+        // Row numbers end clear of a stone on the first column (its radius is under half a
+        // cell).
         s.push_str(&format!(
             "<text x=\"{}\" y=\"{}\" class=\"r\">{}</text>",
-            pad - font / 2,
+            pad - CELL / 2 - 1,
             at(n - 1 - i) + font / 3,
             i + 1
         ));
