@@ -263,3 +263,69 @@ fn one_step_over_a_limit_is_refused_by_name() {
         assert!(read.to_string().contains(&words), "{read}");
     }
 }
+
+/// Any text given to the readers of codes gets an answer, never a panic: random text over the
+/// codes' alphabets, and valid codes with random characters changed, cut or repeated.
+mod untrusted {
+    use super::*;
+    use engine::formats::class::{find_codes, ClassTable};
+    use engine::formats::result::{self, PuzzleResult, TimeBucket};
+    use engine::puzzle::attempt::Attempt;
+
+    fn fixture() -> PuzzleSet {
+        setfile::parse(include_str!("../data/fixture_set.json")).unwrap()
+    }
+
+    fn share_text() -> impl Strategy<Value = String> {
+        prop_oneof![
+            "\\$[0-9A-Z$/.:-]{0,200}",
+            "[A-Za-z0-9_-]{0,200}",
+            "\\PC{0,100}",
+            (any::<prop::sample::Index>(), "[0-9A-Z$/.:-]{1,3}").prop_map(|(at, with)| {
+                let code = share::encode(&fixture()).unwrap();
+                let i = 1 + at.index(code.len() - 1);
+                format!("{}{with}{}", &code[..i], &code[i + 1..])
+            }),
+        ]
+    }
+
+    fn result_text() -> impl Strategy<Value = String> {
+        let code = result::encode(
+            result::fingerprint(&fixture()),
+            "Mira",
+            &[PuzzleResult::new(Attempt::Clean, 0, TimeBucket::Under30s); 3],
+        )
+        .unwrap();
+        prop_oneof![
+            "[0-9A-Za-z ,;\\n-]{0,300}",
+            "\\PC{0,100}",
+            (any::<prop::sample::Index>(), 0usize..4, "[0-9A-Z -]{0,3}").prop_map(
+                move |(at, cut, with)| {
+                    let i = at.index(code.len());
+                    let end = (i + cut).min(code.len());
+                    format!("{} {}{with}{} {code}", code, &code[..i], &code[end..])
+                }
+            ),
+        ]
+    }
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(500))]
+
+        #[test]
+        fn share_codes_never_panic(text in share_text()) {
+            let _ = share::decode(&text);
+        }
+
+        #[test]
+        fn result_codes_and_pasted_text_never_panic(text in result_text()) {
+            let _ = result::decode(&text);
+            let found = find_codes(&text);
+            let mut table = ClassTable::new(&fixture());
+            let added = table.add(&text);
+            // Every code found either adds a student or is told about (replaced, repeated,
+            // refused), never both and never neither.
+            prop_assert_eq!(added.new_students + added.notices.len(), found.len());
+        }
+    }
+}

@@ -541,10 +541,15 @@ impl Body<'_> {
             } else if layout == Layout::Steps as u64 {
                 let dx = bits::unzigzag(self.golomb(k, PART)?);
                 let dy = bits::unzigzag(self.golomb(k, PART)?);
-                let (x, y) = (last.x as i64 + dx, last.y as i64 + dy);
-                if !(0..side as i64).contains(&x) || !(0..side as i64).contains(&y) {
+                // A step read from outside can be any 64-bit number: add without overflow.
+                let on_board = |from: u8, step: i64| {
+                    (from as i64)
+                        .checked_add(step)
+                        .filter(|v| (0..side as i64).contains(v))
+                };
+                let (Some(x), Some(y)) = (on_board(last.x, dx), on_board(last.y, dy)) else {
                     return Err(ShareError::Malformed(PART));
-                }
+                };
                 Point::new(x as u8, y as u8)
             } else {
                 return Err(ShareError::Malformed(PART));
@@ -1001,5 +1006,53 @@ mod tests {
             decode(&wrap(&body, false)),
             Err(ShareError::Malformed("the end of the code"))
         );
+    }
+
+    #[test]
+    fn a_step_off_the_board_is_refused_whatever_its_size() {
+        // A body written by hand: no title, a date, no generator, one puzzle (freestyle,
+        // 15x15, vcf, black to move, a free-text id), whose black list is in the steps layout:
+        // o15, then o15 plus a step (zigzag-coded: 1 is one to the left, 2 one to the right).
+        // Then no white stones, one answer (a1) and no line.
+        for step in [1u64, 2, 40, u64::MAX - 1, u64::MAX] {
+            let mut w = BitWriter::default();
+            w.golomb(3, 0);
+            w.put(14, 2026);
+            w.put(4, 12);
+            w.put(5, 2);
+            w.flag(false);
+            w.golomb(3, 1);
+            w.flag(false);
+            w.put(2, 0);
+            w.put(5, 15);
+            w.put(3, 1);
+            w.flag(false);
+            w.flag(false);
+            put_text(&mut w, "x");
+            w.put(12, 1500);
+            w.put(8, 1);
+            w.golomb(3, 2);
+            w.put(2, Layout::Steps as u64);
+            w.put(8, 224);
+            w.put(3, 0);
+            w.golomb(0, step);
+            w.golomb(0, 0);
+            w.golomb(3, 0);
+            w.golomb(3, 1);
+            w.put(2, Layout::Indices as u64);
+            w.put(8, 0);
+            w.golomb(3, 0);
+            let decoded = decode(&wrap(&w.into_bytes(), false));
+            if step == 1 {
+                let black = &decoded.unwrap().puzzles[0].black;
+                assert_eq!(black, &["o15".parse().unwrap(), "n15".parse().unwrap()]);
+            } else {
+                assert_eq!(
+                    decoded,
+                    Err(ShareError::Malformed("a list of points")),
+                    "step {step}"
+                );
+            }
+        }
     }
 }
