@@ -173,14 +173,26 @@ pub fn code_of_link(text: &str) -> &str {
 pub fn encode(set: &PuzzleSet) -> Result<String, SetError> {
     setfile::check(set)?;
     let body = body_bits(set).into_bytes();
-    let mut deflate = flate2::write::DeflateEncoder::new(Vec::new(), flate2::Compression::best());
-    deflate
-        .write_all(&body)
-        .expect("writing to memory cannot fail");
-    let packed = deflate.finish().expect("writing to memory cannot fail");
-    let compressed = packed.len() < body.len();
+    let packed = deflate(&body);
+    Ok(if packed.len() < body.len() {
+        seal(&packed, true)
+    } else {
+        seal(&body, false)
+    })
+}
+
+/// The body compressed with DEFLATE (RFC 1951), at the best compression.
+fn deflate(body: &[u8]) -> Vec<u8> {
+    let mut d = flate2::write::DeflateEncoder::new(Vec::new(), flate2::Compression::best());
+    d.write_all(body).expect("writing to memory cannot fail");
+    d.finish().expect("writing to memory cannot fail")
+}
+
+/// The code of a body (compressed or not): the mark, then the header, the body and the
+/// checksum, three characters for two bytes.
+fn seal(body: &[u8], compressed: bool) -> String {
     let mut bytes = vec![VERSION << 4 | (compressed as u8) << 3];
-    bytes.extend_from_slice(if compressed { &packed } else { &body });
+    bytes.extend_from_slice(body);
     let crc = crc32fast::hash(&bytes);
     bytes.extend_from_slice(&crc.to_be_bytes());
     let mut code = String::with_capacity(1 + bytes.len().div_ceil(2) * 3);
@@ -196,7 +208,7 @@ pub fn encode(set: &PuzzleSet) -> Result<String, SetError> {
             n /= 41;
         }
     }
-    Ok(code)
+    code
 }
 
 /// Decodes a share code of version 1 or 2, or a link that ends in one. Surrounding white space
@@ -947,29 +959,11 @@ mod tests {
     /// A version 2 code around any body, compressed or not, with a good checksum: what a
     /// crafted code looks like.
     fn wrap(body: &[u8], compressed: bool) -> String {
-        let mut bytes = vec![VERSION << 4 | (compressed as u8) << 3];
         if compressed {
-            let mut d = flate2::write::DeflateEncoder::new(Vec::new(), flate2::Compression::best());
-            d.write_all(body).unwrap();
-            bytes.extend_from_slice(&d.finish().unwrap());
+            seal(&deflate(body), true)
         } else {
-            bytes.extend_from_slice(body);
+            seal(body, false)
         }
-        let crc = crc32fast::hash(&bytes);
-        bytes.extend_from_slice(&crc.to_be_bytes());
-        let mut code = String::from(MARK);
-        for pair in bytes.chunks(2) {
-            let (mut n, digits) = match pair {
-                [a, b] => ((*a as usize) << 8 | *b as usize, 3),
-                [a] => (*a as usize, 2),
-                _ => unreachable!(),
-            };
-            for _ in 0..digits {
-                code.push(ALPHABET[n % 41] as char);
-                n /= 41;
-            }
-        }
-        code
     }
 
     #[test]

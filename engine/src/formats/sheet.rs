@@ -31,18 +31,19 @@ pub const DIAGRAM_MM: usize = 80;
 
 /// The size of the coordinate labels in the diagram's units for a board of side `n`: the
 /// smallest whole number that prints at least 3 mm (8.5 pt) high when the diagram is
-/// [`DIAGRAM_MM`] wide. The diagram is `4 * font + CELL * (n - 1)` units wide (a margin of two
-/// font sizes on each side for the labels), so the label is `font * DIAGRAM_MM / width` mm high,
-/// and `font * 80 >= 3 * (4 * font + CELL * (n - 1))` gives `font >= 3 * CELL * (n - 1) / 68`.
+/// [`DIAGRAM_MM`] wide. Around the grid the diagram has a margin of two font sizes and half a
+/// cell on each side (room for the labels beside a stone on the edge), so it is
+/// `4 * font + CELL * n` units wide and a label is `font * DIAGRAM_MM / width` mm high;
+/// `font * 80 >= 3 * (4 * font + CELL * n)` gives `font >= 3 * CELL * n / 68`.
 fn label_size(n: usize) -> usize {
-    (3 * CELL * (n - 1)).div_ceil(DIAGRAM_MM - 12)
+    (3 * CELL * n).div_ceil(DIAGRAM_MM - 12)
 }
 
 /// One diagram as an SVG element: grid, coordinates on the left and bottom edges, stones.
 pub fn diagram_svg(p: &Puzzle) -> String {
     let n = p.size as usize;
     let font = label_size(n);
-    let pad = 2 * font;
+    let pad = 2 * font + CELL / 2;
     let side = 2 * pad + CELL * (n - 1);
     let at = |i: usize| pad + CELL * i;
     let mut s = format!(
