@@ -400,7 +400,12 @@ export class Tonight {
     const key = this.data.open;
     if (!key) return;
     try {
-      $('result-code').textContent = resultCode(this.set(key).json, this.data.name, this.outcomes(key));
+      const recs = this.progressOf(key).puzzles;
+      const results = this.puzzlesOf(key).map((p) => {
+        const r = own(recs, p.id);
+        return { attempt: r?.outcome ?? 'untried', hints: r?.hints ?? 0, seconds: r?.seconds ?? null };
+      });
+      $('result-code').textContent = resultCode(this.set(key).json, this.data.name, results);
     } catch (e) {
       $('result-code').textContent = `No code: ${e}`;
     }

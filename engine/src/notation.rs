@@ -86,38 +86,80 @@ impl fmt::Display for ListError {
 
 impl std::error::Error for ListError {}
 
-/// Splits a list into tokens with their character offsets.
-fn tokens(text: &str) -> Vec<(usize, &str)> {
-    let mut out = Vec::new();
-    let mut start = None;
-    for (i, ch) in text.char_indices() {
-        let sep = ch.is_whitespace() || ch == ',' || ch == ';';
-        match (sep, start) {
-            (true, Some(s)) => {
-                out.push((s, &text[s..i]));
-                start = None;
-            }
-            (false, None) => start = Some(i),
-            _ => {}
-        }
-    }
-    if let Some(s) = start {
-        out.push((s, &text[s..]));
-    }
-    out.into_iter()
-        .map(|(byte, t)| (text[..byte].chars().count(), t))
-        .collect()
+/// The tokens of a list with the character offset at which each starts, found in one pass:
+/// the offset is counted as the text is walked, never recounted from the start, so reading a
+/// list is linear in its length, and a caller that stops at the first bad token reads no
+/// further than that token.
+struct Tokens<'a> {
+    text: &'a str,
+    /// The byte offset where the walk stands.
+    at: usize,
+    /// The number of characters before `at`.
+    chars: usize,
 }
 
-/// Parses a list of distinct on-board points (`h8, i9 j10`).
+impl<'a> Tokens<'a> {
+    fn new(text: &'a str) -> Self {
+        Tokens {
+            text,
+            at: 0,
+            chars: 0,
+        }
+    }
+}
+
+fn is_separator(ch: char) -> bool {
+    ch.is_whitespace() || ch == ',' || ch == ';'
+}
+
+impl<'a> Iterator for Tokens<'a> {
+    /// The token's character offset (from 0) and its text.
+    type Item = (usize, &'a str);
+
+    fn next(&mut self) -> Option<(usize, &'a str)> {
+        let rest = &self.text[self.at..];
+        let mut start = None;
+        for (i, ch) in rest.char_indices() {
+            match (is_separator(ch), start) {
+                (true, Some((byte, column))) => {
+                    self.at += i;
+                    return Some((column, &rest[byte..i]));
+                }
+                (false, None) => start = Some((i, self.chars)),
+                _ => {}
+            }
+            self.chars += 1;
+        }
+        self.at = self.text.len();
+        start.map(|(byte, column)| (column, &rest[byte..]))
+    }
+}
+
+/// Parses a list of distinct on-board points (`h8, i9 j10`), stopping at the first bad entry.
+/// The work is linear in the length of the text up to that entry: a point seen before is found
+/// in a table of the board's points, not by searching the list so far.
 pub fn parse_points(
     text: &str,
     list: &'static str,
     width: u8,
     height: u8,
 ) -> Result<Vec<Point>, ListError> {
-    let mut out: Vec<Point> = Vec::new();
-    for (i, (column, token)) in tokens(text).into_iter().enumerate() {
+    parse_tokens(text, list, width, height)
+        .map(|entries| entries.into_iter().map(|e| e.0).collect())
+}
+
+/// The points of a list with each one's character offset and token, for callers that report a
+/// later problem with an entry (as [`play_moves`] does for an illegal move).
+fn parse_tokens<'a>(
+    text: &'a str,
+    list: &'static str,
+    width: u8,
+    height: u8,
+) -> Result<Vec<(Point, usize, &'a str)>, ListError> {
+    let mut out = Vec::new();
+    // For each point of the board, the entry (from 1) that gave it, or 0.
+    let mut first = vec![0usize; width as usize * height as usize];
+    for (i, (column, token)) in Tokens::new(text).enumerate() {
         let err = |problem| ListError {
             list,
             index: i + 1,
@@ -129,10 +171,12 @@ pub fn parse_points(
         if p.x >= width || p.y >= height {
             return Err(err(TokenProblem::OffBoard { width, height }));
         }
-        if let Some(first) = out.iter().position(|&q| q == p) {
-            return Err(err(TokenProblem::Duplicate { first: first + 1 }));
+        let seen = &mut first[p.y as usize * width as usize + p.x as usize];
+        if *seen != 0 {
+            return Err(err(TokenProblem::Duplicate { first: *seen }));
         }
-        out.push(p);
+        *seen = i + 1;
+        out.push((p, column, token));
     }
     Ok(out)
 }
@@ -141,16 +185,15 @@ pub fn parse_points(
 /// forbidden point or a move after the game is over is an error naming the move.
 pub fn play_moves(text: &str, size: u8, rule: Rule) -> Result<Game, PositionError> {
     let board = Board::new(size, rule).map_err(PositionError::Board)?;
-    let points = parse_points(text, "moves", size, size).map_err(PositionError::List)?;
+    let entries = parse_tokens(text, "moves", size, size).map_err(PositionError::List)?;
     let mut game = Game::new(board);
-    let toks = tokens(text);
-    for (i, p) in points.into_iter().enumerate() {
+    for (i, (p, column, token)) in entries.into_iter().enumerate() {
         if let Err(e) = game.play(p) {
             return Err(PositionError::List(ListError {
                 list: "moves",
                 index: i + 1,
-                column: toks[i].0,
-                token: toks[i].1.to_string(),
+                column,
+                token: token.to_string(),
                 problem: TokenProblem::Illegal(e),
             }));
         }
@@ -339,6 +382,19 @@ mod tests {
         assert!(e.to_string().contains("move 2 ('p1'"), "{e}");
         let e = parse_points("h8 h9 H8", "moves", 15, 15).unwrap_err();
         assert_eq!(e.problem, TokenProblem::Duplicate { first: 1 });
+    }
+
+    #[test]
+    fn positions_count_characters_not_bytes() {
+        // "é" and "✓" take 2 and 3 bytes of UTF-8 but one character each.
+        let e = parse_points("h8 é ✓ i9 zz", "moves", 15, 15).unwrap_err();
+        assert_eq!((e.index, e.column, e.token.as_str()), (2, 3, "é"));
+        let e = parse_points("h8,é✓;i9 zz", "moves", 15, 15).unwrap_err();
+        assert_eq!((e.index, e.column, e.token.as_str()), (2, 3, "é✓"));
+        let e = parse_points("é, h8 i9 ✓ zz", "black", 15, 15);
+        assert_eq!(e.unwrap_err().column, 0);
+        let e = parse_points("h8 i9 ✓✓ j10\tq", "black", 15, 15).unwrap_err();
+        assert_eq!((e.index, e.column, e.token.as_str()), (3, 6, "✓✓"));
     }
 
     #[test]

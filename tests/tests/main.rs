@@ -91,6 +91,11 @@ mod solver_determinism;
 /// what the generator makes.
 mod library;
 
+/// `formats`: every set the set-file reader accepts round-trips through a share code
+/// (proptest over generated sets); a set at every limit fits each format, and one step over
+/// a limit is refused with the limit named.
+mod formats;
+
 /// `refutations`: every refutation the grader shows (for every point near the stones of a
 /// sample of the library) is checked by the Study board's own question at the verification
 /// budget: the reply leaves no win, the opponent's win is a win, a "not forcing" move forces

@@ -2,7 +2,7 @@
 //! ratings, generation and solving. Sets cross the boundary as set-file JSON text (the wire
 //! format of `engine::formats::setfile`), so the page never holds an engine type.
 
-use engine::formats::result;
+use engine::formats::result::{self, PuzzleResult, TimeBucket};
 use engine::formats::{setfile, share};
 use engine::notation;
 use engine::puzzle::attempt::Attempt;
@@ -43,7 +43,7 @@ pub fn library_sets() -> String {
 #[wasm_bindgen(js_name = shareEncode)]
 pub fn share_encode(set_json: &str) -> Result<String, JsValue> {
     let set = setfile::parse(set_json).map_err(err)?;
-    Ok(share::encode(&set))
+    share::encode(&set).map_err(err)
 }
 
 /// The set in a share code, as set-file JSON, or a message saying why it cannot be read
@@ -54,17 +54,38 @@ pub fn share_decode(code: &str) -> Result<String, JsValue> {
     Ok(setfile::to_json(&set))
 }
 
-/// The result code a student sends back: `outcomes` has one attempt name per puzzle of the
-/// set, in order ("untried", "trying", "clean", "helped" or "failed"; see `Attempt`).
+/// One puzzle's result as the page keeps it.
+#[derive(Deserialize)]
+struct ResultJs {
+    attempt: String,
+    #[serde(default)]
+    hints: u8,
+    /// Seconds spent on the puzzle, if timed.
+    #[serde(default)]
+    seconds: Option<f64>,
+}
+
+/// The result code a student sends back: `results` holds one `{attempt, hints, seconds}` per
+/// puzzle of the set, in order (`attempt` an attempt name, see `Attempt`; `seconds` null when
+/// not timed). A name or a set the code cannot hold is refused with a message.
 #[wasm_bindgen(js_name = resultCode)]
-pub fn result_code(set_json: &str, name: &str, outcomes: Vec<String>) -> Result<String, JsValue> {
+pub fn result_code(set_json: &str, name: &str, results: JsValue) -> Result<String, JsValue> {
     let set = setfile::parse(set_json).map_err(err)?;
-    let outs = outcomes
+    let results: Vec<ResultJs> = serde_wasm_bindgen::from_value(results).map_err(err)?;
+    let puzzles = results
         .iter()
-        .map(|o| o.parse::<Attempt>())
-        .collect::<Result<Vec<_>, _>>()
-        .map_err(err)?;
-    Ok(result::encode(result::fingerprint(&set), name, &outs))
+        .map(|r| {
+            let attempt: Attempt = r.attempt.parse().map_err(err)?;
+            let time = match r.seconds {
+                Some(s) if s.is_finite() && s >= 0.0 => {
+                    TimeBucket::of_seconds(s.min(u32::MAX as f64) as u32)
+                }
+                _ => TimeBucket::NotTimed,
+            };
+            Ok(PuzzleResult::new(attempt, r.hints.min(3), time))
+        })
+        .collect::<Result<Vec<_>, JsValue>>()?;
+    result::encode(result::fingerprint(&set), name, &puzzles).map_err(err)
 }
 
 /// Every attempt name with its words for the player: `{"untried": "not tried", ...}` as

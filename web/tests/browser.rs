@@ -651,12 +651,25 @@ fn sets_share_codes_and_result_codes_cross_the_boundary() {
     );
 
     let n = sets[0]["puzzles"].as_array().unwrap().len();
-    let outs: Vec<String> = (0..n)
-        .map(|i| ["clean", "helped", "failed", "untried"][i % 4].to_string())
+    let outs: Vec<Value> = (0..n)
+        .map(|i| {
+            serde_json::json!({
+                "attempt": (["clean", "helped", "failed", "untried"][i % 4]),
+                "hints": (i % 4 == 1) as u8,
+                "seconds": if i % 2 == 0 { Value::from(40.0) } else { Value::Null },
+            })
+        })
         .collect();
-    let r1 = api::result_code(&normal, "Ines", outs.clone()).unwrap();
-    let r2 = api::result_code(&normal, "Ines", outs).unwrap();
+    let js = || {
+        use serde::Serialize;
+        outs.serialize(&serde_wasm_bindgen::Serializer::json_compatible())
+            .unwrap()
+    };
+    let r1 = api::result_code(&normal, "Ines", js()).unwrap();
+    let r2 = api::result_code(&normal, "Ines", js()).unwrap();
     assert_eq!(r1, r2);
+    let long = "A name far longer than any result code can hold";
+    assert!(api::result_code(&normal, long, js()).is_err());
     assert!(r1.chars().all(|ch| ch == '-' || ch.is_ascii_alphanumeric()));
 
     let themes: Value = serde_json::from_str(&api::themes()).unwrap();

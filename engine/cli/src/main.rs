@@ -6,6 +6,8 @@
 mod generate;
 mod inspect;
 mod position;
+mod results;
+mod share;
 mod solve;
 mod suite;
 
@@ -38,6 +40,13 @@ enum Command {
     Verify(generate::VerifyArgs),
     /// Print a set as a page: numbered diagrams with the goal under each, answers at the end.
     Sheet(generate::SheetArgs),
+    /// Print the link (or bare code) that hands a set out, and write its QR code.
+    Share(share::ShareArgs),
+    /// Read students' result codes against a set and print the class table (or write CSV).
+    Results(results::ResultsArgs),
+    /// Measure the QR version (level M) of sets' links; prints a Markdown table.
+    #[command(hide = true, name = "qr-versions")]
+    QrVersions(share::QrVersionsArgs),
     /// Harvest the solver benchmark suite from seeded self-play.
     #[command(hide = true)]
     Suite(suite::SuiteArgs),
@@ -53,6 +62,9 @@ fn main() -> ExitCode {
         Command::Generate(args) => generate::run(&args),
         Command::Verify(args) => generate::verify(&args),
         Command::Sheet(args) => generate::sheet(&args),
+        Command::Share(args) => share::run(&args),
+        Command::Results(args) => results::run(&args),
+        Command::QrVersions(args) => share::qr_versions(&args),
     };
     match result {
         Ok(()) => ExitCode::SUCCESS,

@@ -18,11 +18,13 @@
 //! file of a newer version is refused with a message saying so. `length` and `generator` are
 //! our extensions of version 1; `length` defaults to 0 and `generator` is optional.
 
+use std::collections::HashMap;
 use std::fmt;
 
 use serde::Serialize;
 use serde_json::{Map, Value};
 
+use super::limits;
 use crate::geometry::Point;
 use crate::puzzle::{Puzzle, Theme};
 use crate::types::Rule;
@@ -182,12 +184,22 @@ pub fn to_json(set: &PuzzleSet) -> String {
 }
 
 /// Reads a set file. Either the whole set is returned, or an error naming what is wrong.
+///
+/// The work is linear in the length of the text: the JSON is read once, list lengths are
+/// checked against [`limits`] before their entries are read, and every duplicate check looks in
+/// a table (a hash set of ids, a grid of the board's points) instead of searching the entries
+/// read so far. The set that comes back has passed [`check`].
 pub fn parse(text: &str) -> Result<PuzzleSet, SetError> {
-    let top = |field: &str, message: String| SetError {
-        puzzle: None,
-        field: field.to_string(),
-        message,
-    };
+    if text.len() > limits::MAX_FILE_BYTES {
+        return Err(top(
+            "",
+            format!(
+                "the file is {} bytes; a set file is at most {} bytes",
+                text.len(),
+                limits::MAX_FILE_BYTES
+            ),
+        ));
+    }
     let value: Value = serde_json::from_str(text).map_err(|e| SetError {
         puzzle: None,
         field: String::new(),
@@ -229,41 +241,217 @@ pub fn parse(text: &str) -> Result<PuzzleSet, SetError> {
     }
     let title = string(obj, "title").map_err(|m| top("title", m))?;
     let created = string(obj, "created").map_err(|m| top("created", m))?;
-    if !is_date(&created) {
-        return Err(top(
-            "created",
-            format!("'{created}' is not a date like 2026-12-01"),
-        ));
-    }
     let list = obj
         .get("puzzles")
         .and_then(Value::as_array)
         .ok_or_else(|| top("puzzles", "missing or not a list".into()))?;
-    if list.is_empty() {
-        return Err(top("puzzles", "the set has no puzzles".into()));
-    }
-    let mut puzzles = Vec::with_capacity(list.len());
-    for (i, v) in list.iter().enumerate() {
-        let p = parse_puzzle(i + 1, v)?;
-        if let Some(j) = puzzles.iter().position(|q: &Puzzle| q.id == p.id) {
-            return Err(SetError {
-                puzzle: Some((i + 1, p.id.clone())),
-                field: "id".into(),
-                message: format!("the same id as puzzle {}", j + 1),
-            });
-        }
-        puzzles.push(p);
-    }
+    check_count(list.len())?;
+    let puzzles = list
+        .iter()
+        .enumerate()
+        .map(|(i, v)| parse_puzzle(i + 1, v))
+        .collect::<Result<Vec<_>, _>>()?;
     let generator = match obj.get("generator") {
         None | Some(Value::Null) => None,
         Some(g) => Some(parse_generator(g).map_err(|(f, m)| top(&format!("generator.{f}"), m))?),
     };
-    Ok(PuzzleSet {
+    let set = PuzzleSet {
         title,
         created,
         puzzles,
         generator,
-    })
+    };
+    check(&set)?;
+    Ok(set)
+}
+
+/// An error in the set's own fields.
+fn top(field: &str, message: String) -> SetError {
+    SetError {
+        puzzle: None,
+        field: field.to_string(),
+        message,
+    }
+}
+
+fn check_count(n: usize) -> Result<(), SetError> {
+    if n == 0 {
+        return Err(top("puzzles", "the set has no puzzles".into()));
+    }
+    if n > limits::MAX_PUZZLES {
+        return Err(top(
+            "puzzles",
+            format!(
+                "{n} puzzles; a set holds at most {} (split it into several sets)",
+                limits::MAX_PUZZLES
+            ),
+        ));
+    }
+    Ok(())
+}
+
+/// Checks a set against every rule a set file must keep: the [`limits`], a valid date, at
+/// least one puzzle, unique ids, and for each puzzle its board size, distinct stones on the
+/// board, answers and a line on empty points, a theme that exists under its rule, and rating
+/// and length in range. [`parse`] and the share code's reader return only sets that pass it;
+/// writers call it before they write (a set made in the page, a generated set), so that
+/// nothing is written that its reader would refuse. The error names the puzzle and field.
+pub fn check(set: &PuzzleSet) -> Result<(), SetError> {
+    if set.title.len() > limits::MAX_TITLE_BYTES {
+        return Err(top(
+            "title",
+            format!(
+                "{} bytes long; a title is at most {} bytes",
+                set.title.len(),
+                limits::MAX_TITLE_BYTES
+            ),
+        ));
+    }
+    if !is_date(&set.created) {
+        return Err(top(
+            "created",
+            format!("'{}' is not a date like 2026-12-01", set.created),
+        ));
+    }
+    check_count(set.puzzles.len())?;
+    // The first puzzle (from 1) with each id; looked up, never iterated, so the order of the
+    // hash map cannot reach the output.
+    let mut ids: HashMap<&str, usize> = HashMap::with_capacity(set.puzzles.len());
+    for (i, p) in set.puzzles.iter().enumerate() {
+        check_puzzle(i + 1, p)?;
+        if let Some(j) = ids.insert(&p.id, i + 1) {
+            return Err(SetError {
+                puzzle: Some((i + 1, p.id.clone())),
+                field: "id".into(),
+                message: format!("the same id as puzzle {j}"),
+            });
+        }
+    }
+    if let Some(g) = &set.generator {
+        check_generator(g).map_err(|(f, m)| top(&format!("generator.{f}"), m))?;
+    }
+    Ok(())
+}
+
+fn check_puzzle(n: usize, p: &Puzzle) -> Result<(), SetError> {
+    let err = |field: &str, message: String| SetError {
+        puzzle: Some((n, p.id.clone())),
+        field: field.to_string(),
+        message,
+    };
+    if p.id.is_empty() {
+        return Err(err("id", "missing or empty".into()));
+    }
+    if p.id.len() > limits::MAX_ID_BYTES {
+        return Err(err(
+            "id",
+            format!("longer than {} bytes", limits::MAX_ID_BYTES),
+        ));
+    }
+    let size = p.size;
+    if !(limits::MIN_SIZE..=limits::MAX_SIZE).contains(&size) {
+        return Err(err("size", format!("{size} is not a board size (5 to 19)")));
+    }
+    if !p.theme.allowed(p.rule) {
+        return Err(err(
+            "theme",
+            format!("{} puzzles exist only under renju", p.theme),
+        ));
+    }
+    if p.black.len() + p.white.len() > limits::MAX_STONES {
+        return Err(err(
+            "white",
+            format!(
+                "{} stones in all; a puzzle has at most {}",
+                p.black.len() + p.white.len(),
+                limits::MAX_STONES
+            ),
+        ));
+    }
+    if p.line.len() > limits::MAX_LINE {
+        return Err(err(
+            "solution.line",
+            format!(
+                "{} moves; a line has at most {}",
+                p.line.len(),
+                limits::MAX_LINE
+            ),
+        ));
+    }
+    // Each point of the board: 0 if empty, 1 if it holds a stone; a list's own repeats are
+    // found with a second grid.
+    let cells = size as usize * size as usize;
+    let mut stones = vec![false; cells];
+    let mut listed = vec![false; cells];
+    let index = |q: &Point| q.y as usize * size as usize + q.x as usize;
+    let mut points = |field: &str, list: &[Point], stone: bool| -> Result<(), SetError> {
+        listed.iter_mut().for_each(|c| *c = false);
+        for (i, q) in list.iter().enumerate() {
+            let f = || format!("{field}[{i}]");
+            if q.x >= size || q.y >= size {
+                return Err(err(&f(), format!("{q} is off the {size}x{size} board")));
+            }
+            let at = index(q);
+            if listed[at] || (stone && stones[at]) {
+                return Err(err(&f(), format!("{q} is given twice")));
+            }
+            if !stone && stones[at] {
+                return Err(err(field, format!("{q} is already taken")));
+            }
+            listed[at] = true;
+        }
+        if stone {
+            list.iter().for_each(|q| stones[index(q)] = true);
+        }
+        Ok(())
+    };
+    points("black", &p.black, true)?;
+    points("white", &p.white, true)?;
+    if p.first_moves.is_empty() {
+        return Err(err(
+            "solution.first_moves",
+            "empty: a puzzle needs at least one answer".into(),
+        ));
+    }
+    points("solution.first_moves", &p.first_moves, false)?;
+    points("solution.line", &p.line, false)?;
+    if p.rating > limits::MAX_RATING {
+        return Err(err(
+            "rating",
+            format!("{} is not a rating (0 to {})", p.rating, limits::MAX_RATING),
+        ));
+    }
+    if p.length > limits::MAX_LENGTH {
+        return Err(err(
+            "length",
+            format!("{} is more than {}", p.length, limits::MAX_LENGTH),
+        ));
+    }
+    Ok(())
+}
+
+fn check_generator(g: &GeneratorInfo) -> Result<(), (String, String)> {
+    let bad = |f: &str, m: String| Err((f.to_string(), m));
+    if !(limits::MIN_SIZE..=limits::MAX_SIZE).contains(&g.size) {
+        return bad("size", format!("{} is not a board size (5 to 19)", g.size));
+    }
+    if g.count == 0 || g.count > limits::MAX_PUZZLES {
+        return bad(
+            "count",
+            format!(
+                "{} is not a count from 1 to {}",
+                g.count,
+                limits::MAX_PUZZLES
+            ),
+        );
+    }
+    if g.rating.0 > limits::MAX_RATING || g.rating.1 > limits::MAX_RATING {
+        return bad(
+            "rating",
+            format!("ratings run from 0 to {}", limits::MAX_RATING),
+        );
+    }
+    Ok(())
 }
 
 fn string(obj: &Map<String, Value>, key: &str) -> Result<String, String> {
@@ -288,6 +476,8 @@ fn is_date(s: &str) -> bool {
     (1..=12).contains(&month) && (1..=31).contains(&day)
 }
 
+/// Converts one puzzle of the file to a [`Puzzle`]: the types and the syntax of each field.
+/// What the values must satisfy together (the board, the limits) is [`check_puzzle`]'s.
 fn parse_puzzle(n: usize, v: &Value) -> Result<Puzzle, SetError> {
     let mut id = String::new();
     let obj = v.as_object().ok_or_else(|| SetError {
@@ -306,9 +496,6 @@ fn parse_puzzle(n: usize, v: &Value) -> Result<Puzzle, SetError> {
     if id.is_empty() {
         return Err(err("id", "missing or empty".into()));
     }
-    if id.chars().count() > 64 {
-        return Err(err("id", "longer than 64 characters".into()));
-    }
     let rule: Rule = string(obj, "rule")
         .map_err(|m| err("rule", m))?
         .parse()
@@ -317,49 +504,40 @@ fn parse_puzzle(n: usize, v: &Value) -> Result<Puzzle, SetError> {
         .get("size")
         .and_then(Value::as_u64)
         .ok_or_else(|| err("size", "missing or not a whole number".into()))?;
-    if !(5..=19).contains(&size) {
+    if !(limits::MIN_SIZE as u64..=limits::MAX_SIZE as u64).contains(&size) {
         return Err(err("size", format!("{size} is not a board size (5 to 19)")));
     }
-    let size = size as u8;
     let to_move: Stone = string(obj, "to_move")
         .map_err(|m| err("to_move", m))?
         .parse()
         .map_err(|e: crate::StoneParseError| err("to_move", e.to_string()))?;
-    let points =
-        |field: &str, v: Option<&Value>, seen: &mut Vec<Point>| -> Result<Vec<Point>, SetError> {
-            let arr = v
-                .and_then(Value::as_array)
-                .ok_or_else(|| err(field, "missing or not a list".into()))?;
-            let mut out = Vec::with_capacity(arr.len());
-            for (i, x) in arr.iter().enumerate() {
-                let f = format!("{field}[{i}]");
-                let s = x.as_str().ok_or_else(|| err(&f, "not text".into()))?;
-                let p: Point = s.parse().map_err(|e| err(&f, format!("{e}")))?;
-                if p.x >= size || p.y >= size {
-                    return Err(err(&f, format!("{p} is off the {size}x{size} board")));
-                }
-                if seen.contains(&p) || out.contains(&p) {
-                    return Err(err(&f, format!("{p} is given twice")));
-                }
-                out.push(p);
-            }
-            Ok(out)
-        };
-    let mut stones = Vec::new();
-    let black = points("black", obj.get("black"), &mut stones)?;
-    stones.extend(&black);
-    let white = points("white", obj.get("white"), &mut stones)?;
-    stones.extend(&white);
+    // The most points any list can hold: every point of the largest board.
+    let most = limits::MAX_SIZE as usize * limits::MAX_SIZE as usize;
+    let points = |field: &str, v: Option<&Value>| -> Result<Vec<Point>, SetError> {
+        let arr = v
+            .and_then(Value::as_array)
+            .ok_or_else(|| err(field, "missing or not a list".into()))?;
+        if arr.len() > most {
+            return Err(err(
+                field,
+                format!("{} points; a board has at most {most}", arr.len()),
+            ));
+        }
+        arr.iter()
+            .enumerate()
+            .map(|(i, x)| {
+                let f = || format!("{field}[{i}]");
+                let s = x.as_str().ok_or_else(|| err(&f(), "not text".into()))?;
+                s.parse().map_err(|e| err(&f(), format!("{e}")))
+            })
+            .collect()
+    };
+    let black = points("black", obj.get("black"))?;
+    let white = points("white", obj.get("white"))?;
     let theme: Theme = string(obj, "theme")
         .map_err(|m| err("theme", m))?
         .parse()
         .map_err(|e| err("theme", format!("{e}")))?;
-    if !theme.allowed(rule) {
-        return Err(err(
-            "theme",
-            format!("{theme} puzzles exist only under renju"),
-        ));
-    }
     let goal = string(obj, "goal").map_err(|m| err("goal", m))?;
     if goal != theme.goal().name() {
         return Err(err(
@@ -374,48 +552,34 @@ fn parse_puzzle(n: usize, v: &Value) -> Result<Puzzle, SetError> {
         .get("solution")
         .and_then(Value::as_object)
         .ok_or_else(|| err("solution", "missing or not an object".into()))?;
-    let mut no_repeat = Vec::new();
-    let first_moves = points(
-        "solution.first_moves",
-        sol.get("first_moves"),
-        &mut no_repeat,
-    )?;
-    if first_moves.is_empty() {
-        return Err(err(
-            "solution.first_moves",
-            "empty: a puzzle needs at least one answer".into(),
-        ));
-    }
-    if let Some(p) = first_moves.iter().find(|p| stones.contains(p)) {
-        return Err(err("solution.first_moves", format!("{p} is already taken")));
-    }
-    let mut no_repeat = Vec::new();
-    let line = points("solution.line", sol.get("line"), &mut no_repeat)?;
-    if let Some(p) = line.iter().find(|p| stones.contains(p)) {
-        return Err(err("solution.line", format!("{p} is already taken")));
-    }
+    let first_moves = points("solution.first_moves", sol.get("first_moves"))?;
+    let line = points("solution.line", sol.get("line"))?;
     let rating = obj
         .get("rating")
         .and_then(Value::as_u64)
         .ok_or_else(|| err("rating", "missing or not a whole number".into()))?;
-    if rating > 4000 {
+    if rating > limits::MAX_RATING as u64 {
         return Err(err(
             "rating",
-            format!("{rating} is not a rating (0 to 4000)"),
+            format!("{rating} is not a rating (0 to {})", limits::MAX_RATING),
         ));
     }
     let length = match obj.get("length") {
         None => 0,
         Some(v) => v
             .as_u64()
-            .filter(|&l| l <= 200)
-            .ok_or_else(|| err("length", "not a whole number up to 200".into()))?
-            as u16,
+            .filter(|&l| l <= limits::MAX_LENGTH as u64)
+            .ok_or_else(|| {
+                err(
+                    "length",
+                    format!("not a whole number up to {}", limits::MAX_LENGTH),
+                )
+            })? as u16,
     };
     Ok(Puzzle {
         id: id.clone(),
         rule,
-        size,
+        size: size as u8,
         to_move,
         black,
         white,
@@ -441,17 +605,22 @@ fn parse_generator(v: &Value) -> Result<GeneratorInfo, (String, String)> {
             .and_then(Value::as_str)
             .ok_or_else(|| (k.to_string(), "missing or not text".to_string()))
     };
+    // Numbers too large for their field are refused here (never cut down); the ranges are
+    // [`check_generator`]'s.
+    let small = |x: &Value| x.as_u64().and_then(|n| u32::try_from(n).ok());
     let rating = obj
         .get("rating")
         .and_then(Value::as_array)
         .filter(|a| a.len() == 2)
-        .and_then(|a| Some((a[0].as_u64()? as u32, a[1].as_u64()? as u32)))
+        .and_then(|a| Some((small(&a[0])?, small(&a[1])?)))
         .ok_or_else(|| {
             (
                 "rating".to_string(),
                 "not a pair of whole numbers".to_string(),
             )
         })?;
+    let size = num("size")?;
+    let count = num("count")?;
     Ok(GeneratorInfo {
         seed: num("seed")?,
         theme: text("theme")?
@@ -460,8 +629,17 @@ fn parse_generator(v: &Value) -> Result<GeneratorInfo, (String, String)> {
         rule: text("rule")?
             .parse()
             .map_err(|e| ("rule".to_string(), format!("{e}")))?,
-        size: num("size")?.min(255) as u8,
-        count: num("count")? as usize,
+        size: u8::try_from(size)
+            .map_err(|_| ("size".to_string(), format!("{size} is not a board size")))?,
+        count: usize::try_from(count)
+            .ok()
+            .filter(|&c| c <= limits::MAX_PUZZLES)
+            .ok_or_else(|| {
+                (
+                    "count".to_string(),
+                    format!("{count} is more than {} puzzles", limits::MAX_PUZZLES),
+                )
+            })?,
         rating,
     })
 }

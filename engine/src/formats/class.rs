@@ -1,0 +1,767 @@
+//! The class table: students' result codes read from pasted text against one set, a table of
+//! students by puzzles, and its export as CSV.
+//!
+//! **Reading pasted text.** An instructor pastes whatever the students sent: one code per line,
+//! or several on a line separated by spaces, commas or semicolons, each code written as the page
+//! shows it (groups of four joined by dashes) or typed with spaces between the groups, in lower
+//! case, with I, L or O for 1, 1 or 0 (the result code's own forgiving reading). Lines, commas
+//! and semicolons always separate codes. Spaces may separate codes or groups of one code: a
+//! code's first bytes say how long it is (its version, name length and puzzle count), so the
+//! reader takes exactly that many characters, across spaces, and the code must end where a word
+//! ends. Text that is not a code (a damaged code, a word such as a greeting) is reported with
+//! its line and skipped; consecutive words that cannot be read are reported once. The reading
+//! is linear in the length of the text: each word starts at most a bounded header read, and a
+//! whole code is decoded only when its length ends on a word boundary, after which reading goes
+//! on after it.
+//!
+//! **Which codes count.** Each code is checked: unreadable (a typing mistake, cut short), for
+//! another set (its fingerprint differs from the set's), or for a set of another length. A
+//! student is known by name, compared without regard to case or repeated spaces. **The latest
+//! code of a student replaces the earlier one**: a student who sends a second code after trying
+//! again means the second, and the report says that it replaced the earlier result. A code
+//! that repeats what the table already holds for that student is reported as a repeat and
+//! changes nothing. A code with no name is its own row. Adding codes never removes a student.
+//!
+//! **CSV.** [`ClassTable::to_csv`] follows RFC 4180: a header row, records ending in CRLF,
+//! fields quoted when they hold a comma, a double quote, CR or LF, quotes inside doubled, UTF-8.
+//! A field that starts with `=`, `+`, `-`, `@`, a tab or a carriage return is prefixed with a
+//! single quote, so that a spreadsheet shows it as text and never runs it as a formula (the
+//! OWASP advice on CSV injection); student names come from outside.
+
+use std::borrow::Cow;
+use std::collections::HashMap;
+use std::fmt;
+
+use super::result::{self, PuzzleResult, ResultError, Results};
+use super::setfile::PuzzleSet;
+use crate::puzzle::attempt::Attempt;
+
+/// One code found in pasted text, read or not.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct Found {
+    /// The line it is on, counted from 1.
+    pub line: usize,
+    /// The text as pasted (its words joined by single spaces).
+    pub text: String,
+    /// The decoded code, or why it could not be read.
+    pub code: Result<Results, ResultError>,
+}
+
+/// One word of a piece of text: its symbols and whether it holds a character no code has.
+struct Word<'a> {
+    text: &'a str,
+    symbols: usize,
+    bad: Option<(char, usize)>,
+}
+
+/// Finds the result codes in pasted text (see the module doc for the rules).
+pub fn find_codes(text: &str) -> Vec<Found> {
+    let mut found = Vec::new();
+    for (n, line) in text.lines().enumerate() {
+        for piece in line.split([',', ';']) {
+            let words: Vec<Word> = piece
+                .split_whitespace()
+                .map(|w| {
+                    let mut symbols = 0;
+                    let mut bad = None;
+                    for (i, c) in w.chars().enumerate() {
+                        if c == '-' {
+                            continue;
+                        }
+                        if result::symbol(c).is_some() {
+                            symbols += 1;
+                        } else if bad.is_none() {
+                            bad = Some((c, i + 1));
+                        }
+                    }
+                    Word {
+                        text: w,
+                        symbols,
+                        bad,
+                    }
+                })
+                .collect();
+            scan(n + 1, &words, &mut found);
+        }
+    }
+    found
+}
+
+/// No word ends after this many symbols.
+const NO_WORD: u32 = u32::MAX;
+
+/// Reads the codes of one piece (a part of a line between commas and semicolons).
+fn scan(line: usize, words: &[Word], found: &mut Vec<Found>) {
+    // before[j]: the symbols in words[..j]; ends[s]: the first word after which exactly s
+    // symbols have been read, or NO_WORD.
+    let mut before = Vec::with_capacity(words.len() + 1);
+    before.push(0usize);
+    for w in words {
+        before.push(before.last().expect("one entry") + w.symbols);
+    }
+    let total = *before.last().expect("one entry");
+    // Word numbers fit 32 bits (a text of 4 GiB would be needed to overflow them); the table
+    // then takes 4 bytes per symbol of the piece.
+    let mut ends: Vec<u32> = vec![NO_WORD; total + 1];
+    for j in (0..words.len()).rev() {
+        ends[before[j + 1]] = j as u32;
+    }
+    let joined = |from: usize, to: usize| -> String {
+        words[from..=to]
+            .iter()
+            .map(|w| w.text)
+            .collect::<Vec<_>>()
+            .join(" ")
+    };
+    let mut failed: Option<(usize, ResultError)> = None;
+    let flush = |failed: &mut Option<(usize, ResultError)>, upto: usize, found: &mut Vec<Found>| {
+        if let Some((from, error)) = failed.take() {
+            found.push(Found {
+                line,
+                text: joined(from, upto - 1),
+                code: Err(error),
+            });
+        }
+    };
+    let mut i = 0;
+    while i < words.len() {
+        if words[i].symbols == 0 && words[i].bad.is_none() {
+            // A lone dash: nothing to read.
+            i += 1;
+            continue;
+        }
+        match attempt(words, i, &before, &ends) {
+            Ok((code, k)) => {
+                flush(&mut failed, i, found);
+                found.push(Found {
+                    line,
+                    text: joined(i, k),
+                    code: Ok(code),
+                });
+                i = k + 1;
+            }
+            Err((error, next)) => {
+                if failed.is_none() {
+                    failed = Some((i, error));
+                }
+                i = next;
+            }
+        }
+    }
+    flush(&mut failed, words.len(), found);
+}
+
+/// Tries to read one code starting at word `i`: the code and its last word, or why not and
+/// where to try next.
+fn attempt(
+    words: &[Word],
+    i: usize,
+    before: &[usize],
+    ends: &[u32],
+) -> Result<(Results, usize), (ResultError, usize)> {
+    let next = i + 1;
+    // Read the header symbol by symbol until the code's length is known. The header is at most
+    // 8 + 255 bytes, so this is bounded whatever the text.
+    let mut head = Vec::new();
+    let (mut acc, mut bits) = (0u32, 0);
+    let mut length = None;
+    'words: for w in &words[i..] {
+        if let Some((found, at)) = w.bad {
+            return Err((ResultError::BadCharacter { found, at }, next));
+        }
+        for c in w.text.chars().filter(|&c| c != '-') {
+            let v = result::symbol(c).expect("checked above");
+            acc = (acc << 5 | v as u32) & 0xFFFF;
+            bits += 5;
+            if bits >= 8 {
+                bits -= 8;
+                head.push((acc >> bits & 0xFF) as u8);
+                match result::code_bytes(&head) {
+                    Ok(Some(n)) => {
+                        length = Some(n);
+                        break 'words;
+                    }
+                    Ok(None) => {}
+                    Err(e) => return Err((e, next)),
+                }
+            }
+        }
+    }
+    let Some(bytes) = length else {
+        return Err((ResultError::Damaged, next));
+    };
+    let symbols = result::code_chars(bytes);
+    if symbols > result::MAX_CODE_CHARS {
+        return Err((ResultError::Damaged, next));
+    }
+    // The code must end where a word ends.
+    let k = match ends.get(before[i] + symbols) {
+        Some(&k) if k != NO_WORD => k as usize,
+        _ => return Err((ResultError::Damaged, next)),
+    };
+    let text: String = words[i..=k].iter().map(|w| w.text).collect();
+    result::decode(&text)
+        .map(|r| (r, k))
+        .map_err(|e| (e, k + 1))
+}
+
+/// Why a code found in pasted text did not simply add a student.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub enum Problem {
+    /// The code could not be read (a typing mistake, cut short, not a code).
+    Unreadable(ResultError),
+    /// A code for another set.
+    OtherSet {
+        /// The fingerprint in the code.
+        fingerprint: u32,
+    },
+    /// A code with the set's fingerprint but another number of puzzles.
+    WrongLength {
+        /// Results in the code.
+        found: usize,
+        /// Puzzles in the set.
+        expected: usize,
+    },
+    /// The same results again for a student already in the table: nothing changed.
+    Repeated {
+        /// The student.
+        name: String,
+    },
+    /// A new code for a student already in the table: it replaced the earlier results.
+    Replaced {
+        /// The student.
+        name: String,
+    },
+}
+
+/// A code that was refused, repeated, or replaced a student's earlier results.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct Notice {
+    /// The line of the pasted text, counted from 1.
+    pub line: usize,
+    /// The code as pasted (at most 40 characters of it).
+    pub text: String,
+    /// What happened.
+    pub problem: Problem,
+}
+
+impl fmt::Display for Notice {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        write!(f, "line {}, '{}': ", self.line, self.text)?;
+        match &self.problem {
+            Problem::Unreadable(e) => write!(f, "{e}; skipped"),
+            Problem::OtherSet { fingerprint } => write!(
+                f,
+                "a result for another set (set key {fingerprint:08x}); skipped"
+            ),
+            Problem::WrongLength { found, expected } => write!(
+                f,
+                "a result for {found} puzzles, but the set has {expected}; skipped"
+            ),
+            Problem::Repeated { name } => {
+                write!(f, "the same result for {name} again; nothing changed")
+            }
+            Problem::Replaced { name } => {
+                write!(f, "a newer result for {name}; it replaces the earlier one")
+            }
+        }
+    }
+}
+
+/// What adding codes to a table did.
+#[derive(Clone, Debug, Default, PartialEq, Eq)]
+pub struct Added {
+    /// Codes that added a student.
+    pub new_students: usize,
+    /// Codes that replaced a student's earlier results.
+    pub replaced: usize,
+    /// Everything worth telling, in the order of the text.
+    pub notices: Vec<Notice>,
+}
+
+/// One student's row.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct Student {
+    /// The name as in the latest code.
+    pub name: String,
+    /// One result per puzzle.
+    pub results: Vec<PuzzleResult>,
+}
+
+impl Student {
+    /// Puzzles solved (clean or with help): the score.
+    pub fn solved(&self) -> usize {
+        self.results.iter().filter(|r| r.attempt.solved()).count()
+    }
+
+    /// Puzzles solved with no wrong move and no hint.
+    pub fn clean(&self) -> usize {
+        self.results
+            .iter()
+            .filter(|r| r.attempt == Attempt::Clean)
+            .count()
+    }
+}
+
+/// How to order the rows.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum SortBy {
+    /// In the order the students were first added.
+    Added,
+    /// By name, ignoring case.
+    Name,
+    /// By score (solved, then clean) from the highest, then by name.
+    Score,
+}
+
+/// How the class did on one puzzle.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub struct PuzzleStats {
+    /// Students who solved it (clean or with help).
+    pub solved: usize,
+    /// Students who solved it clean.
+    pub clean: usize,
+    /// Students who tried it (anything but untried).
+    pub tried: usize,
+    /// Students in the table.
+    pub students: usize,
+}
+
+impl PuzzleStats {
+    /// The solve rate in whole percent of the students in the table, rounded half up; `None`
+    /// for an empty table. Integer arithmetic, so the same on every platform.
+    pub fn percent(&self) -> Option<usize> {
+        (self.students > 0).then(|| (200 * self.solved + self.students) / (2 * self.students))
+    }
+}
+
+/// Students by puzzles for one set.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct ClassTable {
+    set: u32,
+    puzzles: usize,
+    students: Vec<Student>,
+    /// Row of each student's name key (looked up, never iterated).
+    rows: HashMap<String, usize>,
+}
+
+/// The key a student is known by: the name without regard to case or repeated spaces.
+fn name_key(name: &str) -> String {
+    name.split_whitespace()
+        .collect::<Vec<_>>()
+        .join(" ")
+        .to_lowercase()
+}
+
+fn shorten(text: &str) -> String {
+    match text.char_indices().nth(40) {
+        Some((at, _)) => format!("{}…", &text[..at]),
+        None => text.to_string(),
+    }
+}
+
+impl ClassTable {
+    /// An empty table for a set.
+    pub fn new(set: &PuzzleSet) -> ClassTable {
+        ClassTable {
+            set: result::fingerprint(set),
+            puzzles: set.puzzles.len(),
+            students: Vec::new(),
+            rows: HashMap::new(),
+        }
+    }
+
+    /// The fingerprint of the table's set.
+    pub fn fingerprint(&self) -> u32 {
+        self.set
+    }
+
+    /// The number of puzzles of the table's set.
+    pub fn puzzles(&self) -> usize {
+        self.puzzles
+    }
+
+    /// Reads pasted text and adds its codes: new students are appended, a student's newer
+    /// code replaces the earlier results, nothing is removed.
+    pub fn add(&mut self, text: &str) -> Added {
+        let mut added = Added::default();
+        for found in find_codes(text) {
+            let notice = |problem| Notice {
+                line: found.line,
+                text: shorten(&found.text),
+                problem,
+            };
+            let code = match found.code {
+                Err(e) => {
+                    added.notices.push(notice(Problem::Unreadable(e)));
+                    continue;
+                }
+                Ok(code) => code,
+            };
+            if code.set != self.set {
+                added.notices.push(notice(Problem::OtherSet {
+                    fingerprint: code.set,
+                }));
+                continue;
+            }
+            if code.puzzles.len() != self.puzzles {
+                added.notices.push(notice(Problem::WrongLength {
+                    found: code.puzzles.len(),
+                    expected: self.puzzles,
+                }));
+                continue;
+            }
+            let key = name_key(&code.name);
+            let row = if key.is_empty() {
+                None
+            } else {
+                self.rows.get(&key).copied()
+            };
+            match row {
+                Some(row) => {
+                    let student = &mut self.students[row];
+                    if student.results == code.puzzles {
+                        added
+                            .notices
+                            .push(notice(Problem::Repeated { name: code.name }));
+                    } else {
+                        student.results = code.puzzles;
+                        student.name = code.name.clone();
+                        added.replaced += 1;
+                        added
+                            .notices
+                            .push(notice(Problem::Replaced { name: code.name }));
+                    }
+                }
+                None => {
+                    let name = if key.is_empty() {
+                        format!("(no name, line {})", found.line)
+                    } else {
+                        self.rows.insert(key, self.students.len());
+                        code.name
+                    };
+                    self.students.push(Student {
+                        name,
+                        results: code.puzzles,
+                    });
+                    added.new_students += 1;
+                }
+            }
+        }
+        added
+    }
+
+    /// The students in the order they were first added.
+    pub fn students(&self) -> &[Student] {
+        &self.students
+    }
+
+    /// The students in the given order.
+    pub fn sorted(&self, by: SortBy) -> Vec<&Student> {
+        let mut rows: Vec<&Student> = self.students.iter().collect();
+        let by_name = |a: &&Student, b: &&Student| {
+            name_key(&a.name)
+                .cmp(&name_key(&b.name))
+                .then_with(|| a.name.cmp(&b.name))
+        };
+        match by {
+            SortBy::Added => {}
+            SortBy::Name => rows.sort_by(by_name),
+            SortBy::Score => rows.sort_by(|a, b| {
+                b.solved()
+                    .cmp(&a.solved())
+                    .then(b.clean().cmp(&a.clean()))
+                    .then_with(|| by_name(a, b))
+            }),
+        }
+        rows
+    }
+
+    /// How the class did on each puzzle, in set order.
+    pub fn stats(&self) -> Vec<PuzzleStats> {
+        (0..self.puzzles)
+            .map(|i| {
+                let results = self.students.iter().map(|s| s.results[i]);
+                PuzzleStats {
+                    solved: results.clone().filter(|r| r.attempt.solved()).count(),
+                    clean: results
+                        .clone()
+                        .filter(|r| r.attempt == Attempt::Clean)
+                        .count(),
+                    tried: results.filter(|r| r.attempt != Attempt::Untried).count(),
+                    students: self.students.len(),
+                }
+            })
+            .collect()
+    }
+
+    /// The table as CSV (RFC 4180, see the module doc): a header row (`Student`, `Solved`,
+    /// `Clean`, `Puzzle 1`, …), one row per student with each cell in words ("helped, 2
+    /// hints, under 2 min"), and a last row with each puzzle's solve rate ("3 of 4 (75%)").
+    pub fn to_csv(&self, by: SortBy) -> String {
+        let mut out = String::new();
+        let mut header = vec!["Student".to_string(), "Solved".into(), "Clean".into()];
+        header.extend((1..=self.puzzles).map(|i| format!("Puzzle {i}")));
+        csv_record(&mut out, &header);
+        for s in self.sorted(by) {
+            let mut row = vec![
+                s.name.clone(),
+                s.solved().to_string(),
+                s.clean().to_string(),
+            ];
+            row.extend(s.results.iter().map(PuzzleResult::words));
+            csv_record(&mut out, &row);
+        }
+        let mut last = vec!["Solved by".to_string(), String::new(), String::new()];
+        last.extend(self.stats().iter().map(|st| match st.percent() {
+            Some(p) => format!("{} of {} ({p}%)", st.solved, st.students),
+            None => String::new(),
+        }));
+        csv_record(&mut out, &last);
+        out
+    }
+}
+
+/// One CSV field: quoted when it holds a comma, a double quote, CR or LF (quotes inside
+/// doubled, RFC 4180 section 2, rules 6 and 7), and prefixed with a single quote when it starts
+/// with `=`, `+`, `-`, `@`, a tab or a carriage return (OWASP, CSV injection).
+pub fn csv_field(text: &str) -> Cow<'_, str> {
+    let guarded: Cow<str> = if text.starts_with(['=', '+', '-', '@', '\t', '\r']) {
+        Cow::Owned(format!("'{text}"))
+    } else {
+        Cow::Borrowed(text)
+    };
+    if guarded.contains([',', '"', '\r', '\n']) {
+        Cow::Owned(format!("\"{}\"", guarded.replace('"', "\"\"")))
+    } else {
+        guarded
+    }
+}
+
+/// Appends one CSV record and its CRLF.
+pub fn csv_record<S: AsRef<str>>(out: &mut String, fields: &[S]) {
+    for (i, f) in fields.iter().enumerate() {
+        if i > 0 {
+            out.push(',');
+        }
+        out.push_str(&csv_field(f.as_ref()));
+    }
+    out.push_str("\r\n");
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::formats::result::TimeBucket;
+    use crate::formats::setfile;
+
+    fn set() -> PuzzleSet {
+        setfile::parse(include_str!("../../../tests/data/fixture_set.json")).unwrap()
+    }
+
+    fn code(set: &PuzzleSet, name: &str, attempts: &[Attempt]) -> String {
+        let results: Vec<PuzzleResult> = (0..set.puzzles.len())
+            .map(|i| {
+                let a = attempts.get(i).copied().unwrap_or(Attempt::Untried);
+                PuzzleResult::new(a, (i % 2) as u8, TimeBucket::Under2Min)
+            })
+            .collect();
+        result::encode(result::fingerprint(set), name, &results).unwrap()
+    }
+
+    #[test]
+    fn codes_are_found_whatever_separates_them() {
+        let s = set();
+        let a = code(&s, "Mira", &[Attempt::Clean]);
+        let b = code(&s, "Tomas", &[Attempt::Failed]);
+        let c = code(&s, "Ines", &[Attempt::Helped]);
+        let spaced = c.to_lowercase().replace('-', " ");
+        let text = format!("{a} {b}\n\n  {spaced} ;{a},\r\n{b}");
+        let found = find_codes(&text);
+        let names: Vec<(usize, String)> = found
+            .iter()
+            .map(|f| (f.line, f.code.as_ref().unwrap().name.clone()))
+            .collect();
+        let expect = [
+            (1, "Mira"),
+            (1, "Tomas"),
+            (3, "Ines"),
+            (3, "Mira"),
+            (4, "Tomas"),
+        ];
+        assert_eq!(
+            names,
+            expect.map(|(l, n)| (l, n.to_string())).to_vec(),
+            "{found:?}"
+        );
+    }
+
+    #[test]
+    fn damaged_codes_and_words_are_reported_once_with_their_line() {
+        let s = set();
+        let a = code(&s, "Mira", &[Attempt::Clean]);
+        let b = code(&s, "Tomas", &[Attempt::Failed]);
+        // One character of a dropped: the rest of the line still reads.
+        let cut: String = a.chars().skip(1).collect();
+        let text = format!("hello from the harbour\n{cut} {b}\nthanks!");
+        let found = find_codes(&text);
+        assert_eq!(found.len(), 4, "{found:#?}");
+        assert!(found[0].code.is_err() && found[0].line == 1);
+        assert!(found[1].code.is_err() && found[1].line == 2);
+        assert_eq!(found[2].code.as_ref().unwrap().name, "Tomas");
+        assert!(found[3].code.is_err() && found[3].line == 3);
+    }
+
+    #[test]
+    fn the_latest_code_of_a_student_counts_and_nobody_is_lost() {
+        let s = set();
+        let mut table = ClassTable::new(&s);
+        let first = code(&s, "Mira", &[Attempt::Failed]);
+        let again = code(&s, "mira ", &[Attempt::Helped]);
+        let tomas = code(&s, "Tomas", &[Attempt::Clean]);
+        let added = table.add(&format!("{first}\n{tomas}\n{first}"));
+        assert_eq!((added.new_students, added.replaced), (2, 0));
+        assert_eq!(
+            added.notices[0].problem,
+            Problem::Repeated {
+                name: "Mira".into()
+            }
+        );
+        let added = table.add(&again);
+        assert_eq!((added.new_students, added.replaced), (0, 1));
+        assert!(added.notices[0]
+            .to_string()
+            .contains("replaces the earlier"));
+        // Both students are still there; Mira's row now holds the newer results.
+        let rows = table.students();
+        assert_eq!(rows.len(), 2);
+        assert_eq!(rows[0].results[0].attempt, Attempt::Helped);
+        assert_eq!(rows[1].name, "Tomas");
+        // A code for another set, and one for a set of another length, are refused.
+        let mut other = s.clone();
+        other.puzzles[0].rating += 1;
+        let added = table.add(&code(&other, "Ines", &[Attempt::Clean]));
+        assert!(matches!(added.notices[0].problem, Problem::OtherSet { .. }));
+        let short = result::encode(result::fingerprint(&s), "Ines", &[]).unwrap();
+        let added = table.add(&short);
+        assert!(matches!(
+            added.notices[0].problem,
+            Problem::WrongLength { .. }
+        ));
+        assert_eq!(table.students().len(), 2);
+    }
+
+    #[test]
+    fn rows_sort_by_name_and_score_and_the_rates_add_up() {
+        let s = set();
+        let mut table = ClassTable::new(&s);
+        let n = s.puzzles.len();
+        let all = vec![Attempt::Clean; n];
+        table.add(&code(&s, "bea", &[Attempt::Failed]));
+        table.add(&code(&s, "Ana", &[Attempt::Helped]));
+        table.add(&code(&s, "Caro", &all));
+        let names = |by| {
+            table
+                .sorted(by)
+                .iter()
+                .map(|s| s.name.clone())
+                .collect::<Vec<_>>()
+        };
+        assert_eq!(names(SortBy::Added), ["bea", "Ana", "Caro"]);
+        assert_eq!(names(SortBy::Name), ["Ana", "bea", "Caro"]);
+        assert_eq!(names(SortBy::Score), ["Caro", "Ana", "bea"]);
+        let first = table.stats()[0];
+        // Puzzle 1: Ana (helped) and Caro (clean) solved it, bea failed: 2 of 3 is 67 %.
+        assert_eq!((first.solved, first.clean, first.tried), (2, 1, 3));
+        assert_eq!(first.percent(), Some(67));
+    }
+
+    /// Parses CSV with an independent reader (the `csv` crate, which reads RFC 4180).
+    fn read_csv(text: &str) -> Vec<Vec<String>> {
+        csv::ReaderBuilder::new()
+            .has_headers(false)
+            .from_reader(text.as_bytes())
+            .records()
+            .map(|r| r.unwrap().iter().map(str::to_string).collect())
+            .collect()
+    }
+
+    #[test]
+    fn csv_follows_the_examples_of_rfc_4180() {
+        // RFC 4180, section 2, rule 1: records end in CRLF ("aaa,bbb,ccc CRLF").
+        let mut out = String::new();
+        csv_record(&mut out, &["aaa", "bbb", "ccc"]);
+        csv_record(&mut out, &["zzz", "yyy", "xxx"]);
+        assert_eq!(out, "aaa,bbb,ccc\r\nzzz,yyy,xxx\r\n");
+        // Rule 6: a field with a line break is quoted ("aaa","b CRLF bb","ccc"; quoting the
+        // other fields is optional, and we quote only what needs it).
+        let mut out = String::new();
+        csv_record(&mut out, &["aaa", "b\r\nbb", "ccc"]);
+        assert_eq!(out, "aaa,\"b\r\nbb\",ccc\r\n");
+        // Rule 7: a quote inside a quoted field is doubled ("aaa","b""bb","ccc").
+        let mut out = String::new();
+        csv_record(&mut out, &["aaa", "b\"bb", "ccc"]);
+        assert_eq!(out, "aaa,\"b\"\"bb\",ccc\r\n");
+        // Rule 4 and 6: commas inside a field are quoted; spaces are part of a field.
+        assert_eq!(csv_field("Quay, Tomas"), "\"Quay, Tomas\"");
+        assert_eq!(csv_field(" Ines "), " Ines ");
+        // The independent reader gets the fields back.
+        let mut out = String::new();
+        csv_record(&mut out, &["aaa", "b\"bb", "c,c", "d\r\ndd", "e\nee"]);
+        assert_eq!(
+            read_csv(&out),
+            [["aaa", "b\"bb", "c,c", "d\r\ndd", "e\nee"]]
+        );
+    }
+
+    #[test]
+    fn cells_that_a_spreadsheet_would_run_are_made_text() {
+        // OWASP, "CSV Injection": cells that begin with =, +, -, @, tab or carriage return
+        // are prefixed with a single quote.
+        for (cell, written) in [
+            ("=1+2", "'=1+2"),
+            ("+1", "'+1"),
+            ("-2+3", "'-2+3"),
+            ("@SUM(A1)", "'@SUM(A1)"),
+            ("\tx", "'\tx"),
+            ("\rx", "\"'\rx\""),
+            (
+                "=HYPERLINK(\"x\",\"y\")",
+                "\"'=HYPERLINK(\"\"x\"\",\"\"y\"\")\"",
+            ),
+            ("Mira=1", "Mira=1"),
+        ] {
+            assert_eq!(csv_field(cell), written, "{cell:?}");
+        }
+    }
+
+    #[test]
+    fn the_table_as_csv_reads_back_cell_by_cell() {
+        let s = set();
+        let n = s.puzzles.len();
+        let mut table = ClassTable::new(&s);
+        table.add(&code(&s, "=cmd|' /C calc'!A0", &[Attempt::Clean]));
+        table.add(&code(
+            &s,
+            "Quay, \"Tom\"",
+            &[Attempt::Failed, Attempt::Helped],
+        ));
+        let text = table.to_csv(SortBy::Name);
+        assert!(text.ends_with("\r\n") && !text.replace("\r\n", "").contains('\n'));
+        let rows = read_csv(&text);
+        assert_eq!(rows.len(), 4);
+        assert_eq!(rows[0][..4], ["Student", "Solved", "Clean", "Puzzle 1"]);
+        assert_eq!(rows[0].len(), 3 + n);
+        // By name: the guarded name sorts by its own text, '=' before 'Q'.
+        assert_eq!(rows[1][0], "'=cmd|' /C calc'!A0");
+        assert_eq!(rows[1][1..4], ["1", "1", "clean, under 2 min"]);
+        assert_eq!(rows[2][0], "Quay, \"Tom\"");
+        assert_eq!(
+            rows[2][3..5],
+            ["failed, under 2 min", "helped, 1 hint, under 2 min"]
+        );
+        assert_eq!(rows[3][0], "Solved by");
+        assert_eq!(rows[3][3], "1 of 2 (50%)");
+        assert!(rows.iter().all(|r| r.len() == 3 + n));
+    }
+}
