@@ -11,12 +11,14 @@ pub mod bitset;
 pub mod board;
 pub mod formats;
 pub mod geometry;
+pub mod logbook;
 pub mod notation;
 pub mod patterns;
 pub mod play;
 pub mod puzzle;
 pub mod rating;
 pub mod rules;
+pub mod schedule;
 pub mod search;
 pub mod suite;
 

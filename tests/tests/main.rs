@@ -84,3 +84,9 @@ mod solver_determinism;
 /// regenerates byte for byte from its seed; the fixture set (checked in the browser too) is
 /// what the generator makes.
 mod library;
+
+/// `schedule`: the FSRS-6 review scheduler against 425 reviews computed by the reference
+/// scheduler of the open-spaced-repetition project (py-fsrs 6.3.2), stored in
+/// `tests/data/fsrs6_vectors.txt` with the script that wrote them; the starter library through
+/// a stored review deck and back.
+mod schedule;
