@@ -105,3 +105,9 @@ mod refutations;
 /// `tidy`: guards on the code's shape: every engine module in the DEVELOPERS.md code map with
 /// an invariant, no web crate in the engine, no two public types with one name, no `unsafe`.
 mod tidy;
+
+/// `schedule`: the FSRS-6 review scheduler against 425 reviews computed by the reference
+/// scheduler of the open-spaced-repetition project (py-fsrs 6.3.2), stored in
+/// `tests/data/fsrs6_vectors.txt` with the script that wrote them; the starter library through
+/// a stored review deck and back.
+mod schedule;

@@ -17,7 +17,7 @@
 //! interaction problem of df-pn does not arise. Results are deterministic for a given node
 //! budget: the tree, the move order and the table are all deterministic.
 
-use super::tt::{Entry, Table, NO_MOVE};
+use super::tt::{Slot, Table, NO_MOVE};
 
 /// Proof or disproof number meaning "infinite".
 pub const INF: u32 = 1 << 30;
@@ -124,7 +124,7 @@ impl<'t, 's> Dfpn<'t, 's> {
     }
 
     /// The stored entry of a key.
-    pub fn entry(&self, key: u64) -> Option<Entry> {
+    pub fn entry(&self, key: u64) -> Option<Slot> {
         self.tt.get(key).copied()
     }
 
@@ -262,7 +262,7 @@ impl<'t, 's> Dfpn<'t, 's> {
 
     #[inline]
     fn store(&mut self, key: u64, pn: u32, dn: u32, best: u16, depth: u16, work: u32) {
-        self.tt.put(Entry {
+        self.tt.put(Slot {
             key,
             pn,
             dn,

@@ -8,7 +8,7 @@
 //! with equal 64-bit keys, which we accept as is common practice for Zobrist-hashed tables.
 
 /// Bytes per entry.
-pub const ENTRY_BYTES: usize = std::mem::size_of::<Entry>();
+pub const ENTRY_BYTES: usize = std::mem::size_of::<Slot>();
 
 const WAYS: usize = 4;
 
@@ -17,7 +17,7 @@ pub const NO_MOVE: u16 = u16::MAX;
 
 /// One stored node.
 #[derive(Clone, Copy, Debug, Default, PartialEq, Eq)]
-pub struct Entry {
+pub struct Slot {
     /// The node's key (0 marks an empty slot; a real key of 0 is remapped).
     pub key: u64,
     /// Proof number.
@@ -32,9 +32,9 @@ pub struct Entry {
     pub depth: u16,
 }
 
-/// A bounded table of [`Entry`]s.
+/// A bounded table of [`Slot`]s.
 pub struct Table {
-    entries: Vec<Entry>,
+    entries: Vec<Slot>,
     mask: usize,
 }
 
@@ -48,7 +48,7 @@ impl Table {
             (want.next_power_of_two() / 2).max(1)
         };
         Table {
-            entries: vec![Entry::default(); buckets * WAYS],
+            entries: vec![Slot::default(); buckets * WAYS],
             mask: buckets - 1,
         }
     }
@@ -65,7 +65,7 @@ impl Table {
 
     /// Forgets everything.
     pub fn clear(&mut self) {
-        self.entries.fill(Entry::default());
+        self.entries.fill(Slot::default());
     }
 
     #[inline]
@@ -84,7 +84,7 @@ impl Table {
 
     /// The entry for a key, if stored.
     #[inline]
-    pub fn get(&self, key: u64) -> Option<&Entry> {
+    pub fn get(&self, key: u64) -> Option<&Slot> {
         let key = Self::fix(key);
         let b = self.bucket(key);
         self.entries[b..b + WAYS].iter().find(|e| e.key == key)
@@ -92,7 +92,7 @@ impl Table {
 
     /// Stores an entry, replacing the same key or else the entry with the least work.
     #[inline]
-    pub fn put(&mut self, mut e: Entry) {
+    pub fn put(&mut self, mut e: Slot) {
         e.key = Self::fix(e.key);
         let b = self.bucket(e.key);
         let slots = &mut self.entries[b..b + WAYS];
@@ -128,7 +128,7 @@ mod tests {
     #[test]
     fn stores_and_replaces_cheapest() {
         let mut t = Table::with_megabytes(1);
-        let mut e = Entry {
+        let mut e = Slot {
             key: 42,
             pn: 3,
             dn: 4,
@@ -145,13 +145,13 @@ mod tests {
         // Fill one bucket with entries of rising work, then add one more: the cheapest goes.
         let base = 5u64 << 32;
         for (i, w) in [(1u64, 5u32), (2, 1), (3, 9), (4, 7)] {
-            t.put(Entry {
+            t.put(Slot {
                 key: base | i,
                 work: w,
                 ..Default::default()
             });
         }
-        t.put(Entry {
+        t.put(Slot {
             key: base | 9,
             work: 3,
             ..Default::default()
