@@ -2,6 +2,7 @@
 // the engine in the worker: a VCF? a VCT? which moves defend? The answer is given in words and
 // its line can be stepped through. A long search can be cancelled.
 
+import { searchingWords } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
 import { save } from './store.js';
@@ -162,38 +163,51 @@ export class Study {
     this.renderControls();
   }
 
-  busy(on, text = 'Searching…') {
+  busy(on) {
     $('study-busy').hidden = !on;
-    $('study-busy-text').textContent = text;
     $('study').dataset.busy = on ? 'true' : 'false';
     for (const b of document.querySelectorAll('#study [data-ask]')) b.disabled = on;
   }
 
   async ask(search) {
     const pos = this.t.status();
-    const name = { vcf: 'a win with fours (VCF)', vct: 'a win with threes and fours (VCT)', defend: 'the defences' }[search];
-    this.busy(true, `Searching for ${name}…`);
     $('study-answer').replaceChildren();
     this.hideLine();
     const started = performance.now();
+    let spent = 0;
+    const show = () => {
+      const secs = (performance.now() - started) / 1000;
+      $('study-busy-text').textContent = searchingWords(search, secs, spent, NODES);
+      const bar = $('study-progress');
+      bar.max = NODES;
+      bar.value = Math.min(spent, NODES);
+    };
+    this.busy(true);
+    show();
+    const clock = setInterval(show, 250);
     const edits = this.edits ?? 0;
     let r;
     try {
       const query = { rule: pos.rule, size: pos.size, black: pos.black, white: pos.white, toMove: pos.toMove, search, nodes: NODES };
-      r = await this.jobs.run('solve', { query });
+      r = await this.jobs.run('solve', { query }, (p) => {
+        spent = p.nodes;
+        show();
+      });
     } catch (e) {
+      clearInterval(clock);
       this.busy(false);
       if (e instanceof Cancelled) return;
       this.answer([`No answer: ${e.message}.`], 'refused');
       return;
     }
+    clearInterval(clock);
     this.busy(false);
     if ((this.edits ?? 0) !== edits) {
       this.answer(['The position changed during the search, so its answer is not shown. Ask again.'], 'cancelled');
       return;
     }
     const secs = ((performance.now() - started) / 1000).toFixed(1);
-    this.answer([...r.say, `(${r.nodes.toLocaleString('en')} positions searched in ${secs} s.)`], r.result);
+    this.answer([...r.say, `(${r.searched} in ${secs} s.)`], r.result);
     if (r.line.length) {
       this.t.showLine(r.line, r.first);
       this.lineTotal = r.line.length;

@@ -3,6 +3,7 @@
 
 import { attemptWords, librarySets, parseSet, recordedAttempt, resultCode, setKey, shareEncode, shareDecode } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
+import { Cancelled, Jobs } from './jobs.js';
 import { save } from './store.js';
 import { $, POINT_NAME, announce, banner, el, fill, isInt, own, put } from './ui.js';
 
@@ -22,8 +23,28 @@ export function checkSets(d) {
     } catch (e) {
       return `set ${s.key} is not valid (${e})`;
     }
+    if (s.checks !== undefined) {
+      if (!s.checks || typeof s.checks !== 'object') return `the answer checks of set ${s.key} are malformed`;
+      for (const c of Object.values(s.checks)) {
+        if (!c || !['ok', 'corrected', 'unproved'].includes(c.state) || !Array.isArray(c.problems) ||
+            !c.problems.every((t) => typeof t === 'string') || (c.state === 'corrected' && !onePuzzle(c.puzzle))) {
+          return `the answer checks of set ${s.key} are malformed`;
+        }
+      }
+    }
   }
   return null;
+}
+
+/** Whether `p` is one puzzle a set file could hold. */
+function onePuzzle(p) {
+  if (!p || typeof p !== 'object') return false;
+  try {
+    parseSet(JSON.stringify({ format: 'fivefold-set', version: 1, title: '', created: '2026-12-01', puzzles: [p] }));
+    return true;
+  } catch {
+    return false;
+  }
 }
 
 /** Why stored Tonight progress cannot be used, or null. */
@@ -63,6 +84,9 @@ export class Tonight {
     this.data = emptyTonight();
     this.parsed = new Map();
     this.library = null;
+    // The worker that proves the answer keys of sets from outside (files and links).
+    this.checker = new Jobs();
+    this.checking = null;
     this.board = new BoardView($('tonight-board'), {
       log: $('tonight-log'),
       message: $('tonight-message'),
@@ -72,6 +96,7 @@ export class Tonight {
       b.addEventListener('click', () => this.act(b.dataset.act));
     }
     $('tonight-back').addEventListener('click', () => this.showList());
+    $('tonight-check-stop').addEventListener('click', () => this.stopChecking(true));
     $('tonight-share').addEventListener('click', () => this.share());
     $('set-file').addEventListener('change', (e) => this.pickFile(e.target));
     $('summary-back').addEventListener('click', () => this.openSet(this.data.open));
@@ -121,6 +146,81 @@ export class Tonight {
       this.parsed.set(key, s ? JSON.parse(s.json) : { puzzles: [] });
     }
     return this.parsed.get(key).puzzles;
+  }
+
+  /** The proof of a puzzle's answer key, if it has been checked: {state, puzzle, problems}. */
+  checkOf(key, id) {
+    const checks = this.set(key)?.checks;
+    return checks ? own(checks, id) : undefined;
+  }
+
+  /** The puzzle as it is played: with the proved answers when its key was corrected. */
+  playedPuzzle(key, p) {
+    const c = this.checkOf(key, p.id);
+    return c?.state === 'corrected' && c.puzzle ? c.puzzle : p;
+  }
+
+  /** Proves the answer keys of a set from outside, puzzle by puzzle in the worker; each
+   * result is kept with the set, so a check stopped half-way goes on where it stopped. */
+  async checkSet(key) {
+    const s = this.set(key);
+    if (!s || this.fromLibrary(key) || this.checking === key) return;
+    this.stopChecking(false);
+    const puzzles = this.puzzlesOf(key);
+    s.checks ??= {};
+    const todo = puzzles.filter((p) => !this.checkOf(key, p.id));
+    if (!todo.length) return;
+    this.checking = key;
+    const line = (done) => {
+      if (this.data.open !== key) return;
+      $('tonight-check').hidden = false;
+      $('tonight-check-text').textContent =
+        `Checking the answer keys of this set: ${done} of ${puzzles.length} proved…`;
+    };
+    let done = puzzles.length - todo.length;
+    line(done);
+    for (const p of todo) {
+      let r;
+      try {
+        r = await this.checker.run('prove', { puzzle: JSON.stringify(p) });
+      } catch (e) {
+        if (e instanceof Cancelled) return;
+        r = { state: 'unproved', puzzle: null, problems: [`it could not be checked (${e.message})`] };
+      }
+      if (this.checking !== key || !this.set(key)) return;
+      put(s.checks, p.id, r);
+      this.saveSets();
+      line(++done);
+    }
+    this.checking = null;
+    $('tonight-check').hidden = true;
+    this.reportChecks(key);
+    if (this.data.open === key && this.data.view === 'play') this.renderPlay(this.board.status());
+  }
+
+  stopChecking(say) {
+    if (!this.checking) return;
+    this.checker.cancel();
+    this.checking = null;
+    $('tonight-check').hidden = true;
+    if (say) announce('Checking stopped; it goes on the next time the set is opened.');
+  }
+
+  /** Tells the player which answer keys did not hold, and what Fivefold does about it. */
+  reportChecks(key) {
+    const s = this.set(key);
+    const puzzles = this.puzzlesOf(key);
+    const bad = puzzles.map((p, i) => [i, this.checkOf(key, p.id)]).filter(([, c]) => c && c.state !== 'ok');
+    const title = s.title || 'Untitled set';
+    if (!bad.length) {
+      banner(`All ${puzzles.length} answer keys of "${title}" check out.`, { id: 'check' });
+      return;
+    }
+    const lines = bad.map(([i, c]) => `puzzle ${i + 1}: ${c.problems.join('; ')}`);
+    const what = bad.some(([, c]) => c.state === 'corrected')
+      ? ' Fivefold grades and hints these with its own proved answers.' : '';
+    banner(`${bad.length} of ${puzzles.length} answer keys of "${title}" do not hold: ${lines.join('. ')}.${what}`,
+      { kind: 'warn', id: 'check', sticky: true });
   }
 
   progressOf(key) {
@@ -285,7 +385,9 @@ export class Tonight {
     this.view('play');
     $('tonight-set-title').textContent = this.set(key).title || 'Untitled set';
     $('tonight-share-box').hidden = true;
+    if (this.checking !== key) $('tonight-check').hidden = true;
     this.loadCurrent();
+    this.checkSet(key);
   }
 
   /** Whether the set is one of the built-in library's (however it arrived): their answer keys
@@ -305,7 +407,11 @@ export class Tonight {
     this.loading = true;
     try {
       const record = rec ? { played: rec.played, wrong: rec.wrong, hints: rec.hints, attempt: rec.outcome } : null;
-      this.board.load(JSON.stringify(p), { record, trusted: this.fromLibrary(key) });
+      // A key proved here (the library's, or one checked since it arrived) may settle what
+      // the phone's budget cannot; a key not yet checked is re-proved when that happens.
+      const check = this.checkOf(key, p.id);
+      const trusted = this.fromLibrary(key) || check?.state === 'ok' || check?.state === 'corrected';
+      this.board.load(JSON.stringify(this.playedPuzzle(key, p)), { record, trusted });
     } finally {
       this.loading = false;
     }
@@ -344,7 +450,11 @@ export class Tonight {
       const o = own(prog.puzzles, p.id)?.outcome ?? 'untried';
       const b = marks.children[i].firstElementChild;
       b.dataset.outcome = o;
-      b.setAttribute('aria-label', `Puzzle ${i + 1}: ${OUTCOME_WORDS()[o]}`);
+      const check = this.checkOf(key, p.id)?.state;
+      if (check && check !== 'ok') b.dataset.key = check;
+      else delete b.dataset.key;
+      const keyWords = check === 'corrected' ? ', answer key corrected' : check === 'unproved' ? ', answer key not proved' : '';
+      b.setAttribute('aria-label', `Puzzle ${i + 1}: ${OUTCOME_WORDS()[o]}${keyWords}`);
       if (i === prog.index) b.setAttribute('aria-current', 'step');
       else b.removeAttribute('aria-current');
     });

@@ -1,9 +1,9 @@
 // The app's worker: generates Drill puzzles and runs Study board searches off the page's
 // thread, so the page stays responsive. Messages in: {type: "init", module} (optional: a
 // compiled wasm module, used by the single-file build), {id, type: "generate", options} and
-// {id, type: "solve", query}. Messages out: {id, progress}, {id, result} or {id, error, fatal}.
+// {id, type: "solve", query} and {id, type: "prove", puzzle}. Messages out: {id, progress}, {id, result} or {id, error, fatal}.
 
-import init, { generateSet, solvePosition } from './pkg/fivefold_web.js';
+import init, { generateSet, provePuzzle, solvePosition } from './pkg/fivefold_web.js';
 
 let ready = null;
 
@@ -26,7 +26,12 @@ self.onmessage = async (event) => {
       });
       self.postMessage({ id: m.id, result });
     } else if (m.type === 'solve') {
-      self.postMessage({ id: m.id, result: solvePosition(m.query) });
+      const result = solvePosition(m.query, (nodes) => {
+        self.postMessage({ id: m.id, progress: { nodes } });
+      });
+      self.postMessage({ id: m.id, result });
+    } else if (m.type === 'prove') {
+      self.postMessage({ id: m.id, result: provePuzzle(m.puzzle) });
     } else {
       self.postMessage({ id: m.id, error: `unknown job '${m.type}'` });
     }

@@ -80,6 +80,10 @@ pub enum StudyAnswer {
         defences: Vec<Point>,
         /// Moves the budget left undecided.
         undecided: Vec<Point>,
+        /// Whether every move that could defend was tried (see
+        /// `engine::search::Defences::complete`): false against a threat with threes and no
+        /// win with fours behind it, where only the points near its line are searched.
+        complete: bool,
     },
     /// The opponent has no forced win (VCT or VCF) to stop.
     NoThreat,
@@ -90,7 +94,8 @@ pub enum StudyAnswer {
 impl StudyAnswer {
     /// The answer in one word, as `fivefold solve --json` writes it in `result`: for a win
     /// question `win`, `no-win` or `unknown`; for a defence question `defended` (some move
-    /// stops the threat), `lost` (none does), `no-threat` or `unknown`.
+    /// is proved to stop the threat), `lost` (none does), `no-threat` or `unknown` (the threat
+    /// is there, but no defence could be proved within the budget).
     pub fn result(&self) -> &'static str {
         match self {
             StudyAnswer::Win { .. } => "win",
@@ -100,6 +105,7 @@ impl StudyAnswer {
                 undecided,
                 ..
             } if defences.is_empty() && undecided.is_empty() => "lost",
+            StudyAnswer::Threat { defences, .. } if defences.is_empty() => "unknown",
             StudyAnswer::Threat { .. } => "defended",
             StudyAnswer::NoThreat => "no-threat",
             StudyAnswer::Undecided => "unknown",
@@ -128,12 +134,16 @@ pub struct Study {
     /// For a defence question: the opponent's threat verdict as searched (`win`, `no-win` or
     /// `unknown`).
     pub threat: Option<Verdict>,
-    /// Nodes searched.
+    /// The nodes the question was allowed in all (its budget's total).
+    pub budget: u64,
+    /// Nodes the question spent in all (every search, sub-searches and reading lines back
+    /// included): at most the budget's total and a few nodes.
     pub nodes: u64,
 }
 
-/// Answers a study question about `board` with `to_move` to play, within `budget`; `stop` is
-/// polled during the long searches of a win question.
+/// Answers a study question about `board` with `to_move` to play, within `budget` (one total
+/// for the whole question); `stop` is polled during every search, with the nodes spent so far
+/// (a cancel button, a clock, a progress report).
 pub fn study(
     solver: &mut Solver,
     board: &Board,
@@ -146,51 +156,57 @@ pub fn study(
         Some(f) => solver.ask(budget).watch(f),
         None => solver.ask(budget),
     };
-    let mut out = Study {
-        search,
-        to_move,
-        answer: StudyAnswer::Undecided,
-        threat: None,
-        nodes: 0,
-    };
-    match search {
-        StudySearch::Vcf | StudySearch::Vct => {
-            let mode = if search == StudySearch::Vcf {
-                Mode::Vcf
-            } else {
-                Mode::Vct
-            };
-            let sol = ask.solve(board, to_move, mode);
-            out.nodes = sol.nodes;
-            out.answer = match sol.verdict {
-                Verdict::Win => {
-                    let wins = ask.winning_moves(board, to_move, mode);
-                    out.nodes += wins.nodes;
-                    StudyAnswer::Win {
-                        line: sol.line,
-                        depth: sol.depth,
-                        first_moves: wins.proved,
-                        undecided: wins.unknown,
+    let mut out = ask.question(|ask| {
+        let mut out = Study {
+            search,
+            to_move,
+            answer: StudyAnswer::Undecided,
+            threat: None,
+            budget: budget.total,
+            nodes: 0,
+        };
+        match search {
+            StudySearch::Vcf | StudySearch::Vct => {
+                let mode = if search == StudySearch::Vcf {
+                    Mode::Vcf
+                } else {
+                    Mode::Vct
+                };
+                let sol = ask.solve(board, to_move, mode);
+                out.nodes = sol.nodes;
+                out.answer = match sol.verdict {
+                    Verdict::Win => {
+                        let wins = ask.winning_moves(board, to_move, mode);
+                        out.nodes += wins.nodes;
+                        StudyAnswer::Win {
+                            line: sol.line,
+                            depth: sol.depth,
+                            first_moves: wins.proved,
+                            undecided: wins.unknown,
+                        }
                     }
-                }
-                Verdict::NoWin => StudyAnswer::NoWin,
-                Verdict::Unknown => StudyAnswer::Undecided,
-            };
+                    Verdict::NoWin => StudyAnswer::NoWin,
+                    Verdict::Unknown => StudyAnswer::Undecided,
+                };
+            }
+            StudySearch::Defend => {
+                let d = ask.defences(board, to_move, Mode::Vct);
+                out.nodes = d.moves.nodes;
+                out.threat = Some(d.threat);
+                out.answer = match d.threat {
+                    Verdict::Win => StudyAnswer::Threat {
+                        threat: d.line,
+                        defences: d.moves.proved,
+                        undecided: d.moves.unknown,
+                        complete: d.complete,
+                    },
+                    Verdict::NoWin => StudyAnswer::NoThreat,
+                    Verdict::Unknown => StudyAnswer::Undecided,
+                };
+            }
         }
-        StudySearch::Defend => {
-            let d = ask.defences(board, to_move, Mode::Vct);
-            out.nodes = d.moves.nodes;
-            out.threat = Some(d.threat);
-            out.answer = match d.threat {
-                Verdict::Win => StudyAnswer::Threat {
-                    threat: ask.threat(board, to_move, Mode::Vct).line,
-                    defences: d.moves.proved,
-                    undecided: d.moves.unknown,
-                },
-                Verdict::NoWin => StudyAnswer::NoThreat,
-                Verdict::Unknown => StudyAnswer::Undecided,
-            };
-        }
-    }
+        out
+    });
+    out.nodes = ask.spent();
     out
 }

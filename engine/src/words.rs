@@ -304,6 +304,40 @@ pub fn line_step(shown: usize, c: Stone, p: Option<Point>) -> String {
     }
 }
 
+/// A count with thousands separated by commas: "3,000,000".
+pub fn thousands(n: u64) -> String {
+    let digits = n.to_string();
+    let mut out = String::new();
+    for (i, c) in digits.chars().enumerate() {
+        if i > 0 && (digits.len() - i).is_multiple_of(3) {
+            out.push(',');
+        }
+        out.push(c);
+    }
+    out
+}
+
+/// Positions searched, in words: "1 position searched", "3,000,002 positions searched".
+pub fn searched(nodes: u64) -> String {
+    let s = if nodes == 1 { "" } else { "s" };
+    format!("{} position{s} searched", thousands(nodes))
+}
+
+/// A search under way, in words: "Searching for the defences: 1.2 s, 340,000 of 3,000,000
+/// positions." (`search` names what is searched for).
+pub fn searching(search: StudySearch, seconds: f64, spent: u64, budget: u64) -> String {
+    let what = match search {
+        StudySearch::Vcf => "a win with fours (VCF)",
+        StudySearch::Vct => "a win with threes and fours (VCT)",
+        StudySearch::Defend => "the defences",
+    };
+    format!(
+        "Searching for {what}: {seconds:.1} s, {} of {} positions.",
+        thousands(spent),
+        thousands(budget)
+    )
+}
+
 fn list(points: &[Point]) -> String {
     points
         .iter()
@@ -353,7 +387,8 @@ pub fn study(s: &Study) -> Vec<String> {
             }
             if !undecided.is_empty() {
                 out.push(format!(
-                    "Not decided within the budget: {}.",
+                    "Not decided within {} positions: {}.",
+                    thousands(s.budget),
                     commas(undecided)
                 ));
             }
@@ -368,17 +403,28 @@ pub fn study(s: &Study) -> Vec<String> {
             threat,
             defences,
             undecided,
+            complete,
         } => {
             out.push(format!(
                 "{them} threatens to win: {} (step through it below).",
                 list(threat)
             ));
+            let near = if *complete {
+                ""
+            } else {
+                " among the points near the threat's line (the search tries only those \
+                 against a threat with threes; a defence elsewhere is possible)"
+            };
             if defences.is_empty() && undecided.is_empty() {
-                out.push(format!("No move stops it: {me} loses."));
+                if *complete {
+                    out.push(format!("No move stops it: {me} loses."));
+                } else {
+                    out.push(format!("No move stops it{near}."));
+                }
             } else if !defences.is_empty() {
                 let n = defences.len();
                 out.push(format!(
-                    "{n} move{} stop{} it: {}.",
+                    "{n} move{} stop{} it{near}: {}.",
                     if n == 1 { "" } else { "s" },
                     if n == 1 { "s" } else { "" },
                     commas(defences)
@@ -386,7 +432,8 @@ pub fn study(s: &Study) -> Vec<String> {
             }
             if !undecided.is_empty() {
                 out.push(format!(
-                    "Not decided within the budget: {}.",
+                    "Not decided within {} positions: {}.",
+                    thousands(s.budget),
                     commas(undecided)
                 ));
             }
@@ -395,9 +442,8 @@ pub fn study(s: &Study) -> Vec<String> {
             "{them} has no win with threes and fours to stop: {me} is free to play anywhere."
         )),
         StudyAnswer::Undecided => out.push(format!(
-            "The search stopped at its budget ({} positions) without an answer; a smaller \
-             question (VCF) may still be answered.",
-            s.nodes
+            "Not decided within {} positions; a smaller question (VCF) may still be answered.",
+            thousands(s.budget)
         )),
     }
     out
@@ -414,13 +460,14 @@ mod tests {
             .collect()
     }
 
-    fn study_of(search: StudySearch, side: Stone, answer: StudyAnswer, nodes: u64) -> Study {
+    fn study_of(search: StudySearch, side: Stone, answer: StudyAnswer, budget: u64) -> Study {
         Study {
             search,
             to_move: side,
             answer,
             threat: None,
-            nodes,
+            budget,
+            nodes: budget,
         }
     }
 
@@ -463,6 +510,7 @@ mod tests {
                 threat: pts("h8 h9 h10"),
                 defences: pts("h9"),
                 undecided: pts("j9"),
+                complete: true,
             },
             9,
         ));
@@ -471,13 +519,14 @@ mod tests {
             vec![
                 "White threatens to win: h8 h9 h10 (step through it below).",
                 "1 move stops it: h9.",
-                "Not decided within the budget: j9."
+                "Not decided within 9 positions: j9."
             ]
         );
         let lost = StudyAnswer::Threat {
             threat: pts("h8"),
             defences: vec![],
             undecided: vec![],
+            complete: true,
         };
         assert_eq!(lost.result(), "lost");
         let w = study(&study_of(StudySearch::Defend, Stone::Black, lost, 9));
@@ -496,9 +545,15 @@ mod tests {
             StudySearch::Vct,
             Stone::Black,
             StudyAnswer::Undecided,
-            500,
+            3_000_000,
         ));
-        assert!(w[0].starts_with("The search stopped at its budget (500 positions)"));
+        assert!(
+            w[0].starts_with("Not decided within 3,000,000 positions"),
+            "{}",
+            w[0]
+        );
+        assert_eq!(thousands(999), "999");
+        assert_eq!(thousands(1_000), "1,000");
     }
 
     #[test]

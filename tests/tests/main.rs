@@ -91,6 +91,11 @@ mod solver_determinism;
 /// what the generator makes.
 mod library;
 
+/// `budgets`: a budget of N nodes is a hard limit on a whole study question (sub-searches
+/// included) on the slowest suite positions and a library position that once ran far past
+/// it; a stop check hears the nodes spent and ends the question.
+mod budgets;
+
 /// `formats`: every set the set-file reader accepts round-trips through a share code
 /// (proptest over generated sets); a set at every limit fits each format, and one step over
 /// a limit is refused with the limit named.

@@ -7,7 +7,7 @@ use engine::formats::{setfile, share};
 use engine::notation;
 use engine::puzzle::attempt::Attempt;
 use engine::puzzle::generate::{self, Options};
-use engine::puzzle::{grade, Theme};
+use engine::puzzle::{grade, verify, Theme};
 use engine::rating::Rating;
 use engine::search::{Budget, Solver};
 use engine::study::{study, StudyAnswer, StudySearch};
@@ -86,6 +86,81 @@ pub fn result_code(set_json: &str, name: &str, results: JsValue) -> Result<Strin
         })
         .collect::<Result<Vec<_>, JsValue>>()?;
     result::encode(result::fingerprint(&set), name, &puzzles).map_err(err)
+}
+
+#[derive(Serialize)]
+#[serde(rename_all = "camelCase")]
+struct ProvedJs {
+    /// "ok" (the key holds), "corrected" (the key was wrong or incomplete: `puzzle` has the
+    /// proved answers) or "unproved" (no answer could be proved).
+    state: &'static str,
+    /// The puzzle with the proved answers, as set-file puzzle JSON (for "corrected").
+    puzzle: Option<serde_json::Value>,
+    /// What was wrong, in words.
+    problems: Vec<String>,
+}
+
+/// Proves a puzzle's answer key from scratch (in the worker, for a set from a file or a
+/// link): `puzzleJson` is one set-file puzzle object; returns `{state, puzzle, problems}`.
+#[wasm_bindgen(js_name = provePuzzle)]
+pub fn prove_puzzle(puzzle_json: &str) -> Result<JsValue, JsValue> {
+    let wrapped = format!(
+        "{{\"format\":\"fivefold-set\",\"version\":1,\"title\":\"\",\"created\":\"2026-12-01\",\"puzzles\":[{puzzle_json}]}}"
+    );
+    let set = setfile::parse(&wrapped).map_err(err)?;
+    let p = set.puzzles.first().ok_or_else(|| err("no puzzle"))?;
+    let out = match with_solver(|s| verify::prove(s, p)) {
+        Ok(proved) if proved.problems.is_empty() => ProvedJs {
+            state: "ok",
+            puzzle: None,
+            problems: Vec::new(),
+        },
+        Ok(proved) => {
+            let one = setfile::PuzzleSet {
+                title: String::new(),
+                created: "2026-12-01".into(),
+                puzzles: vec![proved.puzzle],
+                generator: None,
+            };
+            let v: serde_json::Value =
+                serde_json::from_str(&setfile::to_json(&one)).map_err(err)?;
+            ProvedJs {
+                state: "corrected",
+                puzzle: v["puzzles"].get(0).cloned(),
+                problems: proved.problems,
+            }
+        }
+        Err(why) => ProvedJs {
+            state: "unproved",
+            puzzle: None,
+            problems: vec![why.to_string()],
+        },
+    };
+    crate::boards::to_js(&out)
+}
+
+/// A study search under way, in words (`search` "vcf", "vct" or "defend").
+#[wasm_bindgen(js_name = searchingWords)]
+pub fn searching_words(
+    search: &str,
+    seconds: f64,
+    spent: f64,
+    budget: f64,
+) -> Result<String, JsValue> {
+    let search: StudySearch = search.parse().map_err(err)?;
+    let n = |v: f64| {
+        if v.is_finite() && v > 0.0 {
+            v as u64
+        } else {
+            0
+        }
+    };
+    Ok(words::searching(
+        search,
+        seconds.max(0.0),
+        n(spent),
+        n(budget),
+    ))
 }
 
 /// Every attempt name with its words for the player: `{"untried": "not tried", ...}` as
@@ -248,14 +323,20 @@ struct SolveOut {
     first_moves: Vec<Point>,
     unknown: Vec<Point>,
     nodes: u64,
+    /// The nodes in words: "3,000,002 positions searched".
+    searched: String,
 }
 
 /// Answers a study question (in the worker): `{rule, size, black, white, toMove, search:
 /// "vcf"|"vct"|"defend", nodes}`; returns `{result, say, line, first, firstMoves, unknown,
 /// nodes}` (see `engine::study`), where for "defend" `firstMoves` are the defences and `line`
 /// is the threat, and `first` is the side that starts `line`.
+/// `progress`, if given, is called with the nodes spent so far, about every 50,000 nodes.
 #[wasm_bindgen(js_name = solvePosition)]
-pub fn solve_position(query: JsValue) -> Result<JsValue, JsValue> {
+pub fn solve_position(
+    query: JsValue,
+    progress: Option<js_sys::Function>,
+) -> Result<JsValue, JsValue> {
     let q: SolveJs = serde_wasm_bindgen::from_value(query).map_err(err)?;
     let rule: Rule = q.rule.parse().map_err(err)?;
     let board =
@@ -265,15 +346,24 @@ pub fn solve_position(query: JsValue) -> Result<JsValue, JsValue> {
     }
     let to_move: Stone = q.to_move.parse().map_err(err)?;
     let search: StudySearch = q.search.parse().map_err(err)?;
-    // A study question asked with its own budget (in the worker, cancellable) gets it whole.
-    let budget = Budget {
-        nodes: q
-            .nodes
-            .unwrap_or(Budget::STUDY.nodes)
+    // A study question asked with its own budget (in the worker, cancellable): a hard limit
+    // on the whole question.
+    let budget = Budget::total(
+        q.nodes
+            .unwrap_or(Budget::STUDY.total)
             .clamp(1_000, 20_000_000),
-        ..Budget::STUDY
+    );
+    let next = std::cell::Cell::new(0u64);
+    let report = |spent: u64| {
+        if spent >= next.get() {
+            next.set(spent + 50_000);
+            if let Some(f) = &progress {
+                let _ = f.call1(&JsValue::NULL, &JsValue::from(spent as f64));
+            }
+        }
+        false
     };
-    let s = with_solver(|solver| study(solver, &board, to_move, search, budget, None));
+    let s = with_solver(|solver| study(solver, &board, to_move, search, budget, Some(&report)));
     let (line, first) = s.answer.shown_line(to_move);
     let (first_moves, unknown) = match &s.answer {
         StudyAnswer::Win {
@@ -296,6 +386,7 @@ pub fn solve_position(query: JsValue) -> Result<JsValue, JsValue> {
         first_moves,
         unknown,
         nodes: s.nodes,
+        searched: words::searched(s.nodes),
     };
     crate::boards::to_js(&out)
 }

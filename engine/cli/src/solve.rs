@@ -38,7 +38,7 @@ pub struct SolveArgs {
     /// Stones in a row that win, for --search exact.
     #[arg(long)]
     pub k: Option<u8>,
-    /// Node budget of one search.
+    /// Node budget of the whole question (every search it makes, sub-searches included).
     #[arg(long, default_value_t = 2_000_000)]
     pub nodes: u64,
     /// Time budget in milliseconds (0: none).
@@ -81,14 +81,12 @@ pub fn run(args: &SolveArgs) -> Result<(), String> {
         vcf_table_megabytes: args.memory - args.memory * 3 / 4,
         ..SolverConfig::default()
     };
-    let budget = Budget {
-        nodes: args.nodes,
-        ..Budget::STUDY
-    };
+    // `--nodes` caps the whole question: every search it makes, sub-searches included.
+    let budget = Budget::total(args.nodes);
     let mut solver = Solver::new(config);
     let start = Instant::now();
     let deadline = (args.ms > 0).then(|| start + Duration::from_millis(args.ms));
-    let mut stop = move || deadline.is_some_and(|d| Instant::now() >= d);
+    let stop = move |_spent: u64| deadline.is_some_and(|d| Instant::now() >= d);
     let mut report = Report::default();
     if args.search == SearchKind::Exact {
         let (w, h, k) = match (args.width, args.height, args.k) {
@@ -103,7 +101,7 @@ pub fn run(args: &SolveArgs) -> Result<(), String> {
                 to_move = to_move.opponent();
             }
         }
-        let sol = solver.ask(budget).watch(&mut stop).exact(&board, to_move);
+        let sol = solver.ask(budget).watch(&stop).exact(&board, to_move);
         report.search = "exact";
         report.to_move = if to_move == Stone::Black {
             "first"
@@ -128,14 +126,14 @@ pub fn run(args: &SolveArgs) -> Result<(), String> {
             SearchKind::Defend => StudySearch::Defend,
             SearchKind::Exact => unreachable!("handled above"),
         };
-        // A defence question is not stopped by the clock (it is many searches, each within
-        // the node budget).
-        let stop: Option<&mut dyn FnMut() -> bool> = if search == StudySearch::Defend {
-            None
-        } else {
-            Some(&mut stop)
-        };
-        let s = study(&mut solver, &pos.board, pos.to_move, search, budget, stop);
+        let s = study(
+            &mut solver,
+            &pos.board,
+            pos.to_move,
+            search,
+            budget,
+            Some(&stop),
+        );
         report.to_move = pos.to_move.name();
         report.search = search.name();
         report.result = s.answer.result();
@@ -155,6 +153,7 @@ pub fn run(args: &SolveArgs) -> Result<(), String> {
                 threat,
                 defences,
                 undecided,
+                ..
             } => {
                 report.line = names(threat);
                 report.first_moves = names(defences);

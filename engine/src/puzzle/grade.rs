@@ -187,7 +187,7 @@ pub struct Session {
     pub(super) state: State,
     /// Whether the answer key may settle a move the grading budget cannot decide (see
     /// [`Session::trust_key`]).
-    trusted: bool,
+    pub(super) trusted: bool,
 }
 
 impl Session {

@@ -62,9 +62,14 @@ impl Session {
         })
     }
 
-    /// The next correct move from the position as it stands.
+    /// The next correct move from the position as it stands: the answer key's while the player
+    /// follows it and the key was proved here (see [`Session::trust_key`]), else the solver's
+    /// own (a key from outside may be wrong: a hint never repeats it unproved).
     fn key_move(&self, solver: &mut Solver) -> Option<Point> {
         let me = self.player();
+        if !self.trusted {
+            return self.solved_key(solver, me);
+        }
         if self.history.is_empty() {
             if let Some(&m) = self.puzzle.line.first() {
                 if self.puzzle.goal() == Goal::Win {
@@ -81,6 +86,11 @@ impl Session {
                 return Some(next);
             }
         }
+        self.solved_key(solver, me)
+    }
+
+    /// The next correct move as the solver finds it.
+    fn solved_key(&self, solver: &mut Solver, me: Stone) -> Option<Point> {
         let mut ask = self.ask(solver, Budget::GRADING);
         match self.puzzle.goal() {
             Goal::Win => {

@@ -19,6 +19,10 @@ pub struct Budget {
     /// further question counts as unknown (so the search ends soon, as `Unknown` unless it was
     /// already proved). `None`: only the per-question limit applies.
     pub vcf_spend: Option<u64>,
+    /// Nodes the whole question may spend: every search it makes, the VCF questions inside a
+    /// VCT, the searches for each candidate of a list, and reading lines back. A hard limit:
+    /// past it the question ends (as `Unknown`, or with the rest of a list undecided).
+    pub total: u64,
 }
 
 impl Budget {
@@ -28,6 +32,7 @@ impl Budget {
         nodes: 50_000,
         vcf_question: 100_000,
         vcf_spend: Some(150_000),
+        total: 1_500_000,
     };
 
     /// Every search made while generating puzzles: a puzzle whose proof needs more is not
@@ -36,6 +41,7 @@ impl Budget {
         nodes: 50_000,
         vcf_question: 100_000,
         vcf_spend: None,
+        total: 5_000_000,
     };
 
     /// Re-proving a puzzle (`fivefold verify`, the library tests) and settling a listed answer
@@ -45,21 +51,36 @@ impl Budget {
         nodes: 1_000_000,
         vcf_question: 100_000,
         vcf_spend: None,
+        total: 20_000_000,
     };
 
-    /// A question the player asks on the Study board (in the worker, cancellable).
-    pub const STUDY: Budget = Budget {
-        nodes: 3_000_000,
-        vcf_question: 100_000,
-        vcf_spend: None,
-    };
+    /// A question the player asks on the Study board (in the worker, cancellable): three
+    /// million nodes in all, whatever the question.
+    pub const STUDY: Budget = Budget::total(3_000_000);
 
-    /// The verification budget with another node limit per search (the command line's
-    /// `--nodes`, the tests' own limits).
+    /// The verification budget with another node limit per search (the tests' own limits);
+    /// the question's total grows with it.
     pub const fn nodes(nodes: u64) -> Budget {
+        let total = if nodes.saturating_mul(20) > Budget::VERIFICATION.total {
+            nodes.saturating_mul(20)
+        } else {
+            Budget::VERIFICATION.total
+        };
         Budget {
             nodes,
+            total,
             ..Budget::VERIFICATION
+        }
+    }
+
+    /// At most `nodes` nodes for the whole question, in one search or many (the Study board,
+    /// the command line's `--nodes`).
+    pub const fn total(nodes: u64) -> Budget {
+        Budget {
+            nodes,
+            vcf_question: 100_000,
+            vcf_spend: None,
+            total: nodes,
         }
     }
 }

@@ -47,7 +47,20 @@ pub trait Space {
     fn play(&mut self, m: u16);
     /// Takes back the move just played.
     fn undo(&mut self, m: u16);
+    /// Before an expansion: the nodes the sub-searches of that expansion may still use, and
+    /// the nodes the question has spent so far (for its stop check). A space without
+    /// sub-searches ignores it.
+    fn allow(&mut self, _left: u64, _spent: u64) {}
+    /// Nodes spent by sub-searches since the last call (counted into the search's total).
+    fn take_spent(&mut self) -> u64 {
+        0
+    }
 }
+
+/// A question's stop check: called with the nodes the question has spent so far, returns
+/// `true` to stop (a wall-clock check, a cancel button, a progress report; the engine never
+/// reads a clock itself).
+pub type Watch<'s> = &'s dyn Fn(u64) -> bool;
 
 /// How a search ended.
 #[derive(Clone, Copy, PartialEq, Eq, Debug)]
@@ -74,30 +87,48 @@ pub struct Dfpn<'t, 's> {
     tt: &'t mut Table,
     /// Nodes expanded so far.
     pub nodes: u64,
+    /// Nodes the space's sub-searches spent so far.
+    pub sub: u64,
     node_limit: u64,
-    stop: Option<&'s mut dyn FnMut() -> bool>,
+    /// Nodes this search and its sub-searches may spend together.
+    total: u64,
+    /// Nodes the question spent before this search.
+    base: u64,
+    stop: Option<Watch<'s>>,
     aborted: bool,
     pool: Vec<Vec<(u16, u64)>>,
     scratch: Vec<u16>,
 }
 
 impl<'t, 's> Dfpn<'t, 's> {
-    /// A driver over `tt` that expands at most `node_limit` nodes and polls `stop` every 1,024
+    /// A driver over `tt` that expands at most `node_limit` nodes and polls `stop` every 8
     /// nodes (a wall-clock check supplied by the caller: the engine never reads a clock).
-    pub fn new(
-        tt: &'t mut Table,
-        node_limit: u64,
-        stop: Option<&'s mut dyn FnMut() -> bool>,
-    ) -> Dfpn<'t, 's> {
+    pub fn new(tt: &'t mut Table, node_limit: u64, stop: Option<Watch<'s>>) -> Dfpn<'t, 's> {
         Dfpn {
             tt,
             nodes: 0,
+            sub: 0,
             node_limit,
+            total: u64::MAX,
+            base: 0,
             stop,
             aborted: false,
             pool: Vec::new(),
             scratch: Vec::new(),
         }
+    }
+
+    /// Caps the nodes of this search and its sub-searches together at `total`, the question
+    /// having spent `base` before it (what the stop check is told).
+    pub fn within(mut self, total: u64, base: u64) -> Self {
+        self.total = total;
+        self.base = base;
+        self
+    }
+
+    /// Nodes this search and its sub-searches spent together.
+    pub fn spent(&self) -> u64 {
+        self.nodes + self.sub
     }
 
     /// Whether the budget ran out.
@@ -133,13 +164,13 @@ impl<'t, 's> Dfpn<'t, 's> {
             return;
         }
         self.nodes += 1;
-        if self.nodes > self.node_limit {
+        if self.nodes > self.node_limit || self.spent() > self.total {
             self.aborted = true;
             return;
         }
-        if self.nodes & 1023 == 0 {
-            if let Some(stop) = self.stop.as_mut() {
-                if stop() {
+        if self.nodes & 7 == 0 {
+            if let Some(stop) = self.stop {
+                if stop(self.base + self.spent()) {
                     self.aborted = true;
                     return;
                 }
@@ -155,7 +186,12 @@ impl<'t, 's> Dfpn<'t, 's> {
         };
         let mut raw = std::mem::take(&mut self.scratch);
         raw.clear();
+        sp.allow(
+            self.total.saturating_sub(self.spent()),
+            self.base + self.spent(),
+        );
         let node = sp.expand(&mut raw);
+        self.sub += sp.take_spent();
         let is_or = match node {
             Node::Win(depth) => {
                 self.scratch = raw;

@@ -40,16 +40,23 @@ impl Asking<'_, '_> {
     ) -> Vec<u16> {
         let mut line: Vec<u16> = Vec::new();
         let node_limit = self.budget.nodes;
+        let (left, base, stop) = (self.left(), self.spent, self.stop);
         let s = &mut *self.solver;
         let oracle = (mode == Mode::Vct).then_some(&mut s.oracle);
         let mut sp = ThreatSpace::new(b, attacker, attacker, mode, depth, oracle)
-            .with_history(&self.history);
-        let mut dfpn = Dfpn::new(&mut s.tt, node_limit, None);
+            .with_history(&self.history)
+            .watched(stop);
+        let mut dfpn = Dfpn::new(&mut s.tt, node_limit, stop).within(left, base);
         let mut moves = Vec::new();
         let mut played = 0usize;
+        // The VCF questions of the expansions made here, outside the search (counted apart).
+        let mut direct = 0u64;
         for _ in 0..400 {
             moves.clear();
+            let used = dfpn.spent() + direct;
+            sp.allow(left.saturating_sub(used), base + used);
             let node = sp.expand(&mut moves);
+            direct += sp.take_spent();
             let m = match node {
                 Node::Loss => break,
                 Node::Win(_) => {
@@ -57,7 +64,9 @@ impl Asking<'_, '_> {
                         && sp.board.cells_with(attacker, threat::FIVE).is_empty()
                     {
                         // A VCT node won by a VCF: append the VCF.
-                        if let Some(v) = sp.oracle_vcf() {
+                        let vcf = sp.oracle_vcf();
+                        direct += sp.take_spent();
+                        if let Some(v) = vcf {
                             for &mv in &v.moves {
                                 line.push(mv);
                                 sp.play(mv);
@@ -118,9 +127,14 @@ impl Asking<'_, '_> {
             sp.play(m);
             played += 1;
         }
+        let spent = dfpn.spent() + direct;
+        drop(dfpn);
         for &m in line[..played].iter().rev() {
             sp.undo(m);
         }
+        drop(sp);
+        self.solver.oracle.allowance = u64::MAX;
+        self.spent += spent;
         line
     }
 
@@ -132,7 +146,7 @@ impl Asking<'_, '_> {
         mode: Mode,
         max_steps: usize,
     ) -> Option<ProofStep> {
-        let sol = self.solve_unwatched(board, to_move, mode);
+        let sol = self.solve(board, to_move, mode);
         if sol.verdict != Verdict::Win {
             return None;
         }
@@ -152,7 +166,7 @@ impl Asking<'_, '_> {
             return None;
         }
         *budget -= 1;
-        let sol = self.solve_unwatched(b, attacker, mode);
+        let sol = self.solve(b, attacker, mode);
         let first = *sol.line.first()?;
         let idx = b.index(first);
         let five = b.flags_at(idx, attacker) & threat::FIVE != 0;
@@ -171,19 +185,29 @@ impl Asking<'_, '_> {
         let mut replies = Vec::new();
         {
             let depth = self.solver.config.vct_depth;
+            let (left, spent, stop) = (self.left(), self.spent, self.stop);
             let s = &mut *self.solver;
             let oracle = (mode == Mode::Vct).then_some(&mut s.oracle);
             let mut sp = ThreatSpace::new(b, attacker, defender, mode, depth, oracle)
-                .with_history(&self.history);
+                .with_history(&self.history)
+                .watched(stop);
+            sp.allow(left, spent);
             let node = sp.expand(&mut replies);
-            if let Node::And = node {
-            } else {
+            let used = sp.take_spent();
+            drop(sp);
+            self.solver.oracle.allowance = u64::MAX;
+            self.spent += used;
+            if node != Node::And {
                 replies.clear();
             }
         }
         if mode == Mode::Vct && b.cells_with(attacker, threat::FIVE).is_empty() {
             let mut o = VcfOracle::new(1, self.budget.vcf_question);
-            if let Some(v) = o.find(b, attacker, UNLIMITED) {
+            o.allowance = self.left();
+            o.spent = self.spent;
+            let found = o.find(b, attacker, UNLIMITED, self.stop);
+            self.spent += o.used;
+            if let Some(v) = found {
                 step.otherwise = v.moves.iter().map(|&m| b.point(m as usize)).collect();
             }
         }
@@ -210,8 +234,9 @@ impl Asking<'_, '_> {
         let mut first_moves = Vec::new();
         let mut line = Vec::new();
         let node_limit = self.budget.nodes;
+        let (left, base) = (self.left(), self.spent);
         let mut sp = ExactSpace::new(b, attacker, attacker);
-        let mut dfpn = Dfpn::new(&mut self.solver.tt, node_limit, None);
+        let mut dfpn = Dfpn::new(&mut self.solver.tt, node_limit, self.stop).within(left, base);
         let mut moves = Vec::new();
         // Winning first moves: every root move whose position is proved.
         sp.expand(&mut moves);
@@ -251,6 +276,8 @@ impl Asking<'_, '_> {
             sp.undo(m);
         }
         drop(sp);
+        drop(dfpn);
+        self.spent += nodes;
         let to_points = |v: &[u16]| v.iter().map(|&m| b.point(m as usize)).collect::<Vec<_>>();
         (to_points(&line), to_points(&first_moves), nodes)
     }

@@ -36,7 +36,7 @@ use crate::geometry::Point;
 use crate::types::Stone;
 pub use budget::Budget;
 use defence::defence_candidates;
-use dfpn::{Dfpn, Node, Space, Status};
+use dfpn::{Dfpn, Node, Space, Status, Watch};
 use exact::ExactSpace;
 pub use line::ProofStep;
 use threats::ThreatSpace;
@@ -145,6 +145,14 @@ pub struct Defences {
     pub threat: Verdict,
     /// The defences proved, and the moves whose status is unknown.
     pub moves: MoveSets,
+    /// Whether the moves tried are every move that could defend: true against a threat with a
+    /// VCF behind it (see `defence.rs`); against a VCT with no VCF behind it the candidates
+    /// are the defender's fours and the points near the threat's main line, a practical bound,
+    /// and a defence elsewhere cannot be ruled out.
+    pub complete: bool,
+    /// The threat as a main line (opponent first, ending with its five) when there is one:
+    /// the opponent's shortest VCF if it has one, else its shortest VCT.
+    pub line: Vec<Point>,
 }
 
 /// The value of a small board for the side to move, by exact solving.
@@ -236,12 +244,15 @@ impl Solver {
             budget,
             history: Vec::new(),
             stop: None,
+            spent: 0,
+            inside: false,
         }
     }
 }
 
-/// A stop check polled during long searches: return `true` to stop.
-pub type StopCheck<'w> = &'w mut dyn FnMut() -> bool;
+/// A question's stop check, polled during its searches with the nodes spent so far: return
+/// `true` to stop (see [`dfpn::Watch`]).
+pub type StopCheck<'w> = Watch<'w>;
 
 /// Questions asked with one budget, about positions reached by one line. Each call is one
 /// question with the whole budget; nothing it sets outlives it.
@@ -252,6 +263,10 @@ pub struct Asking<'s, 'w> {
     /// whether it was a threat (not the forced block of a four).
     history: Vec<(Point, Stone, bool)>,
     stop: Option<StopCheck<'w>>,
+    /// Nodes the current question has spent, sub-searches included.
+    spent: u64,
+    /// Whether a question is under way (an inner call is part of it, not a new one).
+    inside: bool,
 }
 
 impl<'s, 'w> Asking<'s, 'w> {
@@ -275,15 +290,17 @@ impl<'s, 'w> Asking<'s, 'w> {
         self
     }
 
-    /// Polls `stop` during the long searches of these questions (a VCT's deepening, the first
-    /// search of a VCF, [`Asking::wins_after`], [`Asking::exact`]); when it returns `true` the
-    /// search ends as `Unknown`.
+    /// Polls `stop` during every search of these questions, sub-searches included, with the
+    /// nodes the question has spent so far; when it returns `true` the question ends as
+    /// `Unknown` (or, for a list of moves, with the rest undecided).
     pub fn watch<'v>(self, stop: StopCheck<'v>) -> Asking<'s, 'v> {
         Asking {
             solver: self.solver,
             budget: self.budget,
             history: self.history,
             stop: Some(stop),
+            spent: self.spent,
+            inside: self.inside,
         }
     }
 
@@ -304,9 +321,161 @@ impl<'s, 'w> Asking<'s, 'w> {
         }
     }
 
-    /// Runs one proof-number search from the given node with at most `limit` nodes. Returns the
-    /// status and the nodes used (the VCF questions of a VCT included).
-    #[allow(clippy::too_many_arguments)]
+    /// Does `to_move` win by forcing moves of `mode`? With the shortest main line when it does.
+    pub fn solve(&mut self, board: &Board, to_move: Stone, mode: Mode) -> Solution {
+        self.question(|q| q.solve_q(board, to_move, mode))
+    }
+
+    /// After the side `to_move` has played, does `attacker` still have a forced win? `to_move`
+    /// is the side to move now: the defender when grading an attacker's move, the attacker
+    /// when grading a defence.
+    pub fn wins_after(
+        &mut self,
+        board: &Board,
+        attacker: Stone,
+        to_move: Stone,
+        mode: Mode,
+    ) -> (Verdict, u64) {
+        self.question(|q| q.wins_after_q(board, attacker, to_move, mode))
+    }
+
+    /// [`Asking::wins_after`] with the defender to move, and, when the attacker has no win,
+    /// the defender's reply the disproof found: a move after which the attacker has no win in
+    /// this class (read from the table: the disproved child of the defender's node). `None`
+    /// for the reply when the defender's node needed no reply (the attacker's last move made
+    /// no threat, or the defender wins with fours of its own) or the entry was overwritten.
+    pub fn refutation(
+        &mut self,
+        board: &Board,
+        attacker: Stone,
+        mode: Mode,
+    ) -> (Verdict, Option<Point>) {
+        self.question(|q| q.refutation_q(board, attacker, mode))
+    }
+
+    /// The fewest attacker moves before the five with which `attacker` wins from this node
+    /// (`to_move` to play), trying depths up to `max`. `None` if no win within `max`.
+    pub fn shortest_win(
+        &mut self,
+        board: &Board,
+        attacker: Stone,
+        to_move: Stone,
+        mode: Mode,
+        max: u16,
+    ) -> Option<u16> {
+        self.question(|q| q.shortest_win_q(board, attacker, to_move, mode, max))
+    }
+
+    /// Every first move with which `to_move` wins by `mode`, among the moves of that class.
+    pub fn winning_moves(&mut self, board: &Board, to_move: Stone, mode: Mode) -> MoveSets {
+        self.question(|q| q.winning_moves_q(board, to_move, mode))
+    }
+
+    /// [`Asking::winning_moves`] for a caller that only wants positions with few answers, all
+    /// proved: stops as soon as more than `limit` winning moves are proved (then `proved`
+    /// holds `limit + 1` of them) or one move's status is unknown; the moves after that are
+    /// not tried.
+    pub fn winning_moves_up_to(
+        &mut self,
+        board: &Board,
+        to_move: Stone,
+        mode: Mode,
+        limit: usize,
+    ) -> MoveSets {
+        self.question(|q| q.winning_moves_up_to_q(board, to_move, mode, limit))
+    }
+
+    /// The opponent's forced win if `defender` (to move) passed, as a main line; empty if the
+    /// opponent has none.
+    pub fn threat(&mut self, board: &Board, defender: Stone, mode: Mode) -> Solution {
+        self.question(|q| q.threat_q(board, defender, mode))
+    }
+
+    /// Every move for `defender` (to move) after which the opponent has no forced win by
+    /// `mode`, counter-fours included when they work.
+    pub fn defences(&mut self, board: &Board, defender: Stone, mode: Mode) -> Defences {
+        self.question(|q| q.defences_q(board, defender, mode))
+    }
+
+    /// [`Asking::defences`] for a caller that only wants positions with few defences, all
+    /// proved: stops as soon as more than `limit` defences are proved or one move's status is
+    /// unknown (then the lists are partial and `moves.tried` counts the moves tried so far).
+    pub fn defences_up_to(
+        &mut self,
+        board: &Board,
+        defender: Stone,
+        mode: Mode,
+        limit: usize,
+    ) -> Defences {
+        self.question(|q| q.defences_up_to_q(board, defender, mode, limit))
+    }
+
+    /// The replies the search considers for the defender (to move) against `attacker`'s
+    /// threat: the forced block of a four, or the defence set of a VCT node. Empty when the
+    /// attacker has no threat (or has already won).
+    pub fn defender_replies(&mut self, board: &Board, attacker: Stone, mode: Mode) -> Vec<Point> {
+        self.question(|q| q.defender_replies_q(board, attacker, mode))
+    }
+
+    /// How much room the defender has along a main line (attacker first): at each defender
+    /// turn, the replies the search had to consider beyond the first, plus one for every
+    /// defender move that makes a four of its own.
+    pub fn line_branching(
+        &mut self,
+        board: &Board,
+        attacker: Stone,
+        mode: Mode,
+        line: &[Point],
+    ) -> u32 {
+        self.question(|q| q.line_branching_q(board, attacker, mode, line))
+    }
+
+    /// Solves a small m,n,k board exactly for the side to move (all moves, both sides).
+    pub fn exact(&mut self, board: &Board, to_move: Stone) -> ExactSolution {
+        self.question(|q| q.exact_q(board, to_move))
+    }
+
+    /// Nodes the current question may still spend, sub-searches included.
+    fn left(&self) -> u64 {
+        self.budget.total.saturating_sub(self.spent)
+    }
+
+    /// The node limit of one search among `remaining` still to make for the candidates of a
+    /// list: the budget's limit per search, but no more than an even share of what the
+    /// question has left (at least 1,000 nodes), so that one hard candidate cannot leave the
+    /// others undecided.
+    fn share(&self, remaining: usize) -> u64 {
+        let even = self.left() / remaining.max(1) as u64;
+        self.budget.nodes.min(even.max(1_000))
+    }
+
+    /// Nodes the last question spent, sub-searches and reading lines back included: never
+    /// more than its budget's `total` and a few nodes (each search stops at the first node
+    /// past it).
+    pub fn spent(&self) -> u64 {
+        self.spent
+    }
+
+    /// Runs `f` as one question: every call it makes counts against one budget total (unless
+    /// it is itself part of a question already under way). A caller whose question takes
+    /// several calls (a study question: the win, then every winning first move) asks them
+    /// inside one of these.
+    pub fn question<T>(&mut self, f: impl FnOnce(&mut Self) -> T) -> T {
+        let outer = !self.inside;
+        if outer {
+            self.spent = 0;
+            self.inside = true;
+        }
+        let out = f(self);
+        if outer {
+            self.inside = false;
+        }
+        out
+    }
+
+    /// Runs one proof-number search from the given node with at most `limit` nodes of its own
+    /// and what the question has left in all. Returns the status and the nodes used (the VCF
+    /// questions of a VCT included).
     fn run(
         &mut self,
         board: &mut Board,
@@ -315,21 +484,30 @@ impl<'s, 'w> Asking<'s, 'w> {
         mode: Mode,
         depth: u16,
         limit: u64,
-        polled: bool,
     ) -> (Status, u64) {
+        let left = self.left();
+        if left == 0 {
+            return (Status::Unknown, 0);
+        }
         let spend = self.budget.vcf_spend;
-        let stop = polled_stop(&mut self.stop, polled);
+        let stop = self.stop;
+        let base = self.spent;
         let s = &mut *self.solver;
         s.oracle.inexact = false;
         let before = s.oracle.nodes;
         s.oracle.spend_limit = spend.map_or(u64::MAX, |l| before.saturating_add(l));
         let oracle = (mode == Mode::Vct).then_some(&mut s.oracle);
         let mut sp = ThreatSpace::new(board, attacker, to_move, mode, depth, oracle)
-            .with_history(&self.history);
-        let mut dfpn = Dfpn::new(&mut s.tt, limit, stop);
+            .with_history(&self.history)
+            .watched(stop);
+        let mut dfpn = Dfpn::new(&mut s.tt, limit, stop).within(left, base);
         let mut status = dfpn.solve(&mut sp);
-        let nodes = dfpn.nodes + s.oracle.nodes - before;
+        let (own, all) = (dfpn.nodes, dfpn.spent());
+        drop(dfpn);
+        drop(sp);
+        let nodes = own + s.oracle.nodes - before;
         s.oracle.spend_limit = u64::MAX;
+        s.oracle.allowance = u64::MAX;
         if s.oracle.inexact {
             // Some VCF question ran out of nodes and was taken as "no": a disproof built on it is
             // not a proof, and the stored results that depend on it must not be reused.
@@ -338,11 +516,11 @@ impl<'s, 'w> Asking<'s, 'w> {
             }
             s.clear();
         }
+        self.spent += all;
         (status, nodes)
     }
 
-    /// Does `to_move` win by forcing moves of `mode`? With the shortest main line when it does.
-    pub fn solve(&mut self, board: &Board, to_move: Stone, mode: Mode) -> Solution {
+    fn solve_q(&mut self, board: &Board, to_move: Stone, mode: Mode) -> Solution {
         let mut b = board.clone();
         let depth = self.depth_for(mode);
         let limit = self.budget.nodes;
@@ -350,7 +528,7 @@ impl<'s, 'w> Asking<'s, 'w> {
         let found = match mode {
             Mode::Vcf => {
                 // VCF trees are narrow: prove first, then deepen up to the proof's length.
-                let (status, n) = self.run(&mut b, to_move, to_move, mode, depth, limit, true);
+                let (status, n) = self.run(&mut b, to_move, to_move, mode, depth, limit);
                 nodes += n;
                 if status != Status::Proved {
                     return Solution::without_win(verdict(status), nodes);
@@ -358,7 +536,7 @@ impl<'s, 'w> Asking<'s, 'w> {
                 let upper = self.stored_depth(&b, to_move, to_move, mode, depth);
                 let mut found = depth;
                 for d in 0..=upper.min(MAX_LINE) {
-                    let (s, n) = self.run(&mut b, to_move, to_move, mode, d, limit, false);
+                    let (s, n) = self.run(&mut b, to_move, to_move, mode, d, limit);
                     nodes += n;
                     if s == Status::Proved {
                         found = d;
@@ -377,7 +555,7 @@ impl<'s, 'w> Asking<'s, 'w> {
                         unknown = true;
                         break;
                     }
-                    let (s, n) = self.run(&mut b, to_move, to_move, mode, d, limit - nodes, true);
+                    let (s, n) = self.run(&mut b, to_move, to_move, mode, d, limit - nodes);
                     nodes += n;
                     match s {
                         Status::Proved => {
@@ -446,10 +624,7 @@ impl<'s, 'w> Asking<'s, 'w> {
             .map_or(UNLIMITED, |e| e.depth.saturating_sub(1).max(1))
     }
 
-    /// After the side `to_move` has played, does `attacker` still have a forced win? `to_move`
-    /// is the side to move now: the defender when grading an attacker's move, the attacker
-    /// when grading a defence.
-    pub fn wins_after(
+    fn wins_after_q(
         &mut self,
         board: &Board,
         attacker: Stone,
@@ -459,16 +634,11 @@ impl<'s, 'w> Asking<'s, 'w> {
         let mut b = board.clone();
         let depth = self.depth_for(mode);
         let limit = self.budget.nodes;
-        let (s, n) = self.run(&mut b, attacker, to_move, mode, depth, limit, true);
+        let (s, n) = self.run(&mut b, attacker, to_move, mode, depth, limit);
         (verdict(s), n)
     }
 
-    /// [`Asking::wins_after`] with the defender to move, and, when the attacker has no win,
-    /// the defender's reply the disproof found: a move after which the attacker has no win in
-    /// this class (read from the table: the disproved child of the defender's node). `None`
-    /// for the reply when the defender's node needed no reply (the attacker's last move made
-    /// no threat, or the defender wins with fours of its own) or the entry was overwritten.
-    pub fn refutation(
+    fn refutation_q(
         &mut self,
         board: &Board,
         attacker: Stone,
@@ -478,7 +648,7 @@ impl<'s, 'w> Asking<'s, 'w> {
         let depth = self.depth_for(mode);
         let limit = self.budget.nodes;
         let defender = attacker.opponent();
-        let (s, _) = self.run(&mut b, attacker, defender, mode, depth, limit, true);
+        let (s, _) = self.run(&mut b, attacker, defender, mode, depth, limit);
         if s != Status::Disproved {
             return (verdict(s), None);
         }
@@ -499,9 +669,7 @@ impl<'s, 'w> Asking<'s, 'w> {
         (Verdict::NoWin, reply)
     }
 
-    /// The fewest attacker moves before the five with which `attacker` wins from this node
-    /// (`to_move` to play), trying depths up to `max`. `None` if no win within `max`.
-    pub fn shortest_win(
+    fn shortest_win_q(
         &mut self,
         board: &Board,
         attacker: Stone,
@@ -511,21 +679,14 @@ impl<'s, 'w> Asking<'s, 'w> {
     ) -> Option<u16> {
         let mut b = board.clone();
         let limit = self.budget.nodes;
-        (0..=max).find(|&d| {
-            self.run(&mut b, attacker, to_move, mode, d, limit, false).0 == Status::Proved
-        })
+        (0..=max).find(|&d| self.run(&mut b, attacker, to_move, mode, d, limit).0 == Status::Proved)
     }
 
-    /// Every first move with which `to_move` wins by `mode`, among the moves of that class.
-    pub fn winning_moves(&mut self, board: &Board, to_move: Stone, mode: Mode) -> MoveSets {
+    fn winning_moves_q(&mut self, board: &Board, to_move: Stone, mode: Mode) -> MoveSets {
         self.winning_moves_impl(board, to_move, mode, usize::MAX, false)
     }
 
-    /// [`Asking::winning_moves`] for a caller that only wants positions with few answers, all
-    /// proved: stops as soon as more than `limit` winning moves are proved (then `proved`
-    /// holds `limit + 1` of them) or one move's status is unknown; the moves after that are
-    /// not tried.
-    pub fn winning_moves_up_to(
+    fn winning_moves_up_to_q(
         &mut self,
         board: &Board,
         to_move: Stone,
@@ -569,10 +730,11 @@ impl<'s, 'w> Asking<'s, 'w> {
             }
         }
         let depth = self.depth_for(mode);
-        let node_limit = self.budget.nodes;
         let forced = !b.cells_with(to_move.opponent(), threat::FIVE).is_empty();
         out.tried = cands.len();
-        for m in cands {
+        let count = cands.len();
+        for (i, m) in cands.into_iter().enumerate() {
+            let node_limit = self.share(count - i);
             let m = m as usize;
             if out.proved.len() > limit || (stop_on_unknown && !out.unknown.is_empty()) {
                 break;
@@ -596,7 +758,6 @@ impl<'s, 'w> Asking<'s, 'w> {
                 mode,
                 child_depth,
                 node_limit,
-                false,
             );
             b.remove_at(m);
             self.history.pop();
@@ -610,30 +771,15 @@ impl<'s, 'w> Asking<'s, 'w> {
         out
     }
 
-    /// The opponent's forced win if `defender` (to move) passed, as a main line; empty if the
-    /// opponent has none.
-    pub fn threat(&mut self, board: &Board, defender: Stone, mode: Mode) -> Solution {
-        self.solve_unwatched(board, defender.opponent(), mode)
+    fn threat_q(&mut self, board: &Board, defender: Stone, mode: Mode) -> Solution {
+        self.solve(board, defender.opponent(), mode)
     }
 
-    /// [`Asking::solve`] without the stop check (a part of a larger question).
-    fn solve_unwatched(&mut self, board: &Board, to_move: Stone, mode: Mode) -> Solution {
-        let stop = self.stop.take();
-        let sol = self.solve(board, to_move, mode);
-        self.stop = stop;
-        sol
-    }
-
-    /// Every move for `defender` (to move) after which the opponent has no forced win by
-    /// `mode`, counter-fours included when they work.
-    pub fn defences(&mut self, board: &Board, defender: Stone, mode: Mode) -> Defences {
+    fn defences_q(&mut self, board: &Board, defender: Stone, mode: Mode) -> Defences {
         self.defences_impl(board, defender, mode, usize::MAX, false)
     }
 
-    /// [`Asking::defences`] for a caller that only wants positions with few defences, all
-    /// proved: stops as soon as more than `limit` defences are proved or one move's status is
-    /// unknown (then the lists are partial and `moves.tried` counts the moves tried so far).
-    pub fn defences_up_to(
+    fn defences_up_to_q(
         &mut self,
         board: &Board,
         defender: Stone,
@@ -656,11 +802,21 @@ impl<'s, 'w> Asking<'s, 'w> {
         let mut out = Defences {
             threat: Verdict::Win,
             moves: MoveSets::default(),
+            line: Vec::new(),
+            complete: true,
         };
         // The threat the defence must stop. Any defence against a VCT also stops the
         // opponent's VCF when there is one, so the VCF's candidate set is complete.
         self.solver.oracle.inexact = false;
-        let vcf = self.solver.oracle.find(&mut b, attacker, UNLIMITED);
+        self.solver.oracle.allowance = self.left();
+        self.solver.oracle.spent = self.spent;
+        let used = self.solver.oracle.used;
+        let vcf = self
+            .solver
+            .oracle
+            .find(&mut b, attacker, UNLIMITED, self.stop);
+        self.spent += self.solver.oracle.used - used;
+        self.solver.oracle.allowance = u64::MAX;
         if vcf.is_none() && self.solver.oracle.inexact {
             // The VCF question ran out of nodes: without its answer the candidate set below
             // would rest on the practical bound, so say "unknown" instead.
@@ -668,21 +824,30 @@ impl<'s, 'w> Asking<'s, 'w> {
             return out;
         }
         let cands: Vec<u16> = match vcf {
-            Some(line) => defence_candidates(&mut b, attacker, &line),
+            Some(line) => {
+                // The shortest VCF as a main line (cheap next to the defences themselves).
+                let threat = self.solve(&b, attacker, Mode::Vcf);
+                out.moves.nodes += threat.nodes;
+                out.line = threat.line;
+                defence_candidates(&mut b, attacker, &line)
+            }
             None => {
-                let threat = self.solve_unwatched(&b, attacker, mode);
+                let threat = self.solve(&b, attacker, mode);
                 out.moves.nodes += threat.nodes;
                 out.threat = threat.verdict;
                 if threat.verdict != Verdict::Win {
                     return out;
                 }
+                out.line = threat.line.clone();
+                out.complete = false;
                 near_line(&b, attacker.opponent(), &threat.line)
             }
         };
         let mut seen = vec![false; b.cell_count()];
         let depth = self.depth_for(mode);
-        let node_limit = self.budget.nodes;
-        for m in cands {
+        let count = cands.len();
+        for (i, m) in cands.into_iter().enumerate() {
+            let node_limit = self.share(count - i);
             let m = m as usize;
             if out.moves.proved.len() > limit || (stop_on_unknown && !out.moves.unknown.is_empty())
             {
@@ -703,7 +868,7 @@ impl<'s, 'w> Asking<'s, 'w> {
                 continue;
             }
             b.place_at(m, defender);
-            let (s, n) = self.run(&mut b, attacker, attacker, mode, depth, node_limit, false);
+            let (s, n) = self.run(&mut b, attacker, attacker, mode, depth, node_limit);
             b.remove_at(m);
             out.moves.nodes += n;
             match s {
@@ -717,29 +882,29 @@ impl<'s, 'w> Asking<'s, 'w> {
         out
     }
 
-    /// The replies the search considers for the defender (to move) against `attacker`'s
-    /// threat: the forced block of a four, or the defence set of a VCT node. Empty when the
-    /// attacker has no threat (or has already won).
-    pub fn defender_replies(&mut self, board: &Board, attacker: Stone, mode: Mode) -> Vec<Point> {
+    fn defender_replies_q(&mut self, board: &Board, attacker: Stone, mode: Mode) -> Vec<Point> {
         let mut b = board.clone();
         let depth = self.solver.config.vct_depth;
+        let (left, spent, stop) = (self.left(), self.spent, self.stop);
         let s = &mut *self.solver;
         let oracle = (mode == Mode::Vct).then_some(&mut s.oracle);
         let mut sp = ThreatSpace::new(&mut b, attacker, attacker.opponent(), mode, depth, oracle)
-            .with_history(&self.history);
+            .with_history(&self.history)
+            .watched(stop);
         let mut replies = Vec::new();
+        sp.allow(left, spent);
         let node = sp.expand(&mut replies);
+        let used = sp.take_spent();
         drop(sp);
+        self.solver.oracle.allowance = u64::MAX;
+        self.spent += used;
         if node != Node::And {
             return Vec::new();
         }
         replies.into_iter().map(|m| b.point(m as usize)).collect()
     }
 
-    /// How much room the defender has along a main line (attacker first): at each defender
-    /// turn, the replies the search had to consider beyond the first, plus one for every
-    /// defender move that makes a four of its own.
-    pub fn line_branching(
+    fn line_branching_q(
         &mut self,
         board: &Board,
         attacker: Stone,
@@ -760,25 +925,31 @@ impl<'s, 'w> Asking<'s, 'w> {
                 if b.flags_at(idx, defender) & threat::FOUR != 0 {
                     total += 1;
                 }
+                let (left, spent, stop) = (self.left(), self.spent, self.stop);
                 let s = &mut *self.solver;
                 let oracle = (mode == Mode::Vct).then_some(&mut s.oracle);
                 let mut sp = ThreatSpace::new(&mut b, attacker, defender, mode, depth, oracle)
-                    .with_history(&self.history);
+                    .with_history(&self.history)
+                    .watched(stop);
                 let mut replies = Vec::new();
+                sp.allow(left, spent);
                 if sp.expand(&mut replies) == Node::And {
                     total += replies.len().saturating_sub(1) as u32;
                 }
+                let used = sp.take_spent();
+                drop(sp);
+                self.solver.oracle.allowance = u64::MAX;
+                self.spent += used;
             }
             b.place_at(idx, side);
         }
         total
     }
 
-    /// Solves a small m,n,k board exactly for the side to move (all moves, both sides).
-    pub fn exact(&mut self, board: &Board, to_move: Stone) -> ExactSolution {
+    fn exact_q(&mut self, board: &Board, to_move: Stone) -> ExactSolution {
         let mut b = board.clone();
         let mut nodes = 0;
-        let (first, n) = self.run_exact(&mut b, to_move, to_move, true);
+        let (first, n) = self.run_exact(&mut b, to_move, to_move);
         nodes += n;
         let mut out = ExactSolution {
             value: ExactValue::Unknown,
@@ -796,7 +967,7 @@ impl<'s, 'w> Asking<'s, 'w> {
             }
             Status::Unknown => {}
             Status::Disproved => {
-                let (second, n) = self.run_exact(&mut b, to_move.opponent(), to_move, false);
+                let (second, n) = self.run_exact(&mut b, to_move.opponent(), to_move);
                 nodes += n;
                 out.value = match second {
                     Status::Proved => ExactValue::Loss,
@@ -809,19 +980,19 @@ impl<'s, 'w> Asking<'s, 'w> {
         out
     }
 
-    fn run_exact(
-        &mut self,
-        b: &mut Board,
-        attacker: Stone,
-        to_move: Stone,
-        polled: bool,
-    ) -> (Status, u64) {
+    fn run_exact(&mut self, b: &mut Board, attacker: Stone, to_move: Stone) -> (Status, u64) {
+        let left = self.left();
+        if left == 0 {
+            return (Status::Unknown, 0);
+        }
         let limit = self.budget.nodes;
-        let stop = polled_stop(&mut self.stop, polled);
         let mut sp = ExactSpace::new(b, attacker, to_move);
-        let mut dfpn = Dfpn::new(&mut self.solver.tt, limit, stop);
+        let mut dfpn = Dfpn::new(&mut self.solver.tt, limit, self.stop).within(left, self.spent);
         let s = dfpn.solve(&mut sp);
-        (s, dfpn.nodes)
+        let n = dfpn.nodes;
+        drop(dfpn);
+        self.spent += n;
+        (s, n)
     }
 }
 
@@ -848,17 +1019,6 @@ fn near_line(b: &Board, defender: Stone, line: &[Point]) -> Vec<u16> {
         }
     }
     out
-}
-
-/// The stop check of a question, reborrowed for one search, when that search is `polled`.
-fn polled_stop<'a>(
-    stop: &'a mut Option<StopCheck<'_>>,
-    polled: bool,
-) -> Option<&'a mut dyn FnMut() -> bool> {
-    if !polled {
-        return None;
-    }
-    stop.as_mut().map(|f| &mut **f as &mut dyn FnMut() -> bool)
 }
 
 fn verdict(s: Status) -> Verdict {

@@ -16,7 +16,7 @@
 //! module argues why no other reply needs trying.
 
 use super::defence::defence_candidates;
-use super::dfpn::{Node, Space};
+use super::dfpn::{Node, Space, Watch};
 use super::vcf::{VcfLine, VcfOracle};
 use crate::board::{threat, Board};
 use crate::geometry::Point;
@@ -99,6 +99,10 @@ pub(crate) struct ThreatSpace<'b> {
     /// threat, so that is part of every key.
     played: Vec<(u16, bool)>,
     oracle: Option<&'b mut VcfOracle>,
+    /// The question's stop check, passed on to the oracle's searches.
+    stop: Option<Watch<'b>>,
+    /// The oracle's `used` count at the last [`Space::take_spent`].
+    seen: u64,
 }
 
 impl<'b> ThreatSpace<'b> {
@@ -121,8 +125,16 @@ impl<'b> ThreatSpace<'b> {
             salt,
             trail: Vec::new(),
             played: Vec::new(),
+            seen: oracle.as_deref().map_or(0, |o| o.used),
             oracle,
+            stop: None,
         }
+    }
+
+    /// Polls `stop` in the oracle's searches too.
+    pub(crate) fn watched(mut self, stop: Option<Watch<'b>>) -> Self {
+        self.stop = stop;
+        self
     }
 
     /// Starts the search below moves already played: `history` holds every move since the
@@ -158,7 +170,7 @@ impl<'b> ThreatSpace<'b> {
     /// In a VCT space, the attacker's VCF from the current node (attacker to move).
     pub(crate) fn oracle_vcf(&mut self) -> Option<VcfLine> {
         let oracle = self.oracle.as_deref_mut()?;
-        oracle.find(self.board, self.attacker, UNLIMITED)
+        oracle.find(self.board, self.attacker, UNLIMITED, self.stop)
     }
 
     /// The remaining depth after the side to move plays `m` here. In a VCF every attacker move
@@ -214,7 +226,7 @@ impl<'b> ThreatSpace<'b> {
         }
         if self.mode == Mode::Vct {
             let oracle = self.oracle.as_deref_mut().expect("VCT needs an oracle");
-            if let Some(line) = oracle.find(self.board, a, UNLIMITED) {
+            if let Some(line) = oracle.find(self.board, a, UNLIMITED, self.stop) {
                 return Node::Win(line.attacker_moves());
             }
         }
@@ -437,12 +449,13 @@ impl<'b> ThreatSpace<'b> {
         let oracle = self.oracle.as_deref_mut().expect("VCT needs an oracle");
         // Facing a threat that is not a four, a defender with a VCF of its own simply wins: the
         // attacker can only answer its fours.
-        if oracle.has_vcf(self.board, d) {
+        if oracle.has_vcf(self.board, d, self.stop) {
             return Node::Loss;
         }
         // The shortest threat gives the defender the fewest replies to try; both are sound.
-        let short = oracle.find(self.board, a, THREAT_FOURS);
-        let line = short.or_else(|| oracle.find(self.board, a, UNLIMITED));
+        let stop = self.stop;
+        let short = oracle.find(self.board, a, THREAT_FOURS, stop);
+        let line = short.or_else(|| oracle.find(self.board, a, UNLIMITED, stop));
         let Some(line) = line else {
             return Node::Loss;
         };
@@ -486,6 +499,20 @@ impl<'b> ThreatSpace<'b> {
 }
 
 impl Space for ThreatSpace<'_> {
+    fn allow(&mut self, left: u64, spent: u64) {
+        if let Some(o) = self.oracle.as_deref_mut() {
+            o.allowance = left;
+            o.spent = spent;
+        }
+    }
+
+    fn take_spent(&mut self) -> u64 {
+        let used = self.oracle.as_deref().map_or(0, |o| o.used);
+        let n = used - self.seen;
+        self.seen = used;
+        n
+    }
+
     #[inline]
     fn key(&self) -> u64 {
         self.board.hash()

@@ -5,7 +5,7 @@
 //! a per-search node limit: an answer that ran out of nodes makes the oracle "inexact", which
 //! the solver turns into `Unknown` rather than let a verdict rest on it.
 
-use super::dfpn::{Dfpn, Node, Space, Status};
+use super::dfpn::{Dfpn, Node, Space, Status, Watch};
 use super::threats::{Mode, ThreatSpace, UNLIMITED};
 use super::tt::Table;
 use crate::board::Board;
@@ -40,6 +40,14 @@ pub struct VcfOracle {
     pub spend_limit: u64,
     /// Nodes searched over all questions.
     pub nodes: u64,
+    /// Nodes the questions of the current expansion may still use together (set by the
+    /// search that asks, from what its question has left; `u64::MAX`: no cap).
+    pub allowance: u64,
+    /// Nodes the asking question had spent when the allowance was set, plus what the
+    /// oracle's questions spent since (what the stop check is told).
+    pub spent: u64,
+    /// Nodes of every kind the oracle ever searched (questions and re-searches alike).
+    pub used: u64,
     /// The attacker's VCT candidates of recently expanded nodes, so that the proof-number
     /// search, which comes back to the same node many times, does not test them again.
     pub(crate) moves: MoveCache,
@@ -87,6 +95,9 @@ impl VcfOracle {
             inexact: false,
             spend_limit: u64::MAX,
             nodes: 0,
+            allowance: u64::MAX,
+            spent: 0,
+            used: 0,
             moves: MoveCache::new(),
         }
     }
@@ -100,16 +111,22 @@ impl VcfOracle {
 
     /// The attacker's VCF from this position with the attacker to move, using at most `depth`
     /// attacker moves before the five, if there is one within the node limit.
-    pub fn find(&mut self, board: &mut Board, attacker: Stone, depth: u16) -> Option<VcfLine> {
+    pub fn find(
+        &mut self,
+        board: &mut Board,
+        attacker: Stone,
+        depth: u16,
+        stop: Option<Watch>,
+    ) -> Option<VcfLine> {
         let Some(limit) = self.question_limit() else {
             self.inexact = true;
             return None;
         };
         let mut sp = ThreatSpace::new(board, attacker, attacker, Mode::Vcf, depth, None);
-        let mut dfpn = Dfpn::new(&mut self.tt, limit, None);
+        let mut dfpn = Dfpn::new(&mut self.tt, limit, stop).within(limit, self.spent);
         let status = dfpn.solve(&mut sp);
-        self.nodes += dfpn.nodes;
-        match status {
+        let searched = dfpn.nodes;
+        let out = match status {
             Status::Proved => {
                 let line = vcf_line(&mut dfpn, &mut sp, self.node_limit);
                 if line.is_none() {
@@ -122,7 +139,21 @@ impl VcfOracle {
                 self.inexact = true;
                 None
             }
-        }
+        };
+        let all = dfpn.nodes;
+        drop(dfpn);
+        self.charge(searched, all);
+        out
+    }
+
+    /// Counts a question's nodes: `searched` by the question itself (reported as the
+    /// oracle's nodes), `all` with the re-searches of reading its line back (charged to the
+    /// allowance).
+    fn charge(&mut self, searched: u64, all: u64) {
+        self.nodes += searched;
+        self.allowance = self.allowance.saturating_sub(all);
+        self.spent += all;
+        self.used += all;
     }
 }
 
@@ -130,7 +161,10 @@ impl VcfOracle {
     /// The node limit of the next question: the per-question limit, or what is left of the
     /// spending limit if that is less; `None` when nothing is left.
     fn question_limit(&self) -> Option<u64> {
-        let left = self.spend_limit.saturating_sub(self.nodes);
+        let left = self
+            .spend_limit
+            .saturating_sub(self.nodes)
+            .min(self.allowance);
         (left > 0).then(|| self.node_limit.min(left))
     }
 
@@ -138,15 +172,17 @@ impl VcfOracle {
     /// attacker's threat. When the question runs out of nodes the answer is the cautious one,
     /// yes (so that no attacker win rests on it), and the oracle becomes inexact (so that no
     /// attacker no-win rests on it either).
-    pub fn has_vcf(&mut self, board: &mut Board, side: Stone) -> bool {
+    pub fn has_vcf(&mut self, board: &mut Board, side: Stone, stop: Option<Watch>) -> bool {
         let Some(limit) = self.question_limit() else {
             self.inexact = true;
             return true;
         };
         let mut sp = ThreatSpace::new(board, side, side, Mode::Vcf, UNLIMITED, None);
-        let mut dfpn = Dfpn::new(&mut self.tt, limit, None);
+        let mut dfpn = Dfpn::new(&mut self.tt, limit, stop).within(limit, self.spent);
         let status = dfpn.solve(&mut sp);
-        self.nodes += dfpn.nodes;
+        let all = dfpn.nodes;
+        drop(dfpn);
+        self.charge(all, all);
         match status {
             Status::Proved => true,
             Status::Disproved => false,

@@ -542,6 +542,24 @@ mod tests {
     }
 
     #[test]
+    fn a_wrong_key_from_outside_never_reaches_a_hint() {
+        // A set file whose key for this puzzle is a1 (it is no answer): the hints of an
+        // untrusted puzzle come from the solver, not from the key.
+        let mut p = fixture().into_iter().next().unwrap();
+        let answers = p.first_moves.clone();
+        p.first_moves = vec![Point::new(0, 0)];
+        p.line = vec![Point::new(0, 0)];
+        let mut b = PuzzleBoard::new(p, false);
+        let mut s = solver();
+        b.hint(&mut s);
+        b.hint(&mut s);
+        let h = b.hint(&mut s);
+        assert_ne!(h.say, "The key move is a1.");
+        let m = b.view().marks.hint_move.unwrap();
+        assert!(answers.contains(&m), "{m} is one of {answers:?}");
+    }
+
+    #[test]
     fn a_record_restores_the_position_and_the_counts() {
         let p = fixture().into_iter().next().unwrap();
         let line = p.line.clone();
