@@ -33,7 +33,7 @@ fn slowest() -> Vec<(String, Board, Stone)> {
             (n, c.to_string(), b, c.to_move)
         })
         .collect();
-    timed.sort_by(|a, b| b.0.cmp(&a.0));
+    timed.sort_by_key(|t| std::cmp::Reverse(t.0));
     timed
         .into_iter()
         .take(4)
