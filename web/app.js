@@ -10,14 +10,15 @@ import { Drill, checkDrill } from './drill.js';
 import { Study, checkStudy } from './study.js';
 import { $, banner, clearBanner, download } from './ui.js';
 
-const SCREENS = ['tonight', 'drill', 'study'];
-const DEFAULT_SETTINGS = { confirm: true, forbidden: true, numbers: false, screen: 'tonight' };
+const SCREENS = ['tonight', 'drill', 'revisit', 'study', 'coach', 'progress', 'games'];
+const DEFAULT_SETTINGS = { confirm: true, forbidden: true, numbers: false, coachBar: false, screen: 'tonight' };
 
 function checkSettings(d) {
   if (!d || typeof d !== 'object') return 'it is empty';
   for (const k of ['confirm', 'forbidden', 'numbers']) {
     if (typeof d[k] !== 'boolean') return `the setting "${k}" is not on or off`;
   }
+  if (d.coachBar !== undefined && typeof d.coachBar !== 'boolean') return 'the setting "coachBar" is not on or off';
   if (!SCREENS.includes(d.screen)) return 'the screen is unknown';
   return null;
 }
@@ -73,8 +74,17 @@ class App {
     this.study = new Study(this);
     this.loadAll();
     for (const b of document.querySelectorAll('[data-go]')) {
-      b.addEventListener('click', () => this.go(b.dataset.go));
+      b.addEventListener('click', () => {
+        if ($('more').open) $('more').close();
+        this.go(b.dataset.go);
+      });
     }
+    $('nav-more').addEventListener('click', () => $('more').showModal());
+    $('close-more').addEventListener('click', () => $('more').close());
+    $('more-settings').addEventListener('click', () => {
+      $('more').close();
+      $('open-settings').click();
+    });
     this.wireSettings();
     window.addEventListener('hashchange', () => this.readHash());
     this.readHash();
@@ -105,15 +115,23 @@ class App {
     $('opt-confirm').checked = this.settings.confirm;
     $('opt-forbidden').checked = this.settings.forbidden;
     $('opt-numbers').checked = this.settings.numbers;
+    $('opt-coach').checked = !!this.settings.coachBar;
+    if (this.settings.coachBar) document.documentElement.dataset.coachBar = 'true';
+    else delete document.documentElement.dataset.coachBar;
   }
 
   go(name) {
     if (!SCREENS.includes(name)) name = 'tonight';
     for (const s of SCREENS) $(s).hidden = s !== name;
-    for (const b of document.querySelectorAll('[data-go]')) {
+    for (const b of document.querySelectorAll('.rail [data-go]')) {
       if (b.dataset.go === name) b.setAttribute('aria-current', 'page');
       else b.removeAttribute('aria-current');
     }
+    // On a phone, "More" stands for the screens it opens.
+    const extra = !['tonight', 'drill', 'revisit', 'study'].includes(name) &&
+      !(name === 'coach' && this.settings.coachBar);
+    if (extra) $('nav-more').setAttribute('aria-current', 'page');
+    else $('nav-more').removeAttribute('aria-current');
     document.documentElement.dataset.screen = name;
     if (this.settings.screen !== name) {
       this.settings.screen = name;
@@ -142,7 +160,7 @@ class App {
       dialog.showModal();
     });
     $('close-settings').addEventListener('click', () => dialog.close());
-    for (const [id, key] of [['opt-confirm', 'confirm'], ['opt-forbidden', 'forbidden'], ['opt-numbers', 'numbers']]) {
+    for (const [id, key] of [['opt-confirm', 'confirm'], ['opt-forbidden', 'forbidden'], ['opt-numbers', 'numbers'], ['opt-coach', 'coachBar']]) {
       $(id).addEventListener('change', (e) => {
         this.settings[key] = e.target.checked;
         this.applySettings();
