@@ -8,6 +8,9 @@ import { hasSaved, keepAside, load, makeBackup, onStorageEvents, readBackup, sav
 import { Tonight, checkSets, checkTonight } from './tonight.js';
 import { Drill, checkDrill } from './drill.js';
 import { Study, checkStudy } from './study.js';
+import { PracticeStore, checkPractice } from './practice.js';
+import { Revisit } from './revisit.js';
+import { Progress } from './progress.js';
 import { $, banner, clearBanner, download } from './ui.js';
 
 const SCREENS = ['tonight', 'drill', 'revisit', 'study', 'coach', 'progress', 'games'];
@@ -29,6 +32,7 @@ const VALIDATORS = {
   tonight: checkTonight,
   drill: checkDrill,
   study: checkStudy,
+  practice: checkPractice,
 };
 
 const WHAT = {
@@ -37,6 +41,7 @@ const WHAT = {
   tonight: 'Tonight progress',
   drill: 'Drill progress',
   study: 'Study board position',
+  practice: 'Revisit schedule and practice history',
 };
 
 class App {
@@ -59,6 +64,11 @@ class App {
       },
       onSaved: (name) => {
         unsaved.delete(name);
+        // Space is back: save again what could not be saved (each document as it is now).
+        for (const other of [...unsaved]) {
+          const data = this.documents()[other];
+          if (data !== undefined && other !== name) save(other, data);
+        }
         if (this.quotaWarned && unsaved.size === 0) {
           this.quotaWarned = false;
           clearBanner('quota');
@@ -69,9 +79,12 @@ class App {
           'does not save over it. Reload the page to get the newer version.', { kind: 'warn', id: 'newer', sticky: true });
       },
     });
+    this.practice = new PracticeStore();
     this.tonight = new Tonight(this);
     this.drill = new Drill(this);
     this.study = new Study(this);
+    this.revisit = new Revisit(this);
+    this.progress = new Progress(this);
     this.loadAll();
     for (const b of document.querySelectorAll('[data-go]')) {
       b.addEventListener('click', () => {
@@ -104,14 +117,32 @@ class App {
     }
     this.settings = { ...DEFAULT_SETTINGS, ...(got.settings ?? {}) };
     this.applySettings();
+    try {
+      this.practice.init(got.practice);
+    } catch (e) {
+      banner(`Your Revisit schedule and practice history could not be read (${e}); they start afresh.`, { kind: 'warn', id: 'practice', sticky: true });
+      this.practice.init(null);
+    }
     this.tonight.init(got.sets, got.tonight);
     this.drill.init(got.drill);
     this.study.init(got.study);
     this.go(this.settings.screen);
   }
 
+  /** Every saved document as it stands now. */
+  documents() {
+    return {
+      settings: this.settings,
+      sets: this.tonight.sets,
+      tonight: this.tonight.data,
+      drill: this.drill.data,
+      study: this.study.data,
+      practice: this.practice.data,
+    };
+  }
+
   applySettings() {
-    for (const screen of [this.tonight, this.drill, this.study]) screen.applySettings(this.settings);
+    for (const screen of [this.tonight, this.drill, this.study, this.revisit]) screen.applySettings(this.settings);
     $('opt-confirm').checked = this.settings.confirm;
     $('opt-forbidden').checked = this.settings.forbidden;
     $('opt-numbers').checked = this.settings.numbers;
@@ -138,6 +169,8 @@ class App {
       save('settings', this.settings);
     }
     if (name === 'drill') this.drill.activate();
+    if (name === 'revisit') this.revisit.activate();
+    if (name === 'progress') this.progress.activate();
   }
 
   readHash() {
@@ -178,6 +211,7 @@ class App {
       tonight: this.tonight.data,
       drill: this.drill.data,
       study: this.study.data,
+      practice: this.practice.data,
     };
     const day = new Date().toISOString().slice(0, 10);
     download(`fivefold-backup-${day}.json`, makeBackup(parts));
@@ -222,6 +256,7 @@ class App {
       tonight: this.tonight.data,
       drill: this.drill.data,
       study: this.study.data,
+      practice: this.practice.data,
       ...parts,
     });
     const msg = failed.length

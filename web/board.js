@@ -21,11 +21,16 @@ export class BoardView {
    * log; `message`: the message line; `onChange(status, why)`: called after every change the
    * player or the app makes.
    */
-  constructor(canvas, { kind = 'puzzle', log, message, onChange = () => {} }) {
+  constructor(canvas, { kind = 'puzzle', log, message, onChange = () => {}, onFinish = () => {} }) {
     this.canvas = canvas;
     this.log = log;
     this.message = message;
     this.onChange = onChange;
+    // Called once when a try ends (solved or failed), with the status and the milliseconds
+    // since the puzzle was shown.
+    this.onFinish = onFinish;
+    this.shownAt = performance.now();
+    this.reported = false;
     this.trainer = kind === 'study' ? new StudyBoard(canvas) : new PuzzleBoard(canvas);
     this.token = 0;
     this.animating = false;
@@ -91,7 +96,13 @@ export class BoardView {
     d.toMove = s.toMove;
     d.rule = s.rule;
     this.canvas.setAttribute('aria-label', this.trainer.describe());
+    // A try ends once it is solved or failed and the app's moves are all on show; it is
+    // reported once (a retry starts a new try).
+    if (s.state === 'playing') this.reported = false;
+    const ended = why !== 'load' && !this.reported && s.state !== 'playing' && s.pending === 0 && !s.solution;
+    if (ended) this.reported = true;
     this.onChange(s, why);
+    if (ended) this.onFinish(s, Math.round(performance.now() - this.shownAt));
     return s;
   }
 
@@ -128,6 +139,8 @@ export class BoardView {
     this.cancelPacing();
     this.clearLog();
     this.trainer.load(puzzleJson, trusted, record);
+    this.shownAt = performance.now();
+    this.reported = this.trainer.status().state !== 'playing';
     this.fit();
     const s = this.changed('load');
     this.markFirstBoard();
@@ -235,6 +248,19 @@ export class BoardView {
     const s = this.changed('retry');
     this.note(s.goal, 'goal');
     return s;
+  }
+
+  /** After a failure: the solution, revealed slowly with its sentences. */
+  showSolution() {
+    this.cancelPacing();
+    const n = this.trainer.showSolution();
+    if (!n) return this.status();
+    this.clearLog();
+    this.say(['The solution, move by move:'], 'info');
+    const token = ++this.token;
+    this.changed('solution');
+    this.pace(token, true);
+    return this.status();
   }
 
   hint() {

@@ -1,11 +1,12 @@
 // Drill: an endless stream of puzzles at the player's level, filtered by theme and rule,
 // generated a few ahead in the worker so that the next one is ready when it is wanted.
 
-import { attemptWords, drillBand, parseSet, ratingAfter, themes } from './pkg/fivefold_web.js';
+import { attemptWords, drillChoice, parseSet, rateTry, themes } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
 import { save } from './store.js';
-import { $, POINT_NAME, RULES, announce, el, fill, isInt, randomSeed } from './ui.js';
+import { today } from './practice.js';
+import { $, POINT_NAME, RULES, announce, el, fill, isInt, own, put, randomSeed } from './ui.js';
 
 // Puzzles kept ready ahead of the one being played.
 const AHEAD = 3;
@@ -14,11 +15,38 @@ function checkRating(r) {
   return r === null || (r && [r.rating, r.deviation, r.volatility].every(Number.isFinite));
 }
 
+// Puzzle ratings kept on this device (Glicko-2 both ways: a puzzle's rating moves with the
+// players' tries at it), at most this many, the oldest dropped first.
+const PUZZLE_RATINGS = 300;
+
+/** Brings stored Drill data of an earlier version up to date (one rating for every rule
+ * becomes the rating of the rule drilled last; the other rules start afresh). */
+export function upgradeDrill(d) {
+  if (!d || typeof d !== 'object') return d;
+  if (!d.ratings) {
+    d.ratings = {};
+    if (d.rating && RULES.includes(d.rule)) d.ratings[d.rule] = d.rating;
+  }
+  delete d.rating;
+  d.puzzleRatings ??= {};
+  return d;
+}
+
 /** Why stored Drill data cannot be used, or null. */
 export function checkDrill(d) {
   if (!d || typeof d !== 'object') return 'it is empty';
   if (typeof d.theme !== 'string' || !RULES.includes(d.rule)) return 'the filters are unknown';
-  if (!checkRating(d.rating)) return 'the rating is malformed';
+  if (d.rating !== undefined && !checkRating(d.rating)) return 'the rating is malformed';
+  if (d.ratings !== undefined) {
+    if (!d.ratings || typeof d.ratings !== 'object') return 'the ratings are malformed';
+    for (const [rule, r] of Object.entries(d.ratings)) {
+      if (!RULES.includes(rule) || !checkRating(r)) return 'the ratings are malformed';
+    }
+  }
+  if (d.puzzleRatings !== undefined) {
+    if (!d.puzzleRatings || typeof d.puzzleRatings !== 'object') return 'the puzzle ratings are malformed';
+    for (const r of Object.values(d.puzzleRatings)) if (!checkRating(r)) return 'the puzzle ratings are malformed';
+  }
   if (!Array.isArray(d.queue) || d.queue.length > 20) return 'the queue is malformed';
   if (!d.stats || !isInt(d.stats.played, 0, 1e9) || !isInt(d.stats.clean, 0, 1e9)) return 'the counts are malformed';
   const c = d.current;
@@ -43,7 +71,7 @@ export function checkDrill(d) {
 }
 
 export function emptyDrill() {
-  return { theme: 'vcf', rule: 'freestyle', rating: null, current: null, queue: [], stats: { played: 0, clean: 0 } };
+  return { theme: 'vcf', rule: 'freestyle', ratings: {}, puzzleRatings: {}, current: null, queue: [], stats: { played: 0, clean: 0 } };
 }
 
 export class Drill {
@@ -58,6 +86,7 @@ export class Drill {
       log: $('drill-log'),
       message: $('drill-message'),
       onChange: (s, why) => this.changed(s, why),
+      onFinish: (s, millis) => this.finished(s, millis),
     });
     for (const b of $('drill').querySelectorAll('[data-act]')) {
       b.addEventListener('click', () => this.act(b.dataset.act));
@@ -69,7 +98,7 @@ export class Drill {
   init(data) {
     this.jobs.cancel();
     this.generating = null;
-    this.data = data ?? emptyDrill();
+    this.data = upgradeDrill(data) ?? emptyDrill();
     if (!this.allowed(this.data.theme, this.data.rule)) this.data.theme = 'vcf';
     this.renderFilters();
     this.renderRating();
@@ -93,12 +122,18 @@ export class Drill {
     $('drill-theme').value = this.data.theme;
   }
 
+  /** The player's rating under a rule (null for a new player). */
+  ratingFor(rule) {
+    return own(this.data.ratings ?? {}, rule) ?? null;
+  }
+
   renderRating() {
-    const r = this.data.rating;
+    const rule = this.data.rule;
+    const r = this.ratingFor(rule);
     const st = this.data.stats;
     $('drill-rating').textContent = r
-      ? `Your rating ${Math.round(r.rating)} ± ${Math.round(2 * r.deviation)} · ${st.played} played, ${st.clean} solved clean`
-      : 'Your rating: not yet known (1500 to start)';
+      ? `Your ${rule} rating ${Math.round(r.rating)} ± ${Math.round(2 * r.deviation)} · ${st.played} played, ${st.clean} solved clean`
+      : `Your ${rule} rating: not yet known (1500 to start)`;
   }
 
   /** The Drill screen is shown: keep puzzles coming. */
@@ -121,7 +156,7 @@ export class Drill {
     this.jobs.cancel();
     this.generating = null;
     this.renderFilters();
-    this.rateIfTried();
+    this.leave();
     this.data.current = null;
     this.save();
     this.waiting(true);
@@ -148,8 +183,9 @@ export class Drill {
   async fill() {
     if (this.generating || this.data.queue.length >= AHEAD) return;
     const { theme, rule } = this.data;
-    const r = this.data.rating?.rating ?? 1500;
-    const [lo, hi] = drillBand(theme, rule, r);
+    const choice = drillChoice(theme, rule, this.ratingFor(rule));
+    const [lo, hi] = [choice.low, choice.high];
+    $('drill-band').textContent = choice.say;
     const job = { theme, rule };
     this.generating = job;
     this.renderQueue();
@@ -205,24 +241,64 @@ export class Drill {
     this.renderPlay(this.board.status());
   }
 
-  // A puzzle left after moves or hints without being finished counts as not solved.
-  rateIfTried() {
+  /** Leaving the current puzzle unfinished: a touched puzzle counts as not solved; an
+   * untouched one is a free skip while today's free skips last (engine::rating::drill). */
+  leave() {
     const c = this.data.current;
-    if (c && !c.rated && (c.played.length || c.wrong || c.hints)) this.rate(false);
+    if (!c || c.rated) return;
+    const attempt = c.attempt ?? ((c.played.length || c.wrong || c.hints) ? 'trying' : 'untried');
+    const r = this.app.practice.handle.skip(today(), attempt);
+    if (r.counted) {
+      this.rate(false);
+      this.app.practice.finished({
+        origin: 'drill', title: 'Drill', puzzle: JSON.stringify(c.puzzle), attempt: 'failed',
+        hints: c.hints, wrong: c.wrong, millis: 0, rating: this.ratingFor(c.puzzle.rule),
+        puzzleRating: c.puzzle.rating, skipped: true,
+      });
+    } else {
+      this.app.practice.save();
+    }
+    if (r.say) announce(r.say);
+    $('drill-queue').dataset.skip = r.say;
   }
 
+  /** Rates the current puzzle's try both ways: the player's rating under its rule and the
+   * puzzle's own. */
   rate(clean) {
     const c = this.data.current;
     c.rated = true;
-    this.data.rating = ratingAfter(this.data.rating, c.puzzle.rating, clean);
+    const p = c.puzzle;
+    const rule = p.rule;
+    const puzzles = this.data.puzzleRatings ??= {};
+    const r = rateTry(this.ratingFor(rule), own(puzzles, p.id) ?? null, p.rating, clean);
+    this.data.ratings ??= {};
+    put(this.data.ratings, rule, r.player);
+    delete puzzles[p.id];
+    put(puzzles, p.id, r.puzzle);
+    const ids = Object.keys(puzzles);
+    for (const id of ids.slice(0, Math.max(0, ids.length - PUZZLE_RATINGS))) delete puzzles[id];
     this.data.stats.played++;
     if (clean) this.data.stats.clean++;
     this.renderRating();
     announce($('drill-rating').textContent);
   }
 
+  /** A try ended: rated, then into the logbook and, if missed, into Revisit. */
+  finished(s, millis) {
+    const c = this.data.current;
+    if (!c || this.loading) return;
+    if (!c.rated) this.rate(s.attempt === 'clean');
+    const out = this.app.practice.finished({
+      origin: 'drill', title: 'Drill', puzzle: JSON.stringify(c.puzzle), attempt: s.attempt,
+      hints: s.record.hints, wrong: s.record.wrong, millis, rating: this.ratingFor(c.puzzle.rule),
+      puzzleRating: c.puzzle.rating,
+    });
+    this.save();
+    if (out?.say) this.board.say([out.say]);
+  }
+
   next() {
-    this.rateIfTried();
+    this.leave();
     const p = this.data.queue.shift();
     if (!p) {
       this.data.current = null;
@@ -247,7 +323,6 @@ export class Drill {
     c.wrong = s.record.wrong;
     c.hints = s.record.hints;
     c.attempt = s.record.attempt;
-    if (!c.rated && s.state !== 'playing') this.rate(s.attempt === 'clean');
     if (why !== 'reveal' || s.pending === 0) this.save();
     this.renderPlay(s);
   }
@@ -257,15 +332,29 @@ export class Drill {
     const over = s.state !== 'playing';
     const none = !this.data.current;
     root.querySelector('[data-act="hint"]').disabled = none || over || s.pending > 0;
+    root.querySelector('[data-act="hint"]').hidden = s.state === 'failed';
+    root.querySelector('[data-act="solution"]').hidden = s.state !== 'failed';
+    root.querySelector('[data-act="solution"]').disabled = s.pending > 0;
     root.querySelector('[data-act="undo"]').disabled = none || s.record.played.length === 0;
     root.querySelector('[data-act="retry"]').disabled = none || s.moves.length === 0;
-    root.querySelector('[data-act="next"]').classList.toggle('ready', over && s.pending === 0);
+    const next = root.querySelector('[data-act="next"]');
+    next.classList.toggle('ready', over && s.pending === 0);
+    // Leaving an unfinished puzzle is a skip, and says what it costs (engine::rating::drill).
+    if (none || over) {
+      next.textContent = 'Next';
+    } else if (s.attempt === 'untried') {
+      const left = this.app.practice.handle.freeSkipsLeft(today());
+      next.textContent = left ? `Skip (${left} free today)` : 'Skip (counts as not solved)';
+    } else {
+      next.textContent = 'Leave (counts as not solved)';
+    }
   }
 
   act(what) {
     if (what === 'next') return this.next();
     if (!this.data.current) return;
     if (what === 'hint') this.board.hint();
+    else if (what === 'solution') this.board.showSolution();
     else if (what === 'undo') this.board.undo();
     else if (what === 'retry') this.board.retry();
   }

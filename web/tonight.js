@@ -91,6 +91,7 @@ export class Tonight {
       log: $('tonight-log'),
       message: $('tonight-message'),
       onChange: (s, why) => this.changed(s, why),
+      onFinish: (s, millis) => this.finished(s, millis),
     });
     for (const b of $('tonight-play').querySelectorAll('[data-act]')) {
       b.addEventListener('click', () => this.act(b.dataset.act));
@@ -434,6 +435,25 @@ export class Tonight {
     this.renderPlay(s);
   }
 
+  /** A try ended: into the logbook, and into Revisit if it was missed. */
+  finished(s, millis) {
+    const key = this.data.open;
+    if (!key || this.loading) return;
+    const p = this.puzzlesOf(key)[this.progressOf(key).index];
+    if (!p) return;
+    const out = this.app.practice.finished({
+      origin: 'tonight',
+      title: this.set(key)?.title ?? '',
+      puzzle: JSON.stringify(this.playedPuzzle(key, p)),
+      attempt: s.attempt,
+      hints: s.record.hints,
+      wrong: s.record.wrong,
+      millis,
+      rating: this.app.drill.ratingFor(p.rule),
+    });
+    if (out?.say) this.board.say([out.say]);
+  }
+
   renderPlay(s) {
     const key = this.data.open;
     if (!key) return;
@@ -462,6 +482,9 @@ export class Tonight {
     const play = $('tonight-play');
     const over = s.state !== 'playing';
     play.querySelector('[data-act="hint"]').disabled = over || s.pending > 0;
+    play.querySelector('[data-act="hint"]').hidden = s.state === 'failed';
+    play.querySelector('[data-act="solution"]').hidden = s.state !== 'failed';
+    play.querySelector('[data-act="solution"]').disabled = s.pending > 0;
     play.querySelector('[data-act="undo"]').disabled = s.record.played.length === 0;
     play.querySelector('[data-act="retry"]').disabled = s.moves.length === 0 && s.record.played.length === 0;
     const next = play.querySelector('[data-act="next"]');
@@ -474,6 +497,7 @@ export class Tonight {
     if (!key) return;
     const prog = this.progressOf(key);
     if (what === 'hint') this.board.hint();
+    else if (what === 'solution') this.board.showSolution();
     else if (what === 'undo') this.board.undo();
     else if (what === 'retry') this.board.retry();
     else if (what === 'next') {

@@ -115,6 +115,18 @@ pub fn undecided(c: Stone, p: Point) -> [String; 2] {
     ]
 }
 
+/// A move while the solution is on the board.
+pub const SOLUTION_SHOWN: &str = "The solution is on the board: try again to play it yourself.";
+
+/// One move of a solution being shown: "3. Black j9." and, for the last, that it ends there.
+pub fn solution_step(number: usize, c: Stone, p: Point, last: bool) -> String {
+    if last {
+        format!("{number}. {} {p}: the end of the solution.", colour(c))
+    } else {
+        format!("{number}. {} {p}.", colour(c))
+    }
+}
+
 /// A move after the puzzle ended.
 pub const FINISHED: &str = "The puzzle is over: undo or try again.";
 
@@ -302,6 +314,99 @@ pub fn line_step(shown: usize, c: Stone, p: Option<Point>) -> String {
         Some(p) if shown > 0 => format!("{shown}. {} {p}", colour(c)),
         _ => "The line is hidden.".to_string(),
     }
+}
+
+/// A day (days since 1970-01-01) as the player reads it: "Tuesday 8 December 2026".
+pub fn date(day: crate::schedule::Day) -> String {
+    // Civil date from a day count (H. Hinnant, "chrono-Compatible Low-Level Date
+    // Algorithms", days_from_civil's inverse); 1970-01-01 was a Thursday.
+    let z = i64::from(day) + 719_468;
+    let era = z.div_euclid(146_097);
+    let doe = z - era * 146_097;
+    let yoe = (doe - doe / 1_460 + doe / 36_524 - doe / 146_096) / 365;
+    let doy = doe - (365 * yoe + yoe / 4 - yoe / 100);
+    let mp = (5 * doy + 2) / 153;
+    let d = doy - (153 * mp + 2) / 5 + 1;
+    let m = if mp < 10 { mp + 3 } else { mp - 9 };
+    let y = yoe + era * 400 + i64::from(m <= 2);
+    const DAYS: [&str; 7] = [
+        "Thursday",
+        "Friday",
+        "Saturday",
+        "Sunday",
+        "Monday",
+        "Tuesday",
+        "Wednesday",
+    ];
+    const MONTHS: [&str; 12] = [
+        "January",
+        "February",
+        "March",
+        "April",
+        "May",
+        "June",
+        "July",
+        "August",
+        "September",
+        "October",
+        "November",
+        "December",
+    ];
+    format!(
+        "{} {d} {} {y}",
+        DAYS[(day % 7) as usize],
+        MONTHS[(m - 1) as usize]
+    )
+}
+
+/// When a puzzle of Revisit comes back: "Comes back in 4 days (Sunday 6 December 2026)."
+pub fn comes_back(today: crate::schedule::Day, due: crate::schedule::Day) -> String {
+    match due.saturating_sub(today) {
+        0 => "Comes back today.".to_string(),
+        1 => format!("Comes back tomorrow ({}).", date(due)),
+        n => format!("Comes back in {n} days ({}).", date(due)),
+    }
+}
+
+/// What leaving a Drill puzzle cost.
+pub fn skipped(s: crate::rating::drill::Skip) -> Option<String> {
+    use crate::rating::drill::{Skip, SkipReason};
+    match s {
+        Skip::NotASkip => None,
+        Skip::Free { left } => Some(format!(
+            "Skipped without a move: a free skip ({left} left today)."
+        )),
+        Skip::Counted(SkipReason::Touched) => {
+            Some("Left unfinished: it counts as not solved.".to_string())
+        }
+        Skip::Counted(SkipReason::NoFreeSkips) => {
+            Some("No free skips left today, so this skip counts as not solved.".to_string())
+        }
+    }
+}
+
+/// Which puzzles a drill chooses from, and why: "Choosing puzzles rated 1300 to 1700, around
+/// your renju rating of 1500 (give or take 350)."
+pub fn band(b: &crate::rating::drill::Band, rule: crate::types::Rule) -> String {
+    use crate::rating::drill::Placement;
+    let r = &b.reason;
+    let you = format!(
+        "your {} rating of {:.0} (give or take {:.0})",
+        rule.name(),
+        r.rating,
+        r.deviation
+    );
+    let why = match r.placement {
+        Placement::AroundRating => format!("around {you}"),
+        Placement::EasiestKnown => {
+            format!("the easiest known for this theme, since {you} is below them")
+        }
+        Placement::HardestKnown => {
+            format!("the hardest known for this theme, since {you} is above them")
+        }
+        Placement::WholeRange => format!("the whole known range of this theme, for {you}"),
+    };
+    format!("Choosing puzzles rated {} to {}: {why}.", b.low, b.high)
 }
 
 /// A count with thousands separated by commas: "3,000,000".
@@ -554,6 +659,21 @@ mod tests {
         );
         assert_eq!(thousands(999), "999");
         assert_eq!(thousands(1_000), "1,000");
+    }
+
+    #[test]
+    fn dates_are_the_calendar_s() {
+        // 1970-01-01 was a Thursday (common knowledge); 2026-12-02 is day 20,789 (days
+        // between the two dates, counted by Python's datetime.date subtraction).
+        assert_eq!(date(0), "Thursday 1 January 1970");
+        assert_eq!(date(20_789), "Wednesday 2 December 2026");
+        // 2024 is a leap year: day 19,782 is 29 February 2024.
+        assert_eq!(date(19_782), "Thursday 29 February 2024");
+        assert_eq!(
+            comes_back(20_789, 20_790),
+            "Comes back tomorrow (Thursday 3 December 2026)."
+        );
+        assert_eq!(comes_back(20_789, 20_789), "Comes back today.");
     }
 
     #[test]

@@ -69,9 +69,10 @@ test('Drill produces puzzles from the worker while the page stays responsive', a
   assert.match(await page.textContent('#drill-rating'), /not yet known/);
   const s = await solve(page, BOARD, p.solution.line);
   assert.equal(s.outcome, 'clean');
-  assert.match(await page.textContent('#drill-rating'), /^Your rating \d+ ± \d+ · 1 played, 1 solved clean$/);
+  assert.match(await page.textContent('#drill-rating'), /^Your freestyle rating \d+ ± \d+ · 1 played, 1 solved clean$/);
   const after1 = await stored(page);
-  assert.ok(after1.rating.rating > 1500, 'a clean solve raises the rating');
+  assert.ok(after1.ratings.freestyle.rating > 1500, 'a clean solve raises the rating');
+  assert.ok(after1.puzzleRatings[p.id].rating < p.rating, 'and lowers the puzzle\'s (Glicko-2 both ways)');
   assert.ok(after1.current.rated);
 
   // Next is ready at once.

@@ -16,6 +16,7 @@ import {
   settled,
   tap,
   useBrowser,
+  openSettings,
 } from './support.mjs';
 
 const CLUB = librarySet('fours-freestyle-club');
@@ -85,7 +86,7 @@ for (const [label, viewport] of [['phone', PHONE], ['desktop', DESKTOP]]) {
     await artefact(page, `${label}-study`);
     await artefact(page, `${label}-study-full`, { fullPage: true });
 
-    await page.click('#open-settings');
+    await openSettings(page);
     await artefact(page, `${label}-settings`);
     assert.deepEqual(errors, []);
     await context.close();

@@ -17,6 +17,7 @@ import {
   settled,
   tap,
   useBrowser,
+  openSettings,
 } from './support.mjs';
 
 const CLUB = librarySet('fours-freestyle-club');
@@ -191,7 +192,7 @@ test('a full storage quota is reported and play goes on', async () => {
 
 test('a backup file is exported and imported; a bad one changes nothing and says why', async () => {
   const first = await started();
-  await first.page.click('#open-settings');
+  await openSettings(first.page);
   const [download] = await Promise.all([
     first.page.waitForEvent('download'),
     first.page.click('#export-backup'),
@@ -201,7 +202,7 @@ test('a backup file is exported and imported; a bad one changes nothing and says
   const backup = JSON.parse(text);
   assert.equal(backup.format, 'fivefold-backup');
   assert.equal(backup.version, 1);
-  assert.deepEqual(Object.keys(backup.data).sort(), ['drill', 'sets', 'settings', 'study', 'tonight']);
+  assert.deepEqual(Object.keys(backup.data).sort(), ['drill', 'practice', 'sets', 'settings', 'study', 'tonight']);
   await first.context.close();
 
   const { page, context, errors } = await open(env.browser, env.server.url);
@@ -213,7 +214,7 @@ test('a backup file is exported and imported; a bad one changes nothing and says
     return accept ? d.accept() : d.dismiss();
   });
   const importFile = async (name, body) => {
-    await page.click('#open-settings');
+    await openSettings(page);
     await page.setInputFiles('#import-backup', { name, mimeType: 'application/json', buffer: Buffer.from(body) });
   };
   // Bad files: not JSON, a changed one, an invalid part. Each is refused and nothing changes.

@@ -271,3 +271,50 @@ export async function artefact(page, name, options = {}) {
   mkdirSync(ARTEFACTS, { recursive: true });
   await page.screenshot({ path: join(ARTEFACTS, `${name}.png`), ...options });
 }
+
+/** Opens the settings: from the rail on a wide screen, through More on a phone. */
+export async function openSettings(page) {
+  if (await page.isVisible('#open-settings')) await page.click('#open-settings');
+  else {
+    await page.click('#nav-more');
+    await page.click('#more-settings');
+  }
+  await page.waitForSelector('#settings[open]');
+}
+
+/**
+ * An empty point that makes a four for the side to move of a puzzle (four of its stones and
+ * that point in a window of five, the fifth point empty, no opponent stone) and is not one
+ * of its correct first moves: a wrong move whose refutation is the forced block.
+ */
+export function wrongFour(puzzle) {
+  const mine = new Set(puzzle.to_move === 'black' ? puzzle.black : puzzle.white);
+  const theirs = new Set(puzzle.to_move === 'black' ? puzzle.white : puzzle.black);
+  const answers = new Set(puzzle.solution.first_moves);
+  const name = (c, r) => `${String.fromCharCode(97 + c)}${r + 1}`;
+  const n = puzzle.size;
+  for (let row = 0; row < n; row++) {
+    for (let col = 0; col < n; col++) {
+      const p = name(col, row);
+      if (mine.has(p) || theirs.has(p) || answers.has(p)) continue;
+      for (const [dx, dy] of [[1, 0], [0, 1], [1, 1], [1, -1]]) {
+        for (let start = -4; start <= 0; start++) {
+          let own = 0;
+          let empty = 0;
+          let ok = true;
+          for (let k = start; k < start + 5; k++) {
+            const c = col + k * dx;
+            const r = row + k * dy;
+            if (c < 0 || r < 0 || c >= n || r >= n) { ok = false; break; }
+            const q = name(c, r);
+            if (k === 0 || mine.has(q)) own++;
+            else if (theirs.has(q)) { ok = false; break; }
+            else empty++;
+          }
+          if (ok && own === 4 && empty === 1) return p;
+        }
+      }
+    }
+  }
+  throw new Error('no four that is not an answer');
+}

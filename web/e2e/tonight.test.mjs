@@ -19,7 +19,9 @@ import {
   solve,
   tap,
   useBrowser,
+  wrongFour,
   wrongMove,
+  openSettings,
 } from './support.mjs';
 
 const CLUB = librarySet('fours-freestyle-club');
@@ -95,7 +97,7 @@ test('a wrong first move is refuted slowly, with its reason', async () => {
   await page.click('#tonight-marks li:nth-child(2) button');
   await page.waitForFunction(() => document.getElementById('tonight-count').textContent.startsWith('Puzzle 2 '));
   const p = CLUB.puzzles[1];
-  const wrong = wrongMove(p);
+  const wrong = wrongFour(p);
   // Record how the number of moves still to show falls, and when.
   await page.evaluate(() => {
     window.pendingTrace = [];
@@ -208,7 +210,7 @@ test('on a phone (390x844, touch) a first tap shows a ghost stone and a second t
   assert.equal(s.outcome, 'clean');
 
   // With the setting off, one tap plays.
-  await page.click('#open-settings');
+  await openSettings(page);
   await page.uncheck('#opt-confirm');
   await page.click('#close-settings');
   await page.click('#tonight-play [data-act="next"]');

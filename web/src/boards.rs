@@ -249,6 +249,16 @@ impl PuzzleBoardHandle {
         self.status()
     }
 
+    /// After a failure: the solution, to be revealed move by move with `reveal`; returns the
+    /// number of moves (0 when there is no failure to explain).
+    #[wasm_bindgen(js_name = showSolution)]
+    pub fn show_solution(&mut self) -> Result<u32, JsValue> {
+        let n = self.board.as_mut().map_or(0, |b| b.show_solution());
+        self.surface.still();
+        self.redraw()?;
+        Ok(n as u32)
+    }
+
     /// The next hint: `{step, say}` (step 1 the theme and length, 2 the area, 3 the move).
     pub fn hint(&mut self) -> Result<JsValue, JsValue> {
         let Some(b) = self.board.as_mut() else {

@@ -16,6 +16,7 @@ pub mod boards;
 pub mod drill;
 pub mod layout;
 pub mod library;
+pub mod practice;
 pub mod render;
 mod surface;
 

@@ -69,6 +69,8 @@ pub struct PuzzleStatus {
     pub attempt: Attempt,
     /// What saved progress keeps.
     pub record: Record,
+    /// Whether the solution is being shown (after a failure): moves are refused until a retry.
+    pub solution: bool,
 }
 
 /// A puzzle being played.
@@ -87,6 +89,9 @@ pub struct PuzzleBoard {
     options: Settings,
     ghost: Option<Point>,
     cursor: Cursor,
+    /// The solution being shown after a failure, move by move (see
+    /// [`PuzzleBoard::show_solution`]); `revealed` counts into it while it is shown.
+    solution: Option<Vec<(Point, Stone)>>,
 }
 
 impl PuzzleBoard {
@@ -107,6 +112,7 @@ impl PuzzleBoard {
             options: Settings::default(),
             ghost: None,
             cursor: Cursor::default(),
+            solution: None,
         }
     }
 
@@ -188,6 +194,9 @@ impl PuzzleBoard {
     }
 
     fn play_point(&mut self, solver: &mut Solver, p: Point) -> Answer {
+        if self.solution.is_some() {
+            return Answer::saying(AnswerKind::Finished, words::SOLUTION_SHOWN);
+        }
         // Everything the app already played is on show once the player moves again.
         self.revealed = self.session.history().len();
         let me = self.session.to_move();
@@ -246,25 +255,77 @@ impl PuzzleBoard {
     }
 
     fn pending(&self) -> usize {
-        self.session.history().len().saturating_sub(self.revealed)
+        self.moves().len().saturating_sub(self.revealed)
     }
 
-    /// Shows the next move the app has played (a reply, or the next move of a refutation);
-    /// `None` when nothing is left to show.
+    /// The moves after the puzzle's start that are on the board: the session's, or the
+    /// solution's while it is shown.
+    fn moves(&self) -> &[(Point, Stone)] {
+        match &self.solution {
+            Some(line) => line,
+            None => self.session.history(),
+        }
+    }
+
+    /// Shows the next move the app has played (a reply, the next move of a refutation or of
+    /// the solution); `None` when nothing is left to show.
     pub fn reveal(&mut self) -> Option<Revealed> {
-        let history = self.session.history();
-        let &(point, colour) = history.get(self.revealed)?;
+        let moves = self.moves();
+        let &(point, colour) = moves.get(self.revealed)?;
+        let total = moves.len();
+        let say = match self.solution {
+            Some(_) => {
+                words::solution_step(self.revealed + 1, colour, point, self.revealed + 1 == total)
+            }
+            None => words::played(colour, point),
+        };
         self.revealed += 1;
         Some(Revealed {
             point,
             colour,
-            say: words::played(colour, point),
-            more: self.revealed < history.len(),
+            say,
+            more: self.revealed < total,
         })
+    }
+
+    /// After a failure: back to the start, with the puzzle's solution to be revealed move by
+    /// move (as a refutation is). The record keeps the failure; moves are refused until a
+    /// retry. Returns the number of moves to reveal (0 when there is no failure to explain).
+    pub fn show_solution(&mut self) -> usize {
+        if self.session.state() != State::Failed {
+            return 0;
+        }
+        let p = self.session.puzzle();
+        let me = p.to_move;
+        let line: Vec<(Point, Stone)> = match p.goal() {
+            crate::puzzle::Goal::Win => p
+                .line
+                .iter()
+                .enumerate()
+                .map(|(i, &q)| (q, if i % 2 == 0 { me } else { me.opponent() }))
+                .collect(),
+            // A defence puzzle's line is the opponent's threat; its solution is the defence.
+            crate::puzzle::Goal::Defend => p.first_moves.iter().take(1).map(|&q| (q, me)).collect(),
+        };
+        if line.is_empty() {
+            return 0;
+        }
+        self.session.retry();
+        self.refuted = None;
+        self.clear_marks();
+        self.revealed = 0;
+        self.solution = Some(line);
+        self.settle();
+        self.pending()
     }
 
     /// Takes back the player's last turn.
     pub fn undo(&mut self) {
+        if self.solution.take().is_some() {
+            self.revealed = 0;
+            self.settle();
+            return;
+        }
         self.session.undo();
         self.revealed = self.session.history().len();
         self.refuted = None;
@@ -274,6 +335,7 @@ impl PuzzleBoard {
 
     /// Back to the puzzle's start; the hints already seen stay counted.
     pub fn retry(&mut self) {
+        self.solution = None;
         self.session.retry();
         self.revealed = 0;
         self.refuted = None;
@@ -290,7 +352,12 @@ impl PuzzleBoard {
     /// The next hint: 1 the theme and length, 2 the area of the key move, 3 the move.
     pub fn hint(&mut self, solver: &mut Solver) -> HintAnswer {
         let step = (self.hints + 1).min(3);
-        let Some(h) = self.session.hint(solver, step) else {
+        let h = if self.solution.is_some() {
+            None
+        } else {
+            self.session.hint(solver, step)
+        };
+        let Some(h) = h else {
             return HintAnswer {
                 step: 0,
                 say: words::NO_HINT.into(),
@@ -324,7 +391,7 @@ impl PuzzleBoard {
 
     /// Where things stand.
     pub fn status(&self) -> PuzzleStatus {
-        let h = self.session.history();
+        let h = self.moves();
         PuzzleStatus {
             size: self.size(),
             rule: self.session.board().rule(),
@@ -343,6 +410,7 @@ impl PuzzleBoard {
                 hints: self.hints,
                 attempt: self.attempt,
             },
+            solution: self.solution.is_some(),
         }
     }
 
@@ -369,7 +437,7 @@ impl PuzzleBoard {
             .map(|&p| (p, Stone::Black))
             .chain(puzzle.white.iter().map(|&p| (p, Stone::White)))
             .collect();
-        let h = self.session.history();
+        let h = self.moves();
         v.extend(h[..self.revealed.min(h.len())].iter().copied());
         v
     }
@@ -381,7 +449,7 @@ impl PuzzleBoard {
 
     /// What to draw.
     pub fn view(&self) -> View {
-        let h = self.session.history();
+        let h = self.moves();
         let shown = &h[..self.revealed.min(h.len())];
         let state = self.session.state();
         let b = self.session.board();
@@ -518,6 +586,36 @@ mod tests {
         // The failure stays on the record; a solve after it counts as helped.
         assert_eq!(b.status().record.attempt, Attempt::Failed);
         assert_eq!(b.status().attempt, Attempt::Trying);
+    }
+
+    #[test]
+    fn after_a_failure_the_solution_is_shown_slowly_and_the_failure_stays() {
+        let p = fixture().into_iter().next().unwrap();
+        let line = p.line.clone();
+        let mut b = PuzzleBoard::new(p, true);
+        let mut s = solver();
+        assert_eq!(b.show_solution(), 0, "nothing to show before a failure");
+        b.play(&mut s, Point::new(0, 0));
+        while b.reveal().is_some() {}
+        assert_eq!(b.show_solution(), line.len());
+        assert!(b.status().moves.is_empty(), "revealed one by one");
+        let mut said = Vec::new();
+        while let Some(r) = b.reveal() {
+            said.push(r.say);
+        }
+        assert_eq!(b.status().moves, line);
+        assert_eq!(said[0], format!("1. Black {}.", line[0]));
+        assert!(said.last().unwrap().ends_with("the end of the solution."));
+        assert_eq!(b.play(&mut s, line[0]).kind, AnswerKind::Finished);
+        assert_eq!(
+            b.status().record.attempt,
+            Attempt::Failed,
+            "the record keeps it"
+        );
+        // A retry takes the solution away; solving now counts as helped.
+        b.retry();
+        assert!(b.status().moves.is_empty());
+        assert_eq!(b.play(&mut s, line[0]).kind, AnswerKind::Accepted);
     }
 
     #[test]

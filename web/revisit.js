@@ -1,0 +1,133 @@
+// Revisit: the puzzles the player missed (failed, or solved with help), back on a spaced
+// schedule kept by the engine (FSRS, engine::schedule). The screen lists what is due today,
+// plays it puzzle by puzzle, and after each says when it comes back.
+
+import { BoardView } from './board.js';
+import { dayWords } from './pkg/fivefold_web.js';
+import { today } from './practice.js';
+import { $, announce, el, fill } from './ui.js';
+
+export class Revisit {
+  constructor(app) {
+    this.app = app;
+    this.queue = [];
+    this.index = 0;
+    this.board = new BoardView($('revisit-board'), {
+      log: $('revisit-log'),
+      message: $('revisit-message'),
+      onChange: (s) => this.renderPlay(s),
+      onFinish: (s, millis) => this.finished(s, millis),
+    });
+    for (const b of $('revisit-play').querySelectorAll('[data-act]')) {
+      b.addEventListener('click', () => this.act(b.dataset.act));
+    }
+    $('revisit-start').addEventListener('click', () => this.start());
+    $('revisit-back').addEventListener('click', () => this.showList());
+    app.practice.onChange(() => {
+      if (!$('revisit-list-box').hidden) this.renderList();
+    });
+  }
+
+  applySettings(s) {
+    this.board.setOptions(s);
+  }
+
+  /** The Revisit screen is shown. */
+  activate() {
+    if ($('revisit-play').hidden) this.renderList();
+  }
+
+  showList() {
+    this.board.cancelPacing();
+    $('revisit-play').hidden = true;
+    $('revisit-list-box').hidden = false;
+    this.renderList();
+  }
+
+  renderList() {
+    const practice = this.app.practice.handle;
+    const day = today();
+    const c = practice.counts(day);
+    $('revisit-lead').textContent = c.say;
+    const due = practice.due(day);
+    $('revisit-start').disabled = due.length === 0;
+    $('revisit').dataset.due = String(due.length);
+    fill($('revisit-list'), due.map((item) => {
+      const p = JSON.parse(item.puzzle);
+      const from = item.origin === 'tonight' ? `Tonight: ${item.title}` : item.origin === 'games' ? 'My games' : 'Drill';
+      const late = item.due < day ? `due since ${dayWords(item.due)}` : 'due today';
+      return el('li', { class: 'card compact' },
+        el('div', {},
+          el('h3', { class: 'set-title', text: from }),
+          el('p', { class: 'meta', text: `${p.rule} · ${item.tries} ${item.tries === 1 ? 'try' : 'tries'} so far · ${late}` })));
+    }));
+  }
+
+  start() {
+    this.queue = this.app.practice.handle.due(today());
+    this.index = 0;
+    if (!this.queue.length) return this.renderList();
+    $('revisit-list-box').hidden = true;
+    $('revisit-play').hidden = false;
+    this.load();
+  }
+
+  load() {
+    const item = this.queue[this.index];
+    if (!item) return this.showList();
+    $('revisit-next-time').textContent = '';
+    $('revisit-source').textContent = item.origin === 'tonight' ? `From Tonight: ${item.title}` :
+      item.origin === 'games' ? 'From My games' : 'From Drill';
+    $('revisit-count').textContent = `Puzzle ${this.index + 1} of ${this.queue.length} due`;
+    // Puzzles of the built-in library, Drill and My games were proved here; a set from a
+    // file or a link keeps its key unproved until Tonight has checked it.
+    this.board.load(item.puzzle, { trusted: item.origin !== 'tonight' });
+    this.renderPlay(this.board.status());
+  }
+
+  finished(s, millis) {
+    const item = this.queue[this.index];
+    if (!item) return;
+    const p = JSON.parse(item.puzzle);
+    const out = this.app.practice.finished({
+      origin: 'revisit',
+      title: item.title,
+      puzzle: item.puzzle,
+      attempt: s.attempt,
+      hints: s.record.hints,
+      wrong: s.record.wrong,
+      millis,
+      rating: this.app.drill.ratingFor(p.rule),
+    });
+    if (out?.say) {
+      $('revisit-next-time').textContent = out.say;
+      announce(out.say);
+    }
+  }
+
+  renderPlay(s) {
+    const root = $('revisit-play');
+    const over = s.state !== 'playing';
+    root.querySelector('[data-act="hint"]').disabled = over || s.pending > 0;
+    root.querySelector('[data-act="hint"]').hidden = s.state === 'failed';
+    root.querySelector('[data-act="solution"]').hidden = s.state !== 'failed';
+    root.querySelector('[data-act="solution"]').disabled = s.pending > 0;
+    root.querySelector('[data-act="undo"]').disabled = s.record.played.length === 0 && !s.solution;
+    root.querySelector('[data-act="retry"]').disabled = s.moves.length === 0 && s.record.played.length === 0;
+    const next = root.querySelector('[data-act="next"]');
+    next.textContent = this.index + 1 >= this.queue.length ? 'Done' : 'Next';
+    next.classList.toggle('ready', over && s.pending === 0);
+  }
+
+  act(what) {
+    if (what === 'hint') this.board.hint();
+    else if (what === 'solution') this.board.showSolution();
+    else if (what === 'undo') this.board.undo();
+    else if (what === 'retry') this.board.retry();
+    else if (what === 'next') {
+      this.index += 1;
+      if (this.index >= this.queue.length) this.showList();
+      else this.load();
+    }
+  }
+}
