@@ -118,7 +118,7 @@ export class Drill {
   renderFilters() {
     $('drill-rule').value = this.data.rule;
     fill($('drill-theme'), this.themes.filter((t) => t.rules.includes(this.data.rule)).map((t) =>
-      el('option', { value: t.name, text: t.words[0].toUpperCase() + t.words.slice(1) })));
+      el('option', { value: t.name, text: t.label })));
     $('drill-theme').value = this.data.theme;
   }
 
@@ -165,6 +165,11 @@ export class Drill {
 
   waiting(on, text) {
     $('drill-wait').hidden = !on;
+    if (on) {
+      // Nothing to play while a puzzle is being made: no goal, no actions.
+      $('drill-message').textContent = '';
+      for (const b of $('drill').querySelectorAll('[data-act]')) b.disabled = true;
+    }
     $('drill').dataset.waiting = on ? 'true' : 'false';
     if (text) $('drill-wait-text').textContent = text;
     else if (on) $('drill-wait-text').textContent = 'Making a puzzle at your level…';
@@ -331,13 +336,15 @@ export class Drill {
     const root = $('drill');
     const over = s.state !== 'playing';
     const none = !this.data.current;
-    root.querySelector('[data-act="hint"]').disabled = none || over || s.pending > 0;
+    root.querySelector('[data-act="hint"]').disabled = none || over || s.pending > 0 || s.record.hints >= 3;
     root.querySelector('[data-act="hint"]').hidden = s.state === 'failed';
     root.querySelector('[data-act="solution"]').hidden = s.state !== 'failed';
     root.querySelector('[data-act="solution"]').disabled = s.pending > 0;
     root.querySelector('[data-act="undo"]').disabled = none || s.record.played.length === 0;
     root.querySelector('[data-act="retry"]').disabled = none || s.moves.length === 0;
     const next = root.querySelector('[data-act="next"]');
+    next.disabled = none;
+    root.querySelector('[data-act="solution"]').disabled ||= none;
     next.classList.toggle('ready', over && s.pending === 0);
     // Leaving an unfinished puzzle is a skip, and says what it costs (engine::rating::drill).
     if (none || over) {
@@ -355,6 +362,10 @@ export class Drill {
     if (!this.data.current) return;
     if (what === 'hint') this.board.hint();
     else if (what === 'solution') this.board.showSolution();
+    else if (what === 'study') {
+      const pos = this.board.trainer.position();
+      if (pos) this.app.study.openPosition(pos);
+    }
     else if (what === 'undo') this.board.undo();
     else if (what === 'retry') this.board.retry();
   }

@@ -108,7 +108,7 @@ export class Revisit {
   renderPlay(s) {
     const root = $('revisit-play');
     const over = s.state !== 'playing';
-    root.querySelector('[data-act="hint"]').disabled = over || s.pending > 0;
+    root.querySelector('[data-act="hint"]').disabled = over || s.pending > 0 || s.record.hints >= 3;
     root.querySelector('[data-act="hint"]').hidden = s.state === 'failed';
     root.querySelector('[data-act="solution"]').hidden = s.state !== 'failed';
     root.querySelector('[data-act="solution"]').disabled = s.pending > 0;
@@ -122,6 +122,10 @@ export class Revisit {
   act(what) {
     if (what === 'hint') this.board.hint();
     else if (what === 'solution') this.board.showSolution();
+    else if (what === 'study') {
+      const pos = this.board.trainer.position();
+      if (pos) this.app.study.openPosition(pos);
+    }
     else if (what === 'undo') this.board.undo();
     else if (what === 'retry') this.board.retry();
     else if (what === 'next') {

@@ -111,11 +111,32 @@ export class Study {
     Object.assign(this.data, { size: s.size, rule: s.rule, black: s.black, white: s.white, toMove: s.toMove, tool: s.tool });
     for (const r of document.querySelectorAll('#study-side input')) r.checked = r.value === s.toMove;
     if (why !== 'step') {
-      // A search under way answers for the position it was asked about, not this one.
+      // A search under way answers for the position it was asked about, not this one, and
+      // an answer on show belongs to the position before.
       this.edits = (this.edits ?? 0) + 1;
       this.hideLine();
+      $('study-answer').replaceChildren();
+      delete $('study-answer').dataset.kind;
     }
     this.save();
+  }
+
+  /** Opens a position (`{size, rule, black, white, toMove}`, as a puzzle board gives it) on
+   * the Study board; the position there before can be brought back with Undo. */
+  openPosition(pos) {
+    this.cancel(true);
+    try {
+      this.t.load(pos.size, pos.rule, pos.black, pos.white, pos.toMove);
+    } catch (e) {
+      this.board.say([`The position could not be opened: ${e}.`], 'refused');
+      return;
+    }
+    this.t.setTool('play');
+    this.board.clearLog();
+    this.board.say(['The puzzle\'s position is on the Study board: ask for a VCF, a VCT or the defences.'], 'info');
+    this.board.changed('open');
+    this.renderControls();
+    this.app.go('study');
   }
 
   setSize(size) {
@@ -151,6 +172,10 @@ export class Study {
 
   paste() {
     const text = $('study-moves').value;
+    if (!text.trim()) {
+      this.board.say(['Nothing to set up: paste a move list first (black first, like h8 h9 i8).'], 'refused');
+      return;
+    }
     let n;
     try {
       n = this.t.paste(text);

@@ -243,7 +243,16 @@ export class Tonight {
     const json = parseSet(text);
     const key = setKey(json);
     const have = this.set(key);
-    if (have) return { key, added: false, title: have.title };
+    if (have) {
+      // The same puzzles under a new title: the title the sender gives now is the one shown.
+      const title = JSON.parse(json).title;
+      if (title !== have.title) {
+        have.title = title;
+        this.saveSets();
+        return { key, added: false, title, renamed: true };
+      }
+      return { key, added: false, title: have.title };
+    }
     const title = JSON.parse(json).title;
     this.sets.list.push({ key, title, json, source, added: new Date().toISOString() });
     this.saveSets();
@@ -481,7 +490,7 @@ export class Tonight {
     marks.children[prog.index]?.scrollIntoView?.({ block: 'nearest', inline: 'nearest' });
     const play = $('tonight-play');
     const over = s.state !== 'playing';
-    play.querySelector('[data-act="hint"]').disabled = over || s.pending > 0;
+    play.querySelector('[data-act="hint"]').disabled = over || s.pending > 0 || s.record.hints >= 3;
     play.querySelector('[data-act="hint"]').hidden = s.state === 'failed';
     play.querySelector('[data-act="solution"]').hidden = s.state !== 'failed';
     play.querySelector('[data-act="solution"]').disabled = s.pending > 0;
@@ -498,6 +507,10 @@ export class Tonight {
     const prog = this.progressOf(key);
     if (what === 'hint') this.board.hint();
     else if (what === 'solution') this.board.showSolution();
+    else if (what === 'study') {
+      const pos = this.board.trainer.position();
+      if (pos) this.app.study.openPosition(pos);
+    }
     else if (what === 'undo') this.board.undo();
     else if (what === 'retry') this.board.retry();
     else if (what === 'next') {

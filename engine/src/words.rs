@@ -35,6 +35,18 @@ pub const fn theme(t: Theme) -> &'static str {
     }
 }
 
+/// The theme as a label for a menu, without an article: "Win with fours".
+pub const fn theme_label(t: Theme) -> &'static str {
+    match t {
+        Theme::FourThree => "Four-three",
+        Theme::Vcf => "Win with fours",
+        Theme::Vct => "Win with threes and fours",
+        Theme::Defend => "Defence",
+        Theme::ForbiddenTrap => "Forbidden-point trap",
+        Theme::ForbiddenWin => "Win past forbidden points",
+    }
+}
+
 /// How a try went, for marks and summaries: "not tried", "in progress", "solved", "solved
 /// with help", "failed".
 pub const fn attempt(a: Attempt) -> &'static str {
@@ -471,17 +483,21 @@ pub fn study(s: &Study) -> Vec<String> {
             undecided,
             ..
         } => {
-            let how = if s.search == StudySearch::Vcf {
-                "with fours"
+            // Both sides' moves are counted: the list shows them all.
+            let total = line.len();
+            let fours = total.div_ceil(2).saturating_sub(1);
+            if s.search == StudySearch::Vcf {
+                out.push(format!(
+                    "{me} wins with fours: {} and the five, {total} moves in all: {}.",
+                    count(fours as u16, "four", "fours"),
+                    list(line)
+                ));
             } else {
-                "with threes and fours"
-            };
-            let moves = line.len().div_ceil(2);
-            out.push(format!(
-                "{me} wins {how} in {moves} move{}: {}.",
-                if moves == 1 { "" } else { "s" },
-                list(line)
-            ));
+                out.push(format!(
+                    "{me} wins with threes and fours, {total} moves in all: {}.",
+                    list(line)
+                ));
+            }
             let others: Vec<Point> = first_moves
                 .iter()
                 .copied()
@@ -592,7 +608,7 @@ mod tests {
         assert_eq!(
             w,
             vec![
-                "Black wins with fours in 3 moves: d8 d9 f10 h10 g11.",
+                "Black wins with fours: 2 fours and the five, 5 moves in all: d8 d9 f10 h10 g11.",
                 "Other first moves that win: f10."
             ]
         );

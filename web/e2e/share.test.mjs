@@ -77,7 +77,7 @@ test('a damaged or truncated link is refused with a message and loads nothing', 
     await ready(page);
     const b = await banners(page);
     assert.equal(b.length, 1);
-    assert.match(b[0], /^This link cannot be opened: this share code is damaged or cut short \(its checksum does not match\); nothing was loaded$/);
+    assert.match(b[0], /^This link cannot be opened: the set in this link is damaged or cut short, so nothing was loaded; ask for the link again, or for the set file$/);
     assert.equal(await page.getAttribute('#banners .banner', 'role'), 'alert');
     assert.equal(await setCount(page), 0, 'nothing was loaded');
     assert.ok(await page.isVisible('#tonight-list'));

@@ -236,7 +236,8 @@ test('keyboard play: arrow keys move a cursor, Enter places, and every move is s
   await page.keyboard.press('Enter');
   await settled(page, BOARD, 2);
   assert.match(await page.textContent('#live'), new RegExp(`Black ${p.solution.line[0]}: correct\\.`));
-  assert.match(await page.textContent('#live'), new RegExp(`White ${p.solution.line[1]}\\.`));
+  // The reply is said once, with what it does ("White blocks at d9.").
+  assert.match(await page.textContent('#live'), new RegExp(`White (blocks|answers|defends) at ${p.solution.line[1]}\\b`));
   const label = await page.getAttribute(`#${BOARD}`, 'aria-label');
   assert.match(label, /^Black to play and win with fours\. Black stones \(\d+\): /);
   assert.match(label, new RegExp(`Last move: White ${p.solution.line[1]}\\.$`));

@@ -395,6 +395,8 @@ pub fn solve_position(
 struct ThemeJs {
     name: &'static str,
     words: &'static str,
+    /// The menu label ("Win with fours").
+    label: &'static str,
     goal: &'static str,
     rules: Vec<&'static str>,
 }
@@ -408,6 +410,7 @@ pub fn themes() -> String {
         .map(|&t| ThemeJs {
             name: t.name(),
             words: words::theme(t),
+            label: words::theme_label(t),
             goal: t.goal().name(),
             rules: [Rule::Freestyle, Rule::Standard, Rule::Renju]
                 .into_iter()

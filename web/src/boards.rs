@@ -304,6 +304,19 @@ impl PuzzleBoardHandle {
         }
     }
 
+    /// The position on show, for the Study board: `{size, rule, black, white, toMove}`, or
+    /// null before a puzzle is loaded.
+    pub fn position(&self) -> Result<JsValue, JsValue> {
+        let Some(b) = &self.board else {
+            return Ok(JsValue::NULL);
+        };
+        let (black, white, to_move) = b.position();
+        to_js(&serde_json::json!({
+            "size": b.size(), "rule": b.puzzle().rule, "black": black, "white": white,
+            "toMove": to_move,
+        }))
+    }
+
     /// The stone on show on a point: "black", "white" or "".
     #[wasm_bindgen(js_name = stoneAt)]
     pub fn stone_at(&self, name: &str) -> String {
@@ -475,18 +488,18 @@ impl StudyBoardHandle {
     }
 
     /// A tap or click at viewport coordinates: an edit with the current tool.
-    pub fn tap(&mut self, client_x: f64, client_y: f64, _touch: bool) -> Result<JsValue, JsValue> {
+    pub fn tap(&mut self, client_x: f64, client_y: f64, touch: bool) -> Result<JsValue, JsValue> {
         let Some(p) = self.surface.hit(client_x, client_y) else {
             return nothing();
         };
-        let a = self.board.touch(p);
+        let a = self.board.touch(p, touch);
         self.answer(a)
     }
 
     /// Edits the point named `name` (like `h8`) with the current tool.
     pub fn play(&mut self, name: &str) -> Result<JsValue, JsValue> {
         let a = match Point::from_str(name.trim()) {
-            Ok(p) => self.board.touch(p),
+            Ok(p) => self.board.touch(p, false),
             Err(e) => refused(e),
         };
         self.answer(a)

@@ -642,7 +642,7 @@ fn sets_share_codes_and_result_codes_cross_the_boundary() {
     assert_eq!(back["title"], want["title"]);
     assert_eq!(back["puzzles"], want["puzzles"]);
     let cut = &code[..code.len() - 5];
-    assert!(err_text(api::share_decode(cut)).contains("damaged or cut short"));
+    assert!(err_text(api::share_decode(cut)).contains("ask for the link again"));
     assert_eq!(api::set_key(&normal).unwrap().len(), 8);
     assert_eq!(
         api::set_key(&normal).unwrap(),

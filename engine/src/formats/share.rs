@@ -132,8 +132,8 @@ impl fmt::Display for ShareError {
                  can hold (at most {MAX_CODE_CHARS}); nothing was loaded"
             ),
             ShareError::Damaged => f.write_str(
-                "this share code is damaged or cut short (its checksum does not match); \
-                 nothing was loaded",
+                "the set in this link is damaged or cut short, so nothing was loaded; \
+                 ask for the link again, or for the set file",
             ),
             ShareError::NewerVersion(v) => write!(
                 f,

@@ -89,6 +89,9 @@ pub struct PuzzleBoard {
     options: Settings,
     ghost: Option<Point>,
     cursor: Cursor,
+    /// The sentence that describes the app's reply, said when the reply at this index of the
+    /// history is revealed ("White blocks at d9.").
+    reply_note: Option<(usize, String)>,
     /// The solution being shown after a failure, move by move (see
     /// [`PuzzleBoard::show_solution`]); `revealed` counts into it while it is shown.
     solution: Option<Vec<(Point, Stone)>>,
@@ -112,6 +115,7 @@ impl PuzzleBoard {
             options: Settings::default(),
             ghost: None,
             cursor: Cursor::default(),
+            reply_note: None,
             solution: None,
         }
     }
@@ -225,7 +229,11 @@ impl PuzzleBoard {
             Grade::Accepted { reply, note } => {
                 a.kind = AnswerKind::Accepted;
                 a.say.push(words::correct(me, p));
-                a.say.push(words::reply(note, reply, me));
+                // The reply is described when it is shown, once.
+                self.reply_note = Some((
+                    self.session.history().len() - 1,
+                    words::reply(note, reply, me),
+                ));
                 self.revealed += 1;
             }
             Grade::Wrong { reason, .. } => {
@@ -273,11 +281,12 @@ impl PuzzleBoard {
         let moves = self.moves();
         let &(point, colour) = moves.get(self.revealed)?;
         let total = moves.len();
-        let say = match self.solution {
-            Some(_) => {
+        let say = match (&self.solution, &self.reply_note) {
+            (Some(_), _) => {
                 words::solution_step(self.revealed + 1, colour, point, self.revealed + 1 == total)
             }
-            None => words::played(colour, point),
+            (None, Some((at, note))) if *at == self.revealed => note.clone(),
+            (None, _) => words::played(colour, point),
         };
         self.revealed += 1;
         Some(Revealed {
@@ -440,6 +449,23 @@ impl PuzzleBoard {
         let h = self.moves();
         v.extend(h[..self.revealed.min(h.len())].iter().copied());
         v
+    }
+
+    /// The position on show, as the study board loads one: its stones (black, white, each row
+    /// by row from a1) and the side to move (the one after the last move shown).
+    pub fn position(&self) -> (Vec<Point>, Vec<Point>, Stone) {
+        let stones = self.shown_stones();
+        let of = |c: Stone| {
+            let mut v: Vec<Point> = stones.iter().filter(|s| s.1 == c).map(|s| s.0).collect();
+            v.sort_by_key(|p| (p.y, p.x));
+            v
+        };
+        let h = self.moves();
+        let to_move = match h[..self.revealed.min(h.len())].last() {
+            Some(&(_, c)) => c.opponent(),
+            None => self.session.puzzle().to_move,
+        };
+        (of(Stone::Black), of(Stone::White), to_move)
     }
 
     /// The stone on show on `p`, if any.

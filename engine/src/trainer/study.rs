@@ -95,6 +95,11 @@ pub struct StudyBoard {
     line_shown: usize,
     options: Settings,
     cursor: Cursor,
+    /// A stone previewed by a first tap (the play tool on a touch screen).
+    ghost: Option<Point>,
+    /// The position before the last paste or clear, which undo brings back once the edits
+    /// since are all undone.
+    previous: Option<Box<StudyBoard>>,
 }
 
 impl StudyBoard {
@@ -128,7 +133,17 @@ impl StudyBoard {
             line_shown: 0,
             options: Settings::default(),
             cursor: Cursor::default(),
+            ghost: None,
+            previous: None,
         }
+    }
+
+    /// Keeps the position as it is, for undo to bring back after a paste or a clear.
+    fn keep_previous(&mut self) {
+        let mut before = self.clone();
+        before.previous = None;
+        before.ghost = None;
+        self.previous = Some(Box::new(before));
     }
 
     /// The position as it stands.
@@ -172,6 +187,7 @@ impl StudyBoard {
     /// Returns the number of moves set up.
     pub fn paste(&mut self, text: &str) -> Result<usize, PositionError> {
         let game = notation::play_moves(text, self.board.size(), self.board.rule())?;
+        self.keep_previous();
         self.board = game.board().clone();
         self.to_move = game.to_move();
         self.edits = game
@@ -192,16 +208,29 @@ impl StudyBoard {
     pub fn clear(&mut self) {
         let empty = Board::new(self.board.size(), self.board.rule())
             .expect("the size of an existing board is valid");
+        self.keep_previous();
+        let previous = self.previous.take();
         *self = StudyBoard {
             options: self.options,
             tool: self.tool,
+            previous,
             ..StudyBoard::on(empty, Stone::Black)
         };
     }
 
-    /// A tap on `p`: an edit with the current tool.
-    pub fn touch(&mut self, p: Point) -> Answer {
+    /// A tap on `p`: an edit with the current tool. With `touch` and the confirm option on,
+    /// a move of the play tool takes two taps: the first previews the stone.
+    pub fn touch(&mut self, p: Point, touch: bool) -> Answer {
         self.cursor = Cursor::default();
+        let free = self.board.contains(p) && self.board.get(p).is_none();
+        if self.options.confirm && touch && self.tool == Tool::Play && free && self.ghost != Some(p)
+        {
+            self.ghost = Some(p);
+            let mut a = Answer::saying(AnswerKind::Ghost, words::selected(p));
+            a.point = Some(p);
+            return a;
+        }
+        self.ghost = None;
         self.edit(p)
     }
 
@@ -274,8 +303,19 @@ impl StudyBoard {
         self.line_shown = 0;
     }
 
-    /// Takes back the last edit (hides a line on show).
+    /// Takes back the last edit (hides a line on show); once no edit is left, brings back the
+    /// position before the last paste or clear.
     pub fn undo(&mut self) {
+        self.ghost = None;
+        if self.edits.is_empty() {
+            if let Some(before) = self.previous.take() {
+                let options = self.options;
+                *self = *before;
+                self.options = options;
+            }
+            self.hide_line();
+            return;
+        }
         if let Some(e) = self.edits.pop() {
             if self.board.get(e.point).is_some() {
                 self.board.remove(e.point);
@@ -389,6 +429,7 @@ impl StudyBoard {
                 .map(|(i, &p)| (p, i as u16 + 1))
                 .collect(),
             winning: winning_stones(&self.board),
+            ghost: self.ghost.map(|g| (g, self.to_move)),
             ..Marks::default()
         };
         if self.options.forbidden
@@ -428,16 +469,16 @@ mod tests {
     fn the_play_tool_alternates_and_refuses_by_the_rules() {
         let mut b = StudyBoard::new(15, Rule::Renju).unwrap();
         for m in ["g8", "a1", "i8", "a2", "h9", "a3", "h10", "a4"] {
-            assert_eq!(b.touch(p(m)).kind, AnswerKind::Placed, "{m}");
+            assert_eq!(b.touch(p(m), false).kind, AnswerKind::Placed, "{m}");
         }
         // h8 would make black's double three.
-        let a = b.touch(p("h8"));
+        let a = b.touch(p("h8"), false);
         assert_eq!(a.kind, AnswerKind::Refused);
         assert_eq!(
             a.say,
             vec!["Not played: h8 is forbidden for Black: it makes a double three."]
         );
-        assert_eq!(b.touch(p("g8")).kind, AnswerKind::Refused, "taken");
+        assert_eq!(b.touch(p("g8"), false).kind, AnswerKind::Refused, "taken");
         assert_eq!(b.to_move(), Stone::Black);
         assert_eq!(b.status().moves.len(), 8);
     }
@@ -445,14 +486,18 @@ mod tests {
     #[test]
     fn every_edit_can_be_undone() {
         let mut b = StudyBoard::new(15, Rule::Freestyle).unwrap();
-        b.touch(p("h8"));
+        b.touch(p("h8"), false);
         b.set_tool(Tool::White);
-        b.touch(p("h8"));
+        b.touch(p("h8"), false);
         assert_eq!(b.stone_at(p("h8")), Some(Stone::White));
         b.set_tool(Tool::Erase);
-        b.touch(p("h8"));
+        b.touch(p("h8"), false);
         assert_eq!(b.stone_at(p("h8")), None);
-        assert_eq!(b.touch(p("h8")).kind, AnswerKind::None, "nothing to erase");
+        assert_eq!(
+            b.touch(p("h8"), false).kind,
+            AnswerKind::None,
+            "nothing to erase"
+        );
         b.undo();
         assert_eq!(b.stone_at(p("h8")), Some(Stone::White));
         b.undo();
@@ -464,6 +509,47 @@ mod tests {
         assert_eq!(b.to_move(), Stone::Black);
         b.undo();
         assert!(b.status().moves.is_empty());
+    }
+
+    #[test]
+    fn a_paste_or_a_clear_can_be_undone() {
+        let mut b = StudyBoard::new(15, Rule::Freestyle).unwrap();
+        b.touch(p("a1"), false);
+        b.paste("h8 h9").unwrap();
+        b.undo();
+        b.undo();
+        assert!(b.stone_at(p("h8")).is_none());
+        b.undo();
+        assert_eq!(
+            b.stone_at(p("a1")),
+            Some(Stone::Black),
+            "the position before the paste"
+        );
+        b.clear();
+        assert!(b.status().black.is_empty());
+        b.undo();
+        assert_eq!(
+            b.stone_at(p("a1")),
+            Some(Stone::Black),
+            "the position before the clear"
+        );
+    }
+
+    #[test]
+    fn on_a_touch_screen_a_move_takes_two_taps() {
+        let mut b = StudyBoard::new(15, Rule::Freestyle).unwrap();
+        b.set_options(Settings {
+            confirm: true,
+            ..Settings::default()
+        });
+        assert_eq!(b.touch(p("h8"), true).kind, AnswerKind::Ghost);
+        assert_eq!(b.stone_at(p("h8")), None);
+        assert_eq!(b.touch(p("h8"), true).kind, AnswerKind::Placed);
+        assert_eq!(
+            b.touch(p("h9"), false).kind,
+            AnswerKind::Placed,
+            "a click plays at once"
+        );
     }
 
     #[test]
@@ -494,7 +580,7 @@ mod tests {
         let (s, _) = b.step(-5);
         assert_eq!((s.shown, s.say.as_str()), (0, "The line is hidden."));
         b.step(3);
-        b.touch(p("o15"));
+        b.touch(p("o15"), false);
         assert_eq!(b.stone_at(p("k8")), None, "an edit hides the line");
         assert_eq!(b.step(1).0.total, 0);
     }
