@@ -5,6 +5,7 @@ use engine::board::threat;
 use engine::{Board, Point, Stone};
 use serde::Serialize;
 
+use crate::out;
 use crate::position::PositionArgs;
 
 #[derive(Args)]
@@ -88,15 +89,9 @@ pub fn run(args: &InspectArgs) -> Result<(), String> {
         four_points: per_colour(board, false),
     };
     if args.json {
-        println!(
-            "{}",
-            serde_json::to_string_pretty(&report).map_err(|e| e.to_string())?
-        );
-        return Ok(());
+        let json = serde_json::to_string_pretty(&report).map_err(|e| e.to_string())?;
+        return out::print(&format!("{json}\n"));
     }
-    print!("{}", engine::notation::diagram(board));
-    println!("rule: {}, {} to move", report.rule, report.to_move);
-    println!("winner: {}", report.winner.unwrap_or("none"));
     let list = |v: &[String]| {
         if v.is_empty() {
             "none".to_string()
@@ -104,21 +99,24 @@ pub fn run(args: &InspectArgs) -> Result<(), String> {
             v.join(" ")
         }
     };
-    println!(
-        "five points: black {}; white {}",
-        list(&report.five_points.black),
-        list(&report.five_points.white)
-    );
-    println!(
-        "four points: black {}; white {}",
-        list(&report.four_points.black),
-        list(&report.four_points.white)
-    );
     let forb: Vec<String> = report
         .forbidden
         .iter()
         .map(|f| format!("{} ({})", f.point, f.reason))
         .collect();
-    println!("forbidden for black: {}", list(&forb));
-    Ok(())
+    let mut text = engine::notation::diagram(board);
+    text += &format!("rule: {}, {} to move\n", report.rule, report.to_move);
+    text += &format!("winner: {}\n", report.winner.unwrap_or("none"));
+    text += &format!(
+        "five points: black {}; white {}\n",
+        list(&report.five_points.black),
+        list(&report.five_points.white)
+    );
+    text += &format!(
+        "four points: black {}; white {}\n",
+        list(&report.four_points.black),
+        list(&report.four_points.white)
+    );
+    text += &format!("forbidden for black: {}\n", list(&forb));
+    out::print(&text)
 }

@@ -1,18 +1,20 @@
 //! The position flags shared by every subcommand that takes a position.
 
-use clap::Args;
+use clap::{value_parser, Args};
 use engine::notation::{self, side_to_move_by_count};
 use engine::{Board, Rule, Stone};
+
+use crate::out;
 
 /// A position given as a move list or as stone lists.
 #[derive(Args, Clone, Debug)]
 pub struct PositionArgs {
-    /// Rule: freestyle, standard or renju.
-    #[arg(long, default_value = "freestyle")]
-    pub rule: String,
-    /// Board side, 5 to 19.
-    #[arg(long, default_value_t = 15)]
-    pub size: u8,
+    /// Rule: freestyle, standard or renju [default: freestyle].
+    #[arg(long)]
+    pub rule: Option<String>,
+    /// Board side, 5 to 19 [default: 15].
+    #[arg(long, value_parser = value_parser!(u8).range(5..=19), allow_negative_numbers = true)]
+    pub size: Option<u8>,
     /// Moves in order, black first ("h8 h9 i8" or "h8,h9,i8"); the rules are enforced.
     #[arg(long, conflicts_with_all = ["black", "white", "to_move"])]
     pub moves: Option<String>,
@@ -36,19 +38,23 @@ pub struct Position {
 impl PositionArgs {
     /// Parses the flags into a position, or a one-line message.
     pub fn position(&self) -> Result<Position, String> {
-        let rule: Rule = self.rule.parse().map_err(|e| format!("{e}"))?;
+        let rule: Rule = match &self.rule {
+            Some(r) => r.parse().map_err(|e| format!("--rule: {e}"))?,
+            None => Rule::Freestyle,
+        };
+        let size = self.size.unwrap_or(15);
         if let Some(moves) = &self.moves {
-            let game = notation::play_moves(moves, self.size, rule).map_err(|e| e.to_string())?;
+            let game = notation::play_moves(moves, size, rule).map_err(|e| e.to_string())?;
             return Ok(Position {
                 to_move: game.to_move(),
                 board: game.board().clone(),
             });
         }
-        let board = notation::setup(self.size, rule, &self.black, &self.white)
-            .map_err(|e| e.to_string())?;
+        let board =
+            notation::setup(size, rule, &self.black, &self.white).map_err(|e| e.to_string())?;
         let to_move = match self.to_move.as_deref() {
             None => side_to_move_by_count(&board),
-            Some(s) => parse_stone(s)?,
+            Some(s) => parse_stone(s).map_err(|e| format!("--to-move: {e}"))?,
         };
         Ok(Position { board, to_move })
     }
@@ -66,7 +72,10 @@ pub fn parse_stone(s: &str) -> Result<Stone, String> {
 /// `fivefold show`: the text diagram and the side to move.
 pub fn show(args: &PositionArgs) -> Result<(), String> {
     let pos = args.position()?;
-    print!("{}", notation::diagram(&pos.board));
-    println!("{} to move ({})", pos.to_move, pos.board.rule());
-    Ok(())
+    out::print(&format!(
+        "{}{} to move ({})\n",
+        notation::diagram(&pos.board),
+        pos.to_move,
+        pos.board.rule()
+    ))
 }

@@ -1,14 +1,13 @@
 //! `fivefold results`: read students' result codes against a set and print the class table,
 //! optionally as CSV.
 
-use std::io::Read;
-
 use clap::{Args, ValueEnum};
 use engine::formats::class::{ClassTable, SortBy};
 use engine::formats::result::{PuzzleResult, TimeBucket};
 use engine::puzzle::attempt::Attempt;
 
 use crate::generate::read_set;
+use crate::out;
 
 #[derive(Clone, Copy, ValueEnum)]
 pub enum Sort {
@@ -27,7 +26,7 @@ pub struct ResultsArgs {
     /// A text file with the students' result codes (one per line, or separated by spaces,
     /// commas or semicolons), or - to read them from standard input.
     pub codes: String,
-    /// Also write the table as CSV (RFC 4180, UTF-8) to this file.
+    /// Also write the table as CSV (RFC 4180, UTF-8) to this file, whole or not at all.
     #[arg(long, value_name = "OUT.csv")]
     pub csv: Option<String>,
     /// Order of the rows.
@@ -63,20 +62,16 @@ fn cell(r: &PuzzleResult) -> String {
 
 pub fn run(args: &ResultsArgs) -> Result<(), String> {
     let set = read_set(&args.set)?;
+    let what = "a file of result codes";
     let text = if args.codes == "-" {
-        let mut s = String::new();
-        std::io::stdin()
-            .read_to_string(&mut s)
-            .map_err(|e| format!("cannot read the codes from standard input: {e}"))?;
-        s
+        out::read_stdin(out::MAX_CODES_BYTES, what)?
     } else {
-        std::fs::read_to_string(&args.codes)
-            .map_err(|e| format!("cannot read {}: {e}", args.codes))?
+        out::read_text(&args.codes, out::MAX_CODES_BYTES, what)?
     };
     let mut table = ClassTable::new(&set);
     let added = table.add(&text);
     for notice in &added.notices {
-        eprintln!("{}: {notice}", args.codes);
+        out::note(&format!("{}: {notice}", args.codes));
     }
     let by = match args.sort {
         Sort::Added => SortBy::Added,
@@ -108,7 +103,7 @@ pub fn run(args: &ResultsArgs) -> Result<(), String> {
     let widths: Vec<usize> = (0..columns)
         .map(|c| rows.iter().map(|r| r[c].chars().count()).max().unwrap_or(0))
         .collect();
-    println!("{} ({} students)", set.title, table.students().len());
+    let mut text = format!("{} ({} students)\n", set.title, table.students().len());
     for r in &rows {
         let line: Vec<String> = r
             .iter()
@@ -123,16 +118,18 @@ pub fn run(args: &ResultsArgs) -> Result<(), String> {
                 }
             })
             .collect();
-        println!("{}", line.join("  ").trim_end());
+        text += line.join("  ").trim_end();
+        text.push('\n');
     }
-    println!(
-        "C clean, H helped, F failed, . untried; a digit counts hint steps; :30s, :2m, :5m, \
-         :5m+ are times under 30 s, 2 min, 5 min and longer"
-    );
+    text += "C clean, H helped, F failed, . untried; a digit counts hint steps; :30s, :2m, :5m, \
+             :5m+ are times under 30 s, 2 min, 5 min and longer\n";
+    // The CSV file is written before the table is printed, so a reader of standard output
+    // that stops early does not stop the file from being written.
     if let Some(path) = &args.csv {
-        std::fs::write(path, table.to_csv(by)).map_err(|e| format!("cannot write {path}: {e}"))?;
-        eprintln!("wrote the table to {path}");
+        out::write_file(path, table.to_csv(by).as_bytes())?;
+        out::note(&format!("wrote the table to {path}"));
     }
+    out::print(&text)?;
     if added.new_students == 0 && !added.notices.is_empty() && table.students().is_empty() {
         return Err("no result code for this set could be read".into());
     }

@@ -1,11 +1,13 @@
 //! `fivefold share`: the link (or bare code) that hands a set out, and its QR code; and the
 //! hidden `fivefold qr-versions`, which measures the QR version of sets' links.
 
+use clap::builder::RangedU64ValueParser;
 use clap::Args;
 use engine::formats::setfile::PuzzleSet;
-use engine::formats::{qr, share};
+use engine::formats::{limits, qr, share};
 
 use crate::generate::read_set;
+use crate::out;
 
 #[derive(Args)]
 pub struct ShareArgs {
@@ -34,33 +36,38 @@ fn link_or_code(set: &PuzzleSet, base: Option<&str>) -> Result<String, String> {
 pub fn run(args: &ShareArgs) -> Result<(), String> {
     let set = read_set(&args.set)?;
     let text = link_or_code(&set, args.base.as_deref())?;
-    if args.base.is_none() {
-        eprintln!(
-            "no --base given: this is the bare share code; pass --base with the address where \
-             your club hosts Fivefold to get a link"
-        );
-    }
-    println!("{text}");
     if let Some(path) = &args.qr {
+        // The image is written before the link is printed, so a reader of standard output
+        // that stops early does not stop the image from being written.
         let code = qr::encode(&text).map_err(|e| e.to_string())?;
-        std::fs::write(path, code.to_svg(60)).map_err(|e| format!("cannot write {path}: {e}"))?;
-        eprintln!(
+        out::write_file(path, code.to_svg(60).as_bytes())?;
+        out::note(&format!(
             "wrote the QR code to {path} (QR version {}, error correction level M, {}x{} \
              modules)",
             code.version(),
             code.size(),
             code.size()
+        ));
+    }
+    if args.base.is_none() {
+        out::note(
+            "no --base given: this is the bare share code; pass --base with the address where \
+             your club hosts Fivefold to get a link",
         );
     }
-    Ok(())
+    out::print(&format!("{text}\n"))
 }
 
 #[derive(Args)]
 pub struct QrVersionsArgs {
     /// Set files.
     pub sets: Vec<String>,
-    /// Use only the first N puzzles of each set.
-    #[arg(long)]
+    /// Use only the first N puzzles of each set, 1 to 1000.
+    #[arg(
+        long,
+        value_parser = RangedU64ValueParser::<usize>::new().range(1..=limits::MAX_PUZZLES as u64),
+        allow_negative_numbers = true
+    )]
     pub first: Option<usize>,
     /// The address part of the link.
     #[arg(long, default_value = "https://harbour-street.example/fivefold/")]
@@ -70,8 +77,10 @@ pub struct QrVersionsArgs {
 /// Prints one Markdown table row per set: puzzles, characters of the code, of the link, and the
 /// QR version at level M of the link.
 pub fn qr_versions(args: &QrVersionsArgs) -> Result<(), String> {
-    println!("| set | puzzles | code characters | link characters | QR version (M) |");
-    println!("| --- | ---: | ---: | ---: | ---: |");
+    let mut table = String::from(
+        "| set | puzzles | code characters | link characters | QR version (M) |\n\
+         | --- | ---: | ---: | ---: | ---: |\n",
+    );
     for path in &args.sets {
         let mut set = read_set(path)?;
         if let Some(n) = args.first {
@@ -83,12 +92,12 @@ pub fn qr_versions(args: &QrVersionsArgs) -> Result<(), String> {
         let name = std::path::Path::new(path)
             .file_stem()
             .map_or(path.clone(), |s| s.to_string_lossy().to_string());
-        println!(
-            "| {name} | {} | {} | {} | {version} |",
+        table += &format!(
+            "| {name} | {} | {} | {} | {version} |\n",
             set.puzzles.len(),
             code.len(),
             link.len()
         );
     }
-    Ok(())
+    out::print(&table)
 }

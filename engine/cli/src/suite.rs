@@ -1,17 +1,29 @@
 //! `fivefold suite`: harvest the solver benchmark suite from seeded self-play.
 
-use clap::Args;
+use std::io::Write;
+
+use clap::{value_parser, Args};
 use engine::suite::{self, Quotas};
+
+use crate::out;
+
+/// The most games `--games` may ask for.
+const MAX_GAMES: u64 = 1_000_000;
 
 #[derive(Args)]
 pub struct SuiteArgs {
-    /// Seed of the self-play games.
-    #[arg(long, default_value_t = 1)]
+    /// Seed of the self-play games, 0 to 18446744073709551615.
+    #[arg(long, default_value_t = 1, allow_negative_numbers = true)]
     pub seed: u64,
-    /// Most games to play.
-    #[arg(long, default_value_t = 3000)]
+    /// Most games to play, 1 to 1000000.
+    #[arg(
+        long,
+        default_value_t = 3000,
+        value_parser = value_parser!(u64).range(1..=MAX_GAMES),
+        allow_negative_numbers = true
+    )]
     pub games: u64,
-    /// Output file (stdout if absent).
+    /// Output file, written whole or not at all (stdout if absent).
     #[arg(long)]
     pub out: Option<String>,
 }
@@ -19,10 +31,11 @@ pub struct SuiteArgs {
 pub fn run(args: &SuiteArgs) -> Result<(), String> {
     let cases = suite::harvest(args.seed, Quotas::default(), args.games, |g, n| {
         if g % 20 == 0 {
-            eprint!("\rgames played: {g}, positions kept: {n}   ");
+            let mut err = std::io::stderr().lock();
+            let _ = write!(err, "\rgames played: {g}, positions kept: {n}   ");
         }
     });
-    eprintln!();
+    out::note("");
     let mut text = format!(
         "# Fivefold solver benchmark suite, harvested from seeded self-play by\n\
          # `fivefold suite --seed {} --games {}`.\n\
@@ -33,12 +46,16 @@ pub fn run(args: &SuiteArgs) -> Result<(), String> {
         text.push_str(&c.to_string());
         text.push('\n');
     }
-    match &args.out {
-        Some(path) => {
-            std::fs::write(path, text).map_err(|e| format!("cannot write {path}: {e}"))?
-        }
-        None => print!("{text}"),
+    // Nothing is written that the suite's reader would refuse.
+    let read =
+        suite::parse(&text).map_err(|e| format!("the suite made does not read back: {e}"))?;
+    if read != cases {
+        return Err("the suite made does not read back as the same positions".into());
     }
-    eprintln!("{} positions", cases.len());
+    match &args.out {
+        Some(path) => out::write_file(path, text.as_bytes())?,
+        None => out::print(&text)?,
+    }
+    out::note(&format!("{} positions", cases.len()));
     Ok(())
 }

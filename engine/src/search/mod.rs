@@ -440,6 +440,14 @@ impl<'s, 'w> Asking<'s, 'w> {
         self.budget.total.saturating_sub(self.spent)
     }
 
+    /// Whether the stop check says stop now. Each search asks it before it starts (as well
+    /// as every 8 nodes inside), so that a stopped list question does not start one short
+    /// search per remaining candidate, each of which would also flush the tables it could not
+    /// finish (on a wide defence list that took longer than the search before the stop).
+    fn stopped(&self) -> bool {
+        self.stop.is_some_and(|stop| stop(self.spent))
+    }
+
     /// The node limit of one search among `remaining` still to make for the candidates of a
     /// list: the budget's limit per search, but no more than an even share of what the
     /// question has left (at least 1,000 nodes), so that one hard candidate cannot leave the
@@ -486,7 +494,7 @@ impl<'s, 'w> Asking<'s, 'w> {
         limit: u64,
     ) -> (Status, u64) {
         let left = self.left();
-        if left == 0 {
+        if left == 0 || self.stopped() {
             return (Status::Unknown, 0);
         }
         let spend = self.budget.vcf_spend;
@@ -982,7 +990,7 @@ impl<'s, 'w> Asking<'s, 'w> {
 
     fn run_exact(&mut self, b: &mut Board, attacker: Stone, to_move: Stone) -> (Status, u64) {
         let left = self.left();
-        if left == 0 {
+        if left == 0 || self.stopped() {
             return (Status::Unknown, 0);
         }
         let limit = self.budget.nodes;
