@@ -11,17 +11,24 @@ import { Study, checkStudy } from './study.js';
 import { PracticeStore, checkPractice } from './practice.js';
 import { Revisit } from './revisit.js';
 import { Progress } from './progress.js';
-import { $, banner, clearBanner, download } from './ui.js';
+import { $, banner, clearBanner, download, shown } from './ui.js';
+import { setSounds } from './sounds.js';
 
 const SCREENS = ['tonight', 'drill', 'revisit', 'study', 'coach', 'progress', 'games'];
-const DEFAULT_SETTINGS = { confirm: true, forbidden: true, numbers: false, coachBar: false, screen: 'tonight' };
+const DEFAULT_SETTINGS = {
+  confirm: true, forbidden: true, numbers: false, coachBar: false, sounds: false, theme: 'auto', screen: 'tonight',
+};
+const THEMES = ['auto', 'light', 'dark'];
 
 function checkSettings(d) {
   if (!d || typeof d !== 'object') return 'it is empty';
   for (const k of ['confirm', 'forbidden', 'numbers']) {
     if (typeof d[k] !== 'boolean') return `the setting "${k}" is not on or off`;
   }
-  if (d.coachBar !== undefined && typeof d.coachBar !== 'boolean') return 'the setting "coachBar" is not on or off';
+  for (const k of ['coachBar', 'sounds']) {
+    if (d[k] !== undefined && typeof d[k] !== 'boolean') return `the setting "${k}" is not on or off`;
+  }
+  if (d.theme !== undefined && !THEMES.includes(d.theme)) return 'the colour setting is unknown';
   if (!SCREENS.includes(d.screen)) return 'the screen is unknown';
   return null;
 }
@@ -99,6 +106,7 @@ class App {
       $('open-settings').click();
     });
     this.wireSettings();
+    this.wireSkip();
     window.addEventListener('hashchange', () => this.readHash());
     this.readHash();
   }
@@ -147,8 +155,14 @@ class App {
     $('opt-forbidden').checked = this.settings.forbidden;
     $('opt-numbers').checked = this.settings.numbers;
     $('opt-coach').checked = !!this.settings.coachBar;
-    if (this.settings.coachBar) document.documentElement.dataset.coachBar = 'true';
-    else delete document.documentElement.dataset.coachBar;
+    $('opt-sounds').checked = !!this.settings.sounds;
+    $('opt-theme').value = this.settings.theme;
+    const root = document.documentElement;
+    if (this.settings.coachBar) root.dataset.coachBar = 'true';
+    else delete root.dataset.coachBar;
+    if (this.settings.theme === 'auto') delete root.dataset.theme;
+    else root.dataset.theme = this.settings.theme;
+    setSounds(this.settings.sounds);
   }
 
   go(name) {
@@ -173,6 +187,28 @@ class App {
     if (name === 'progress') this.progress.activate();
   }
 
+  // The skip link goes to the board of the screen on show (else to the screen itself), and
+  // says which.
+  wireSkip() {
+    const skip = $('skip');
+    const target = () => [...document.querySelectorAll(`#${this.settings.screen} canvas.board`)].find(shown);
+    skip.addEventListener('focus', () => {
+      skip.textContent = target() ? 'Skip to the board' : 'Skip to the screen';
+    });
+    skip.addEventListener('click', (e) => {
+      e.preventDefault();
+      const board = target();
+      if (board) {
+        board.focus({ preventScroll: true });
+        board.scrollIntoView({ block: 'nearest' });
+      } else {
+        const heading = [...($(this.settings.screen)?.querySelectorAll('h1') ?? [])].find(shown);
+        heading?.setAttribute('tabindex', '-1');
+        heading?.focus();
+      }
+    });
+  }
+
   readHash() {
     const m = /^#set=(.*)$/s.exec(location.hash);
     if (!m) return;
@@ -193,7 +229,15 @@ class App {
       dialog.showModal();
     });
     $('close-settings').addEventListener('click', () => dialog.close());
-    for (const [id, key] of [['opt-confirm', 'confirm'], ['opt-forbidden', 'forbidden'], ['opt-numbers', 'numbers'], ['opt-coach', 'coachBar']]) {
+    $('opt-theme').addEventListener('change', (e) => {
+      this.settings.theme = THEMES.includes(e.target.value) ? e.target.value : 'auto';
+      this.applySettings();
+      save('settings', this.settings);
+      if (!$('progress').hidden) this.progress.activate();
+    });
+    const settingBoxes = [['opt-confirm', 'confirm'], ['opt-forbidden', 'forbidden'], ['opt-numbers', 'numbers'],
+      ['opt-coach', 'coachBar'], ['opt-sounds', 'sounds']];
+    for (const [id, key] of settingBoxes) {
       $(id).addEventListener('change', (e) => {
         this.settings[key] = e.target.checked;
         this.applySettings();

@@ -5,7 +5,8 @@
 // log and the live region.
 
 import { PuzzleBoard, StudyBoard } from './pkg/fivefold_web.js';
-import { announce, el } from './ui.js';
+import { announce, bringBoard, el } from './ui.js';
+import { sound } from './sounds.js';
 
 // Pauses before the app's moves are shown, in milliseconds.
 const REPLY_MS = 320;
@@ -59,7 +60,9 @@ export class BoardView {
   fit() {
     const r = this.canvas.getBoundingClientRect();
     if (r.width < 1 || r.height < 1) return;
-    this.trainer.fit(window.devicePixelRatio || 1);
+    // The coordinates grow with the page's text size (the root font size, in CSS pixels).
+    const text = parseFloat(getComputedStyle(document.documentElement).fontSize) || 16;
+    this.trainer.fit(window.devicePixelRatio || 1, text);
     this.markFirstBoard();
   }
 
@@ -144,6 +147,7 @@ export class BoardView {
     this.fit();
     const s = this.changed('load');
     this.markFirstBoard();
+    bringBoard(this.canvas);
     this.note(s.goal, 'goal');
     return s;
   }
@@ -193,6 +197,7 @@ export class BoardView {
     }
     delete this.canvas.dataset.ghost;
     this.say(a.say, kind);
+    sound({ accepted: 'right', solved: 'solved', wrong: 'wrong', placed: 'stone' }[a.kind]);
     this.animate();
     const token = ++this.token;
     this.changed(a.kind);
@@ -207,6 +212,7 @@ export class BoardView {
       const r = this.trainer.reveal();
       if (!r) break;
       this.say([r.say]);
+      sound('stone');
       this.animate();
       this.changed('reveal');
       if (!r.more) break;

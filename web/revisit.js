@@ -5,7 +5,7 @@
 import { BoardView } from './board.js';
 import { dayWords } from './pkg/fivefold_web.js';
 import { today } from './practice.js';
-import { $, announce, el, fill } from './ui.js';
+import { $, announce, el, fill, keepFocus } from './ui.js';
 
 export class Revisit {
   constructor(app) {
@@ -42,6 +42,7 @@ export class Revisit {
     $('revisit-play').hidden = true;
     $('revisit-list-box').hidden = false;
     this.renderList();
+    keepFocus($('revisit-title'));
   }
 
   renderList() {
@@ -69,7 +70,9 @@ export class Revisit {
     if (!this.queue.length) return this.renderList();
     $('revisit-list-box').hidden = true;
     $('revisit-play').hidden = false;
+    window.scrollTo(0, 0);
     this.load();
+    keepFocus($('revisit-board'));
   }
 
   load() {

@@ -5,7 +5,7 @@ import { attemptWords, librarySets, parseSet, recordedAttempt, resultCode, setKe
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
 import { save } from './store.js';
-import { $, POINT_NAME, announce, banner, el, fill, isInt, own, put } from './ui.js';
+import { $, POINT_NAME, announce, banner, el, fill, isInt, own, put, keepFocus } from './ui.js';
 
 // Attempt names and their words, from the engine (read once the engine has started).
 let outcomeWords = null;
@@ -319,11 +319,14 @@ export class Tonight {
   }
 
   view(name) {
+    // A new view starts at the top of the page.
+    if (name !== this.data.view && !$('tonight').hidden) window.scrollTo(0, 0);
     $('tonight-list').hidden = name !== 'list';
     $('tonight-play').hidden = name !== 'play';
     $('tonight-summary').hidden = name !== 'summary';
     $('tonight').dataset.view = name;
     this.data.view = name;
+    keepFocus({ list: $('tonight-title'), play: $('tonight-board'), summary: $('summary-heading') }[name]);
   }
 
   showList() {

@@ -39,9 +39,14 @@ export function announce(...lines) {
   while (live.childElementCount > LIVE_KEEP) live.firstElementChild.remove();
 }
 
+// How long a banner stays, by kind, in milliseconds (an error stays until it is dismissed).
+const BANNER_MS = { info: 10000, warn: 20000 };
+
 /**
- * Shows a banner at the top of the page. `kind` is "info", "warn" or "error"; a banner with an
- * `id` replaces an earlier one with the same id. Returns the banner element.
+ * Shows a banner floating over the top of the page. `kind` is "info", "warn" or "error"; a
+ * banner with an `id` replaces an earlier one with the same id. Information and warnings go
+ * away by themselves (not while the pointer or the focus is on them); errors, and `sticky`
+ * banners, stay until dismissed. Returns the banner element.
  */
 export function banner(message, { kind = 'info', id = null, sticky = false } = {}) {
   const box = $('banners');
@@ -53,11 +58,56 @@ export function banner(message, { kind = 'info', id = null, sticky = false } = {
   if (!sticky) {
     while (box.childElementCount > 4) box.firstElementChild.remove();
   }
+  const ms = sticky ? undefined : BANNER_MS[kind];
+  if (ms) {
+    let timer = 0;
+    const start = () => {
+      clearTimeout(timer);
+      timer = setTimeout(() => b.remove(), ms);
+    };
+    const hold = () => clearTimeout(timer);
+    b.addEventListener('pointerenter', hold);
+    b.addEventListener('focusin', hold);
+    b.addEventListener('pointerleave', start);
+    b.addEventListener('focusout', start);
+    start();
+  }
   return b;
+}
+
+/** Whether an element is on show (not inside anything hidden). */
+export const shown = (node) => !!node && node.isConnected && node.getClientRects().length > 0;
+
+/**
+ * When a change of view has hidden the element that had the focus (so that it fell to the
+ * page), puts it on `target` instead, without scrolling.
+ */
+export function keepFocus(target) {
+  const now = document.activeElement;
+  if (now && now !== document.body && shown(now)) return;
+  target?.focus({ preventScroll: true });
 }
 
 export function clearBanner(id) {
   $('banners')?.querySelector(`[data-id="${id}"]`)?.remove();
+}
+
+/**
+ * When the board and the buttons under it are not both in view (a phone with large text),
+ * scrolls the page so that they are, keeping the board's top in view.
+ */
+export function bringBoard(canvas) {
+  const frame = canvas.closest('.board-frame');
+  const actions = frame?.parentElement?.querySelector('.actions:not([hidden])');
+  if (!shown(frame) || !shown(actions)) return;
+  const rail = document.querySelector('.rail')?.getBoundingClientRect();
+  const bottom = rail && rail.top > innerHeight / 2 ? rail.top : innerHeight;
+  const top = frame.getBoundingClientRect().top;
+  const end = actions.getBoundingClientRect().bottom;
+  let by = end > bottom ? end - bottom + 8 : 0;
+  if (top < 0) by = top - 4;
+  else if (top - by < 0 && getComputedStyle(frame).position !== 'sticky') by = top - 4;
+  if (by) window.scrollBy({ top: by, behavior: 'instant' });
 }
 
 /** Offers text as a file download. */

@@ -137,10 +137,11 @@ impl PuzzleBoardHandle {
         })
     }
 
-    /// Sizes the canvas's backing store to its CSS size times `dpr` and redraws.
-    pub fn fit(&mut self, dpr: f64) -> Result<(), JsValue> {
+    /// Sizes the canvas's backing store to its CSS size times `dpr` and redraws, with the
+    /// coordinates sized for a root font size of `text` CSS pixels.
+    pub fn fit(&mut self, dpr: f64, text: f64) -> Result<(), JsValue> {
         let view = self.view();
-        self.surface.fit(Some(dpr), &view)
+        self.surface.fit(Some(dpr), Some(text), &view)
     }
 
     /// The display settings: `confirm` (two taps on touch screens), `forbidden` (mark black's
@@ -187,7 +188,7 @@ impl PuzzleBoardHandle {
         self.board = Some(board);
         self.surface.still();
         let view = self.view();
-        self.surface.fit(None, &view)?;
+        self.surface.fit(None, None, &view)?;
         self.status()
     }
 
@@ -361,7 +362,7 @@ impl StudyBoardHandle {
         self.board.set_options(options);
         self.surface.still();
         let view = self.board.view();
-        self.surface.fit(None, &view)?;
+        self.surface.fit(None, None, &view)?;
         self.status()
     }
 
@@ -387,10 +388,11 @@ impl StudyBoardHandle {
         })
     }
 
-    /// Sizes the canvas's backing store to its CSS size times `dpr` and redraws.
-    pub fn fit(&mut self, dpr: f64) -> Result<(), JsValue> {
+    /// Sizes the canvas's backing store to its CSS size times `dpr` and redraws, with the
+    /// coordinates sized for a root font size of `text` CSS pixels.
+    pub fn fit(&mut self, dpr: f64, text: f64) -> Result<(), JsValue> {
         let view = self.board.view();
-        self.surface.fit(Some(dpr), &view)
+        self.surface.fit(Some(dpr), Some(text), &view)
     }
 
     /// The display settings (see `PuzzleBoard.setOptions`).

@@ -1,7 +1,9 @@
 //! Where the grid sits on the canvas, in CSS pixels, and which point a tap lands on.
 //!
 //! The grid is centred in the canvas with a wider margin on the left and at the bottom, where
-//! the coordinates are written (numbers on the left, letters along the bottom).
+//! the coordinates are written (numbers on the left, letters along the bottom). The
+//! coordinates grow with the page's text size: their font is at least [`LABEL`] times the
+//! root font size, and the margins widen to hold them (the grid shrinks a little instead).
 
 use engine::Point;
 
@@ -13,6 +15,20 @@ pub const RIGHT: f64 = 0.75;
 pub const TOP: f64 = 0.75;
 /// Margin below row `1`, in grid steps (room for the column letters).
 pub const BOTTOM: f64 = 1.2;
+/// The coordinates' smallest font size, in root font sizes (11 px at the usual 16 px).
+pub const LABEL: f64 = 0.6875;
+/// The coordinates' font size in grid steps, when that is larger.
+const LABEL_STEPS: f64 = 0.42;
+/// Gap between the row numbers and column `a`, in grid steps.
+const NUMBER_GAP: f64 = 0.42;
+/// Width of a two-digit row number and the space before it, in font sizes.
+const NUMBER_WIDTH: f64 = 1.45;
+/// Distance from row `1` to the letters' centre: at least this many grid steps ...
+const LETTER_STEPS: f64 = 0.78;
+/// ... and at least this many steps plus [`HALF_LETTER`] font sizes.
+const LETTER_GAP: f64 = 0.45;
+/// Half a letter's height with a little space, in font sizes.
+const HALF_LETTER: f64 = 0.6;
 
 /// The grid's placement on a canvas of a given CSS size.
 #[derive(Clone, Copy, PartialEq, Debug)]
@@ -29,23 +45,115 @@ pub struct Layout {
     pub x0: f64,
     /// y of row `1` (the bottom row; rows go up the screen).
     pub y0: f64,
+    /// The coordinates' font size.
+    pub label: f64,
+    /// Distance from row `1` down to the centre of the column letters.
+    pub letters: f64,
+    /// Distance from column `a` left to the right edge of the row numbers.
+    pub numbers: f64,
+}
+
+/// A need for room that grows linearly with the step: `per_step * step + fixed`.
+#[derive(Clone, Copy)]
+struct Need {
+    per_step: f64,
+    fixed: f64,
+}
+
+impl Need {
+    fn at(self, step: f64) -> f64 {
+        self.per_step * step + self.fixed
+    }
+}
+
+/// The largest step at which every need fits in `room` (each need grows with the step).
+fn largest_step(needs: &[Need], room: f64) -> f64 {
+    needs
+        .iter()
+        .map(|n| (room - n.fixed) / n.per_step)
+        .fold(f64::INFINITY, f64::min)
+        .max(0.0)
+}
+
+/// The room across (grid, margins) a grid of `lines` spaces needs, as the larger of these
+/// (the font is the larger of `LABEL_STEPS` steps and `min_label`).
+fn needs_across(lines: f64, min_label: f64) -> [Need; 3] {
+    let base = lines + RIGHT;
+    [
+        Need {
+            per_step: base + LEFT,
+            fixed: 0.0,
+        },
+        Need {
+            per_step: base + NUMBER_GAP + NUMBER_WIDTH * LABEL_STEPS,
+            fixed: 0.0,
+        },
+        Need {
+            per_step: base + NUMBER_GAP,
+            fixed: NUMBER_WIDTH * min_label,
+        },
+    ]
+}
+
+/// The room down a grid needs: the bottom margin is the larger of `BOTTOM` steps and the
+/// letters' centre plus half a letter.
+fn needs_down(lines: f64, min_label: f64) -> [Need; 5] {
+    let base = lines + TOP;
+    let l = LABEL_STEPS * HALF_LETTER;
+    let m = HALF_LETTER * min_label;
+    [
+        Need {
+            per_step: base + BOTTOM,
+            fixed: 0.0,
+        },
+        Need {
+            per_step: base + LETTER_STEPS + l,
+            fixed: 0.0,
+        },
+        Need {
+            per_step: base + LETTER_STEPS,
+            fixed: m,
+        },
+        Need {
+            per_step: base + LETTER_GAP + 2.0 * l,
+            fixed: 0.0,
+        },
+        Need {
+            per_step: base + LETTER_GAP,
+            fixed: 2.0 * m,
+        },
+    ]
 }
 
 impl Layout {
-    /// The layout of a `size` x `size` grid on a `width` x `height` canvas (CSS pixels).
-    pub fn new(size: u8, width: f64, height: f64) -> Layout {
+    /// The layout of a `size` x `size` grid on a `width` x `height` canvas (CSS pixels), on a
+    /// page whose root font size is `text` CSS pixels.
+    pub fn new(size: u8, width: f64, height: f64, text: f64) -> Layout {
         let (width, height) = (width.max(0.0), height.max(0.0));
+        let text = if text.is_finite() && text > 0.0 {
+            text.min(64.0)
+        } else {
+            16.0
+        };
+        let min_label = LABEL * text;
         let lines = f64::from(size.max(2) - 1);
-        let step = (width / (lines + LEFT + RIGHT)).min(height / (lines + TOP + BOTTOM));
-        let spare_x = width - step * (lines + LEFT + RIGHT);
-        let spare_y = height - step * (lines + TOP + BOTTOM);
+        let across = needs_across(lines, min_label);
+        let down = needs_down(lines, min_label);
+        let step = largest_step(&across, width).min(largest_step(&down, height));
+        let label = (LABEL_STEPS * step).max(min_label);
+        let letters = (LETTER_STEPS * step).max(LETTER_GAP * step + HALF_LETTER * label);
+        let used = |needs: &[Need]| needs.iter().map(|n| n.at(step)).fold(0.0, f64::max);
+        let left = (LEFT * step).max(NUMBER_GAP * step + NUMBER_WIDTH * label);
         Layout {
             size,
             width,
             height,
             step,
-            x0: spare_x / 2.0 + LEFT * step,
-            y0: spare_y / 2.0 + (TOP + lines) * step,
+            x0: (width - used(&across)) / 2.0 + left,
+            y0: (height - used(&down)) / 2.0 + (TOP + lines) * step,
+            label,
+            letters,
+            numbers: NUMBER_GAP * step,
         }
     }
 
@@ -76,7 +184,7 @@ mod tests {
 
     #[test]
     fn grid_fits_and_centres_round_trip() {
-        let l = Layout::new(15, 600.0, 600.0);
+        let l = Layout::new(15, 600.0, 600.0, 16.0);
         let span = l.step * (14.0 + LEFT + RIGHT);
         assert!((span - 600.0).abs() < 1e-9);
         let (x, y) = l.centre(Point::new(0, 0));
@@ -100,7 +208,7 @@ mod tests {
 
     #[test]
     fn taps_off_the_grid_hit_nothing() {
-        let l = Layout::new(15, 400.0, 300.0);
+        let l = Layout::new(15, 400.0, 300.0, 16.0);
         let (x, y) = l.centre(Point::new(0, 0));
         assert_eq!(l.hit(x - 0.6 * l.step, y), None);
         assert_eq!(l.hit(x, y + 0.6 * l.step), None);
@@ -108,15 +216,47 @@ mod tests {
         assert_eq!(l.hit(x + 0.6 * l.step, y), None);
         assert_eq!(l.hit(x, y - 0.6 * l.step), None);
         assert_eq!(l.hit(f64::NAN, 1.0), None);
-        assert_eq!(Layout::new(15, 0.0, 0.0).hit(0.0, 0.0), None);
+        assert_eq!(Layout::new(15, 0.0, 0.0, 16.0).hit(0.0, 0.0), None);
     }
 
     #[test]
     fn wide_canvas_centres_the_grid() {
-        let l = Layout::new(15, 900.0, 300.0);
+        let l = Layout::new(15, 900.0, 300.0, 16.0);
         let left = l.x0 - LEFT * l.step;
         let right = l.width - (l.x0 + 14.0 * l.step + RIGHT * l.step);
         assert!((left - right).abs() < 1e-9);
         assert!(left > 0.0);
+    }
+
+    #[test]
+    fn coordinates_grow_with_the_text_and_stay_on_the_canvas() {
+        for size in [15u8, 19] {
+            for text in [16.0, 24.0, 32.0] {
+                for side in [300.0, 364.0, 700.0] {
+                    let l = Layout::new(size, side, side, text);
+                    // The font follows the text size, and is never smaller than before.
+                    assert!(l.label >= LABEL * text - 1e-9);
+                    assert!(l.label >= 0.42 * l.step - 1e-9);
+                    // Two-digit row numbers end left of column a and start inside the canvas.
+                    assert!(
+                        l.x0 - l.numbers - NUMBER_WIDTH * l.label >= -1e-9,
+                        "{size} {text} {side}"
+                    );
+                    // The letters, half a letter below their centre, stay on the canvas.
+                    assert!(l.y0 + l.letters + HALF_LETTER * l.label <= side + 1e-9);
+                    // Stones on the top and right edge stay on the canvas too.
+                    let (x, y) = l.centre(Point::new(size - 1, size - 1));
+                    assert!(x + 0.5 * l.step <= side + 1e-9 && y - 0.5 * l.step >= -1e-9);
+                }
+                // Larger text takes room from the grid, never the other way round.
+                assert!(
+                    Layout::new(size, 364.0, 364.0, 32.0).step
+                        <= Layout::new(size, 364.0, 364.0, 16.0).step
+                );
+            }
+        }
+        // At the usual text size a phone's board is as it was: the margins are set by the grid.
+        let l = Layout::new(15, 364.0, 364.0, 16.0);
+        assert!((l.step - 364.0 / (14.0 + LEFT + RIGHT)).abs() < 1e-9);
     }
 }

@@ -130,23 +130,22 @@ impl Pen<'_> {
     fn coordinates(&self) -> Result<(), JsValue> {
         let n = self.layout.size;
         let ctx = self.ctx;
-        // At least 11 CSS pixels on small boards (phones), where room allows.
-        let step = self.step();
-        let px = (0.42 * step).max((11.0 * self.dpr).min(0.55 * step));
+        // The layout sizes the font (it follows the page's text size) and the margins for it.
+        let px = self.layout.label * self.dpr;
         ctx.set_font(&format!(
             "600 {px:.1}px system-ui, 'Segoe UI', Roboto, sans-serif"
         ));
         ctx.set_fill_style_str(INK);
         ctx.set_text_baseline("middle");
         ctx.set_text_align("center");
-        let below = self.at(Point::new(0, 0)).1 + 0.78 * self.step();
+        let below = self.at(Point::new(0, 0)).1 + self.layout.letters * self.dpr;
         for i in 0..n {
             let (x, _) = self.at(Point::new(i, 0));
             let letter = char::from(b'a' + i).to_string();
             ctx.fill_text(&letter, x, below)?;
         }
         ctx.set_text_align("right");
-        let left = self.at(Point::new(0, 0)).0 - 0.42 * self.step();
+        let left = self.at(Point::new(0, 0)).0 - self.layout.numbers * self.dpr;
         for i in 0..n {
             let (_, y) = self.at(Point::new(0, i));
             ctx.fill_text(&(u32::from(i) + 1).to_string(), left, y)?;

@@ -21,6 +21,8 @@ pub(crate) struct Surface {
     ctx: CanvasRenderingContext2d,
     layout: Layout,
     dpr: f64,
+    /// The page's root font size in CSS pixels (the coordinates grow with it).
+    text: f64,
     /// A stone that is appearing, and when it started (set by the first frame).
     growing: Option<(Point, Option<f64>)>,
 }
@@ -35,15 +37,21 @@ impl Surface {
         Ok(Surface {
             canvas,
             ctx,
-            layout: Layout::new(15, 0.0, 0.0),
+            layout: Layout::new(15, 0.0, 0.0, 16.0),
             dpr: 1.0,
+            text: 16.0,
             growing: None,
         })
     }
 
-    /// Sizes the backing store to the canvas's CSS size times `dpr` (the last one given when
-    /// `dpr` is `None`) for a board of side `size`, and draws `view`.
-    pub(crate) fn fit(&mut self, dpr: Option<f64>, view: &View) -> Result<(), JsValue> {
+    /// Sizes the backing store to the canvas's CSS size times `dpr` for a page whose root font
+    /// size is `text` CSS pixels (the last ones given when `None`), and draws `view`.
+    pub(crate) fn fit(
+        &mut self,
+        dpr: Option<f64>,
+        text: Option<f64>,
+        view: &View,
+    ) -> Result<(), JsValue> {
         let dpr = match dpr {
             Some(d) if d.is_finite() && d > 0.0 => d.min(4.0),
             Some(_) => 1.0,
@@ -51,7 +59,10 @@ impl Surface {
         };
         let rect = self.canvas.get_bounding_client_rect();
         self.dpr = dpr;
-        self.layout = Layout::new(view.size, rect.width(), rect.height());
+        if let Some(t) = text.filter(|t| t.is_finite() && *t > 0.0) {
+            self.text = t;
+        }
+        self.layout = Layout::new(view.size, rect.width(), rect.height(), self.text);
         let w = (rect.width() * dpr).round().max(1.0) as u32;
         let h = (rect.height() * dpr).round().max(1.0) as u32;
         if self.canvas.width() != w {

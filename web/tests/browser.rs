@@ -67,7 +67,7 @@ fn library_puzzle(title: &str, index: usize) -> Value {
 fn club_puzzle(css: u32, dpr: f64) -> (HtmlCanvasElement, Trainer, Value) {
     let c = canvas(css, css);
     let mut t = Trainer::new(c.clone()).unwrap();
-    t.fit(dpr).unwrap();
+    t.fit(dpr, 16.0).unwrap();
     let p = library_puzzle("Win with fours: club", 0);
     json(t.load(&p.to_string(), false, JsValue::NULL));
     (c, t, p)
@@ -204,7 +204,7 @@ fn a_library_vcf_puzzle_is_graded_tap_by_tap_with_replies_revealed() {
     // Restoring the player's moves on a new board gives the same position at once.
     let c2 = canvas(300, 300);
     let mut t2 = Trainer::new(c2.clone()).unwrap();
-    t2.fit(1.0).unwrap();
+    t2.fit(1.0, 16.0).unwrap();
     let s2 = json(t2.load(&p.to_string(), false, record(&played, 0, 0)));
     assert_eq!(s2["state"], "solved", "{s2}");
     assert_eq!(strs(&s2["moves"]), line);
@@ -217,7 +217,7 @@ fn a_library_vcf_puzzle_is_graded_tap_by_tap_with_replies_revealed() {
 fn a_wrong_move_is_refuted_one_move_at_a_time_with_a_reason() {
     let c = canvas(360, 360);
     let mut t = Trainer::new(c.clone()).unwrap();
-    t.fit(1.0).unwrap();
+    t.fit(1.0, 16.0).unwrap();
     let p = library_puzzle("Win with fours: club", 1);
     json(t.load(&p.to_string(), false, JsValue::NULL));
     let a = json(t.play("a1"));
@@ -352,7 +352,7 @@ fn touch_taps_preview_a_ghost_stone_until_confirmed() {
 fn the_keyboard_cursor_moves_and_places() {
     let c = canvas(300, 300);
     let mut t = Study::new(c.clone()).unwrap();
-    t.fit(1.0).unwrap();
+    t.fit(1.0, 16.0).unwrap();
     json(t.reset(15, "freestyle"));
     assert_eq!(
         json(t.place_at_cursor())["say"][0],
@@ -401,7 +401,7 @@ fn study_board_edits_paste_and_lines() {
     let dpr = 2.0;
     let c = canvas(360, 360);
     let mut t = Study::new(c.clone()).unwrap();
-    t.fit(dpr).unwrap();
+    t.fit(dpr, 16.0).unwrap();
     json(t.reset(15, "renju"));
     assert_eq!(t.paste("i8 a1 j8 a3 h9 a5 h10 a7").unwrap(), 8);
     assert_eq!(json(t.status())["toMove"], "black");
@@ -484,12 +484,12 @@ fn backing_store_is_css_size_times_the_pixel_ratio() {
     let mut t = Study::new(c.clone()).unwrap();
     json(t.reset(15, "freestyle"));
     for (dpr, want) in [(1.0, 300), (2.0, 600), (1.5, 450), (3.0, 900)] {
-        t.fit(dpr).unwrap();
+        t.fit(dpr, 16.0).unwrap();
         assert_eq!((c.width(), c.height()), (want, want), "at ratio {dpr}");
     }
     c.set_attribute("style", "display:block;width:420px;height:260px")
         .unwrap();
-    t.fit(2.0).unwrap();
+    t.fit(2.0, 16.0).unwrap();
     assert_eq!((c.width(), c.height()), (840, 520));
     assert_eq!(number(&c, "data-size"), 15.0);
     // The grid fits the short side: 14 steps plus the margins.
@@ -512,7 +512,7 @@ fn stones_change_the_pixels_at_their_points_at_every_ratio() {
     for dpr in [1.0, 1.5, 2.0, 3.0] {
         let c = canvas(360, 360);
         let mut t = Study::new(c.clone()).unwrap();
-        t.fit(dpr).unwrap();
+        t.fit(dpr, 16.0).unwrap();
         json(t.reset(15, "standard"));
         let board = hex(BOARD);
         assert_eq!(inside(&c, dpr, "h8"), board);
@@ -566,7 +566,7 @@ fn coordinates_are_drawn_on_the_edges() {
     let dpr = 2.0;
     let c = canvas(400, 400);
     let mut t = Trainer::new(c.clone()).unwrap();
-    t.fit(dpr).unwrap();
+    t.fit(dpr, 16.0).unwrap();
     let step = number(&c, "data-step");
     let (x0, y0) = (number(&c, "data-x0"), number(&c, "data-y0"));
     let ink_in = |cx: f64, cy: f64| {
@@ -596,7 +596,7 @@ fn coordinates_keep_clear_of_the_canvas_edges() {
     for (css, dpr) in [(240u32, 2.0), (346, 2.0), (300, 3.0), (330, 1.0)] {
         let c = canvas(css, css);
         let mut t = Trainer::new(c.clone()).unwrap();
-        t.fit(dpr).unwrap();
+        t.fit(dpr, 16.0).unwrap();
         let side = c.width();
         let ctx: CanvasRenderingContext2d =
             c.get_context("2d").unwrap().unwrap().dyn_into().unwrap();

@@ -92,18 +92,21 @@ need_chromium() {
         die "chromium or chromedriver is still missing after apt-get install"
 }
 
-# The e2e tests' one npm package (playwright-core, no browser download) from web/package-lock.json.
+# The e2e tests' npm packages (playwright-core, no browser download; axe-core) from
+# web/package-lock.json: installed when any of them is missing or at another version.
 need_node_modules() {
-    local want have
-    want="$(node -p "require('$WEB_DIR/package-lock.json').packages['node_modules/playwright-core'].version")" ||
-        die "cannot read web/package-lock.json"
-    have="$(node -p "require('$WEB_DIR/node_modules/playwright-core/package.json').version" 2>/dev/null || true)"
-    if [ "$want" = "$have" ]; then
-        return 0
-    fi
-    step "Installing the e2e test packages (npm ci in web/: playwright-core $want)"
-    (cd "$WEB_DIR" && PLAYWRIGHT_SKIP_BROWSER_DOWNLOAD=1 npm ci --no-audit --no-fund) ||
-        die "npm ci in web/ failed"
+    local pkg want have
+    for pkg in playwright-core axe-core; do
+        want="$(node -p "require('$WEB_DIR/package-lock.json').packages['node_modules/$pkg'].version")" ||
+            die "cannot read web/package-lock.json"
+        have="$(node -p "require('$WEB_DIR/node_modules/$pkg/package.json').version" 2>/dev/null || true)"
+        if [ "$want" != "$have" ]; then
+            step "Installing the e2e test packages (npm ci in web/: $pkg $want is missing)"
+            (cd "$WEB_DIR" && PLAYWRIGHT_SKIP_BROWSER_DOWNLOAD=1 npm ci --no-audit --no-fund) ||
+                die "npm ci in web/ failed"
+            return 0
+        fi
+    done
 }
 
 # Where cargo puts its output for this workspace (honours CARGO_TARGET_DIR and cargo config).
@@ -114,7 +117,7 @@ target_dir() {
 
 # The app's static files, copied as they are into $DIST.
 APP_FILES=(index.html style.css icon.svg manifest.webmanifest sw.js
-    app.js board.js drill.js jobs.js platform.js practice.js progress.js revisit.js store.js study.js tonight.js ui.js worker.js)
+    app.js board.js drill.js jobs.js platform.js practice.js progress.js revisit.js sounds.js store.js study.js tonight.js ui.js worker.js)
 
 need_node() {
     command -v node >/dev/null || die "node (Node.js 18 or later) is needed to build the app"
