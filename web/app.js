@@ -178,6 +178,8 @@ class App {
     if (extra) $('nav-more').setAttribute('aria-current', 'page');
     else $('nav-more').removeAttribute('aria-current');
     document.documentElement.dataset.screen = name;
+    // Another screen starts at the top of the page.
+    if (this.settings.screen !== name) window.scrollTo(0, 0);
     if (this.settings.screen !== name) {
       this.settings.screen = name;
       save('settings', this.settings);

@@ -6,7 +6,7 @@ import { searchingWords } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
 import { save } from './store.js';
-import { $, POINT_NAME, RULES, announce } from './ui.js';
+import { $, POINT_NAME, RULES, announce, bringBoard } from './ui.js';
 
 const TOOLS = ['play', 'black', 'white', 'erase'];
 // The node budget of a study search (the worker's searches stop there with "unknown").
@@ -239,6 +239,8 @@ export class Study {
       $('study-stepper').hidden = false;
       $('study-step').textContent = `0 of ${r.line.length}`;
       $('study').dataset.line = String(r.line.length);
+      // The board and the stepper under it in view together (a phone, large text).
+      bringBoard($('study-board'));
     }
   }
 

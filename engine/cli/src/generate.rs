@@ -55,7 +55,7 @@ pub struct GenerateArgs {
         value_parser = parse_band,
         allow_hyphen_values = true
     )]
-    pub rating: Band,
+    pub rating: RatingRange,
     /// Seed, 0 to 18446744073709551615: the same seed and options give the same set.
     #[arg(long, default_value_t = 1, allow_negative_numbers = true)]
     pub seed: u64,
@@ -77,10 +77,10 @@ pub struct GenerateArgs {
 
 /// A rating band, low and high ends included.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
-pub struct Band(pub u32, pub u32);
+pub struct RatingRange(pub u32, pub u32);
 
 /// Reads `--rating`; the message says what is wrong (clap names the option).
-fn parse_band(s: &str) -> Result<Band, String> {
+fn parse_band(s: &str) -> Result<RatingRange, String> {
     let bad = || format!("'{s}' is not a band like 1200-1600");
     let (a, b) = s.split_once('-').ok_or_else(bad)?;
     let end = |t: &str| -> Result<u32, String> {
@@ -100,7 +100,7 @@ fn parse_band(s: &str) -> Result<Band, String> {
             RATINGS.0, RATINGS.1
         ));
     }
-    Ok(Band(lo, hi))
+    Ok(RatingRange(lo, hi))
 }
 
 /// Reads `--title`: at most the set file's limit.
