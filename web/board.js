@@ -106,6 +106,10 @@ export class BoardView {
     if (ended) this.reported = true;
     this.onChange(s, why);
     if (ended) this.onFinish(s, Math.round(performance.now() - this.shownAt));
+    // The buttons under the board change with the state (a failure adds "Show the solution"):
+    // keep the board and them in view together.
+    if (why !== 'load' && s.state !== this.lastState) bringBoard(this.canvas);
+    this.lastState = s.state;
     return s;
   }
 

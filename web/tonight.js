@@ -571,16 +571,18 @@ export class Tonight {
     const input = $('tonight-share-link');
     input.value = link;
     input.select();
-    $('tonight-share-note').textContent = `${link.length} characters.`;
+    $('tonight-share-note').textContent = link.startsWith('file:')
+      ? 'This link points at a file on this device, so it opens only here. Send the set file instead, or open the app from the club\'s web address.'
+      : 'Whoever opens this link gets the set on their own device.';
     this.copy(link, 'The link');
   }
 
   async copy(text, what) {
     try {
       await navigator.clipboard.writeText(text);
-      announce(`${what} is copied.`);
+      banner(`${what} is copied.`, { kind: 'info', id: 'copied' });
     } catch {
-      announce(`${what} is shown; copy it from there.`);
+      banner(`${what} could not be copied here; select it and copy it by hand.`, { kind: 'info', id: 'copied' });
     }
   }
 }
