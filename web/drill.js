@@ -11,6 +11,11 @@ import { $, POINT_NAME, RULES, announce, el, fill, isInt, own, put, randomSeed }
 // Puzzles kept ready ahead of the one being played.
 const AHEAD = 3;
 
+// Puzzles kept on the device for the other theme and rule pairs (at most STOCK each): what was
+// made for a filter stays when the filter changes, so going back to it starts at once.
+const STOCK = AHEAD + 1;
+const stockKey = (theme, rule) => `${theme}/${rule}`;
+
 function checkRating(r) {
   return r === null || (r && [r.rating, r.deviation, r.volatility].every(Number.isFinite));
 }
@@ -29,6 +34,7 @@ export function upgradeDrill(d) {
   }
   delete d.rating;
   d.puzzleRatings ??= {};
+  d.stock ??= {};
   return d;
 }
 
@@ -48,6 +54,15 @@ export function checkDrill(d) {
     for (const r of Object.values(d.puzzleRatings)) if (!checkRating(r)) return 'the puzzle ratings are malformed';
   }
   if (!Array.isArray(d.queue) || d.queue.length > 20) return 'the queue is malformed';
+  const stock = d.stock ?? {};
+  if (!stock || typeof stock !== 'object' || Array.isArray(stock)) return 'the stock is malformed';
+  for (const [key, list] of Object.entries(stock)) {
+    const [theme, rule, more] = key.split('/');
+    if (more !== undefined || !/^[a-z-]{1,20}$/.test(theme) || !RULES.includes(rule) ||
+        !Array.isArray(list) || list.length > STOCK) {
+      return 'the stock is malformed';
+    }
+  }
   if (!d.stats || !isInt(d.stats.played, 0, 1e9) || !isInt(d.stats.clean, 0, 1e9)) return 'the counts are malformed';
   const c = d.current;
   if (c !== null) {
@@ -60,7 +75,7 @@ export function checkDrill(d) {
   }
   // Every puzzle must be one a set file could hold (each checked alone: two drill puzzles
   // may share an id, which a set could not).
-  for (const p of [...d.queue, ...(c ? [c.puzzle] : [])]) {
+  for (const p of [...d.queue, ...Object.values(stock).flat(), ...(c ? [c.puzzle] : [])]) {
     try {
       parseSet(JSON.stringify({ format: 'fivefold-set', version: 1, title: 'Drill', created: '2026-12-01', puzzles: [p] }));
     } catch (e) {
@@ -71,7 +86,7 @@ export function checkDrill(d) {
 }
 
 export function emptyDrill() {
-  return { theme: 'vcf', rule: 'freestyle', ratings: {}, puzzleRatings: {}, current: null, queue: [], stats: { played: 0, clean: 0 } };
+  return { theme: 'vcf', rule: 'freestyle', ratings: {}, puzzleRatings: {}, current: null, queue: [], stock: {}, stats: { played: 0, clean: 0 } };
 }
 
 export class Drill {
@@ -150,13 +165,28 @@ export class Drill {
   filter(theme, rule) {
     if (!this.allowed(theme, rule)) theme = this.themes.find((t) => t.rules.includes(rule)).name;
     if (theme === this.data.theme && rule === this.data.rule) return;
-    this.data.theme = theme;
-    this.data.rule = rule;
-    this.data.queue = [];
+    // What was made for the filters before stays in stock for them: the puzzle on the board
+    // too, when it is untouched (changing the filters is not a way to skip a puzzle that was
+    // started: that one counts as before).
+    const d = this.data;
+    const kept = [...d.queue];
+    const c = d.current;
+    if (c && !c.rated && !c.played.length && !c.wrong && !c.hints && !c.attempt) kept.unshift(c.puzzle);
+    else this.leave();
+    d.stock ??= {};
+    if (kept.length) d.stock[stockKey(d.theme, d.rule)] = kept.slice(0, STOCK);
+    d.theme = theme;
+    d.rule = rule;
+    d.queue = d.stock[stockKey(theme, rule)] ?? [];
+    delete d.stock[stockKey(theme, rule)];
     this.jobs.cancel();
     this.generating = null;
     this.renderFilters();
-    this.leave();
+    if (d.queue.length) {
+      d.current = null;
+      this.next();
+      return;
+    }
     this.data.current = null;
     this.save();
     this.waiting(true);

@@ -116,3 +116,28 @@ test('the theme and rule filters decide what the worker makes next', async () =>
   assert.deepEqual(errors, []);
   await context.close();
 });
+
+test('puzzles made for other filters are kept in stock: going back to a theme starts at once, with the untouched puzzle', async () => {
+  const { page, context, errors } = await open(env.browser, env.server.url);
+  await page.click('[data-go="drill"]');
+  await page.waitForSelector('#drill[data-waiting="false"]', { timeout: 60000 });
+  // Let the worker make a few ahead for this theme.
+  await page.waitForFunction(() => Number(document.getElementById('drill').dataset.ready) >= 1, null, { timeout: 60000 });
+  const first = (await stored(page)).current.puzzle.id;
+  await page.selectOption('#drill-theme', 'four-three');
+  await page.waitForFunction(() => JSON.parse(localStorage.getItem('fivefold.drill'))?.data?.current?.puzzle.theme === 'four-three', null, { timeout: 60000 });
+  const away = await stored(page);
+  assert.equal(away.stock['vcf/freestyle'][0].id, first, 'the untouched puzzle waits in stock, first');
+  assert.ok(away.stock['vcf/freestyle'].length >= 2, 'with the ones made ahead');
+  // Back: no wait, the same puzzle.
+  await page.selectOption('#drill-theme', 'vcf');
+  assert.equal(await page.getAttribute('#drill', 'data-waiting'), 'false', 'a puzzle from stock, at once');
+  const back = await stored(page);
+  assert.equal(back.current.puzzle.id, first);
+  assert.equal(back.stock['vcf/freestyle'], undefined);
+  assert.equal(back.stock['four-three/freestyle']?.[0]?.theme, 'four-three');
+  // Nothing was counted for changing the filters on an untouched puzzle.
+  assert.equal(back.stats.played, 0);
+  assert.deepEqual(errors, []);
+  await context.close();
+});
