@@ -87,6 +87,7 @@ test('finishing with untried puzzles asks first; the summary shows the code as a
   assert.match(ask, /Finish the set anyway\?/);
   assert.equal(await page.textContent('#finish-go'), 'Go to puzzle 2');
   assert.equal(await page.evaluate(() => document.activeElement.id), 'finish-anyway');
+  await artefact(page, 'tonight-finish-phone');
   await page.click('#finish-go');
   assert.equal(await page.textContent('#tonight-count'), `Puzzle 2 of ${CLUB.puzzles.length}`);
   assert.ok(await page.isHidden('#tonight-finish'), 'the question goes with the puzzle');
@@ -140,6 +141,7 @@ test('without a share sheet the send button is hidden and copying stays', async 
   assert.ok(await page.isVisible('#copy-code'));
   assert.ok(await page.isVisible('#result-qr'));
   assert.equal(await readCanvas(page, '#result-qr'), await page.textContent('#result-code'));
+  await artefact(page, 'summary-qr-desktop');
   assert.ok(fetched.length > 5 && !fetched.some((p) => p.startsWith('/scan')), `the page loaded ${fetched}`);
   assert.deepEqual(errors, []);
   await ctx.close();
