@@ -147,6 +147,39 @@ test('without a share sheet the send button is hidden and copying stays', async 
   await ctx.close();
 });
 
+test('after a first visit the scanner\'s files come from the cache: offline, the QR code still reads', async () => {
+  const { page, context: ctx, errors } = await openWith(env.browser, env.server.url, {});
+  await page.evaluate(() => navigator.serviceWorker.ready);
+  await page.reload();
+  await ready(page);
+  const cached = await page.evaluate(async () => {
+    const keys = await caches.keys();
+    const c = await caches.open(keys.find((k) => k.startsWith('fivefold-')));
+    return (await c.keys()).map((r) => new URL(r.url).pathname);
+  });
+  for (const f of ['/scan.js', '/scan/fivefold_scan.js', '/scan/fivefold_scan_bg.wasm']) assert.ok(cached.includes(f), `${f} is cached`);
+
+  await ctx.setOffline(true);
+  const served = env.server.requests.length;
+  await page.reload();
+  await ready(page);
+  await addFromLibrary(page, CLUB.title);
+  await finish(page);
+  await page.click('#finish-anyway');
+  await page.waitForSelector('#tonight-summary:not([hidden])');
+  // Loaded the way the app loads it (platform.js), from the cache.
+  const read = await page.evaluate(async () => {
+    const { loadScanner } = await import(new URL('platform.js', location.href).href);
+    const { decodeImage } = await loadScanner();
+    const c = document.getElementById('result-qr');
+    return decodeImage(c.getContext('2d').getImageData(0, 0, c.width, c.height));
+  });
+  assert.equal(read, await page.textContent('#result-code'));
+  assert.equal(env.server.requests.length, served, 'nothing was fetched from the server while offline');
+  assert.deepEqual(errors, []);
+  await ctx.close();
+});
+
 // ---- the scanner ----
 
 /** A page that opens the scanner in `#host` and collects what it reads in `window.read`. */
