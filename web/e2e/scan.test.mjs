@@ -184,7 +184,9 @@ test('after a first visit the scanner\'s files come from the cache: offline, the
 
 /** A page that opens the scanner in `#host` and collects what it reads in `window.read`. */
 const SCAN_PAGE = `<!doctype html><meta charset="utf-8"><title>Scanner</title>
-<div id="host"></div>
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<link rel="stylesheet" href="style.css">
+<main style="padding: 1rem"><div id="host"></div></main>
 <script type="module">
   import { openScanner } from './scan.js';
   window.read = [];
@@ -193,8 +195,8 @@ const SCAN_PAGE = `<!doctype html><meta charset="utf-8"><title>Scanner</title>
   window.opened = true;
 </script>`;
 
-async function scanPage(browser, init) {
-  const c = await context(browser, {});
+async function scanPage(browser, init, options = {}) {
+  const c = await context(browser, options);
   if (init) await c.page.addInitScript(init);
   c.requested = [];
   c.page.on('request', (r) => c.requested.push(new URL(r.url()).pathname));
@@ -245,7 +247,7 @@ test('the scanner reads a student\'s result code from the camera, once, and stop
     args: ['--use-fake-ui-for-media-stream', '--use-fake-device-for-media-stream', `--use-file-for-fake-video-capture=${video}`],
   });
   try {
-    const { page, errors, requested } = await scanPage(browser);
+    const { page, errors, requested } = await scanPage(browser, null, PHONE_360);
     assert.equal(await page.evaluate(() => window.scanner.error), null);
     assert.ok(await page.isVisible('.scanner video'));
     await page.waitForFunction(() => window.read.length > 0, null, { timeout: 20000 });
@@ -259,6 +261,7 @@ test('the scanner reads a student\'s result code from the camera, once, and stop
       assert.ok(requested.includes('/scan/fivefold_scan_bg.wasm'), 'the wasm reader was loaded on first use');
     }
     assert.match(await page.textContent('.scan-status'), /Codes read so far: 1\.$/);
+    await artefact(page, 'scan-panel-phone');
     await page.evaluate(() => window.scanner.stop());
     assert.equal(await page.$('.scanner'), null, 'the panel is gone');
     assert.ok(await page.evaluate(() => window.stream.getTracks().every((t) => t.readyState === 'ended')), 'the camera is released');
