@@ -16,3 +16,9 @@ export function makeWorker() {
 
 /** Whether this build can work offline through a service worker (not from file://). */
 export const SERVED = true;
+
+/** The camera scanner (web/scan.js), loaded on first use so that the page does not grow:
+ * `const { openScanner } = await loadScanner()`. */
+export function loadScanner() {
+  return import('./scan.js');
+}

@@ -1,7 +1,7 @@
 // Tonight: the sets a student has been given (from a link, a file or the starter library),
 // played puzzle by puzzle with progress, and a summary with a result code at the end.
 
-import { attemptWords, librarySets, parseSet, recordedAttempt, resultCode, setKey, shareEncode, shareDecode } from './pkg/fivefold_web.js';
+import { attemptWords, librarySets, parseSet, qrMatrix, recordedAttempt, resultCode, setKey, shareEncode, shareDecode } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
 import { save } from './store.js';
@@ -77,6 +77,52 @@ function ruleWords(puzzles) {
   return rules.join(', ');
 }
 
+/** Whether the device's share sheet can take `text`. */
+function canShare(text) {
+  if (typeof navigator.share !== 'function') return false;
+  try {
+    return typeof navigator.canShare !== 'function' || navigator.canShare({ text });
+  } catch {
+    return false;
+  }
+}
+
+// The smallest width of a QR code's module on screen, in CSS pixels, and the code's width
+// (quiet zone included) that the page aims for: about 5 cm on a phone, which a phone's camera
+// reads at arm's length.
+const QR_MODULE_MIN = 4;
+const QR_WIDTH = 288;
+
+/** Draws the QR code of `text` on `canvas`, dark on white with its quiet zone, whole device
+ * pixels a module (so its edges stay sharp); false if the text cannot be a QR code. */
+function drawQr(canvas, text) {
+  let m;
+  try {
+    m = qrMatrix(text);
+  } catch {
+    return false;
+  }
+  const side = m.size + 2 * m.quiet;
+  const dpr = window.devicePixelRatio || 1;
+  const px = Math.max(Math.round(QR_MODULE_MIN * dpr), Math.floor((QR_WIDTH * dpr) / side));
+  canvas.width = side * px;
+  canvas.height = side * px;
+  // Whole device pixels a module on screen too (the style sheet lets it shrink to fit).
+  canvas.style.width = `${(side * px) / dpr}px`;
+  canvas.dataset.version = String(m.version);
+  canvas.dataset.modules = String(m.size);
+  const ctx = canvas.getContext('2d');
+  ctx.fillStyle = '#ffffff';
+  ctx.fillRect(0, 0, canvas.width, canvas.height);
+  ctx.fillStyle = '#000000';
+  for (let y = 0; y < m.size; y++) {
+    for (let x = 0; x < m.size; x++) {
+      if (m.dark[y * m.size + x]) ctx.fillRect((x + m.quiet) * px, (y + m.quiet) * px, px, px);
+    }
+  }
+  return true;
+}
+
 export class Tonight {
   constructor(app) {
     this.app = app;
@@ -107,7 +153,15 @@ export class Tonight {
       this.saveProgress();
       this.renderCode();
     });
-    $('copy-code').addEventListener('click', () => this.copy($('result-code').textContent, 'The result code'));
+    $('copy-code').addEventListener('click', () => {
+      if (this.code) this.copy(this.code, 'The result code');
+    });
+    $('share-code').addEventListener('click', () => this.sendCode());
+    $('finish-anyway').addEventListener('click', () => this.showSummary());
+    $('finish-go').addEventListener('click', () => {
+      const first = this.untried(this.data.open)[0];
+      if (first !== undefined) this.openSet(this.data.open, first);
+    });
     $('library').addEventListener('toggle', () => this.renderLibrary());
     const list = $('tonight-list');
     list.addEventListener('dragover', (e) => e.preventDefault());
@@ -398,6 +452,7 @@ export class Tonight {
     this.view('play');
     $('tonight-set-title').textContent = this.set(key).title || 'Untitled set';
     $('tonight-share-box').hidden = true;
+    $('tonight-finish').hidden = true;
     if (this.checking !== key) $('tonight-check').hidden = true;
     this.loadCurrent();
     this.checkSet(key);
@@ -517,9 +572,30 @@ export class Tonight {
     else if (what === 'undo') this.board.undo();
     else if (what === 'retry') this.board.retry();
     else if (what === 'next') {
-      if (prog.index + 1 >= this.puzzlesOf(key).length) this.showSummary();
-      else this.openSet(key, prog.index + 1);
+      if (prog.index + 1 < this.puzzlesOf(key).length) this.openSet(key, prog.index + 1);
+      else if (this.untried(key).length) this.askFinish(key);
+      else this.showSummary();
     }
+  }
+
+  /** The indices of the set's puzzles not tried yet. */
+  untried(key) {
+    return this.outcomes(key).flatMap((o, i) => (o === 'untried' ? [i] : []));
+  }
+
+  /** Before the summary of a set with untried puzzles: says which, and lets the player finish
+   * anyway or go to the first of them. */
+  askFinish(key) {
+    const left = this.untried(key).map((i) => String(i + 1));
+    const shown = left.length > 8 ? [...left.slice(0, 7), `${left.length - 7} more`] : left;
+    const list = new Intl.ListFormat('en', { type: 'conjunction' }).format(shown);
+    $('tonight-finish-text').textContent = left.length === 1
+      ? `Puzzle ${list} is not tried yet. Finish the set anyway? It counts as not tried in your result code.`
+      : `${left.length} puzzles are not tried yet: ${list}. Finish the set anyway? They count as not tried in your result code.`;
+    $('finish-go').textContent = `Go to puzzle ${left[0]}`;
+    $('tonight-finish').hidden = false;
+    $('finish-anyway').focus();
+    announce($('tonight-finish-text').textContent);
   }
 
   outcomes(key) {
@@ -531,6 +607,7 @@ export class Tonight {
     const key = this.data.open;
     if (!key || !this.set(key)) return this.showList();
     this.board.cancelPacing();
+    $('tonight-finish').hidden = true;
     this.view('summary');
     this.saveProgress();
     const outs = this.outcomes(key);
@@ -549,15 +626,32 @@ export class Tonight {
   renderCode() {
     const key = this.data.open;
     if (!key) return;
+    this.code = null;
     try {
       const recs = this.progressOf(key).puzzles;
       const results = this.puzzlesOf(key).map((p) => {
         const r = own(recs, p.id);
         return { attempt: r?.outcome ?? 'untried', hints: r?.hints ?? 0, seconds: r?.seconds ?? null };
       });
-      $('result-code').textContent = resultCode(this.set(key).json, this.data.name, results);
+      this.code = resultCode(this.set(key).json, this.data.name, results);
+      $('result-code').textContent = this.code;
     } catch (e) {
       $('result-code').textContent = `No code: ${e}`;
+    }
+    $('result-qr-box').hidden = !this.code || !drawQr($('result-qr'), this.code);
+    $('copy-code').disabled = !this.code;
+    $('share-code').hidden = !this.code || !canShare(this.code);
+  }
+
+  /** Hands the result code to the device's share sheet (messages, mail, ...). */
+  async sendCode() {
+    if (!this.code) return;
+    try {
+      await navigator.share({ title: 'Fivefold result code', text: this.code });
+    } catch (e) {
+      // The player closed the share sheet: nothing to say.
+      if (e?.name === 'AbortError') return;
+      banner('The code could not be sent from here; copy it instead.', { kind: 'warn', id: 'share-code' });
     }
   }
 

@@ -104,7 +104,7 @@ fn the_engine_has_no_web_dependency() {
 fn no_two_public_types_share_a_name() {
     let mut seen: Vec<(String, String)> = Vec::new();
     let mut clashes = Vec::new();
-    for dir in ["engine/src", "engine/cli/src", "web/src"] {
+    for dir in ["engine/src", "engine/cli/src", "web/src", "web/scan/src"] {
         for f in rust_files(&root().join(dir)) {
             let text = fs::read_to_string(&f).expect("a source file");
             for line in text.lines() {
@@ -142,7 +142,7 @@ fn no_two_public_types_share_a_name() {
 fn every_crate_forbids_unsafe_code() {
     let workspace = fs::read_to_string(root().join("Cargo.toml")).expect("manifest");
     assert!(workspace.contains("unsafe_code = \"forbid\""));
-    for krate in ["engine", "engine/cli", "web", "tests"] {
+    for krate in ["engine", "engine/cli", "web", "web/scan", "tests"] {
         let m = fs::read_to_string(root().join(krate).join("Cargo.toml")).expect("manifest");
         assert!(
             m.contains("[lints]\nworkspace = true"),

@@ -70,6 +70,8 @@ async function walk(page, { touch }, visit) {
   await visit('tonight-wrong', 'tonight-board');
   await page.click(`#tonight-marks li:nth-child(${CLUB.puzzles.length}) button`);
   await page.click('#tonight-play [data-act="next"]');
+  await visit('tonight-finish', 'tonight-board');
+  await page.click('#finish-anyway');
   await page.waitForSelector('#tonight-summary:not([hidden])');
   await visit('tonight-summary');
   await page.click('#summary-sets');

@@ -75,22 +75,23 @@ export const CHROMIUM_ARGS = [
   '--disable-sync',
 ];
 
-export function launch() {
+/** A headless Chromium; `args` are added to the usual flags (a fake camera, say). */
+export function launch({ args = [] } = {}) {
   return chromium.launch({
     executablePath: process.env.CHROMIUM ?? '/usr/bin/chromium',
     headless: true,
-    args: CHROMIUM_ARGS,
+    args: [...CHROMIUM_ARGS, ...args],
   });
 }
 
-// Registers the file's before/after hooks: one static server over web/dist and one browser,
-// shared by the file's tests. Returns an object whose `server` and `browser` are set once the
-// hooks have run.
-export function useBrowser(root = DIST) {
+// Registers the file's before/after hooks: one static server over web/dist and one browser
+// (launched with the extra `args`, if any), shared by the file's tests. Returns an object
+// whose `server` and `browser` are set once the hooks have run.
+export function useBrowser(root = DIST, { args = [] } = {}) {
   const env = {};
   before(async () => {
     env.server = await serve(root);
-    env.browser = await launch();
+    env.browser = await launch({ args });
   });
   after(async () => {
     await env.browser?.close();

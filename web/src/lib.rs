@@ -6,8 +6,8 @@
 //! two board handles (a puzzle board and a study board, each a thin shell over an engine
 //! controller and one canvas), [`api`] the plain functions (sets, share and result codes,
 //! ratings, generation and solving for the worker), [`drill`] the choice of a drill's rating
-//! band, [`layout`] places the grid and [`render`] draws it; [`bench`] times the solver's
-//! benchmark suite in the browser.
+//! band, [`layout`] places the grid and [`render`] draws it, [`qr`] gives the modules of a QR
+//! code; [`bench`] times the solver's benchmark suite in the browser.
 #![deny(missing_docs)]
 
 pub mod api;
@@ -17,6 +17,7 @@ pub mod drill;
 pub mod layout;
 pub mod library;
 pub mod practice;
+pub mod qr;
 pub mod render;
 mod surface;
 

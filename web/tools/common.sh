@@ -117,31 +117,36 @@ target_dir() {
 
 # The app's static files, copied as they are into $DIST.
 APP_FILES=(index.html style.css icon.svg manifest.webmanifest sw.js
-    app.js board.js drill.js jobs.js platform.js practice.js progress.js revisit.js sounds.js store.js study.js tonight.js ui.js worker.js)
+    app.js board.js drill.js jobs.js platform.js practice.js progress.js revisit.js scan.js sounds.js store.js study.js tonight.js ui.js worker.js)
 
 need_node() {
     command -v node >/dev/null || die "node (Node.js 18 or later) is needed to build the app"
 }
 
 # Builds the app into $DIST: the release wasm and its bindings (name section removed), the
-# page's files, the PNG icons and the stamped service worker (tools/stamp.mjs), and the
-# single-file build $DIST/fivefold.html (tools/single.mjs).
+# camera scanner's QR reader (web/scan, its own small wasm module in $DIST/scan, loaded only
+# when scanning starts), the page's files, the PNG icons and the stamped service worker
+# (tools/stamp.mjs), and the single-file build $DIST/fivefold.html (tools/single.mjs).
 build_app() {
     need_wasm_target
     need_wasm_bindgen
     need_node
-    step "Building the wasm module (cargo build --release --target $WASM_TARGET -p fivefold-web)"
-    (cd "$ROOT" && cargo build --release --target "$WASM_TARGET" -p fivefold-web) ||
+    step "Building the wasm modules (cargo build --release --target $WASM_TARGET -p fivefold-web -p fivefold-scan)"
+    (cd "$ROOT" && cargo build --release --target "$WASM_TARGET" -p fivefold-web -p fivefold-scan) ||
         die "the wasm build failed"
-    local target wasm f
+    local target wasm scan f
     target="$(target_dir)" || die "cargo metadata failed"
     wasm="$target/$WASM_TARGET/release/fivefold_web.wasm"
+    scan="$target/$WASM_TARGET/release/fivefold_scan.wasm"
     [ -f "$wasm" ] || die "no $wasm after the build"
+    [ -f "$scan" ] || die "no $scan after the build"
     step "Generating the bindings and copying the page into $DIST"
     rm -rf "$DIST"
-    mkdir -p "$DIST/pkg"
+    mkdir -p "$DIST/pkg" "$DIST/scan"
     wasm-bindgen --target web --no-typescript --remove-name-section --out-dir "$DIST/pkg" "$wasm" ||
         die "wasm-bindgen failed"
+    wasm-bindgen --target web --no-typescript --remove-name-section --out-dir "$DIST/scan" "$scan" ||
+        die "wasm-bindgen failed on the scanner"
     for f in "${APP_FILES[@]}"; do
         cp "$WEB_DIR/$f" "$DIST/$f" || die "copying $f failed"
     done

@@ -1,6 +1,7 @@
 // Measures the built app (web/dist) here, in headless Chromium:
 //   1. page weight: each file gzip -9 compressed (HTML, JS, CSS, WASM, the worker), and the
-//      single-file build apart;
+//      single-file build apart; the camera scanner (scan.js and scan/, loaded only when
+//      scanning starts) is listed apart and not counted in the page's total;
 //   2. first board on screen: from navigation to the first puzzle board drawn (the page's
 //      performance mark "fivefold:first-board"), for a returning student (a set open, the
 //      service worker installed) and for a first visit from a share link;
@@ -49,7 +50,7 @@ function walk(dir) {
   });
 }
 
-const weight = { files: [], total: { raw: 0, gz: 0 }, byKind: {} };
+const weight = { files: [], total: { raw: 0, gz: 0 }, byKind: {}, scanner: { files: [], raw: 0, gz: 0 } };
 for (const p of walk(DIST).sort()) {
   const name = relative(DIST, p);
   if (name === 'fivefold.html') continue;
@@ -58,6 +59,13 @@ for (const p of walk(DIST).sort()) {
   if (kind === 'other') continue; // icons and the manifest are fetched by the installer, not the page
   const raw = statSync(p).size;
   const gz = gz9(p);
+  if (name === 'scan.js' || name.startsWith('scan/')) {
+    // The camera scanner: loaded only when scanning starts, never by the student's page.
+    weight.scanner.files.push({ name, raw, gz });
+    weight.scanner.raw += raw;
+    weight.scanner.gz += gz;
+    continue;
+  }
   weight.files.push({ name, raw, gz });
   weight.total.raw += raw;
   weight.total.gz += gz;
@@ -205,6 +213,9 @@ for (const f of weight.files) say(`  ${f.name.padEnd(28)} ${String(f.raw).padSta
 say(`  total                        ${String(weight.total.raw).padStart(9)} B  ->  ${String(weight.total.gz).padStart(8)} B (${kb(weight.total.gz)})`);
 say(`  by kind: ${Object.entries(weight.byKind).map(([k, v]) => `${k} ${kb(v)}`).join(', ')}`);
 say(`  single file fivefold.html    ${String(weight.single.raw).padStart(9)} B  ->  ${String(weight.single.gz).padStart(8)} B (${kb(weight.single.gz)})`);
+say('  camera scanner, loaded only when scanning starts (not in the total):');
+for (const f of weight.scanner.files) say(`    ${f.name.padEnd(26)} ${String(f.raw).padStart(9)} B  ->  ${String(f.gz).padStart(8)} B`);
+say(`    scanner total              ${String(weight.scanner.raw).padStart(9)} B  ->  ${String(weight.scanner.gz).padStart(8)} B (${kb(weight.scanner.gz)})`);
 say();
 for (const [k, xs] of Object.entries(firstBoard)) {
   say(`First board on screen, ${k === 'returning' ? 'returning student (set open, service worker)' : 'first visit from a share link'}: ` +

@@ -31,3 +31,9 @@ export function makeWorker() {
 }
 
 export const SERVED = false;
+
+// The single file cannot load the scanner's separate files from file://; it says so instead.
+export async function loadScanner() {
+  throw new Error('Scanning codes with the camera needs Fivefold opened from its web address, ' +
+    'not from this single-file copy. Paste the codes instead.');
+}
