@@ -60,7 +60,8 @@ export function checkTonight(d) {
     }
     for (const [id, r] of Object.entries(p.puzzles)) {
       if (!r || !Array.isArray(r.played) || !r.played.every((m) => typeof m === 'string' && POINT_NAME.test(m)) ||
-          !isInt(r.wrong, 0, 1e6) || !isInt(r.hints, 0, 3) || !Object.hasOwn(OUTCOME_WORDS(), r.outcome)) {
+          !isInt(r.wrong, 0, 1e6) || !isInt(r.hints, 0, 3) || !Object.hasOwn(OUTCOME_WORDS(), r.outcome) ||
+          (r.seconds !== undefined && !isInt(r.seconds, 0, 1e7))) {
         return `the record of puzzle ${id} is malformed`;
       }
     }
@@ -497,7 +498,9 @@ export class Tonight {
     const p = this.puzzlesOf(key)[prog.index];
     // The board keeps the record, merged over every try (engine::puzzle::attempt).
     const r = s.record;
-    put(prog.puzzles, p.id, { played: r.played, wrong: r.wrong, hints: r.hints, outcome: r.attempt });
+    // The time of the first try that ended, for the result code, stays over later tries.
+    const seconds = own(prog.puzzles, p.id)?.seconds;
+    put(prog.puzzles, p.id, { played: r.played, wrong: r.wrong, hints: r.hints, outcome: r.attempt, ...(seconds === undefined ? {} : { seconds }) });
     if (why !== 'reveal' || s.pending === 0) this.saveProgress();
     this.renderPlay(s);
   }
@@ -506,8 +509,14 @@ export class Tonight {
   finished(s, millis) {
     const key = this.data.open;
     if (!key || this.loading) return;
-    const p = this.puzzlesOf(key)[this.progressOf(key).index];
+    const prog = this.progressOf(key);
+    const p = this.puzzlesOf(key)[prog.index];
     if (!p) return;
+    const rec = own(prog.puzzles, p.id);
+    if (rec && rec.seconds === undefined) {
+      rec.seconds = Math.round(millis / 1000);
+      this.saveProgress();
+    }
     const out = this.app.practice.finished({
       origin: 'tonight',
       title: this.set(key)?.title ?? '',

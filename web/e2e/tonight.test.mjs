@@ -249,6 +249,12 @@ test('the end of a set shows a summary and a result code with the student\'s nam
   const { page, context, errors } = await open(env.browser, env.server.url);
   await addFromLibrary(page, CLUB.title);
   await solve(page, BOARD, CLUB.puzzles[0].solution.line);
+  // The time the try took is kept for the result code (in whole seconds).
+  const timed = await page.evaluate((id) => {
+    const d = JSON.parse(localStorage.getItem('fivefold.tonight')).data;
+    return Object.values(d.progress)[0].puzzles[id].seconds;
+  }, CLUB.puzzles[0].id);
+  assert.ok(Number.isInteger(timed) && timed >= 0 && timed < 600, `seconds recorded: ${timed}`);
   await page.click(`#tonight-marks li:nth-child(${CLUB.puzzles.length}) button`);
   await page.click('#tonight-play [data-act="next"]');
   // Untried puzzles are left: the page asks first.
