@@ -16,3 +16,9 @@ export function makeWorker() {
 
 /** Whether this build can work offline through a service worker (not from file://). */
 export const SERVED = true;
+
+/** The camera scanner (web/scan.js), loaded only when an instructor starts scanning, so the
+ * page a student loads does not grow. Rejects when it cannot be loaded here. */
+export function loadScanner() {
+  return import('./scan.js');
+}

@@ -31,3 +31,8 @@ export function makeWorker() {
 }
 
 export const SERVED = false;
+
+// The single file holds no scanner: its camera code is a separate file, loaded on demand.
+export async function loadScanner() {
+  throw new Error('the camera scanner is not part of the single-file app');
+}
