@@ -712,7 +712,10 @@ export class Coach {
   fillSheet() {
     const text = this.setFile('print its sheet');
     if (!text) return false;
-    const doc = new DOMParser().parseFromString(sheetHtml(text), 'text/html');
+    // Only the body: the sheet's own style element is for the command line's file (this page
+    // prints with style.css), and the page's policy refuses inline styles even in a parsed copy.
+    const html = sheetHtml(text);
+    const doc = new DOMParser().parseFromString(html.slice(html.indexOf('<body')), 'text/html');
     for (const bad of doc.querySelectorAll('script, style, link, iframe, object, embed')) bad.remove();
     fill($('coach-print'), [...doc.body.childNodes].map((n) => document.adoptNode(n)));
     $('coach-print').dataset.kind = 'sheet';
