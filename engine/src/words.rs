@@ -84,7 +84,12 @@ pub fn answer_key(p: &Puzzle) -> String {
         crate::puzzle::Goal::Win => ("Correct first moves", "Main line"),
         crate::puzzle::Goal::Defend => ("Defences", "The threat"),
     };
-    let spaced = |v: &[Point]| v.iter().map(|q| q.to_string()).collect::<Vec<_>>().join(" ");
+    let spaced = |v: &[Point]| {
+        v.iter()
+            .map(|q| q.to_string())
+            .collect::<Vec<_>>()
+            .join(" ")
+    };
     format!(
         "{first}: {}. {line}: {}.",
         commas(&p.first_moves),

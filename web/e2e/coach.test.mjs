@@ -37,10 +37,12 @@ async function goCoach(page) {
 }
 
 /** Makes a new set in Coach: one theme, `count` puzzles, a fixed seed; returns its puzzles. */
-async function makeSet(page, { title, theme, count, seed }) {
-  await goCoach(page);
-  if (await page.isVisible('#coach-back')) await page.click('#coach-back');
-  await page.click('#coach-new');
+async function makeSet(page, { title, theme, count, seed, keep = false }) {
+  if (!keep) {
+    await goCoach(page);
+    if (await page.isVisible('#coach-back')) await page.click('#coach-back');
+    await page.click('#coach-new');
+  }
   await page.fill('#coach-name', title);
   await page.fill('#coach-count', String(count));
   await page.press('#coach-count', 'Tab');
@@ -373,5 +375,23 @@ test('Coach on a phone: make, preview, hand out and results fit 360 px', async (
     .map((e) => e.id || e.textContent));
   assert.deepEqual(small, []);
   assert.deepEqual(errors, []);
+  await context.close();
+});
+
+// Not a timed test: how long the app's worker takes to make a 12-puzzle set of each theme
+// (for engine/benches/README.md). Run with COACH_MEASURE=1.
+test('measure: a 12-puzzle set of each theme in the worker', { skip: !process.env.COACH_MEASURE }, async () => {
+  const { page, context } = await open(env.browser, env.server.url);
+  const rows = [];
+  for (const [theme, rule] of [['four-three', 'freestyle'], ['vcf', 'freestyle'], ['vct', 'freestyle'], ['defend', 'freestyle'],
+    ['forbidden-trap', 'renju'], ['forbidden-win', 'renju']]) {
+    await goCoach(page);
+    if (await page.isVisible('#coach-back')) await page.click('#coach-back');
+    await page.click('#coach-new');
+    await page.selectOption('#coach-rule', rule);
+    const { ms } = await makeSet(page, { title: `${theme} timing`, theme, count: 12, seed: 1, keep: true });
+    rows.push(`| ${theme} | ${rule} | ${(ms / 1000).toFixed(1)} s |`);
+    console.log(rows.at(-1));
+  }
   await context.close();
 });

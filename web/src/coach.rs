@@ -240,11 +240,12 @@ pub fn class_read(
                 }
                 out.new_students += added.new_students;
                 out.replaced += added.replaced;
-                out.notices
-                    .extend(added.notices.into_iter().map(|n| NoticeJs::of(Notice {
+                out.notices.extend(added.notices.into_iter().map(|n| {
+                    NoticeJs::of(Notice {
                         line: found.line,
                         ..n
-                    })));
+                    })
+                }));
             }
         }
     }
@@ -276,7 +277,11 @@ mod tests {
             .map(|(i, n)| {
                 let r: Vec<PuzzleResult> = (0..set.puzzles.len())
                     .map(|k| {
-                        let a = if k <= i { Attempt::Clean } else { Attempt::Failed };
+                        let a = if k <= i {
+                            Attempt::Clean
+                        } else {
+                            Attempt::Failed
+                        };
                         PuzzleResult::new(a, 0, TimeBucket::Under2Min)
                     })
                     .collect();
