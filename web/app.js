@@ -11,6 +11,7 @@ import { Study, checkStudy } from './study.js';
 import { PracticeStore, checkPractice } from './practice.js';
 import { Revisit } from './revisit.js';
 import { Progress } from './progress.js';
+import { Coach, checkCoach } from './coach.js';
 import { $, banner, clearBanner, download, shown } from './ui.js';
 import { setSounds } from './sounds.js';
 
@@ -40,6 +41,7 @@ const VALIDATORS = {
   drill: checkDrill,
   study: checkStudy,
   practice: checkPractice,
+  coach: checkCoach,
 };
 
 const WHAT = {
@@ -49,6 +51,7 @@ const WHAT = {
   drill: 'Drill progress',
   study: 'Study board position',
   practice: 'Revisit schedule and practice history',
+  coach: 'Coach sets and results',
 };
 
 class App {
@@ -92,6 +95,7 @@ class App {
     this.study = new Study(this);
     this.revisit = new Revisit(this);
     this.progress = new Progress(this);
+    this.coach = new Coach(this);
     this.loadAll();
     for (const b of document.querySelectorAll('[data-go]')) {
       b.addEventListener('click', () => {
@@ -134,6 +138,7 @@ class App {
     this.tonight.init(got.sets, got.tonight);
     this.drill.init(got.drill);
     this.study.init(got.study);
+    this.coach.init(got.coach);
     this.go(this.settings.screen);
   }
 
@@ -146,11 +151,12 @@ class App {
       drill: this.drill.data,
       study: this.study.data,
       practice: this.practice.data,
+      coach: this.coach.data,
     };
   }
 
   applySettings() {
-    for (const screen of [this.tonight, this.drill, this.study, this.revisit]) screen.applySettings(this.settings);
+    for (const screen of [this.tonight, this.drill, this.study, this.revisit, this.coach]) screen.applySettings(this.settings);
     $('opt-confirm').checked = this.settings.confirm;
     $('opt-forbidden').checked = this.settings.forbidden;
     $('opt-numbers').checked = this.settings.numbers;
@@ -258,6 +264,7 @@ class App {
       drill: this.drill.data,
       study: this.study.data,
       practice: this.practice.data,
+      coach: this.coach.data,
     };
     const day = new Date().toISOString().slice(0, 10);
     download(`fivefold-backup-${day}.json`, makeBackup(parts));
@@ -303,6 +310,7 @@ class App {
       drill: this.drill.data,
       study: this.study.data,
       practice: this.practice.data,
+      coach: this.coach.data,
       ...parts,
     });
     const msg = failed.length

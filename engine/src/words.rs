@@ -77,6 +77,26 @@ pub fn goal(p: &Puzzle) -> String {
     }
 }
 
+/// A puzzle's answer key in two sentences, for an instructor previewing a set: "Correct first
+/// moves: h8. Main line: h8 h9 i8 i9 j8." (for a defence: "Defences: ... The threat: ...").
+pub fn answer_key(p: &Puzzle) -> String {
+    let (first, line) = match p.goal() {
+        crate::puzzle::Goal::Win => ("Correct first moves", "Main line"),
+        crate::puzzle::Goal::Defend => ("Defences", "The threat"),
+    };
+    let spaced = |v: &[Point]| {
+        v.iter()
+            .map(|q| q.to_string())
+            .collect::<Vec<_>>()
+            .join(" ")
+    };
+    format!(
+        "{first}: {}. {line}: {}.",
+        commas(&p.first_moves),
+        spaced(&p.line)
+    )
+}
+
 /// "a double three" (what a forbidden point would make).
 pub const fn forbidden(why: Forbidden) -> &'static str {
     why.words()
@@ -589,6 +609,25 @@ mod tests {
             threat: None,
             budget,
             nodes: budget,
+        }
+    }
+
+    #[test]
+    fn an_answer_key_names_every_first_move_and_the_line() {
+        let set = crate::formats::setfile::parse(include_str!("../../tests/data/fixture_set.json"))
+            .unwrap();
+        for p in &set.puzzles {
+            let key = answer_key(p);
+            let label = match p.goal() {
+                crate::puzzle::Goal::Win => "Correct first moves: ",
+                crate::puzzle::Goal::Defend => "Defences: ",
+            };
+            assert!(key.starts_with(label), "{key}");
+            for m in &p.first_moves {
+                assert!(key.contains(&m.to_string()), "{m} missing from {key}");
+            }
+            let line: Vec<String> = p.line.iter().map(|q| q.to_string()).collect();
+            assert!(key.ends_with(&format!(": {}.", line.join(" "))), "{key}");
         }
     }
 

@@ -36,7 +36,7 @@ fn nothing() -> Result<JsValue, JsValue> {
 }
 
 /// One set-file puzzle object (JSON text), read with the set file's own checks.
-fn parse_puzzle(puzzle_json: &str) -> Result<engine::puzzle::Puzzle, JsValue> {
+pub(crate) fn parse_puzzle(puzzle_json: &str) -> Result<engine::puzzle::Puzzle, JsValue> {
     let wrapped = format!(
         "{{\"format\":\"fivefold-set\",\"version\":1,\"title\":\"\",\"created\":\"2026-12-01\",\"puzzles\":[{puzzle_json}]}}"
     );

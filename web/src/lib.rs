@@ -5,7 +5,8 @@
 //! controllers in `engine::trainer`, its sentences in `engine::words`): [`boards`] holds the
 //! two board handles (a puzzle board and a study board, each a thin shell over an engine
 //! controller and one canvas), [`api`] the plain functions (sets, share and result codes,
-//! ratings, generation and solving for the worker), [`drill`] the choice of a drill's rating
+//! ratings, generation and solving for the worker), [`coach`] the instructor's screen (links,
+//! QR codes, the printable sheet, the class table), [`drill`] the choice of a drill's rating
 //! band, [`layout`] places the grid and [`render`] draws it, [`qr`] gives the modules of a QR
 //! code; [`bench`] times the solver's benchmark suite in the browser.
 #![deny(missing_docs)]
@@ -13,6 +14,7 @@
 pub mod api;
 pub mod bench;
 pub mod boards;
+pub mod coach;
 pub mod drill;
 pub mod layout;
 pub mod library;

@@ -1,0 +1,905 @@
+// Coach: the instructor's screen. A set is made in the worker puzzle by puzzle (so that Cancel
+// keeps what was made) or picked from the starter library and Tonight's sets, previewed on a
+// board, handed out (a link on the club's address and its QR code, a set file, a printed
+// sheet, Tonight), and the class's result codes are read into a table kept with the set.
+// Every sentence about a puzzle, every code and the table itself come from Rust; titles and
+// names from outside are only ever written as text.
+
+import {
+  classCsv, classRead, librarySets, parseSet, puzzleWords, qrMatrix, setKey, shareLink, sheetHtml,
+  themeRatings, themes,
+} from './pkg/fivefold_web.js';
+import { BoardView } from './board.js';
+import { Cancelled, Jobs } from './jobs.js';
+import { loadScanner } from './platform.js';
+import { save } from './store.js';
+import { $, RULES, announce, banner, download, el, fill, isInt, keepFocus, randomSeed } from './ui.js';
+
+/** Difficulty bands an instructor picks from, in words and numbers (Glicko-scale ratings the
+ * generator can make, 600 to 2600). */
+export const COACH_BANDS = [
+  { name: 'any', words: 'Any level', lo: 600, hi: 2600 },
+  { name: 'starting', words: 'Starting out', lo: 600, hi: 1250 },
+  { name: 'club', words: 'Club', lo: 1250, hi: 1500 },
+  { name: 'strong', words: 'Strong club', lo: 1500, hi: 1900 },
+  { name: 'expert', words: 'Expert', lo: 1900, hi: 2600 },
+];
+const COACH_MAX_PUZZLES = 40;
+const COACH_MAX_SETS = 100;
+const COACH_MAX_CODES = 2000;
+const COACH_TABS = ['make', 'handout', 'results'];
+const COACH_SORTS = ['added', 'name', 'score'];
+const COACH_CODE = /^[0-9A-Za-z -]{1,800}$/;
+// Seeds are whole numbers; six digits are easy to read out and write down.
+const newCoachSeed = () => 100000 + (randomSeed() % 900000);
+const coachToday = () => new Date().toISOString().slice(0, 10);
+
+const bandWords = (b) => `${b.words}, ${b.lo} to ${b.hi}`;
+
+/** A set-file document of a Coach set (title, date and puzzles). */
+function coachSetFile(s) {
+  return JSON.stringify({ format: 'fivefold-set', version: 1, title: s.title || 'Untitled set', created: s.created, puzzles: s.puzzles });
+}
+
+/** Why stored Coach data cannot be used, or null. */
+export function checkCoach(d) {
+  if (!d || typeof d !== 'object') return 'it is empty';
+  if (typeof d.address !== 'string' || d.address.length > 2000) return 'the club address is not text';
+  if (!Array.isArray(d.sets) || d.sets.length > COACH_MAX_SETS) return 'it has no list of sets';
+  if (d.open !== null && typeof d.open !== 'string') return 'the open set is unknown';
+  if (!COACH_TABS.includes(d.tab)) return 'the open part is unknown';
+  const ids = new Set();
+  for (const s of d.sets) {
+    if (!s || typeof s.id !== 'string' || !/^c[0-9a-z]{1,20}$/.test(s.id) || ids.has(s.id)) return 'a set has no name on this device';
+    ids.add(s.id);
+    const what = `the set "${String(s.title).slice(0, 40)}"`;
+    if (typeof s.title !== 'string' || s.title.length > 200) return `${what} has no title`;
+    if (typeof s.created !== 'string' || !/^\d{4}-\d{2}-\d{2}$/.test(s.created)) return `${what} has no date`;
+    if (!RULES.includes(s.rule) || ![15, 19].includes(s.size)) return `${what} has an unknown rule or size`;
+    if (!Array.isArray(s.themes) || !s.themes.length || !s.themes.every((t) => typeof t === 'string')) return `${what} has no themes`;
+    if (!isInt(s.count, 1, COACH_MAX_PUZZLES) || !COACH_BANDS.some((b) => b.name === s.band)) return `${what} has an unknown count or band`;
+    if (!isInt(s.seed, 0, Number.MAX_SAFE_INTEGER - 100000) || !isInt(s.next, 0, 1e6)) return `${what} has no seed`;
+    if (!COACH_SORTS.includes(s.sort)) return `${what} has an unknown order`;
+    if (!Array.isArray(s.codes) || s.codes.length > COACH_MAX_CODES || !s.codes.every((c) => typeof c === 'string' && COACH_CODE.test(c))) {
+      return `the result codes of ${what} are malformed`;
+    }
+    if (!Array.isArray(s.puzzles) || s.puzzles.length > COACH_MAX_PUZZLES) return `the puzzles of ${what} are malformed`;
+    if (s.puzzles.length) {
+      try {
+        parseSet(coachSetFile(s));
+      } catch (e) {
+        return `the puzzles of ${what} are not valid (${e})`;
+      }
+    }
+  }
+  return null;
+}
+
+export function emptyCoach() {
+  return { address: '', open: null, tab: 'make', sets: [] };
+}
+
+/** The address a link is built on: the one set in Coach, else the page's own when it is
+ * served over http(s); null from a file with none set. */
+function coachBase(address) {
+  if (address) return address;
+  return /^https?:$/.test(location.protocol) ? location.href.split('#')[0] : null;
+}
+
+/** A club address as typed, checked: an http(s) address without a fragment; throws why not. */
+export function cleanAddress(text) {
+  const t = text.trim();
+  if (!t) return '';
+  let u;
+  try {
+    u = new URL(t);
+  } catch {
+    throw new Error('it is not a web address (it should start with https://)');
+  }
+  if (!/^https?:$/.test(u.protocol)) throw new Error('it should start with https:// or http://');
+  u.hash = '';
+  return u.href;
+}
+
+export class Coach {
+  constructor(app) {
+    this.app = app;
+    this.data = emptyCoach();
+    this.jobs = new Jobs();
+    this.making = null;
+    this.sel = 0;
+    this.scanner = null;
+    this.themeList = JSON.parse(themes());
+    this.sources = null;
+    this.board = new BoardView($('coach-board'), { message: $('coach-goal') });
+    $('coach-new').addEventListener('click', () => this.newSet());
+    $('coach-back').addEventListener('click', () => this.showList());
+    for (const b of document.querySelectorAll('#coach-tabs [data-tab]')) {
+      b.addEventListener('click', () => this.tab(b.dataset.tab));
+    }
+    // The recipe: every change is kept with the set at once.
+    $('coach-name').addEventListener('input', (e) => this.edit((s) => { s.title = e.target.value.slice(0, 200); }, false));
+    $('coach-rule').addEventListener('change', (e) => this.edit((s) => {
+      s.rule = e.target.value;
+      s.themes = s.themes.filter((t) => this.allowed(t, s.rule));
+      if (!s.themes.length) s.themes = ['vcf'];
+    }));
+    $('coach-size').addEventListener('change', (e) => this.edit((s) => { s.size = Number(e.target.value); }));
+    $('coach-count').addEventListener('change', (e) => this.edit((s) => {
+      const n = Math.round(Number(e.target.value));
+      s.count = Number.isFinite(n) ? Math.min(COACH_MAX_PUZZLES, Math.max(1, n)) : s.count;
+    }));
+    $('coach-band').addEventListener('change', (e) => this.edit((s) => { s.band = e.target.value; }));
+    $('coach-seed').addEventListener('change', (e) => this.edit((s) => {
+      const n = Number(e.target.value.trim());
+      if (isInt(n, 0, Number.MAX_SAFE_INTEGER - 100000)) s.seed = n;
+      else banner('A seed is a whole number, like 120517.', { kind: 'warn', id: 'coach' });
+    }));
+    $('coach-new-seed').addEventListener('click', () => this.edit((s) => { s.seed = newCoachSeed(); }));
+    $('coach-themes').addEventListener('change', () => this.edit((s) => {
+      const picked = [...$('coach-themes').querySelectorAll('input:checked')].map((i) => i.value);
+      if (picked.length) s.themes = picked;
+      else banner('A set needs at least one theme.', { kind: 'warn', id: 'coach' });
+    }));
+    $('coach-make-go').addEventListener('click', () => this.make());
+    $('coach-cancel').addEventListener('click', () => this.cancelMaking());
+    $('coach-show-answer').addEventListener('click', () => {
+      const box = $('coach-answer');
+      box.hidden = !box.hidden;
+      $('coach-show-answer').textContent = box.hidden ? 'Show the answer' : 'Hide the answer';
+    });
+    $('coach-up').addEventListener('click', () => this.move(-1));
+    $('coach-down').addEventListener('click', () => this.move(1));
+    $('coach-drop').addEventListener('click', () => this.drop());
+    $('coach-more').addEventListener('click', () => this.oneMore());
+    $('coach-library').addEventListener('toggle', () => this.renderSources());
+    $('coach-source').addEventListener('change', () => this.renderSource());
+    // Handing out.
+    $('coach-address-save').addEventListener('click', () => this.saveAddress());
+    $('coach-copy-link').addEventListener('click', () => this.copy($('coach-link').value, 'The link'));
+    $('coach-download').addEventListener('click', () => this.downloadSet());
+    $('coach-print-sheet').addEventListener('click', () => this.printSheet());
+    $('coach-try').addEventListener('click', () => this.tryInTonight());
+    window.addEventListener('resize', () => {
+      if (!$('coach-handout').hidden && this.current()) this.drawQr();
+    });
+    window.addEventListener('afterprint', () => delete document.documentElement.dataset.print);
+    // Results.
+    $('coach-read').addEventListener('click', () => this.readCodes($('coach-codes').value, 'paste'));
+    $('coach-scan').addEventListener('click', () => this.scan());
+    $('coach-sort').addEventListener('change', (e) => this.edit((s) => { s.sort = e.target.value; }));
+    $('coach-csv').addEventListener('click', () => this.exportCsv());
+    $('coach-print-table').addEventListener('click', () => this.printTable());
+  }
+
+  init(data) {
+    this.cancelMaking(true);
+    this.data = data ?? emptyCoach();
+    if (this.current()) this.openSet(this.data.open, this.data.tab);
+    else this.showList();
+  }
+
+  applySettings(s) {
+    this.board.setOptions(s);
+  }
+
+  save() {
+    save('coach', this.data);
+  }
+
+  current() {
+    return this.data.sets.find((s) => s.id === this.data.open) ?? null;
+  }
+
+  allowed(theme, rule) {
+    return this.themeList.some((t) => t.name === theme && t.rules.includes(rule));
+  }
+
+  /** Changes the open set with `f`, keeps it, and shows it again. */
+  edit(f, render = true) {
+    const s = this.current();
+    if (!s) return;
+    f(s);
+    this.save();
+    if (render) this.render();
+    else this.renderHead();
+  }
+
+  // ---- the list of sets ----
+
+  showList() {
+    this.stopScanning();
+    this.data.open = null;
+    $('coach-list').hidden = false;
+    $('coach-set').hidden = true;
+    this.save();
+    this.renderList();
+    keepFocus($('coach-title'));
+  }
+
+  renderList() {
+    $('coach-none').hidden = this.data.sets.length > 0;
+    fill($('coach-sets'), this.data.sets.map((s) => {
+      const students = this.tableOf(s)?.students.length ?? 0;
+      return el('li', { class: 'card', 'data-id': s.id },
+        el('h2', { class: 'set-title', text: s.title || 'Untitled set' }),
+        el('p', { class: 'meta', text: `${s.puzzles.length} puzzles · ${s.rule} · made ${s.created} · ${students} result${students === 1 ? '' : 's'}` }),
+        el('div', { class: 'row' },
+          el('button', { type: 'button', class: 'primary', onclick: () => this.openSet(s.id, 'make') }, 'Open'),
+          el('button', { type: 'button', class: 'secondary', onclick: () => this.openSet(s.id, 'results') }, 'Results'),
+          el('button', { type: 'button', class: 'quiet', onclick: () => this.deleteSet(s.id) }, 'Delete')));
+    }));
+  }
+
+  newSet() {
+    if (this.data.sets.length >= COACH_MAX_SETS) {
+      banner(`Coach keeps at most ${COACH_MAX_SETS} sets; delete one first.`, { kind: 'warn', id: 'coach' });
+      return;
+    }
+    const id = `c${Date.now().toString(36)}${this.data.sets.length.toString(36)}`;
+    const n = this.data.sets.length + 1;
+    this.data.sets.push({
+      id, title: `Club night ${coachToday()}${n > 1 ? ` (${n})` : ''}`, created: coachToday(), rule: 'freestyle', size: 15,
+      themes: ['vcf'], count: 12, band: 'any', seed: newCoachSeed(), next: 0, puzzles: [], codes: [], sort: 'added',
+    });
+    this.openSet(id, 'make');
+    $('coach-name').focus();
+  }
+
+  deleteSet(id) {
+    const at = this.data.sets.findIndex((s) => s.id === id);
+    if (at < 0) return;
+    const [gone] = this.data.sets.splice(at, 1);
+    if (this.data.open === id) this.data.open = null;
+    this.save();
+    this.renderList();
+    this.undoBanner(`Deleted "${gone.title || 'Untitled set'}".`, () => {
+      this.data.sets.splice(Math.min(at, this.data.sets.length), 0, gone);
+      this.save();
+      this.renderList();
+      announce(`"${gone.title || 'Untitled set'}" is back.`);
+    });
+  }
+
+  /** A banner with an Undo button that calls `undo` once. */
+  undoBanner(message, undo) {
+    const b = banner(message, { kind: 'info', id: 'coach-undo' });
+    let done = false;
+    b.insertBefore(el('button', {
+      type: 'button',
+      class: 'secondary',
+      onclick: () => {
+        if (done) return;
+        done = true;
+        b.remove();
+        undo();
+      },
+    }, 'Undo'), b.lastElementChild);
+  }
+
+  // ---- one set ----
+
+  openSet(id, tab = 'make') {
+    if (!this.data.sets.some((s) => s.id === id)) return this.showList();
+    this.data.open = id;
+    this.sel = 0;
+    $('coach-list').hidden = true;
+    $('coach-set').hidden = false;
+    this.tab(tab);
+  }
+
+  tab(name) {
+    if (!COACH_TABS.includes(name)) name = 'make';
+    if (name !== 'results') this.stopScanning();
+    this.data.tab = name;
+    for (const t of COACH_TABS) $(`coach-${t}`).hidden = t !== name;
+    for (const b of document.querySelectorAll('#coach-tabs [data-tab]')) {
+      if (b.dataset.tab === name) b.setAttribute('aria-current', 'true');
+      else b.removeAttribute('aria-current');
+    }
+    $('coach').dataset.tab = name;
+    this.save();
+    this.render();
+  }
+
+  render() {
+    const s = this.current();
+    if (!s) return;
+    this.renderHead();
+    if (this.data.tab === 'make') this.renderMake();
+    else if (this.data.tab === 'handout') this.renderHandout();
+    else this.renderResults();
+  }
+
+  renderHead() {
+    const s = this.current();
+    $('coach-set-title').textContent = s.title || 'Untitled set';
+    const n = s.puzzles.length;
+    $('coach-set-count').textContent = `${n} puzzle${n === 1 ? '' : 's'} · ${s.rule} · ${s.size} × ${s.size}`;
+  }
+
+  // ---- making ----
+
+  renderMake() {
+    const s = this.current();
+    const locked = s.codes.length > 0;
+    $('coach-name').value = s.title;
+    $('coach-rule').value = s.rule;
+    $('coach-size').value = String(s.size);
+    $('coach-count').value = String(s.count);
+    fill($('coach-band'), COACH_BANDS.map((b) => el('option', { value: b.name, text: bandWords(b) })));
+    $('coach-band').value = s.band;
+    $('coach-seed').value = String(s.seed);
+    const box = $('coach-theme-list');
+    fill(box, this.themeList.filter((t) => t.rules.includes(s.rule)).map((t) =>
+      el('label', {}, el('input', { type: 'checkbox', value: t.name, checked: s.themes.includes(t.name) }), el('span', { text: t.label }))));
+    this.renderBandNote();
+    const busy = !!this.making;
+    for (const id of ['coach-rule', 'coach-size', 'coach-count', 'coach-band', 'coach-seed', 'coach-new-seed', 'coach-make-go']) {
+      $(id).disabled = busy || locked;
+    }
+    for (const i of box.querySelectorAll('input')) i.disabled = busy || locked;
+    $('coach-locked').hidden = !locked;
+    $('coach-make-go').textContent = s.puzzles.length ? `Make ${s.count} new puzzles` : `Make ${s.count} puzzles`;
+    this.renderBusy();
+    this.renderPuzzles();
+  }
+
+  /** Says where the chosen themes' puzzles usually rate, and warns when the band misses. */
+  renderBandNote() {
+    const s = this.current();
+    const band = COACH_BANDS.find((b) => b.name === s.band);
+    const notes = [];
+    for (const t of s.themes) {
+      let r;
+      try {
+        r = themeRatings(t, s.rule);
+      } catch {
+        continue;
+      }
+      const label = this.themeList.find((x) => x.name === t)?.label ?? t;
+      const miss = r[1] < band.lo || r[0] > band.hi;
+      notes.push(`${label}: usually ${r[0]} to ${r[1]}${miss ? ' (outside this band: few or none will be found)' : ''}.`);
+    }
+    $('coach-band-note').textContent = notes.join(' ');
+    $('coach-band-note').dataset.kind = notes.some((n) => n.includes('outside')) ? 'warn' : '';
+  }
+
+  renderPuzzles() {
+    const s = this.current();
+    const n = s.puzzles.length;
+    this.sel = Math.min(Math.max(0, this.sel), Math.max(0, n - 1));
+    $('coach-empty').hidden = n > 0;
+    $('coach-preview').hidden = n === 0;
+    fill($('coach-marks'), s.puzzles.map((p, i) => el('li', {},
+      el('button', {
+        type: 'button',
+        class: 'mark',
+        'aria-label': `Puzzle ${i + 1}`,
+        'aria-current': i === this.sel ? 'step' : null,
+        onclick: () => {
+          this.sel = i;
+          this.renderPuzzles();
+        },
+      }, String(i + 1)))));
+    if (!n) return;
+    const p = s.puzzles[this.sel];
+    let w;
+    try {
+      w = puzzleWords(JSON.stringify(p));
+    } catch (e) {
+      w = { goal: '', answer: `The answer cannot be shown (${e}).`, theme: p.theme };
+    }
+    // The board is loaded again only for another puzzle (a load brings the board into view).
+    const shownKey = `${s.id}:${p.id}`;
+    if (this.previewed !== shownKey || this.board.canvas.dataset.mode !== 'puzzle') {
+      this.previewed = shownKey;
+      this.board.load(JSON.stringify(p), { trusted: true });
+    }
+    $('coach-about').textContent = `Puzzle ${this.sel + 1} of ${n} · ${w.theme} · ${p.rule} · difficulty ${p.rating}`;
+    $('coach-answer').textContent = w.answer;
+    $('coach-answer').hidden = true;
+    $('coach-show-answer').textContent = 'Show the answer';
+    const locked = s.codes.length > 0 || !!this.making;
+    $('coach-up').disabled = locked || this.sel === 0;
+    $('coach-down').disabled = locked || this.sel >= n - 1;
+    $('coach-drop').disabled = locked;
+    $('coach-more').disabled = locked || n >= COACH_MAX_PUZZLES;
+  }
+
+  /** Makes one puzzle of `kind` ({theme, rule, size}) from the set's seed plus `index`, in the
+   * worker; resolves to the puzzle. */
+  async makeOne(s, kind, index, onGames) {
+    const band = COACH_BANDS.find((b) => b.name === s.band) ?? COACH_BANDS[0];
+    const options = { ...kind, ratingLo: band.lo, ratingHi: band.hi, seed: s.seed + index, count: 1 };
+    const json = await this.jobs.run('generate', { options }, (p) => onGames?.(p.games));
+    return JSON.parse(json).puzzles[0];
+  }
+
+  /** Makes the set's puzzles afresh from its recipe: puzzle i from seed + i, the themes taken
+   * in turn; each puzzle is kept as it comes, so Cancel keeps what was made. */
+  async make() {
+    const s = this.current();
+    if (!s || this.making || s.codes.length) return;
+    if (s.puzzles.length && !window.confirm(`Replace the ${s.puzzles.length} puzzles of this set with ${s.count} new ones?`)) return;
+    const old = s.puzzles;
+    s.puzzles = [];
+    s.next = 0;
+    this.sel = 0;
+    this.save();
+    await this.generate(s, s.count, old.length ? () => {
+      this.undoBanner('The new puzzles replaced the earlier ones.', () => {
+        s.puzzles = old;
+        this.save();
+        this.render();
+      });
+    } : null);
+  }
+
+  /** Adds `count` generated puzzles to the set; `kindAt(i)` gives the theme, rule and size of
+   * the set's puzzle number i (from 0): by default the recipe's, its themes taken in turn. */
+  async generate(s, count, done, kindAt = (i) => ({ theme: s.themes[i % s.themes.length], rule: s.rule, size: s.size })) {
+    const making = { set: s.id, started: performance.now(), made: 0, count, games: 0 };
+    this.making = making;
+    this.render();
+    const tick = setInterval(() => this.renderBusy(), 1000);
+    this.renderBusy();
+    let misses = 0;
+    let problem = null;
+    try {
+      while (making.made < count && s.puzzles.length < COACH_MAX_PUZZLES) {
+        const index = s.next;
+        let p;
+        try {
+          p = await this.makeOne(s, kindAt(s.puzzles.length), index, (games) => {
+            making.games = games;
+            this.renderBusy();
+          });
+        } catch (e) {
+          if (e instanceof Cancelled) break;
+          problem = e.message;
+          break;
+        }
+        s.next = index + 1;
+        // The same position from another seed is made once only.
+        if (s.puzzles.some((q) => q.id === p.id)) {
+          if (++misses > 20) {
+            problem = 'the same puzzles keep coming back; try another band or seed';
+            break;
+          }
+          continue;
+        }
+        s.puzzles.push(p);
+        making.made++;
+        this.save();
+        if (this.data.open === s.id && this.data.tab === 'make') this.renderPuzzles();
+        this.renderHead();
+        this.renderBusy();
+      }
+    } finally {
+      clearInterval(tick);
+      if (this.making === making) this.making = null;
+    }
+    this.save();
+    const secs = Math.round((performance.now() - making.started) / 1000);
+    $('coach').dataset.made = String(s.puzzles.length);
+    const said = problem
+      ? `Made ${making.made} of ${count} puzzles; then it stopped: ${problem}.`
+      : making.made < count ? `Stopped: made ${making.made} of ${count} puzzles; they are kept.` : `Made ${count} puzzles in ${secs} s.`;
+    banner(said, { kind: problem ? 'warn' : 'info', id: 'coach' });
+    announce(said);
+    this.render();
+    if (!problem && done) done();
+  }
+
+  renderBusy() {
+    const m = this.making;
+    $('coach-busy').hidden = !m;
+    if (!m) {
+      delete $('coach').dataset.making;
+      return;
+    }
+    const secs = Math.floor((performance.now() - m.started) / 1000);
+    const time = `${Math.floor(secs / 60)}:${String(secs % 60).padStart(2, '0')}`;
+    $('coach-busy-text').textContent = `Made ${m.made} of ${m.count} · ${time}`;
+    $('coach-progress').max = m.count;
+    $('coach-progress').value = m.made;
+    $('coach').dataset.making = `${m.made}/${m.count}`;
+  }
+
+  cancelMaking(quiet = false) {
+    if (!this.making) return;
+    this.jobs.cancel();
+    if (!quiet) announce('Stopping; the puzzles made so far are kept.');
+  }
+
+  move(by) {
+    const s = this.current();
+    const to = this.sel + by;
+    if (!s || s.codes.length || to < 0 || to >= s.puzzles.length) return;
+    [s.puzzles[this.sel], s.puzzles[to]] = [s.puzzles[to], s.puzzles[this.sel]];
+    this.sel = to;
+    this.save();
+    this.renderPuzzles();
+    announce(`Puzzle moved to number ${to + 1}.`);
+    $(by < 0 ? 'coach-up' : 'coach-down').focus();
+  }
+
+  drop() {
+    const s = this.current();
+    if (!s || s.codes.length || !s.puzzles.length) return;
+    const at = this.sel;
+    const [gone] = s.puzzles.splice(at, 1);
+    this.save();
+    this.render();
+    this.undoBanner(`Dropped puzzle ${at + 1}.`, () => {
+      if (s.puzzles.length >= COACH_MAX_PUZZLES || s.puzzles.some((q) => q.id === gone.id)) return;
+      s.puzzles.splice(at, 0, gone);
+      this.sel = at;
+      this.save();
+      this.render();
+    });
+  }
+
+  /** One more puzzle like the one on show: its theme and rule, the recipe's next seed. */
+  async oneMore() {
+    const s = this.current();
+    if (!s || this.making || s.codes.length || !s.puzzles.length) return;
+    const like = s.puzzles[this.sel];
+    const at = s.puzzles.length;
+    await this.generate(s, 1, null, () => ({ theme: like.theme, rule: like.rule, size: like.size }));
+    if (s.puzzles.length > at) {
+      this.sel = at;
+      this.renderPuzzles();
+    }
+  }
+
+  // Adding puzzles from the starter library and Tonight's sets.
+
+  renderSources() {
+    if (!$('coach-library').open) return;
+    this.library ??= JSON.parse(librarySets());
+    const tonight = this.app.tonight.sets.list.map((t) => ({ title: `Tonight: ${t.title || 'Untitled set'}`, json: t.json }));
+    this.sources = [...this.library.map((set) => ({ title: `Library: ${set.title}`, set })), ...tonight];
+    const pick = $('coach-source');
+    const was = pick.value;
+    fill(pick, this.sources.map((src, i) => el('option', { value: String(i), text: src.title })));
+    if (was && Number(was) < this.sources.length) pick.value = was;
+    this.renderSource();
+  }
+
+  renderSource() {
+    const src = this.sources?.[Number($('coach-source').value)];
+    const s = this.current();
+    if (!src || !s) return;
+    src.set ??= JSON.parse(src.json);
+    const locked = s.codes.length > 0;
+    fill($('coach-source-list'), src.set.puzzles.map((p, i) => {
+      const have = s.puzzles.some((q) => q.id === p.id);
+      let goal = '';
+      try {
+        goal = puzzleWords(JSON.stringify(p)).goal;
+      } catch {
+        goal = p.theme;
+      }
+      return el('li', { class: 'card compact' },
+        el('div', {}, el('p', { class: 'meta', text: `${i + 1}. ${goal} · ${p.rule} · difficulty ${p.rating}` })),
+        el('button', {
+          type: 'button',
+          class: 'secondary',
+          disabled: have || locked || s.puzzles.length >= COACH_MAX_PUZZLES,
+          'aria-label': `Add puzzle ${i + 1}`,
+          onclick: (e) => {
+            this.addPuzzle(p);
+            e.target.disabled = true;
+            e.target.textContent = 'Added';
+          },
+        }, have ? 'Added' : 'Add'));
+    }));
+  }
+
+  addPuzzle(p) {
+    const s = this.current();
+    if (!s || s.codes.length || s.puzzles.length >= COACH_MAX_PUZZLES || s.puzzles.some((q) => q.id === p.id)) return;
+    s.puzzles.push(structuredClone(p));
+    this.sel = s.puzzles.length - 1;
+    this.save();
+    this.renderHead();
+    this.renderPuzzles();
+    announce(`Added as puzzle ${s.puzzles.length}.`);
+  }
+
+  // ---- handing out ----
+
+  /** The open set's set-file text, or null (with a message) when it has no puzzles yet. */
+  setFile(what) {
+    const s = this.current();
+    if (!s) return null;
+    if (!s.puzzles.length) {
+      banner(`Make some puzzles first; then ${what}.`, { kind: 'warn', id: 'coach' });
+      return null;
+    }
+    return coachSetFile(s);
+  }
+
+  renderHandout() {
+    const s = this.current();
+    $('coach-address').value = this.data.address;
+    const base = coachBase(this.data.address);
+    const empty = !s.puzzles.length;
+    $('coach-handout-empty').hidden = !empty;
+    for (const id of ['coach-download', 'coach-print-sheet', 'coach-try']) $(id).disabled = empty;
+    $('coach-address-note').textContent = this.data.address
+      ? 'Links are built on this address.'
+      : base ? `No club address is set, so links use this page's address (${base}).` : '';
+    $('coach-link-box').hidden = empty || !base;
+    $('coach-nolink').hidden = empty || !!base;
+    if (empty || !base) return;
+    let link;
+    try {
+      link = shareLink(base, coachSetFile(s));
+    } catch (e) {
+      $('coach-link').value = '';
+      $('coach-link-note').textContent = `This set cannot be shared as a link: ${e}`;
+      return;
+    }
+    $('coach-link').value = link;
+    $('coach-link-note').textContent = `${link.length} characters. Nothing is sent anywhere: the set travels inside the link.`;
+    this.drawQr();
+  }
+
+  /** Draws the link's QR code on the canvas, dark on white whatever the colours, each module a
+   * whole number of device pixels, with the quiet zone. */
+  drawQr() {
+    const link = $('coach-link').value;
+    const canvas = $('coach-qr');
+    if (!link) return;
+    let q;
+    try {
+      q = qrMatrix(link);
+    } catch (e) {
+      canvas.hidden = true;
+      $('coach-qr-note').textContent = `No QR code: ${e}`;
+      return;
+    }
+    canvas.hidden = false;
+    const side = q.size + 2 * q.quiet;
+    const dpr = window.devicePixelRatio || 1;
+    const css = canvas.getBoundingClientRect().width || 320;
+    const unit = Math.max(1, Math.floor((css * dpr) / side));
+    canvas.width = canvas.height = unit * side;
+    const ctx = canvas.getContext('2d');
+    ctx.fillStyle = '#ffffff';
+    ctx.fillRect(0, 0, canvas.width, canvas.height);
+    ctx.fillStyle = '#000000';
+    for (let y = 0; y < q.size; y++) {
+      for (let x = 0; x < q.size; x++) {
+        if (q.dark[y * q.size + x]) ctx.fillRect((x + q.quiet) * unit, (y + q.quiet) * unit, unit, unit);
+      }
+    }
+    canvas.dataset.version = String(q.version);
+    canvas.dataset.size = String(q.size);
+    canvas.setAttribute('aria-label', `QR code of the link to "${this.current()?.title || 'Untitled set'}"`);
+    $('coach-qr-note').textContent = `QR code version ${q.version} (${q.size} × ${q.size} modules). Show it on a large screen or print it; students scan it with their phone's camera.`;
+  }
+
+  saveAddress() {
+    let clean;
+    try {
+      clean = cleanAddress($('coach-address').value);
+    } catch (e) {
+      $('coach-address-note').textContent = `That address cannot be used: ${e.message}. Nothing was changed.`;
+      return;
+    }
+    this.data.address = clean;
+    this.save();
+    this.renderHandout();
+    announce(clean ? 'The club address is saved.' : 'The club address is cleared.');
+  }
+
+  downloadSet() {
+    const text = this.setFile('download its file');
+    if (!text) return;
+    const name = (this.current().title || 'set').replace(/[^\p{L}\p{N}]+/gu, '-').replace(/^-|-$/g, '').slice(0, 60) || 'set';
+    download(`${name}.json`, `${JSON.stringify(JSON.parse(text), null, 1)}\n`);
+    announce('The set file is downloaded.');
+  }
+
+  /** Fills the print area with the engine's sheet (diagrams, goals, a name and date line,
+   * answer boxes, the key on its own page) and prints it. The sheet is the engine's markup,
+   * in which every text from the set is escaped; it is parsed inertly (no scripts run in a
+   * parsed document) and its body moved into the page. */
+  fillSheet() {
+    const text = this.setFile('print its sheet');
+    if (!text) return false;
+    // Only the body: the sheet's own style element is for the command line's file (this page
+    // prints with style.css), and the page's policy refuses inline styles even in a parsed copy.
+    const html = sheetHtml(text);
+    const doc = new DOMParser().parseFromString(html.slice(html.indexOf('<body')), 'text/html');
+    for (const bad of doc.querySelectorAll('script, style, link, iframe, object, embed')) bad.remove();
+    fill($('coach-print'), [...doc.body.childNodes].map((n) => document.adoptNode(n)));
+    $('coach-print').dataset.kind = 'sheet';
+    return true;
+  }
+
+  printSheet() {
+    if (!this.fillSheet()) return;
+    document.documentElement.dataset.print = 'sheet';
+    window.print();
+  }
+
+  tryInTonight() {
+    const text = this.setFile('open it in Tonight');
+    if (!text) return;
+    let got;
+    try {
+      got = this.app.tonight.addSet(text, 'coach');
+    } catch (e) {
+      banner(`It cannot be opened in Tonight: ${e.message ?? e}.`, { kind: 'error', id: 'coach' });
+      return;
+    }
+    this.app.go('tonight');
+    this.app.tonight.openSet(got.key);
+  }
+
+  // ---- results ----
+
+  /** The open set's class table (null when the set has no puzzles). */
+  tableOf(s) {
+    if (!s.puzzles.length) return null;
+    try {
+      return classRead(coachSetFile(s), s.codes, '', s.sort).table;
+    } catch {
+      return null;
+    }
+  }
+
+  readCodes(text, how) {
+    const s = this.current();
+    if (!s) return;
+    if (!s.puzzles.length) {
+      banner('This set has no puzzles yet, so no result can belong to it.', { kind: 'warn', id: 'coach' });
+      return;
+    }
+    if (!text.trim()) {
+      this.report([{ line: 0, kind: 'refused', message: 'Nothing to read: paste the codes your students sent first.' }]);
+      return;
+    }
+    let r;
+    try {
+      r = classRead(coachSetFile(s), s.codes, text, s.sort);
+    } catch (e) {
+      banner(`The codes could not be read: ${e}. Nothing was changed.`, { kind: 'error', id: 'coach' });
+      return;
+    }
+    if (s.codes.length + r.accepted.length > COACH_MAX_CODES) {
+      banner(`A set keeps at most ${COACH_MAX_CODES} codes; nothing was added.`, { kind: 'error', id: 'coach' });
+      return;
+    }
+    s.codes.push(...r.accepted);
+    this.save();
+    const head = `${r.newStudents} new student${r.newStudents === 1 ? '' : 's'}, ${r.replaced} replaced` +
+      `${r.notices.length ? `, ${r.notices.length} to look at` : ''}.`;
+    this.report([{ line: 0, kind: r.notices.some((n) => n.kind === 'refused') ? 'refused' : 'ok', message: head }, ...r.notices]);
+    if (how === 'paste' && r.accepted.length && !r.notices.some((n) => n.kind === 'refused')) $('coach-codes').value = '';
+    this.renderTable(r.table);
+    this.renderHead();
+    announce(head);
+  }
+
+  report(lines) {
+    fill($('coach-reports'), lines.map((n) => el('li', { 'data-kind': n.kind, 'data-line': String(n.line), text: n.message })));
+  }
+
+  renderResults() {
+    const s = this.current();
+    $('coach-sort').value = s.sort;
+    $('coach-results-empty').hidden = s.puzzles.length > 0;
+    fill($('coach-reports'));
+    this.renderTable(this.tableOf(s));
+  }
+
+  renderTable(t) {
+    const s = this.current();
+    const table = $('coach-table');
+    const has = !!t && t.students.length > 0;
+    $('coach-no-results').hidden = has;
+    $('coach-csv').disabled = !has;
+    $('coach-print-table').disabled = !has;
+    if (!has) {
+      fill(table);
+      return;
+    }
+    const head = el('tr', {},
+      el('th', { scope: 'col', text: 'Student' }),
+      el('th', { scope: 'col', text: 'Score' }),
+      Array.from({ length: t.puzzles }, (_, i) => el('th', { scope: 'col', 'aria-label': `Puzzle ${i + 1}`, text: String(i + 1) })));
+    const rows = t.students.map((st) => el('tr', {},
+      el('th', { scope: 'row', class: 'name', text: st.name }),
+      el('td', { class: 'score', text: `${st.solved} of ${t.puzzles}` }),
+      st.results.map((r, i) => el('td', { 'data-outcome': r.attempt, 'data-words': r.words, title: r.words },
+        el('span', { class: 'mark', 'data-outcome': r.attempt, 'aria-hidden': 'true' }, String(i + 1)),
+        el('span', { class: 'sr-only', text: r.words })))));
+    const foot = el('tr', {},
+      el('th', { scope: 'row', text: 'Solved by' }),
+      el('td', {}),
+      t.stats.map((st) => el('td', { class: 'rate', text: st.percent === null ? '' : `${st.solved} of ${st.students} (${st.percent}%)` })));
+    fill(table,
+      el('caption', { text: `Class results: ${s.title || 'Untitled set'}` }),
+      el('thead', {}, head), el('tbody', {}, rows), el('tfoot', {}, foot));
+  }
+
+  exportCsv() {
+    const s = this.current();
+    if (!s || !s.codes.length) return;
+    let csv;
+    try {
+      csv = classCsv(coachSetFile(s), s.codes, s.sort);
+    } catch (e) {
+      banner(`The table could not be exported: ${e}`, { kind: 'error', id: 'coach' });
+      return;
+    }
+    const name = (s.title || 'results').replace(/[^\p{L}\p{N}]+/gu, '-').replace(/^-|-$/g, '').slice(0, 60) || 'results';
+    download(`${name}-results.csv`, csv, 'text/csv;charset=utf-8');
+    announce('The table is downloaded as CSV.');
+  }
+
+  printTable() {
+    const s = this.current();
+    if (!s) return;
+    const copy = $('coach-table').cloneNode(true);
+    copy.removeAttribute('id');
+    fill($('coach-print'), el('h1', { text: s.title || 'Untitled set' }), el('p', { text: `Made ${s.created} · ${s.puzzles.length} puzzles` }), copy);
+    $('coach-print').dataset.kind = 'table';
+    document.documentElement.dataset.print = 'table';
+    window.print();
+  }
+
+  async scan() {
+    if (this.scanner) {
+      this.stopScanning();
+      return;
+    }
+    let mod;
+    try {
+      mod = await loadScanner();
+      if (typeof mod.openScanner !== 'function') throw new Error('no scanner');
+    } catch {
+      banner('Scanning is not available here: paste the codes instead.', { kind: 'warn', id: 'coach-scan' });
+      return;
+    }
+    const host = $('coach-scanner');
+    host.hidden = false;
+    try {
+      this.scanner = await mod.openScanner(host, (text) => this.readCodes(text, 'scan'));
+    } catch (e) {
+      host.hidden = true;
+      banner(`The camera could not start: ${e.message ?? e}`, { kind: 'warn', id: 'coach-scan' });
+      return;
+    }
+    $('coach-scan').textContent = 'Stop scanning';
+  }
+
+  stopScanning() {
+    if (!this.scanner) return;
+    try {
+      this.scanner.stop();
+    } catch {
+      // The camera is off either way.
+    }
+    this.scanner = null;
+    $('coach-scanner').hidden = true;
+    fill($('coach-scanner'));
+    $('coach-scan').textContent = 'Scan codes';
+  }
+
+  async copy(text, what) {
+    try {
+      await navigator.clipboard.writeText(text);
+      announce(`${what} is copied.`);
+    } catch {
+      $('coach-link').select();
+      announce(`${what} is selected; copy it from there.`);
+    }
+  }
+}

@@ -1,0 +1,399 @@
+// End-to-end: the Coach screen's class round trip. An instructor of the Harbour Street
+// Five-in-a-Row Circle makes a seeded set of 6 in the worker, hands out its link (and its QR
+// code); three students open the link in their own browsers (one on a 360x740 phone) and
+// finish with different outcomes; their result codes are pasted into Results, where the
+// table must match cell by cell, the CSV download must match, and a damaged code and a code
+// for another set are reported by line. The printed sheet has its answer key on a page of
+// its own. Screenshots of every part go to web/artefacts/coach-*.png.
+
+import { test } from 'node:test';
+import assert from 'node:assert/strict';
+import { readFile } from 'node:fs/promises';
+import {
+  artefact,
+  banners,
+  librarySet,
+  open,
+  settled,
+  solve,
+  tap,
+  useBrowser,
+  wrongFour,
+  wrongMove,
+} from './support.mjs';
+
+const BOARD = 'tonight-board';
+const SMALL_PHONE = { width: 360, height: 740, dpr: 2, touch: true };
+const env = useBrowser();
+
+/** Opens Coach (from the rail, or through More on a phone). */
+async function goCoach(page) {
+  if (await page.isVisible('.rail [data-go="coach"]')) await page.click('.rail [data-go="coach"]');
+  else {
+    await page.click('#nav-more');
+    await page.click('#more [data-go="coach"]');
+  }
+  await page.waitForSelector('#coach:not([hidden])');
+}
+
+/** Makes a new set in Coach: one theme, `count` puzzles, a fixed seed; returns its puzzles. */
+async function makeSet(page, { title, theme, count, seed, keep = false }) {
+  if (!keep) {
+    await goCoach(page);
+    if (await page.isVisible('#coach-back')) await page.click('#coach-back');
+    await page.click('#coach-new');
+  }
+  await page.fill('#coach-name', title);
+  await page.fill('#coach-count', String(count));
+  await page.press('#coach-count', 'Tab');
+  await page.fill('#coach-seed', String(seed));
+  await page.press('#coach-seed', 'Tab');
+  await page.check(`#coach-theme-list input[value="${theme}"]`);
+  for (const other of await page.$$eval('#coach-theme-list input:checked', (l) => l.map((i) => i.value))) {
+    if (other !== theme) await page.uncheck(`#coach-theme-list input[value="${other}"]`);
+  }
+  const started = Date.now();
+  await page.click('#coach-make-go');
+  await page.waitForSelector(`#coach[data-made="${count}"]:not([data-making])`, { timeout: 120000 });
+  const ms = Date.now() - started;
+  const set = await page.evaluate(() => {
+    const d = JSON.parse(localStorage.getItem('fivefold.coach')).data;
+    return d.sets.find((s) => s.id === d.open);
+  });
+  return { set, ms };
+}
+
+/**
+ * A student opens the link and works through the set: `plan[i]` is "clean" (solve it),
+ * "hint" (one hint, then solve), "wrong" (a wrong four first, then retry and solve) or
+ * "stop" (finish the set here, leaving the rest untried). Returns the result code.
+ */
+async function student(link, name, puzzles, plan, viewport) {
+  const { page, context, errors } = await open(env.browser, link, viewport);
+  page.on('dialog', (d) => d.accept());
+  await page.waitForSelector(`#${BOARD}[data-mode="puzzle"]`);
+  // A set from a link has its answer keys proved first; the banners (the set added, the keys
+  // checked) float over the top of the board, so they are dismissed before play.
+  await page.waitForSelector('#banners .banner[data-id="check"]', { timeout: 60000 });
+  assert.match(await page.textContent('#banners .banner[data-id="check"] p'), /^All 6 answer keys of .* check out\.$/);
+  await page.$$eval('#banners .banner button', (bs) => bs.forEach((b) => b.click()));
+  const touch = !!viewport.touch;
+  for (let i = 0; i < puzzles.length; i++) {
+    const p = puzzles[i];
+    await page.waitForFunction((n) => document.getElementById('tonight-count').textContent.startsWith(`Puzzle ${n} `), i + 1);
+    if (plan[i] === 'stop') {
+      await page.click(`#tonight-marks li:nth-child(${puzzles.length}) button`);
+      await page.waitForFunction((n) => document.getElementById('tonight-count').textContent.startsWith(`Puzzle ${n} `), puzzles.length);
+      break;
+    }
+    if (plan[i] === 'hint') {
+      await page.click('#tonight-play [data-act="hint"]');
+      await page.waitForSelector(`#${BOARD}[data-hints="1"]`);
+    }
+    if (plan[i] === 'wrong') {
+      // A four that is not an answer if there is one (refuted by the block), else any point.
+      let wrong;
+      try {
+        wrong = wrongFour(p);
+      } catch {
+        wrong = wrongMove(p);
+      }
+      await tap(page, BOARD, wrong, { touch });
+      if (touch) await tap(page, BOARD, wrong, { touch });
+      await page.waitForSelector(`#${BOARD}[data-state="failed"][data-pending="0"]`);
+      await page.click('#tonight-play [data-act="retry"]');
+      await settled(page, BOARD, 0);
+    }
+    try {
+      await solve(page, BOARD, p.solution.line, { touch, confirm: touch });
+    } catch (e) {
+      const seen = await page.$eval(`#${BOARD}`, (c) => JSON.stringify(c.dataset));
+      throw new Error(`${name}, puzzle ${i + 1} (${plan[i]}): line ${p.solution.line.join(' ')}; board ${seen}; message ${await page.textContent('#tonight-message')}: ${e.message}`);
+    }
+    if (i + 1 < puzzles.length) await page.click('#tonight-play [data-act="next"]');
+  }
+  await page.click('#tonight-play [data-act="next"]');
+  await page.waitForSelector('#tonight-summary:not([hidden])');
+  await page.fill('#student-name', name);
+  const code = await page.textContent('#result-code');
+  assert.match(code, /^[0-9A-Z]{4}(-[0-9A-Z]{1,4})+$/, `${name}'s code`);
+  if (touch) await artefact(page, 'coach-student-phone');
+  assert.deepEqual(errors, [], `${name}: no errors`);
+  await context.close();
+  return code;
+}
+
+/** The class table as shown: rows of [name, score, ...cells as "outcome|words"], the footer. */
+function shownTable(page) {
+  return page.$eval('#coach-table', (t) => ({
+    rows: [...t.tBodies[0].rows].map((r) => [
+      r.cells[0].textContent,
+      r.cells[1].textContent,
+      ...[...r.cells].slice(2).map((c) => `${c.dataset.outcome}|${c.dataset.words}|${c.querySelector('.mark').dataset.outcome}`),
+    ]),
+    foot: [...t.tFoot.rows[0].cells].map((c) => c.textContent),
+  }));
+}
+
+// What each student's plan gives, puzzle by puzzle, in the table's words (Tonight does not
+// time puzzles, so no time is shown).
+const CELL = { clean: 'clean|clean|clean', hint: 'helped|helped, 1 hint|helped', wrong: 'helped|helped|helped', untried: 'untried|untried|untried' };
+
+test('the class round trip: make, hand out, three students, read the codes back', async () => {
+  const coach = await open(env.browser, env.server.url);
+  const { page, errors } = coach;
+  const { set, ms } = await makeSet(page, { title: 'Harbour Street: Tuesday', theme: 'four-three', count: 6, seed: 20261 });
+  console.log(`    made a set of 6 four-threes in the worker in ${ms} ms`);
+  assert.equal(set.puzzles.length, 6);
+  assert.ok(set.puzzles.every((p) => p.theme === 'four-three' && p.rule === 'freestyle'));
+  assert.equal(new Set(set.puzzles.map((p) => p.id)).size, 6, 'no puzzle twice');
+  // The progress said how far it got, and the preview shows puzzle 1 with its goal.
+  assert.equal(await page.$$eval('#coach-marks li', (l) => l.length), 6);
+  assert.match(await page.textContent('#coach-goal'), /to play: find the four-three and win/);
+  assert.ok(await page.isHidden('#coach-answer'));
+  await page.click('#coach-show-answer');
+  assert.match(await page.textContent('#coach-answer'), new RegExp(`^Correct first moves: .*${set.puzzles[0].solution.first_moves[0]}.*Main line: ${set.puzzles[0].solution.line.join(' ')}\\.$`));
+  await artefact(page, 'coach-make-desktop', { fullPage: true });
+
+  // The same seed makes the same set again (in a second set).
+  const again = await makeSet(page, { title: 'Again', theme: 'four-three', count: 6, seed: 20261 });
+  assert.deepEqual(again.set.puzzles, set.puzzles, 'the seed makes the same puzzles');
+  // ...which is then deleted, and brought back by Undo, and deleted again.
+  await page.click('#coach-back');
+  assert.equal(await page.$$eval('#coach-sets li', (l) => l.length), 2);
+  await page.locator('#coach-sets li', { hasText: 'Again' }).getByRole('button', { name: 'Delete' }).click();
+  assert.equal(await page.$$eval('#coach-sets li', (l) => l.length), 1);
+  await page.locator('#banners .banner', { hasText: 'Deleted "Again"' }).getByRole('button', { name: 'Undo' }).click();
+  assert.equal(await page.$$eval('#coach-sets li', (l) => l.length), 2);
+  await page.locator('#coach-sets li', { hasText: 'Again' }).getByRole('button', { name: 'Delete' }).click();
+  await page.locator('#coach-sets li', { hasText: 'Harbour Street' }).getByRole('button', { name: 'Open' }).click();
+
+  // Hand out: the link is on the page's own address (no club address set) with a QR code.
+  await page.click('#coach-tabs [data-tab="handout"]');
+  const link = await page.inputValue('#coach-link');
+  assert.ok(link.startsWith(`${env.server.url}#set=`), link);
+  const version = Number(await page.getAttribute('#coach-qr', 'data-version'));
+  assert.ok(version >= 1 && version <= 25, `QR version ${version}`);
+  assert.match(await page.textContent('#coach-qr-note'), new RegExp(`version ${version}\\b`));
+  const qrWidth = await page.$eval('#coach-qr', (c) => c.getBoundingClientRect().width);
+  assert.ok(qrWidth >= 300, `the QR code is ${qrWidth} px wide`);
+  await artefact(page, 'coach-handout-desktop', { fullPage: true });
+
+  // Three students, each in a browser context of their own.
+  const plans = {
+    'Mira Okafor': ['clean', 'clean', 'clean', 'clean', 'clean', 'clean'],
+    'Tomas Reyne': ['hint', 'wrong', 'clean', 'clean', 'clean', 'clean'],
+    '=Ines Varga': ['clean', 'clean', 'clean', 'stop', 'stop', 'stop'],
+  };
+  const codes = {};
+  codes['Mira Okafor'] = await student(link, 'Mira Okafor', set.puzzles, plans['Mira Okafor'], {});
+  codes['Tomas Reyne'] = await student(link, 'Tomas Reyne', set.puzzles, plans['Tomas Reyne'], SMALL_PHONE);
+  codes['=Ines Varga'] = await student(link, '=Ines Varga', set.puzzles, plans['=Ines Varga'], {});
+
+  // A code for another set (a library set) and a damaged code (one character changed).
+  const other = await page.evaluate(async (json) => {
+    const m = await import('./pkg/fivefold_web.js');
+    const n = JSON.parse(json).puzzles.length;
+    return m.resultCode(json, 'Tomas Reyne', Array.from({ length: n }, () => ({ attempt: 'clean', hints: 0, seconds: null })));
+  }, JSON.stringify(librarySet('four-threes-freestyle')));
+  const good = codes['Mira Okafor'];
+  const at = good.length - 2;
+  const damaged = good.slice(0, at) + (good[at] === '7' ? '8' : '7') + good.slice(at + 1);
+
+  await page.click('#coach-tabs [data-tab="results"]');
+  await page.fill('#coach-codes', `${codes['Mira Okafor']}\n${damaged}\n${other}, ${codes['Tomas Reyne']}`);
+  await page.click('#coach-read');
+  const reports = await page.$$eval('#coach-reports li', (l) => l.map((li) => [li.dataset.kind, li.dataset.line, li.textContent]));
+  assert.equal(reports[0][2], '2 new students, 0 replaced, 2 to look at.');
+  const refused = reports.filter((r) => r[0] === 'refused' && r[1] !== '0');
+  assert.equal(refused.length, 2, JSON.stringify(reports));
+  assert.equal(refused[0][1], '2', 'the damaged code is on line 2');
+  assert.match(refused[0][2], /^line 2, /);
+  assert.equal(refused[1][1], '3', 'the other set\'s code is on line 3');
+  assert.match(refused[1][2], /another set/);
+  assert.equal(await page.inputValue('#coach-codes'), `${codes['Mira Okafor']}\n${damaged}\n${other}, ${codes['Tomas Reyne']}`,
+    'the pasted text stays while some of it was refused');
+
+  // The third code, alone; then the first again, which changes nothing.
+  await page.fill('#coach-codes', `  ${codes['=Ines Varga'].toLowerCase()}  `);
+  await page.click('#coach-read');
+  assert.equal(await page.textContent('#coach-reports li'), '1 new student, 0 replaced.');
+  await page.fill('#coach-codes', codes['Mira Okafor']);
+  await page.click('#coach-read');
+  assert.match(await page.textContent('#coach-reports li:nth-child(2)'), /the same result for Mira Okafor again; nothing changed/);
+
+  // The table, cell by cell, in the order the codes came in.
+  const expectRow = (name) => {
+    const plan = plans[name];
+    const solved = plan.filter((x) => x !== 'stop').length;
+    return [name, `${solved} of 6`, ...plan.map((x) => CELL[x === 'stop' ? 'untried' : x])];
+  };
+  let shown = await shownTable(page);
+  // A time bucket follows the words when Tonight timed the puzzle; the rest is exact.
+  const untimed = (row) => row.map((c) => c.replace(/, (under 30 s|under 2 min|under 5 min|5 min or more)(?=\|)/, ''));
+  assert.deepEqual(shown.rows.map(untimed), ['Mira Okafor', 'Tomas Reyne', '=Ines Varga'].map(expectRow));
+  const cellWords = Object.fromEntries(shown.rows.map((r) => [r[0], r.slice(2).map((c) => c.split('|')[1])]));
+  assert.deepEqual(shown.foot, ['Solved by', '', '3 of 3 (100%)', '3 of 3 (100%)', '3 of 3 (100%)', '2 of 3 (67%)', '2 of 3 (67%)', '2 of 3 (67%)']);
+  // The marks are drawn as Tonight draws them (the same styles).
+  const look = await page.$eval('#coach-table tbody tr:nth-child(1) td:nth-child(3) .mark', (m) => getComputedStyle(m).backgroundColor);
+  const tonightLook = await page.evaluate(() => {
+    const probe = document.createElement('ol');
+    probe.className = 'marks';
+    probe.innerHTML = '<li><button class="mark" data-outcome="clean">1</button></li>';
+    document.body.append(probe);
+    const c = getComputedStyle(probe.querySelector('.mark')).backgroundColor;
+    probe.remove();
+    return c;
+  });
+  assert.equal(look, tonightLook, 'a clean mark looks as in Tonight');
+
+  // Sorted by name, then by score.
+  await page.selectOption('#coach-sort', 'name');
+  shown = await shownTable(page);
+  assert.deepEqual(shown.rows.map((r) => r[0]), ['=Ines Varga', 'Mira Okafor', 'Tomas Reyne']);
+  await page.selectOption('#coach-sort', 'score');
+  shown = await shownTable(page);
+  assert.deepEqual(shown.rows.map((r) => r[0]), ['Mira Okafor', 'Tomas Reyne', '=Ines Varga']);
+  await artefact(page, 'coach-results-desktop', { fullPage: true });
+
+  // The CSV download matches the table (rows by score), with the formula guard on the name.
+  const [download] = await Promise.all([page.waitForEvent('download'), page.click('#coach-csv')]);
+  assert.match(download.suggestedFilename(), /\.csv$/);
+  const csv = await readFile(await download.path(), 'utf8');
+  const field = (f) => (/[",\r\n]/.test(String(f)) ? `"${String(f).replace(/"/g, '""')}"` : String(f));
+  const line = (name, shownName) => {
+    const plan = plans[name];
+    return [shownName, plan.filter((x) => x !== 'stop').length, plan.filter((x) => x === 'clean').length, ...cellWords[name]]
+      .map(field).join(',');
+  };
+  assert.equal(csv, [
+    'Student,Solved,Clean,Puzzle 1,Puzzle 2,Puzzle 3,Puzzle 4,Puzzle 5,Puzzle 6',
+    line('Mira Okafor', 'Mira Okafor'),
+    line('Tomas Reyne', 'Tomas Reyne'),
+    line('=Ines Varga', "'=Ines Varga"),
+    'Solved by,,,3 of 3 (100%),3 of 3 (100%),3 of 3 (100%),2 of 3 (67%),2 of 3 (67%),2 of 3 (67%)',
+    '',
+  ].join('\r\n'));
+
+  // The table is kept with the set: after a reload it is all there.
+  await page.reload();
+  await page.waitForSelector('html[data-ready="true"]');
+  shown = await shownTable(page);
+  assert.deepEqual(shown.rows.map((r) => r[0]), ['Mira Okafor', 'Tomas Reyne', '=Ines Varga']);
+
+  // Scanning: the camera panel, or a clear message where the scanner is not available.
+  await page.click('#coach-scan');
+  const scanner = await Promise.race([
+    page.waitForSelector('#coach-scanner:not([hidden])').then(() => 'open'),
+    page.waitForSelector('#banners .banner[data-id="coach-scan"]').then(() => 'message'),
+  ]);
+  if (scanner === 'message') {
+    assert.ok((await banners(page)).some((b) => b.startsWith('Scanning is not available here') || b.startsWith('The camera could not start')));
+  } else {
+    await page.click('#coach-scan');
+    assert.ok(await page.isHidden('#coach-scanner'));
+  }
+  // Without the scanner's file on the server, the browser logs its 404; nothing else.
+  assert.deepEqual(errors.filter((e) => !(scanner === 'message' && /status of 404/.test(e))), []);
+  await coach.context.close();
+});
+
+test('the printed sheet: diagrams, goals and answer boxes, the answer key on a page of its own', async () => {
+  const { page, context, errors } = await open(env.browser, env.server.url);
+  const { set } = await makeSet(page, { title: 'Harbour Street: <b>sheet</b>', theme: 'vcf', count: 5, seed: 7 });
+  await page.click('#coach-tabs [data-tab="handout"]');
+  await page.evaluate(() => {
+    window.printed = 0;
+    window.print = () => { window.printed++; };
+  });
+  await page.click('#coach-print-sheet');
+  assert.equal(await page.evaluate(() => window.printed), 1);
+  const sheet = await page.$eval('#coach-print', (p) => ({
+    title: p.querySelector('h1').textContent,
+    bold: p.querySelectorAll('h1 b').length,
+    figures: [...p.querySelectorAll('figure')].map((f) => f.querySelector('figcaption').textContent),
+    boxes: p.querySelectorAll('figure .answer').length,
+    key: [...p.querySelectorAll('.key li')].map((li) => li.textContent),
+    who: p.querySelector('p.who')?.textContent,
+    text: p.textContent,
+  }));
+  assert.equal(sheet.title, 'Harbour Street: <b>sheet</b>', 'the title is text');
+  assert.equal(sheet.bold, 0);
+  assert.equal(sheet.figures.length, 5);
+  sheet.figures.forEach((f, i) => assert.ok(f.startsWith(`${i + 1}. `), f));
+  assert.equal(sheet.boxes, 5);
+  assert.equal(sheet.key.length, 5);
+  assert.match(sheet.who, /Name:.*Date:/);
+  for (const p of set.puzzles) assert.ok(!sheet.text.includes(p.id), `no id ${p.id} on the sheet`);
+  set.puzzles.forEach((p, i) => assert.ok(sheet.key[i].includes(p.solution.first_moves[0]), `key ${i + 1}`));
+  // Coordinates print at least 8 pt: the font size in the diagram's units, times its printed
+  // width over its width in units.
+  await page.emulateMedia({ media: 'print' });
+  const pt = await page.$eval('#coach-print svg.board', (svg) => {
+    const units = svg.viewBox.baseVal.width;
+    const mm = svg.getBoundingClientRect().width / 96 * 25.4;
+    return Number(svg.getAttribute('font-size')) * (mm / units) / 25.4 * 72;
+  });
+  assert.ok(pt >= 8, `coordinates print at ${pt.toFixed(2)} pt`);
+  await page.emulateMedia({ media: null });
+  // The page prints the sheet until the print is over ('afterprint'); each PDF here is a print.
+  const printing = () => page.evaluate(() => { document.documentElement.dataset.print = 'sheet'; });
+  await printing();
+  const pages = (pdf) => (pdf.toString('latin1').match(/\/Type\s*\/Page[^s]/g) ?? []).length;
+  const pdf = await page.pdf({ format: 'A4' });
+  if (process.env.COACH_PDF) (await import('node:fs')).writeFileSync(process.env.COACH_PDF, pdf);
+  const whole = pages(pdf);
+  // The same sheet without its key: the key took pages of its own.
+  await page.evaluate(() => { document.querySelector('#coach-print .key').hidden = true; });
+  await printing();
+  const noKey = pages(await page.pdf({ format: 'A4' }));
+  assert.ok(noKey >= 1 && whole === noKey + 1, `${whole} pages with the key, ${noKey} without`);
+  assert.deepEqual(errors, []);
+  await context.close();
+});
+
+test('Coach on a phone: make, preview, hand out and results fit 360 px', async () => {
+  const { page, context, errors } = await open(env.browser, env.server.url, SMALL_PHONE);
+  await makeSet(page, { title: 'Harbour Street: phone', theme: 'vcf', count: 3, seed: 99 });
+  const wide = () => page.evaluate(() => document.documentElement.scrollWidth);
+  assert.ok(await wide() <= 360, 'nothing is wider than the phone (make)');
+  await artefact(page, 'coach-make-phone', { fullPage: true });
+  await page.click('#coach-marks li:nth-child(2) button');
+  await page.click('#coach-show-answer');
+  await artefact(page, 'coach-preview-phone');
+  await page.click('#coach-tabs [data-tab="handout"]');
+  assert.ok(await wide() <= 360, 'nothing is wider than the phone (hand out)');
+  await artefact(page, 'coach-handout-phone', { fullPage: true });
+  await page.click('#coach-tabs [data-tab="results"]');
+  await page.fill('#coach-codes', 'HELLO');
+  await page.click('#coach-read');
+  assert.match(await page.textContent('#coach-reports li:nth-child(2)'), /^line 1, 'HELLO': /);
+  assert.ok(await wide() <= 360, 'nothing is wider than the phone (results)');
+  await artefact(page, 'coach-results-phone', { fullPage: true });
+  // Every control has a name and a target of at least 44 px.
+  const small = await page.$$eval('#coach button, #coach input, #coach select, #coach textarea', (all) => all
+    .filter((e) => e.getClientRects().length && !e.closest('[hidden]'))
+    .filter((e) => e.getBoundingClientRect().height < 44 && e.type !== 'checkbox')
+    .map((e) => e.id || e.textContent));
+  assert.deepEqual(small, []);
+  assert.deepEqual(errors, []);
+  await context.close();
+});
+
+// Not a timed test: how long the app's worker takes to make a 12-puzzle set of each theme
+// (for engine/benches/README.md). Run with COACH_MEASURE=1.
+test('measure: a 12-puzzle set of each theme in the worker', { skip: !process.env.COACH_MEASURE }, async () => {
+  const { page, context } = await open(env.browser, env.server.url);
+  const rows = [];
+  for (const [theme, rule] of [['four-three', 'freestyle'], ['vcf', 'freestyle'], ['vct', 'freestyle'], ['defend', 'freestyle'],
+    ['forbidden-trap', 'renju'], ['forbidden-win', 'renju']]) {
+    await goCoach(page);
+    if (await page.isVisible('#coach-back')) await page.click('#coach-back');
+    await page.click('#coach-new');
+    await page.selectOption('#coach-rule', rule);
+    const { ms } = await makeSet(page, { title: `${theme} timing`, theme, count: 12, seed: 1, keep: true });
+    rows.push(`| ${theme} | ${rule} | ${(ms / 1000).toFixed(1)} s |`);
+    console.log(rows.at(-1));
+  }
+  await context.close();
+});
