@@ -319,3 +319,23 @@ export function wrongFour(puzzle) {
   }
   throw new Error('no four that is not an answer');
 }
+
+/** A YUV4MPEG2 video (4:2:0, full range): the QR modules, `scale` pixels each, centred on a
+ * light grey frame, repeated for a second at 10 frames a second. */
+export function y4m({ size, quiet, dark }, { width = 640, height = 480, scale = 8 } = {}) {
+  const y = Buffer.alloc(width * height, 200);
+  const side = (size + 2 * quiet) * scale;
+  const left = Math.floor((width - side) / 2);
+  const top = Math.floor((height - side) / 2);
+  for (let py = 0; py < side; py++) {
+    for (let px = 0; px < side; px++) {
+      const mx = Math.floor(px / scale) - quiet;
+      const my = Math.floor(py / scale) - quiet;
+      const on = mx >= 0 && my >= 0 && mx < size && my < size && dark[my * size + mx];
+      y[(top + py) * width + left + px] = on ? 20 : 235;
+    }
+  }
+  const chroma = Buffer.alloc((width / 2) * (height / 2) * 2, 128);
+  const frame = Buffer.concat([Buffer.from('FRAME\n'), y, chroma]);
+  return Buffer.concat([Buffer.from(`YUV4MPEG2 W${width} H${height} F10:1 Ip A1:1 C420jpeg\n`), ...Array(10).fill(frame)]);
+}
