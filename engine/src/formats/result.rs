@@ -40,6 +40,10 @@ pub const MAX_NAME_BYTES: usize = 24;
 /// The version [`encode`] writes.
 pub const VERSION: u8 = 2;
 
+/// The largest first byte read as a code of a newer version rather than as damage (our own
+/// bound: versions change rarely).
+const LAST_PLAUSIBLE_VERSION: u8 = 15;
+
 /// The most hint steps a puzzle offers (the theme and length, the area, the move).
 pub const MAX_HINTS: u8 = 3;
 
@@ -201,7 +205,8 @@ impl fmt::Display for ResultError {
             }
             ResultError::NewerVersion(v) => write!(
                 f,
-                "this result code was made by a newer version of Fivefold ({v})"
+                "this result code was made by a newer version of Fivefold (code version {v}); update \
+                 the app to read it"
             ),
             ResultError::NameTooLong { bytes } => write!(
                 f,
@@ -319,11 +324,15 @@ pub(crate) fn code_bytes(head: &[u8]) -> Result<Option<usize>, ResultError> {
         return Ok(None);
     };
     if version == 0 || version > VERSION {
-        return Err(if version > VERSION {
-            ResultError::NewerVersion(version)
-        } else {
-            ResultError::Damaged
-        });
+        // Only a version a few steps ahead is taken for a newer code: any other first byte is
+        // text that is no code at all (a word pasted with the codes, say).
+        return Err(
+            if (VERSION + 1..=LAST_PLAUSIBLE_VERSION).contains(&version) {
+                ResultError::NewerVersion(version)
+            } else {
+                ResultError::Damaged
+            },
+        );
     }
     let Some(&name) = head.get(5) else {
         return Ok(None);
@@ -417,6 +426,9 @@ pub fn decode(code: &str) -> Result<Results, ResultError> {
         return Err(ResultError::Damaged);
     }
     let version = body[0];
+    if version > LAST_PLAUSIBLE_VERSION {
+        return Err(ResultError::Damaged);
+    }
     if version > VERSION {
         return Err(ResultError::NewerVersion(version));
     }
@@ -484,6 +496,17 @@ mod tests {
     /// A version 1 code, written by the version 1 encoder (the commit before version 2) for
     /// the set fingerprint 0xDEADBEEF, the name "Mira of Harbour Street" and the outcomes
     /// clean, failed, helped, untried, clean.
+    /// A word pasted among the codes is damage, not a code of a newer version: "HELLO" reads
+    /// as a first byte of 139 (found by trying the Coach screen).
+    #[test]
+    fn a_word_is_no_code_of_a_newer_version() {
+        let raw = from_base32("HELLO").expect("letters of the code alphabet");
+        assert_eq!(raw[0], 139);
+        assert_eq!(code_bytes(&raw), Err(ResultError::Damaged));
+        assert!(matches!(decode("HELLO"), Err(ResultError::Damaged)));
+        assert_eq!(code_bytes(&[3]), Err(ResultError::NewerVersion(3)));
+    }
+
     const V1_CODE: &str =
         "07QV-XBEY-2S6P-JWK1-41QP-C828-C5S6-4VVN-E8G5-6X3J-CNJQ-8180-5M0K-5S66-CM";
 
