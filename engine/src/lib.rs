@@ -17,6 +17,7 @@ pub mod patterns;
 pub mod play;
 pub mod puzzle;
 pub mod rating;
+pub mod review;
 pub mod rules;
 pub mod schedule;
 pub mod search;

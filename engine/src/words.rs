@@ -11,7 +11,9 @@ use crate::puzzle::attempt::Attempt;
 use crate::puzzle::grade::{ReplyNote, SolvedBy, WrongReason};
 use crate::puzzle::hints::Hint;
 use crate::puzzle::{Puzzle, Theme};
+use crate::review::{Finding, FindingKind, ForcedWin, GameReview};
 use crate::rules::{Forbidden, MoveError};
+use crate::search::Mode;
 use crate::study::{Study, StudyAnswer, StudySearch};
 use crate::types::Stone;
 
@@ -473,6 +475,111 @@ pub fn searching(search: StudySearch, seconds: f64, spent: u64, budget: u64) -> 
         thousands(spent),
         thousands(budget)
     )
+}
+
+/// A forced win as a noun phrase: "a five at j9", "a win with fours starting at j9: 7 fours",
+/// "a win with threes and fours starting at j9: 2 threes, 11 moves in all", "a win starting
+/// at j9 that drives Black onto a forbidden point: 9 moves".
+pub fn forced_win(w: &ForcedWin) -> String {
+    let Some(first) = w.first() else {
+        return "a win".to_string();
+    };
+    if w.is_five() {
+        return format!("a five at {first}");
+    }
+    let moves = w.line.len();
+    if w.onto_forbidden {
+        return format!(
+            "a win starting at {first} that drives {} onto a forbidden point: {moves} moves",
+            colour(w.side.opponent())
+        );
+    }
+    match w.mode {
+        Mode::Vcf => format!(
+            "a win with fours starting at {first}: {}",
+            count(w.depth, "four", "fours")
+        ),
+        Mode::Vct => format!(
+            "a win with threes and fours starting at {first}: {}, {moves} moves in all",
+            count(w.depth, "three", "threes")
+        ),
+    }
+}
+
+/// A finding of a game review in one or two sentences: "Move 23: Black had a win with fours
+/// starting at j9: 7 fours. Black's k10 lets it go."
+pub fn finding(f: &Finding) -> String {
+    let me = colour(f.colour);
+    let n = f.number;
+    let played = f.played;
+    match &f.kind {
+        FindingKind::MissedWin { win } => format!(
+            "Move {n}: {me} had {}. {me}'s {played} lets it go.",
+            forced_win(win)
+        ),
+        FindingKind::Blunder { win } => format!(
+            "Move {n}: after {me}'s {played}, {} has {}.",
+            colour(win.side),
+            forced_win(win)
+        ),
+        FindingKind::MissedDefence {
+            threat,
+            defences,
+            complete,
+        } => {
+            let stops = match defences.len() {
+                1 if *complete => format!("The only defence was {}.", defences[0]),
+                1 => format!("The defence found was {}.", defences[0]),
+                _ => format!("The defences were {}.", commas(defences)),
+            };
+            format!(
+                "Move {n}: {} threatened {}; {me}'s {played} does not stop it. {stops}",
+                colour(threat.side),
+                forced_win(threat)
+            )
+        }
+        FindingKind::ForbiddenPoint { why, forced } => {
+            let them = colour(f.colour.opponent());
+            if *forced {
+                format!(
+                    "Move {n}: {me} had to block {them}'s four at {played}, but it is \
+                     forbidden for {me} ({}): {them} wins.",
+                    forbidden(*why)
+                )
+            } else {
+                format!(
+                    "Move {n}: {me}'s {played} is a forbidden point ({}): {them} wins.",
+                    forbidden(*why)
+                )
+            }
+        }
+    }
+}
+
+/// A review in one sentence: "60 moves checked: 3 findings, 1 move undecided."
+pub fn review_summary(r: &GameReview) -> String {
+    let (_, _, undecided) = r.counts();
+    let findings = r.findings().count();
+    let checked = r.moves.len();
+    let mut out = format!(
+        "{} checked: {}",
+        count(checked as u16, "move", "moves"),
+        match findings {
+            0 => "nothing found".to_string(),
+            k => count(k as u16, "finding", "findings"),
+        }
+    );
+    if undecided > 0 {
+        out.push_str(&format!(
+            ", {} undecided",
+            count(undecided as u16, "move", "moves")
+        ));
+    }
+    out.push('.');
+    if r.stopped {
+        out.push_str(" The check was stopped: the moves not reached are undecided.");
+    }
+    out
 }
 
 fn list(points: &[Point]) -> String {

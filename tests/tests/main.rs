@@ -107,6 +107,12 @@ mod formats;
 /// nothing.
 mod refutations;
 
+/// `review`: hand-built games checked move by move (a missed win with fours, an allowed
+/// four-three, a missed only defence, a renju forbidden point played after a blunder, a game
+/// with nothing to find), each finding reasoned from the trade's rules of thumb and the renju
+/// rules; every puzzle made from them proves again.
+mod review;
+
 /// `tidy`: guards on the code's shape: every engine module in the DEVELOPERS.md code map with
 /// an invariant, no web crate in the engine, no two public types with one name, no `unsafe`.
 mod tidy;

@@ -13,6 +13,7 @@ mod inspect;
 mod out;
 mod position;
 mod results;
+mod review;
 mod share;
 mod solve;
 mod suite;
@@ -53,6 +54,8 @@ enum Command {
     Sheet(generate::SheetArgs),
     /// Print the link (or bare code) that hands a set out, and write its QR code.
     Share(share::ShareArgs),
+    /// Check a player's own games move by move: missed wins, blunders, missed defences.
+    Review(review::ReviewArgs),
     /// Read students' result codes against a set and print the class table (or write CSV).
     Results(results::ResultsArgs),
     /// Measure the QR version (level M) of sets' links; prints a Markdown table.
@@ -108,6 +111,7 @@ fn main() -> ExitCode {
         Command::Sheet(args) => generate::sheet(&args),
         Command::Share(args) => share::run(&args),
         Command::Results(args) => results::run(&args),
+        Command::Review(args) => review::run(&args),
         Command::QrVersions(args) => share::qr_versions(&args),
     };
     match result {
