@@ -21,8 +21,9 @@ pub const LABEL: f64 = 0.6875;
 const LABEL_STEPS: f64 = 0.42;
 /// Gap between the row numbers and column `a`, in grid steps.
 const NUMBER_GAP: f64 = 0.42;
-/// Width of a two-digit row number and the space before it, in font sizes.
-const NUMBER_WIDTH: f64 = 1.45;
+/// Width of a two-digit row number and the space before it, in font sizes (a bold digit is
+/// about 0.65 of the font size; the rest keeps the number a few pixels off the canvas edge).
+const NUMBER_WIDTH: f64 = 1.6;
 /// Distance from row `1` to the letters' centre: at least this many grid steps ...
 const LETTER_STEPS: f64 = 0.78;
 /// ... and at least this many steps plus [`HALF_LETTER`] font sizes.

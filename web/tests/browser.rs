@@ -219,12 +219,45 @@ fn a_wrong_move_is_refuted_one_move_at_a_time_with_a_reason() {
     let mut t = Trainer::new(c.clone()).unwrap();
     t.fit(1.0, 16.0).unwrap();
     let p = library_puzzle("Win with fours: club", 1);
+    // A move that forces nothing is told so, and gets no reply (a reply to it would prove
+    // nothing): a1, far from every stone.
+    let probe = canvas(300, 300);
+    let mut t0 = Trainer::new(probe.clone()).unwrap();
+    t0.fit(1.0, 16.0).unwrap();
+    json(t0.load(&p.to_string(), false, JsValue::NULL));
+    let quiet = json(t0.play("a1"));
+    assert_eq!(quiet["kind"], "wrong");
+    assert_eq!(quiet["pending"], 0, "{quiet}");
+    assert!(quiet["reason"].as_str().unwrap().contains("not a four"), "{quiet}");
+    // A wrong four is refuted by the forced block: the first such point, found on the probe.
+    let taken: Vec<String> = ["black", "white"]
+        .iter()
+        .flat_map(|k| strs(&p[*k]))
+        .chain(strs(&p["solution"]["first_moves"]))
+        .collect();
+    let mut four = None;
+    'search: for col in 'a'..='o' {
+        for row in 1..=15 {
+            let name = format!("{col}{row}");
+            if taken.contains(&name) {
+                continue;
+            }
+            json(t0.retry());
+            let r = json(t0.play(&name));
+            if r["kind"] == "wrong" && r["pending"].as_u64().unwrap_or(0) >= 1 {
+                four = Some(name);
+                break 'search;
+            }
+        }
+    }
+    probe.remove();
+    let four = four.expect("a wrong four in the first club puzzle");
     json(t.load(&p.to_string(), false, JsValue::NULL));
-    let a = json(t.play("a1"));
+    let a = json(t.play(&four));
     assert_eq!(a["kind"], "wrong");
     let reason = a["reason"].as_str().unwrap().to_string();
     assert!(reason.ends_with('.') && reason.len() > 20, "{reason}");
-    assert_eq!(a["say"][0], "Black a1: not right.");
+    assert_eq!(a["say"][0], format!("Black {four}: not right.").as_str());
     assert_eq!(a["say"][1], reason.as_str());
     let pending = a["pending"].as_u64().unwrap();
     assert!(pending >= 1);
@@ -243,7 +276,7 @@ fn a_wrong_move_is_refuted_one_move_at_a_time_with_a_reason() {
     let s = json(t.status());
     assert_eq!(s["state"], "failed");
     assert_eq!(s["attempt"], "failed");
-    assert_eq!(strs(&s["record"]["played"]), vec!["a1"]);
+    assert_eq!(strs(&s["record"]["played"]), vec![four.clone()]);
     assert_eq!(s["record"]["wrong"], 1);
     // Undo takes back the move and its refutation; a retry then solves it "with help".
     let s = json(t.undo());
