@@ -10,24 +10,24 @@ import { Cancelled, Jobs } from './jobs.js';
 import { save } from './store.js';
 import { $, POINT_NAME, RULES, announce, banner, download, el, fill, isInt, keepFocus } from './ui.js';
 
-const MAX_GAMES = 40;
-const MAX_FILE_BYTES = 2_000_000;
-const MAX_TEXT = 200;
-const KINDS = ['missed-win', 'blunder', 'missed-defence', 'forbidden-point'];
-const VERDICTS = ['fine', 'finding', 'undecided'];
-const PLAYERS = ['black', 'white', 'both'];
-const COLOURS = ['black', 'white'];
-const VERDICT_WORDS = { fine: 'fine', finding: 'a finding', undecided: 'undecided' };
+const GAMES_KEPT = 40;
+const GAME_FILE_BYTES = 2_000_000;
+const GAME_TEXT_MAX = 200;
+const FINDING_KINDS = ['missed-win', 'blunder', 'missed-defence', 'forbidden-point'];
+const MOVE_VERDICTS = ['fine', 'finding', 'undecided'];
+const GAME_PLAYERS = ['black', 'white', 'both'];
+const GAME_COLOURS = ['black', 'white'];
+const MOVE_VERDICT_WORDS = { fine: 'fine', finding: 'a finding', undecided: 'undecided' };
 
-const isPoints = (a, max = 361) => Array.isArray(a) && a.length <= max && a.every((p) => typeof p === 'string' && POINT_NAME.test(p));
-const isText = (v) => v === null || (typeof v === 'string' && v.length <= MAX_TEXT);
+const isPointList = (a, max = 361) => Array.isArray(a) && a.length <= max && a.every((p) => typeof p === 'string' && POINT_NAME.test(p));
+const isGameText = (v) => v === null || (typeof v === 'string' && v.length <= GAME_TEXT_MAX);
 
 /** Why one stored finding cannot be used, or null. */
-function checkFinding(f, moves) {
+function checkStoredFinding(f, moves) {
   if (!f || typeof f !== 'object') return 'is empty';
-  if (!isInt(f.number, 1, moves) || !COLOURS.includes(f.colour) || !POINT_NAME.test(f.played ?? '')) return 'names no move';
-  if (!KINDS.includes(f.kind) || typeof f.words !== 'string' || f.words.length > 2000) return 'has no words';
-  if (!isInt(f.at, 0, moves) || !isPoints(f.line) || !COLOURS.includes(f.first) || !isPoints(f.defences)) return 'has a malformed line';
+  if (!isInt(f.number, 1, moves) || !GAME_COLOURS.includes(f.colour) || !POINT_NAME.test(f.played ?? '')) return 'names no move';
+  if (!FINDING_KINDS.includes(f.kind) || typeof f.words !== 'string' || f.words.length > 2000) return 'has no words';
+  if (!isInt(f.at, 0, moves) || !isPointList(f.line) || !GAME_COLOURS.includes(f.first) || !isPointList(f.defences)) return 'has a malformed line';
   if (typeof f.puzzle !== 'boolean') return 'is malformed';
   return null;
 }
@@ -35,21 +35,21 @@ function checkFinding(f, moves) {
 /** Why the stored games cannot be used, or null. */
 export function checkGames(d) {
   if (!d || !Array.isArray(d.list)) return 'it has no list of games';
-  if (d.list.length > MAX_GAMES) return 'it holds too many games';
+  if (d.list.length > GAMES_KEPT) return 'it holds too many games';
   const ids = new Set();
   for (const g of d.list) {
     if (!g || typeof g.id !== 'string' || !/^[a-z0-9-]{1,40}$/.test(g.id) || ids.has(g.id)) return 'a game has no id';
     ids.add(g.id);
     const what = `game ${g.id}`;
-    if (![15, 19].includes(g.size) || !RULES.includes(g.rule) || !PLAYERS.includes(g.player)) return `the settings of ${what} are unknown`;
-    if (!isText(g.title) || !isText(g.black) || !isText(g.white) || !isText(g.date)) return `the names of ${what} are malformed`;
-    if (!isPoints(g.moves) || !g.moves.length) return `the moves of ${what} are malformed`;
-    if (!Array.isArray(g.verdicts) || g.verdicts.length > g.moves.length || !g.verdicts.every((v) => VERDICTS.includes(v))) {
+    if (![15, 19].includes(g.size) || !RULES.includes(g.rule) || !GAME_PLAYERS.includes(g.player)) return `the settings of ${what} are unknown`;
+    if (!isGameText(g.title) || !isGameText(g.black) || !isGameText(g.white) || !isGameText(g.date)) return `the names of ${what} are malformed`;
+    if (!isPointList(g.moves) || !g.moves.length) return `the moves of ${what} are malformed`;
+    if (!Array.isArray(g.verdicts) || g.verdicts.length > g.moves.length || !g.verdicts.every((v) => MOVE_VERDICTS.includes(v))) {
       return `the verdicts of ${what} are malformed`;
     }
     if (!Array.isArray(g.findings) || g.findings.length > 4 * g.moves.length) return `the findings of ${what} are malformed`;
     for (const f of g.findings) {
-      const why = checkFinding(f, g.moves.length);
+      const why = checkStoredFinding(f, g.moves.length);
       if (why) return `a finding of ${what} ${why}`;
     }
     if (typeof g.summary !== 'string' || typeof g.checked !== 'string' || typeof g.budget !== 'string') return `${what} is incomplete`;
@@ -69,16 +69,16 @@ export function emptyGames() {
   return { list: [] };
 }
 
-function newId() {
+function newGameId() {
   const v = new Uint32Array(2);
   crypto.getRandomValues(v);
   return `g-${v[0].toString(36)}${v[1].toString(36)}`;
 }
 
-const today = () => new Date().toISOString().slice(0, 10);
+const gameDay = () => new Date().toISOString().slice(0, 10);
 
 /** A game's heading: its title, else its players, else its length. */
-function heading(g) {
+function gameHeading(g) {
   if (g.title) return g.title;
   if (g.black || g.white) return `${g.black ?? 'Black'} – ${g.white ?? 'White'}`;
   return `A game of ${g.moves.length} moves`;
@@ -144,7 +144,7 @@ export class Games {
     const f = input.files?.[0];
     input.value = '';
     if (!f) return;
-    if (f.size > MAX_FILE_BYTES) {
+    if (f.size > GAME_FILE_BYTES) {
       this.note(`"${f.name}" is too large to be a game file; nothing was loaded.`, 'refused');
       return;
     }
@@ -166,7 +166,7 @@ export class Games {
     const warn = got.warnings.length ? ` Note: ${got.warnings.join(' ')}` : '';
     this.note(`Read ${n === 1 ? 'one game' : `${n} games`} from ${source}.${warn}`, got.warnings.length ? 'warn' : 'info');
     fill($('games-pick'), got.games.map((g, i) => el('option', { value: String(i) },
-      `${i + 1}. ${heading(g)} (${g.moves.length} moves)`)));
+      `${i + 1}. ${gameHeading(g)} (${g.moves.length} moves)`)));
     $('games-pick-box').hidden = n < 2;
     $('games-setup').hidden = false;
     this.renderSetup();
@@ -179,7 +179,7 @@ export class Games {
   renderSetup() {
     const g = this.picked();
     if (!g) return;
-    $('games-setup-title').textContent = heading(g);
+    $('games-setup-title').textContent = gameHeading(g);
     const bits = [`${g.moves.length} moves`, `${g.size} × ${g.size}`];
     if (g.black || g.white) bits.push(`Black: ${g.black ?? 'not named'}, White: ${g.white ?? 'not named'}`);
     if (g.date) bits.push(g.date);
@@ -211,7 +211,7 @@ export class Games {
     const started = performance.now();
     let r;
     try {
-      const query = { size: g.size, rule, moves: g.moves, player, created: today() };
+      const query = { size: g.size, rule, moves: g.moves, player, created: gameDay() };
       r = await this.jobs.run('review', { query }, (p) => show(p.checked, p.total));
     } catch (e) {
       this.busy(false);
@@ -227,11 +227,11 @@ export class Games {
       // The set's title says which game it came from (the same title for every game would
       // leave Tonight with several sets of one name).
       const s = JSON.parse(set);
-      s.title = `${s.title}: ${heading(g)}`.slice(0, 120);
+      s.title = `${s.title}: ${gameHeading(g)}`.slice(0, 120);
       set = parseSet(JSON.stringify(s));
     }
     const entry = {
-      id: newId(),
+      id: newGameId(),
       title: g.title ?? null,
       black: g.black ?? null,
       white: g.white ?? null,
@@ -250,9 +250,9 @@ export class Games {
     };
     this.data.list.unshift(entry);
     let dropped = '';
-    if (this.data.list.length > MAX_GAMES) {
-      this.data.list.length = MAX_GAMES;
-      dropped = ` Only the latest ${MAX_GAMES} games are kept: the oldest was removed.`;
+    if (this.data.list.length > GAMES_KEPT) {
+      this.data.list.length = GAMES_KEPT;
+      dropped = ` Only the latest ${GAMES_KEPT} games are kept: the oldest was removed.`;
     }
     this.save();
     this.note(`Checked in ${secs.toFixed(1)} s: ${r.summary}${dropped}`, 'info');
@@ -290,11 +290,11 @@ export class Games {
     fill($('games-saved'), this.data.list.map((g) => {
       const found = g.findings.length;
       return el('li', { class: 'card', 'data-id': g.id },
-        el('h3', { class: 'set-title', text: heading(g) }),
+        el('h3', { class: 'set-title', text: gameHeading(g) }),
         el('p', { class: 'meta', text: `${g.moves.length} moves · ${g.rule} · ${found === 1 ? '1 finding' : `${found} findings`} · checked ${g.checked.slice(0, 10)}` }),
         el('div', { class: 'row' },
           el('button', { type: 'button', class: 'primary', onclick: () => this.openGame(g.id) }, 'Open'),
-          el('button', { type: 'button', class: 'quiet', 'aria-label': `Delete ${heading(g)}`, onclick: () => this.remove(g.id) }, 'Delete')));
+          el('button', { type: 'button', class: 'quiet', 'aria-label': `Delete ${gameHeading(g)}`, onclick: () => this.remove(g.id) }, 'Delete')));
     }));
   }
 
@@ -304,7 +304,7 @@ export class Games {
 
   remove(id) {
     const g = this.game(id);
-    if (!g || !window.confirm(`Delete "${heading(g)}" and its findings from this device? Puzzles already in Tonight stay there.`)) return;
+    if (!g || !window.confirm(`Delete "${gameHeading(g)}" and its findings from this device? Puzzles already in Tonight stay there.`)) return;
     this.data.list = this.data.list.filter((x) => x.id !== id);
     this.save();
     this.renderSaved();
@@ -318,7 +318,7 @@ export class Games {
     if (!g) return this.showList();
     this.open = g;
     this.view('view');
-    $('games-view-title').textContent = heading(g);
+    $('games-view-title').textContent = gameHeading(g);
     $('games-summary').textContent = g.summary;
     const n = g.set ? JSON.parse(g.set).puzzles.length : 0;
     $('games-play').disabled = !n;
@@ -347,7 +347,7 @@ export class Games {
           'data-move': String(n),
           'data-verdict': verdict,
           'data-kind': kinds[0],
-          'aria-label': `Move ${n}, ${colour} ${p}: ${VERDICT_WORDS[verdict]}`,
+          'aria-label': `Move ${n}, ${colour} ${p}: ${MOVE_VERDICT_WORDS[verdict]}`,
           onclick: () => this.go(n),
         }, String(n)));
     }));
