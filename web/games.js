@@ -8,7 +8,7 @@ import { parseSet, readGames } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
 import { save } from './store.js';
-import { $, POINT_NAME, RULES, announce, banner, download, el, fill, isInt, keepFocus } from './ui.js';
+import { $, POINT_NAME, RULES, announce, banner, bringBoard, download, el, fill, isInt, keepFocus } from './ui.js';
 
 const GAMES_KEPT = 40;
 const GAME_FILE_BYTES = 2_000_000;
@@ -157,7 +157,7 @@ export class Games {
     try {
       got = readGames(bytes, Number($('games-size').value));
     } catch (e) {
-      this.note(`${source} cannot be read: ${e}. Nothing was loaded.`, 'refused');
+      this.note(`${source[0].toUpperCase()}${source.slice(1)} cannot be read: ${e}. Nothing was loaded.`, 'refused');
       announce(`Not loaded: ${e}.`);
       return;
     }
@@ -323,7 +323,7 @@ export class Games {
     const n = g.set ? JSON.parse(g.set).puzzles.length : 0;
     $('games-play').disabled = !n;
     $('games-export').disabled = !n;
-    const whose = g.player === 'both' ? 'both sides' : `${g.player}'s moves`;
+    const whose = g.player === 'both' ? 'both sides' : `${g.player === 'black' ? 'Black' : 'White'}'s moves`;
     $('games-puzzles').textContent = (n
       ? `${n === 1 ? 'One finding' : `${n} findings`} of ${whose} became ${n === 1 ? 'a puzzle' : 'puzzles'}.`
       : `No finding of ${whose} became a puzzle (a five to make or block, or too many answers, makes none).`) +
@@ -360,6 +360,7 @@ export class Games {
     this.at = Math.max(0, Math.min(g.moves.length, k));
     this.showPosition(this.at);
     $('games-line').hidden = true;
+    $('games-stepper').hidden = false;
     $('games-prev').disabled = this.at === 0;
     $('games-next').disabled = this.at === g.moves.length;
     $('games-at').textContent = this.at
@@ -416,7 +417,6 @@ export class Games {
           onclick: () => this.showLine(f),
         }, 'Show the line on the board'));
       }
-      if (f.defences.length) parts.push(el('p', { class: 'small', text: `Defences: ${f.defences.join(', ')}` }));
       return el('div', { class: 'finding', 'data-kind': f.kind }, ...parts);
     }));
   }
@@ -430,11 +430,15 @@ export class Games {
       return;
     }
     this.lineTotal = f.line.length;
+    // The line's stepper takes the game's place under the board; a move of the timeline
+    // brings the game back.
     $('games-line').hidden = false;
+    $('games-stepper').hidden = true;
     $('games-line-at').textContent = `Line: 0 of ${f.line.length}, from the position after move ${f.at}`;
     this.board.changed('load');
     this.lineStep(1);
-    $('games-line-next').focus();
+    $('games-line-next').focus({ preventScroll: true });
+    bringBoard($('games-board'));
   }
 
   lineStep(delta) {

@@ -61,7 +61,10 @@ pub struct GamesJs {
 pub fn read(bytes: &[u8], size: Option<u8>) -> Result<GamesJs, String> {
     let loaded = read_games(bytes, Choices { size, rule: None }).map_err(|e| e.to_string())?;
     if loaded.games.is_empty() {
-        return Err("no game was found: paste a move list (black first, like h8 h9 i8) or an SGF record".into());
+        return Err(
+            "no game was found: paste a move list (black first, like h8 h9 i8) or an SGF record"
+                .into(),
+        );
     }
     let games = loaded
         .games
@@ -284,19 +287,15 @@ pub fn check_game(
                 .and_then(|f| f.call0(&JsValue::NULL).ok())
                 .is_some_and(|v| v.is_truthy())
     };
-    let out = check(
-        &q,
-        stop.as_ref().map(|_| &stop_check as StopCheck),
-        |p| {
-            if let Some(f) = &progress {
-                let _ = f.call2(
-                    &JsValue::NULL,
-                    &JsValue::from(p.checked as u32),
-                    &JsValue::from(p.total as u32),
-                );
-            }
-        },
-    )
+    let out = check(&q, stop.as_ref().map(|_| &stop_check as StopCheck), |p| {
+        if let Some(f) = &progress {
+            let _ = f.call2(
+                &JsValue::NULL,
+                &JsValue::from(p.checked as u32),
+                &JsValue::from(p.total as u32),
+            );
+        }
+    })
     .map_err(err)?;
     crate::boards::to_js(&out)
 }
@@ -324,7 +323,10 @@ mod tests {
     fn a_pasted_move_list_and_an_sgf_record_are_read() {
         let got = read(b"# Harbour Street, round 2\nh8 h9 i8", None).unwrap();
         assert_eq!(got.games.len(), 1);
-        assert_eq!(got.games[0].title.as_deref(), Some("Harbour Street, round 2"));
+        assert_eq!(
+            got.games[0].title.as_deref(),
+            Some("Harbour Street, round 2")
+        );
         assert_eq!(got.games[0].moves.len(), 3);
         let sgf = read(
             b"(;FF[4]GM[4]SZ[15]PB[Mira Okafor]PW[Tomas Reyne];B[hh];W[hi])",
@@ -356,7 +358,11 @@ mod tests {
         assert_eq!(found, vec![(12, "missed-defence"), (13, "missed-win")]);
         assert_eq!(r.moves[12].verdict, "finding");
         let f = &r.findings[1];
-        assert!(f.words.starts_with("Move 13: Black had a win with fours"), "{}", f.words);
+        assert!(
+            f.words.starts_with("Move 13: Black had a win with fours"),
+            "{}",
+            f.words
+        );
         assert_eq!((f.at, f.line.len(), f.first), (12, 7, Stone::Black));
         // Only Black's finding goes into Black's set.
         assert_eq!(r.puzzles, 1);
