@@ -281,7 +281,7 @@ pub fn check_game(
         // Asking JavaScript costs more than a node: ask every 4096 polls.
         let n = polled.get().wrapping_add(1);
         polled.set(n);
-        n % 4096 == 0
+        n.is_multiple_of(4096)
             && stop
                 .as_ref()
                 .and_then(|f| f.call0(&JsValue::NULL).ok())
