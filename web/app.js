@@ -1,5 +1,5 @@
-// Fivefold in the browser: starts the engine, loads saved progress, and wires the three screens
-// (Tonight, Drill, Study board), the settings, backups, share links and offline support.
+// Fivefold in the browser: starts the engine, loads saved progress, and wires the screens
+// (Tonight, Drill, Revisit, Study board, Coach, Progress, My games), the settings, backups, share links and offline support.
 // The rules, the grading, the drawing and every sentence about the game come from Rust; these
 // scripts pass events in and write the returned text out, always as text, never as markup.
 
@@ -12,6 +12,7 @@ import { PracticeStore, checkPractice } from './practice.js';
 import { Revisit } from './revisit.js';
 import { Progress } from './progress.js';
 import { Coach, checkCoach } from './coach.js';
+import { Games, checkGames } from './games.js';
 import { $, banner, clearBanner, download, shown } from './ui.js';
 import { setSounds } from './sounds.js';
 
@@ -42,6 +43,7 @@ const VALIDATORS = {
   study: checkStudy,
   practice: checkPractice,
   coach: checkCoach,
+  games: checkGames,
 };
 
 const WHAT = {
@@ -52,6 +54,7 @@ const WHAT = {
   study: 'Study board position',
   practice: 'Revisit schedule and practice history',
   coach: 'Coach sets and results',
+  games: 'games checked in My games',
 };
 
 class App {
@@ -96,6 +99,7 @@ class App {
     this.revisit = new Revisit(this);
     this.progress = new Progress(this);
     this.coach = new Coach(this);
+    this.games = new Games(this);
     this.loadAll();
     for (const b of document.querySelectorAll('[data-go]')) {
       b.addEventListener('click', () => {
@@ -139,6 +143,7 @@ class App {
     this.drill.init(got.drill);
     this.study.init(got.study);
     this.coach.init(got.coach);
+    this.games.init(got.games);
     this.go(this.settings.screen);
   }
 
@@ -152,11 +157,12 @@ class App {
       study: this.study.data,
       practice: this.practice.data,
       coach: this.coach.data,
+      games: this.games.data,
     };
   }
 
   applySettings() {
-    for (const screen of [this.tonight, this.drill, this.study, this.revisit, this.coach]) screen.applySettings(this.settings);
+    for (const screen of [this.tonight, this.drill, this.study, this.revisit, this.coach, this.games]) screen.applySettings(this.settings);
     $('opt-confirm').checked = this.settings.confirm;
     $('opt-forbidden').checked = this.settings.forbidden;
     $('opt-numbers').checked = this.settings.numbers;
@@ -265,6 +271,7 @@ class App {
       study: this.study.data,
       practice: this.practice.data,
       coach: this.coach.data,
+      games: this.games.data,
     };
     const day = new Date().toISOString().slice(0, 10);
     download(`fivefold-backup-${day}.json`, makeBackup(parts));
@@ -311,6 +318,7 @@ class App {
       study: this.study.data,
       practice: this.practice.data,
       coach: this.coach.data,
+      games: this.games.data,
       ...parts,
     });
     const msg = failed.length

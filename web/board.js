@@ -22,8 +22,11 @@ export class BoardView {
    * log; `message`: the message line; `onChange(status, why)`: called after every change the
    * player or the app makes.
    */
-  constructor(canvas, { kind = 'puzzle', log, message, onChange = () => {}, onFinish = () => {} }) {
+  constructor(canvas, { kind = 'puzzle', log, message, onChange = () => {}, onFinish = () => {}, readOnly = false }) {
     this.canvas = canvas;
+    // A board that only shows (My games): taps and Enter place nothing; the arrow keys still
+    // move the cursor, which reads the points out.
+    this.readOnly = readOnly;
     this.log = log;
     this.message = message;
     this.onChange = onChange;
@@ -157,6 +160,7 @@ export class BoardView {
   }
 
   click(e) {
+    if (this.readOnly) return;
     const touch = (e.pointerType || this.lastPointer) === 'touch';
     const a = this.trainer.tap(e.clientX, e.clientY, touch);
     this.answer(a);
@@ -170,7 +174,7 @@ export class BoardView {
       const stone = this.trainer.stoneAt(p);
       announce(`${p}${stone ? `, ${stone} stone` : ', empty'}`);
       this.canvas.dataset.cursor = p;
-    } else if (e.key === 'Enter' || e.key === ' ') {
+    } else if ((e.key === 'Enter' || e.key === ' ') && !this.readOnly) {
       e.preventDefault();
       this.answer(this.trainer.placeAtCursor());
     }

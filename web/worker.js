@@ -1,9 +1,10 @@
 // The app's worker: generates Drill puzzles and runs Study board searches off the page's
 // thread, so the page stays responsive. Messages in: {type: "init", module} (optional: a
-// compiled wasm module, used by the single-file build), {id, type: "generate", options} and
-// {id, type: "solve", query} and {id, type: "prove", puzzle}. Messages out: {id, progress}, {id, result} or {id, error, fatal}.
+// compiled wasm module, used by the single-file build), {id, type: "generate", options},
+// {id, type: "solve", query}, {id, type: "prove", puzzle} and {id, type: "review", query}
+// (a game checked move by move, with progress {checked, total}). Messages out: {id, progress}, {id, result} or {id, error, fatal}.
 
-import init, { generateSet, provePuzzle, solvePosition } from './pkg/fivefold_web.js';
+import init, { checkGame, generateSet, provePuzzle, solvePosition } from './pkg/fivefold_web.js';
 
 let ready = null;
 
@@ -28,6 +29,11 @@ self.onmessage = async (event) => {
     } else if (m.type === 'solve') {
       const result = solvePosition(m.query, (nodes) => {
         self.postMessage({ id: m.id, progress: { nodes } });
+      });
+      self.postMessage({ id: m.id, result });
+    } else if (m.type === 'review') {
+      const result = checkGame(m.query, (checked, total) => {
+        self.postMessage({ id: m.id, progress: { checked, total } });
       });
       self.postMessage({ id: m.id, result });
     } else if (m.type === 'prove') {

@@ -7,7 +7,8 @@
 //! controller and one canvas), [`api`] the plain functions (sets, share and result codes,
 //! ratings, generation and solving for the worker), [`coach`] the instructor's screen (links,
 //! QR codes, the printable sheet, the class table), [`drill`] the choice of a drill's rating
-//! band, [`layout`] places the grid and [`render`] draws it, [`qr`] gives the modules of a QR
+//! band, [`games`] the player's own games (read, and checked move by move in the worker),
+//! [`layout`] places the grid and [`render`] draws it, [`qr`] gives the modules of a QR
 //! code; [`bench`] times the solver's benchmark suite in the browser.
 #![deny(missing_docs)]
 
@@ -16,6 +17,7 @@ pub mod bench;
 pub mod boards;
 pub mod coach;
 pub mod drill;
+pub mod games;
 pub mod layout;
 pub mod library;
 pub mod practice;
