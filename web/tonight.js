@@ -603,7 +603,9 @@ export class Tonight {
       : `${left.length} puzzles are not tried yet: ${list}. Finish the set anyway? They count as not tried in your result code.`;
     $('finish-go').textContent = `Go to puzzle ${left[0]}`;
     $('tonight-finish').hidden = false;
-    $('finish-anyway').focus();
+    $('finish-anyway').focus({ preventScroll: true });
+    // The whole question in view, clear of the phone's bar (its scroll margins, style.css).
+    $('tonight-finish').scrollIntoView({ block: 'nearest', behavior: 'instant' });
     announce($('tonight-finish-text').textContent);
   }
 

@@ -720,6 +720,12 @@ mod tests {
     }
 
     #[test]
+    fn one_position_is_singular() {
+        assert_eq!(searched(1), "1 position searched");
+        assert_eq!(searched(3_000_002), "3,000,002 positions searched");
+    }
+
+    #[test]
     fn an_answer_key_names_every_first_move_and_the_line() {
         let set = crate::formats::setfile::parse(include_str!("../../tests/data/fixture_set.json"))
             .unwrap();

@@ -70,7 +70,15 @@ async function walk(page, { touch }, visit) {
   await visit('tonight-wrong', 'tonight-board');
   await page.click(`#tonight-marks li:nth-child(${CLUB.puzzles.length}) button`);
   await page.click('#tonight-play [data-act="next"]');
-  await visit('tonight-finish', 'tonight-board');
+  // The question before finishing takes the focus: it and its buttons are what must show
+  // (measured before the visit's Tab walk moves the page).
+  const q = await page.$eval('#tonight-finish', (n) => {
+    const r = n.getBoundingClientRect();
+    const rail = document.querySelector('.rail').getBoundingClientRect();
+    return { top: r.top, bottom: r.bottom, end: rail.top > innerHeight / 2 ? rail.top : innerHeight };
+  });
+  assert.ok(q.top >= -0.5 && q.bottom <= q.end + 0.5, `the question before finishing is on screen: ${JSON.stringify(q)}`);
+  await visit('tonight-finish');
   await page.click('#finish-anyway');
   await page.waitForSelector('#tonight-summary:not([hidden])');
   await visit('tonight-summary');

@@ -228,7 +228,10 @@ fn a_wrong_move_is_refuted_one_move_at_a_time_with_a_reason() {
     let quiet = json(t0.play("a1"));
     assert_eq!(quiet["kind"], "wrong");
     assert_eq!(quiet["pending"], 0, "{quiet}");
-    assert!(quiet["reason"].as_str().unwrap().contains("not a four"), "{quiet}");
+    assert!(
+        quiet["reason"].as_str().unwrap().contains("not a four"),
+        "{quiet}"
+    );
     // A wrong four is refuted by the forced block: the first such point, found on the probe.
     let taken: Vec<String> = ["black", "white"]
         .iter()
