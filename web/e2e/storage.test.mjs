@@ -202,7 +202,7 @@ test('a backup file is exported and imported; a bad one changes nothing and says
   const backup = JSON.parse(text);
   assert.equal(backup.format, 'fivefold-backup');
   assert.equal(backup.version, 1);
-  assert.deepEqual(Object.keys(backup.data).sort(), ['drill', 'practice', 'sets', 'settings', 'study', 'tonight']);
+  assert.deepEqual(Object.keys(backup.data).sort(), ['coach', 'drill', 'games', 'practice', 'sets', 'settings', 'study', 'tonight']);
   await first.context.close();
 
   const { page, context, errors } = await open(env.browser, env.server.url);
