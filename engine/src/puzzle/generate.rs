@@ -148,12 +148,19 @@ pub struct GamePuzzle {
     puzzle: Puzzle,
 }
 
-/// Plays game number `game` of a generation and returns the first position of it that makes
-/// a puzzle of the options (one puzzle per game, so that a set does not repeat one fight).
-/// The solver's tables are cleared first.
-pub fn play_game(options: &Options, game: u64, solver: &mut Solver) -> Option<GamePuzzle> {
+impl GamePuzzle {
+    /// The puzzle.
+    pub fn puzzle(&self) -> &Puzzle {
+        &self.puzzle
+    }
+}
+
+/// Plays game number `number` of a generation and returns the first position of it that
+/// makes a puzzle of the options (one puzzle per game, so that a set does not repeat one
+/// fight). The solver's tables are cleared first.
+pub fn play_game(options: &Options, number: u64, solver: &mut Solver) -> Option<GamePuzzle> {
     solver.clear();
-    let mut rng = play::rng(game_seed(options.seed, game));
+    let mut rng = play::rng(game_seed(options.seed, number));
     let extra = 2 + play::below(&mut rng, 4) as usize;
     let mut game = play::opening(options.size, options.rule, &mut rng, 1 + extra, 50);
     let config = PlayerConfig {
