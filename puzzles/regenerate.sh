@@ -4,7 +4,7 @@
 set -euo pipefail
 cd "$(dirname "${BASH_SOURCE[0]}")/.."
 cargo build --release -q --bin fivefold
-F=./target/release/fivefold
+F="${CARGO_TARGET_DIR:-target}/release/fivefold"
 CREATED=2026-12-01
 # file                theme           rule       count  seed  rating      title
 while read -r file theme rule count seed rating title; do

@@ -77,13 +77,28 @@ impl std::error::Error for BoardError {}
 /// The shape state of one cell, for both colours (kept together for locality).
 #[derive(Clone, Copy, Default)]
 struct CellShapes {
-    /// Per colour's point of view, per direction: the ternary key of the ten neighbours (see
-    /// [`crate::patterns`]).
-    keys: [[u16; 4]; 2],
+    /// Per direction: the ternary keys of the ten neighbours (see [`crate::patterns`]) from
+    /// both colours' points of view, black's in the low 16 bits and white's in the high 16,
+    /// so that one addition updates both (a key never leaves `0..65536`, so no carry or
+    /// borrow crosses from one half to the other).
+    keys: [u32; 4],
     /// Per colour, per direction: the shape number for the key (stale on occupied cells).
     lines: [[u8; 4]; 2],
     /// Per colour: the [`threat`] flags (zero on occupied cells).
     flags: [u8; 2],
+}
+
+impl CellShapes {
+    /// The key of direction `d` from colour `ci`'s point of view.
+    #[inline]
+    fn key(&self, ci: usize, d: usize) -> u16 {
+        (self.keys[d] >> (16 * ci)) as u16
+    }
+
+    fn set_key(&mut self, ci: usize, d: usize, key: u16) {
+        let shift = 16 * ci;
+        self.keys[d] = (self.keys[d] & !(0xffff << shift)) | (key as u32) << shift;
+    }
 }
 
 /// The [`threat`] flag of each [`LineShape`], by its number.
@@ -103,8 +118,9 @@ const FLAG_OF: [u8; 16] = {
 #[derive(Clone)]
 struct Shapes {
     tables: [&'static ShapeTable; 2],
-    /// Per point of view, per stone colour, per slot: what a stone adds to the key.
-    deltas: [[[u16; patterns::SLOTS]; 2]; 2],
+    /// Per stone colour, per slot: what a stone adds to the keys of both points of view
+    /// (packed as in [`CellShapes::keys`]).
+    deltas: [[u32; patterns::SLOTS]; 2],
     cells: Vec<CellShapes>,
     /// Per colour, per flag kind: the empty points with that flag.
     sets: [[CellSet; threat::KINDS]; 2],
@@ -204,12 +220,12 @@ impl Board {
             table_for(self.rule, Stone::Black),
             table_for(self.rule, Stone::White),
         ];
-        let mut deltas = [[[0u16; patterns::SLOTS]; 2]; 2];
-        for (view, per_stone) in deltas.iter_mut().enumerate() {
-            for (stone, per_slot) in per_stone.iter_mut().enumerate() {
-                let digit = if view == stone { OWN } else { BLOCKED };
-                for (slot, d) in per_slot.iter_mut().enumerate() {
-                    *d = tables[view].weight(slot, digit);
+        let mut deltas = [[0u32; patterns::SLOTS]; 2];
+        for (stone, per_slot) in deltas.iter_mut().enumerate() {
+            for (slot, d) in per_slot.iter_mut().enumerate() {
+                for (view, table) in tables.iter().enumerate() {
+                    let digit = if view == stone { OWN } else { BLOCKED };
+                    *d |= (table.weight(slot, digit) as u32) << (16 * view);
                 }
             }
         }
@@ -231,7 +247,7 @@ impl Board {
                         let q = (idx as isize + off * self.dirs[d]) as usize;
                         key += s.tables[c.index()].weight(slot, digit(self.cells[q], c));
                     }
-                    s.cells[idx].keys[c.index()][d] = key;
+                    s.cells[idx].set_key(c.index(), d, key);
                 }
                 if self.cells[idx] == EMPTY {
                     s.refresh(c, idx);
@@ -531,12 +547,21 @@ impl Board {
     }
 
     /// Adds (or removes) the digits of a stone at `idx` to the keys of the 40 cells whose
-    /// windows contain it, and refreshes the shapes of those that are empty.
+    /// windows contain it, and refreshes the shapes of those that are empty. The cells five
+    /// steps away are skipped when the stone adds nothing to their keys (the outer slots count
+    /// only under exact-five rules, and only an own stone).
     #[inline]
     fn shift_keys(&self, s: &mut Shapes, idx: usize, c: Stone, add: bool) {
+        let deltas = s.deltas[c.index()];
+        let reach = if deltas[0] | deltas[patterns::SLOTS - 1] == 0 {
+            4
+        } else {
+            5
+        };
+        let tables = s.tables;
         for d in 0..4 {
             let step = self.dirs[d];
-            for n in 1..=5isize {
+            for n in 1..=reach {
                 // The cell n steps back sees `idx` at offset +n; the cell n steps on, at -n.
                 for (q, slot) in [
                     ((idx as isize - n * step) as usize, n as usize + 4),
@@ -546,25 +571,30 @@ impl Board {
                     if cell == WALL {
                         continue;
                     }
-                    let empty = cell == EMPTY;
-                    for ci in 0..2 {
-                        let delta = s.deltas[ci][c.index()][slot];
-                        let cs = &mut s.cells[q];
-                        let key = &mut cs.keys[ci][d];
-                        if add {
-                            *key += delta;
-                        } else {
-                            *key -= delta;
+                    let delta = deltas[slot];
+                    let cs = &mut s.cells[q];
+                    let keys = &mut cs.keys[d];
+                    if add {
+                        *keys += delta;
+                    } else {
+                        *keys -= delta;
+                    }
+                    if cell != EMPTY {
+                        continue;
+                    }
+                    let keys = *keys;
+                    let mut reflag = [false; 2];
+                    for (ci, table) in tables.iter().enumerate() {
+                        let shape = table.shape_of((keys >> (16 * ci)) as u16);
+                        let old = cs.lines[ci][d];
+                        if old != shape {
+                            cs.lines[ci][d] = shape;
+                            reflag[ci] = FLAG_OF[old as usize] != FLAG_OF[shape as usize];
                         }
-                        if empty {
-                            let shape = s.tables[ci].shape_of(*key);
-                            let old = cs.lines[ci][d];
-                            if old != shape {
-                                cs.lines[ci][d] = shape;
-                                if FLAG_OF[old as usize] != FLAG_OF[shape as usize] {
-                                    s.reflag(ci, q);
-                                }
-                            }
+                    }
+                    for (ci, &r) in reflag.iter().enumerate() {
+                        if r {
+                            s.reflag(ci, q);
                         }
                     }
                 }
@@ -588,7 +618,7 @@ impl Board {
     #[inline]
     pub fn line_at(&self, idx: usize, c: Stone, d: usize) -> LineInfo {
         let s = self.shapes();
-        s.tables[c.index()].get(s.cells[idx].keys[c.index()][d])
+        s.tables[c.index()].get(s.cells[idx].key(c.index(), d))
     }
 
     /// The shape a stone of `c` on the empty cell `idx` makes along direction `d` (cheaper
@@ -677,7 +707,7 @@ impl Board {
                 for c in Stone::ALL {
                     let ci = c.index();
                     let (mine, theirs) = (&s.cells[idx], &scratch.cells[idx]);
-                    if mine.keys[ci] != theirs.keys[ci] {
+                    if (0..4).any(|d| mine.key(ci, d) != theirs.key(ci, d)) {
                         return Err(format!("key at {} for {c} differs", self.point(idx)));
                     }
                     if mine.flags[ci] != theirs.flags[ci] {
@@ -719,7 +749,7 @@ impl Shapes {
     fn refresh(&mut self, c: Stone, idx: usize) {
         let ci = c.index();
         for d in 0..4 {
-            self.cells[idx].lines[ci][d] = self.tables[ci].shape_of(self.cells[idx].keys[ci][d]);
+            self.cells[idx].lines[ci][d] = self.tables[ci].shape_of(self.cells[idx].key(ci, d));
         }
         self.reflag(ci, idx);
     }

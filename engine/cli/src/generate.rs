@@ -73,6 +73,14 @@ pub struct GenerateArgs {
     /// No progress bar.
     #[arg(long)]
     pub quiet: bool,
+    /// Threads to play games on, 1 to 256 [default: every core]. The set is the same for any
+    /// number, byte for byte.
+    #[arg(
+        long,
+        value_parser = RangedU64ValueParser::<usize>::new().range(1..=256),
+        allow_negative_numbers = true
+    )]
+    pub jobs: Option<usize>,
 }
 
 /// A rating band, low and high ends included.
@@ -140,7 +148,12 @@ pub fn run(args: &GenerateArgs) -> Result<(), String> {
         args.quiet,
         "{spinner} [{bar:30}] {pos}/{len} puzzles, {msg} ({elapsed})",
     );
-    let puzzles = generate::generate(&options, |p| {
+    let jobs = args.jobs.unwrap_or_else(|| {
+        std::thread::available_parallelism()
+            .map(|n| n.get())
+            .unwrap_or(1)
+    });
+    let puzzles = generate::generate_on(&options, jobs, |p| {
         bar.set_position(p.kept as u64);
         bar.set_message(format!("{} games", p.games));
     })

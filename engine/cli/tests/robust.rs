@@ -610,3 +610,38 @@ fn set_and_code_files_are_read_up_to_their_limit() {
     let args = ["results", SET, "/dev/zero"];
     one_line_failure(&args, &run(&args), "at most 16777216 bytes");
 }
+
+#[test]
+fn generate_gives_the_same_bytes_for_any_number_of_jobs() {
+    let set = |jobs: &str| {
+        let out = run(&[
+            "generate",
+            "--theme",
+            "four-three",
+            "--count",
+            "4",
+            "--seed",
+            "5",
+            "--created",
+            "2026-12-02",
+            "--quiet",
+            "--jobs",
+            jobs,
+        ]);
+        assert!(out.status.success(), "{}", text(&out.stderr));
+        text(&out.stdout)
+    };
+    let one = set("1");
+    assert!(one.contains("\"ft-"), "{one}");
+    assert_eq!(set("2"), one);
+    assert_eq!(set("3"), one);
+    for bad in ["0", "-1", "257", "two"] {
+        let out = run(&["generate", "--theme", "vcf", "--quiet", "--jobs", bad]);
+        assert!(!out.status.success(), "--jobs {bad} was accepted");
+        assert!(
+            text(&out.stderr).contains("--jobs"),
+            "{}",
+            text(&out.stderr)
+        );
+    }
+}

@@ -6,10 +6,14 @@
 //! five to make or to block, no faster win than the theme claims, the stone counts fit the side
 //! to move, a unique answer preferred) and when its estimated rating is in the requested band.
 //! Positions equal under a symmetry are kept once. The same options give the same puzzles, in
-//! the same order, on every platform: all randomness comes from one ChaCha8 stream.
+//! the same order, on every platform and for any number of threads: each game has its own
+//! ChaCha8 stream seeded from the seed and the game's number, starts from cleared tables,
+//! gives at most one puzzle, and the games' puzzles are taken in game order.
 
-use std::collections::HashSet;
+use std::collections::{BTreeMap, HashSet};
 use std::fmt;
+use std::sync::atomic::{AtomicBool, AtomicU64, Ordering};
+use std::sync::mpsc;
 
 use super::difficulty::{self, Features};
 use super::{Goal, Puzzle, Theme};
@@ -19,6 +23,7 @@ use crate::play::{self, Player, PlayerConfig};
 use crate::search::{Asking, Budget, Mode, Solver, Verdict};
 use crate::types::Rule;
 use crate::types::Stone;
+use crate::zobrist::splitmix64;
 
 /// What to generate.
 #[derive(Clone, Debug, PartialEq, Eq)]
@@ -127,72 +132,212 @@ pub struct Progress {
     pub games: u64,
 }
 
-/// Generates puzzles. `progress` is called after every game.
+/// The seed of game `game` (counted from 0) of a generation from `seed`. Every game has its
+/// own random stream and starts from cleared tables, so a game's puzzle depends on nothing
+/// but the options and its number, and games can be played in any order, on any number of
+/// threads.
+pub fn game_seed(seed: u64, game: u64) -> u64 {
+    splitmix64(splitmix64(seed).wrapping_add(game))
+}
+
+/// The puzzle one game gave, with its key for de-duplication (positions equal under a
+/// symmetry, with the same side to move and rule, are one puzzle).
+#[derive(Clone, Debug)]
+pub struct GamePuzzle {
+    key: (u64, Stone, Rule),
+    puzzle: Puzzle,
+}
+
+impl GamePuzzle {
+    /// The puzzle.
+    pub fn puzzle(&self) -> &Puzzle {
+        &self.puzzle
+    }
+}
+
+/// Plays game number `number` of a generation and returns the first position of it that
+/// makes a puzzle of the options (one puzzle per game, so that a set does not repeat one
+/// fight). The solver's tables are cleared first.
+pub fn play_game(options: &Options, number: u64, solver: &mut Solver) -> Option<GamePuzzle> {
+    solver.clear();
+    let mut rng = play::rng(game_seed(options.seed, number));
+    let extra = 2 + play::below(&mut rng, 4) as usize;
+    let mut game = play::opening(options.size, options.rule, &mut rng, 1 + extra, 50);
+    let config = PlayerConfig {
+        depth: 2,
+        width: 8,
+        noise: 50 + play::below(&mut rng, 60) as i32,
+    };
+    let mut player = Player::new(play::next_seed(&mut rng), config);
+    let max_stones = 40 + play::below(&mut rng, 50) as usize;
+    while !game.is_over() && game.board().stones() < max_stones {
+        if game.board().stones() >= 8 {
+            if let Some(p) = analyse(solver, game.board(), game.to_move(), options.theme) {
+                let (lo, hi) = options.rating;
+                // Several correct answers are allowed, but less often.
+                let n = p.first_moves.len() as u32;
+                let keep_shared = play::below(&mut rng, n * n) == 0;
+                if (lo..=hi).contains(&p.rating) && keep_shared {
+                    let key = (
+                        game.board().canonical_hash(),
+                        game.to_move(),
+                        game.board().rule(),
+                    );
+                    return Some(GamePuzzle { key, puzzle: p });
+                }
+            }
+        }
+        let m = player.choose(&game)?;
+        if game.play(m).is_err() {
+            return None;
+        }
+    }
+    None
+}
+
+/// The games' results taken in game order: the puzzles kept, without repeats, until the
+/// count is reached or the game limit is.
+struct Harvest {
+    seen: HashSet<(u64, Stone, Rule)>,
+    out: Vec<Puzzle>,
+    games: u64,
+    max_games: u64,
+    count: usize,
+}
+
+impl Harvest {
+    fn new(options: &Options) -> Harvest {
+        Harvest {
+            seen: HashSet::new(),
+            out: Vec::new(),
+            games: 0,
+            max_games: games_per_puzzle(options.theme) * options.count as u64 + 50,
+            count: options.count,
+        }
+    }
+
+    /// Whether the next game is needed: `Ok(true)` if so, `Ok(false)` when the count is
+    /// reached, an error when the game limit is.
+    fn wants_more(&self) -> Result<bool, GenerateError> {
+        if self.out.len() >= self.count {
+            return Ok(false);
+        }
+        if self.games >= self.max_games {
+            return Err(GenerateError::NotEnough {
+                found: self.out.len(),
+                wanted: self.count,
+                games: self.games,
+            });
+        }
+        Ok(true)
+    }
+
+    /// Takes the result of game number `self.games`.
+    fn take(&mut self, found: Option<GamePuzzle>) -> Progress {
+        self.games += 1;
+        if let Some(f) = found {
+            if self.seen.insert(f.key) {
+                self.out.push(f.puzzle);
+            }
+        }
+        Progress {
+            kept: self.out.len(),
+            games: self.games,
+        }
+    }
+}
+
+/// Generates puzzles on this thread. `progress` is called after every game.
 pub fn generate(
     options: &Options,
+    progress: impl FnMut(Progress),
+) -> Result<Vec<Puzzle>, GenerateError> {
+    generate_on(options, 1, progress)
+}
+
+/// Generates puzzles with `jobs` threads (one, or less, plays every game on the caller's
+/// thread). The set is the same for any number of jobs, byte for byte: games are numbered,
+/// each depends only on its number (see [`game_seed`]), and their results are taken in
+/// game order. `progress` is called after every game taken, on the caller's thread. Each
+/// thread has its own solver (its tables: 32 MB).
+pub fn generate_on(
+    options: &Options,
+    jobs: usize,
     mut progress: impl FnMut(Progress),
 ) -> Result<Vec<Puzzle>, GenerateError> {
     options.check()?;
-    let mut solver = Solver::default();
-    let mut rng = play::rng(options.seed);
-    let mut seen = HashSet::new();
-    let mut out = Vec::new();
-    let max_games = games_per_puzzle(options.theme) * options.count as u64 + 50;
-    let mut games = 0;
-    while out.len() < options.count {
-        if games >= max_games {
-            return Err(GenerateError::NotEnough {
-                found: out.len(),
-                wanted: options.count,
-                games,
-            });
+    let mut harvest = Harvest::new(options);
+    if jobs <= 1 {
+        let mut solver = Solver::default();
+        while harvest.wants_more()? {
+            let found = play_game(options, harvest.games, &mut solver);
+            progress(harvest.take(found));
         }
-        games += 1;
-        let extra = 2 + play::below(&mut rng, 4) as usize;
-        let mut game = play::opening(options.size, options.rule, &mut rng, 1 + extra, 50);
-        let config = PlayerConfig {
-            depth: 2,
-            width: 8,
-            noise: 50 + play::below(&mut rng, 60) as i32,
-        };
-        let mut player = Player::new(play::next_seed(&mut rng), config);
-        let max_stones = 40 + play::below(&mut rng, 50) as usize;
-        while !game.is_over() && game.board().stones() < max_stones && out.len() < options.count {
-            if game.board().stones() >= 8 {
-                let key = (
-                    game.board().canonical_hash(),
-                    game.to_move(),
-                    game.board().rule(),
-                );
-                if !seen.contains(&key) {
-                    if let Some(p) =
-                        analyse(&mut solver, game.board(), game.to_move(), options.theme)
-                    {
-                        let (lo, hi) = options.rating;
-                        // Several correct answers are allowed, but less often.
-                        let n = p.first_moves.len() as u32;
-                        let keep_shared = play::below(&mut rng, n * n) == 0;
-                        if (lo..=hi).contains(&p.rating) && keep_shared {
-                            seen.insert(key);
-                            out.push(p);
-                            // One puzzle per game, so that a set does not repeat one fight.
-                            break;
-                        }
+        return Ok(harvest.out);
+    }
+    let next = AtomicU64::new(0);
+    let stop = AtomicBool::new(false);
+    let max_games = harvest.max_games;
+    let (tx, rx) = mpsc::channel::<(u64, Option<GamePuzzle>)>();
+    std::thread::scope(|scope| {
+        for _ in 0..jobs {
+            let tx = tx.clone();
+            let (next, stop) = (&next, &stop);
+            let work = move || {
+                let mut solver = Solver::default();
+                while !stop.load(Ordering::Relaxed) {
+                    let game = next.fetch_add(1, Ordering::Relaxed);
+                    if game >= max_games {
+                        break;
+                    }
+                    let found = play_game(options, game, &mut solver);
+                    if tx.send((game, found)).is_err() {
+                        break;
                     }
                 }
-            }
-            let Some(m) = player.choose(&game) else { break };
-            if game.play(m).is_err() {
-                break;
-            }
+            };
+            std::thread::Builder::new()
+                .stack_size(WORKER_STACK)
+                .spawn_scoped(scope, work)
+                .expect("a generation thread starts");
         }
-        progress(Progress {
-            kept: out.len(),
-            games,
-        });
-    }
-    Ok(out)
+        drop(tx);
+        let mut pending = BTreeMap::new();
+        let result = loop {
+            match harvest.wants_more() {
+                Ok(true) => {}
+                Ok(false) => break Ok(()),
+                Err(e) => break Err(e),
+            }
+            if let Some(found) = pending.remove(&harvest.games) {
+                progress(harvest.take(found));
+                continue;
+            }
+            match rx.recv() {
+                Ok((game, found)) => {
+                    pending.insert(game, found);
+                }
+                // Every thread has stopped: only past the game limit, which `wants_more`
+                // reports on the next turn.
+                Err(_) => {
+                    break Err(GenerateError::NotEnough {
+                        found: harvest.out.len(),
+                        wanted: harvest.count,
+                        games: harvest.games,
+                    })
+                }
+            }
+        };
+        // The threads finish the game they are playing and stop.
+        stop.store(true, Ordering::Relaxed);
+        drop(rx);
+        result
+    })?;
+    Ok(harvest.out)
 }
+
+/// Stack of a generation thread (the solver recurses along a line).
+const WORKER_STACK: usize = 16 << 20;
 
 /// Decides whether the position, with `to_move` to play, is a puzzle of the theme, and if so
 /// makes it (with its proved answers, main line and rating). Every search is asked with
@@ -215,10 +360,35 @@ pub fn analyse(solver: &mut Solver, board: &Board, to_move: Stone, theme: Theme)
     if !counts_fit {
         return None;
     }
+    // A cheap necessary condition before any search: the side that would win must have a
+    // point to start from.
+    let attacker = match theme.goal() {
+        Goal::Win => to_move,
+        Goal::Defend => them,
+    };
+    if !can_start(board, attacker, theme) {
+        return None;
+    }
     let mut ask = solver.ask(Budget::GENERATION);
     match theme.goal() {
         Goal::Win => analyse_win(&mut ask, board, to_move, theme),
         Goal::Defend => analyse_defence(&mut ask, board, to_move),
+    }
+}
+
+/// Whether `attacker` has a move that could start a forcing line of the theme's class: a
+/// four for a win by fours, else (a VCT, or the threat a defence puzzle stops, which may be
+/// a VCT) a four, a three or a closed three, the only first moves the VCT generator tries
+/// (`ThreatSpace::attacker_moves`). Line-local flags, so a superset of the real moves.
+fn can_start(board: &Board, attacker: Stone, theme: Theme) -> bool {
+    let has = |kind: u8| !board.cells_with(attacker, kind).is_empty();
+    match theme {
+        Theme::Vct | Theme::Defend => {
+            has(threat::FOUR) || has(threat::THREE) || has(threat::CLOSED_THREE)
+        }
+        Theme::FourThree | Theme::Vcf | Theme::ForbiddenTrap | Theme::ForbiddenWin => {
+            has(threat::FOUR)
+        }
     }
 }
 
@@ -450,4 +620,62 @@ fn has_forbidden_four(board: &Board) -> bool {
     fours
         .into_iter()
         .any(|c| b.flags_at(c, Stone::Black) & threat::FIVE == 0 && b.forbidden_at(c).is_some())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn options(count: usize) -> Options {
+        Options {
+            theme: Theme::FourThree,
+            rule: Rule::Freestyle,
+            size: 15,
+            count,
+            rating: (600, 2600),
+            seed: 11,
+        }
+    }
+
+    fn ids(set: &[Puzzle]) -> Vec<String> {
+        set.iter().map(|p| p.id.clone()).collect()
+    }
+
+    #[test]
+    fn any_number_of_threads_gives_the_same_set() {
+        let one = generate_on(&options(5), 1, |_| {}).unwrap();
+        assert_eq!(one.len(), 5);
+        for jobs in [2, 3] {
+            let mut seen = Vec::new();
+            let many = generate_on(&options(5), jobs, |p| seen.push(p.games)).unwrap();
+            assert_eq!(many, one, "{jobs} threads");
+            // Progress comes in game order, one call per game taken.
+            assert!(seen.windows(2).all(|w| w[1] == w[0] + 1), "{seen:?}");
+        }
+        // A game's puzzle depends on its number only: a shorter set is the start of a longer.
+        let three = generate_on(&options(3), 2, |_| {}).unwrap();
+        assert_eq!(ids(&three), ids(&one)[..3]);
+    }
+
+    #[test]
+    fn each_game_has_its_own_seed() {
+        let seeds: HashSet<u64> = (0..1000).map(|g| game_seed(11, g)).collect();
+        assert_eq!(seeds.len(), 1000);
+        assert_ne!(game_seed(11, 0), game_seed(12, 0));
+    }
+
+    #[test]
+    fn the_game_limit_is_an_error_for_any_number_of_threads() {
+        // A four-three (two moves) is never rated this high: no game gives a puzzle.
+        let o = Options {
+            rating: (2590, 2600),
+            ..options(1)
+        };
+        let want = Err(GenerateError::NotEnough {
+            found: 0,
+            wanted: 1,
+            games: games_per_puzzle(Theme::FourThree) + 50,
+        });
+        assert_eq!(generate_on(&o, 2, |_| {}), want);
+    }
 }

@@ -36,7 +36,15 @@ pub struct Slot {
 pub struct Table {
     entries: Vec<Slot>,
     mask: usize,
+    /// The slots filled since the last clear, while they are few (so that clearing a table
+    /// that was little used, as the generator does before every game, costs little).
+    filled: Vec<u32>,
+    /// Whether more slots were filled than `filled` keeps (then a clear wipes them all).
+    crowded: bool,
 }
+
+/// A clear lists the filled slots up to this fraction of the table (1 / N).
+const FILLED_FRACTION: usize = 16;
 
 impl Table {
     /// A table using at most `megabytes` of memory (at least one bucket).
@@ -50,6 +58,8 @@ impl Table {
         Table {
             entries: vec![Slot::default(); buckets * WAYS],
             mask: buckets - 1,
+            filled: Vec::new(),
+            crowded: false,
         }
     }
 
@@ -65,7 +75,15 @@ impl Table {
 
     /// Forgets everything.
     pub fn clear(&mut self) {
-        self.entries.fill(Slot::default());
+        if self.crowded {
+            self.entries.fill(Slot::default());
+        } else {
+            for &i in &self.filled {
+                self.entries[i as usize] = Slot::default();
+            }
+        }
+        self.filled.clear();
+        self.crowded = false;
     }
 
     #[inline]
@@ -110,7 +128,15 @@ impl Table {
                 victim = i;
             }
         }
-        slots[victim] = e;
+        if slots[victim].key == 0 && !self.crowded {
+            if self.filled.len() < self.entries.len() / FILLED_FRACTION {
+                self.filled.push((b + victim) as u32);
+            } else {
+                self.crowded = true;
+                self.filled = Vec::new();
+            }
+        }
+        self.entries[b + victim] = e;
     }
 }
 
@@ -158,5 +184,23 @@ mod tests {
         });
         assert!(t.get(base | 2).is_none());
         assert!(t.get(base | 9).is_some() && t.get(base | 1).is_some());
+    }
+
+    #[test]
+    fn clear_forgets_everything_after_few_or_many_entries() {
+        let mut t = Table::with_megabytes(1);
+        let slots = t.bytes() / ENTRY_BYTES;
+        for n in [10, slots / FILLED_FRACTION + 5, 3 * slots] {
+            for i in 0..n as u64 {
+                t.put(Slot {
+                    key: crate::zobrist::splitmix64(i),
+                    work: i as u32,
+                    ..Slot::default()
+                });
+            }
+            assert!(t.occupied() > 0);
+            t.clear();
+            assert_eq!(t.occupied(), 0, "after {n} entries");
+        }
     }
 }

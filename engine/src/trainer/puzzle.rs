@@ -526,7 +526,7 @@ mod tests {
     use crate::formats::setfile;
     use crate::search::SolverConfig;
 
-    /// The fixture set's first puzzle (a VCF under freestyle), as the browser test loads it.
+    /// The fixture set (four-threes under renju), as the browser test loads it.
     fn fixture() -> Vec<Puzzle> {
         let text = include_str!("../../../tests/data/fixture_set.json");
         setfile::parse(text).unwrap().puzzles
@@ -594,17 +594,30 @@ mod tests {
 
     #[test]
     fn a_wrong_move_is_refuted_slowly_and_undo_takes_it_back() {
-        let p = fixture().into_iter().next().unwrap();
-        let mut b = PuzzleBoard::new(p, true);
+        // The first wrong move of the fixture (board order) that the app refutes with a
+        // reply: a four whose block is forced, or a move after which the opponent wins.
         let mut s = solver();
-        let a = b.play(&mut s, Point::new(0, 0));
-        assert_eq!(a.kind, AnswerKind::Wrong);
+        let (mut b, wrong, a) = fixture()
+            .into_iter()
+            .find_map(|p| {
+                let start = p.board();
+                let empty: Vec<Point> = start
+                    .points()
+                    .filter(|&q| start.get(q).is_none() && !p.first_moves.contains(&q))
+                    .collect();
+                empty.into_iter().find_map(|q| {
+                    let mut b = PuzzleBoard::new(p.clone(), true);
+                    let a = b.play(&mut s, q);
+                    (a.kind == AnswerKind::Wrong && a.pending >= 1).then_some((b, q, a))
+                })
+            })
+            .expect("a wrong move with a refutation in the fixture");
         assert!(a.reason.is_some());
         assert!(a.pending >= 1);
         while b.reveal().is_some() {}
         assert_eq!(b.status().state, State::Failed);
-        assert_eq!(b.view().marks.refuted, Some(Point::new(0, 0)));
-        assert_eq!(b.status().record.played, vec![Point::new(0, 0)]);
+        assert_eq!(b.view().marks.refuted, Some(wrong));
+        assert_eq!(b.status().record.played, vec![wrong]);
         assert_eq!(b.status().record.attempt, Attempt::Failed);
         b.undo();
         assert_eq!(b.status().state, State::Playing);
