@@ -263,16 +263,7 @@ class App {
   }
 
   exportBackup() {
-    const parts = {
-      settings: this.settings,
-      sets: this.tonight.sets,
-      tonight: this.tonight.data,
-      drill: this.drill.data,
-      study: this.study.data,
-      practice: this.practice.data,
-      coach: this.coach.data,
-      games: this.games.data,
-    };
+    const parts = this.documents();
     const day = new Date().toISOString().slice(0, 10);
     download(`fivefold-backup-${day}.json`, makeBackup(parts));
     $('settings-note').textContent = 'The backup file is downloaded.';

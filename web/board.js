@@ -159,6 +159,23 @@ export class BoardView {
     return s;
   }
 
+  /**
+   * The actions every puzzle screen shares: hint, solution, study (opens the position on
+   * `study`, the Study board screen), undo and retry. Returns false for any other action
+   * (the screen's own, such as next).
+   */
+  act(what, study) {
+    if (what === 'hint') this.hint();
+    else if (what === 'solution') this.showSolution();
+    else if (what === 'study') {
+      const pos = this.trainer.position();
+      if (pos) study.openPosition(pos);
+    } else if (what === 'undo') this.undo();
+    else if (what === 'retry') this.retry();
+    else return false;
+    return true;
+  }
+
   click(e) {
     if (this.readOnly) return;
     const touch = (e.pointerType || this.lastPointer) === 'touch';

@@ -13,7 +13,7 @@ import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
 import { loadScanner } from './platform.js';
 import { save } from './store.js';
-import { $, RULES, announce, banner, download, el, fill, isInt, keepFocus, randomSeed } from './ui.js';
+import { $, RULES, announce, banner, download, el, fill, isInt, keepFocus, paintQr, randomSeed } from './ui.js';
 
 /** Difficulty bands an instructor picks from, in words and numbers (Glicko-scale ratings the
  * generator can make, 600 to 2600). */
@@ -666,17 +666,7 @@ export class Coach {
     const side = q.size + 2 * q.quiet;
     const dpr = window.devicePixelRatio || 1;
     const css = canvas.getBoundingClientRect().width || 320;
-    const unit = Math.max(1, Math.floor((css * dpr) / side));
-    canvas.width = canvas.height = unit * side;
-    const ctx = canvas.getContext('2d');
-    ctx.fillStyle = '#ffffff';
-    ctx.fillRect(0, 0, canvas.width, canvas.height);
-    ctx.fillStyle = '#000000';
-    for (let y = 0; y < q.size; y++) {
-      for (let x = 0; x < q.size; x++) {
-        if (q.dark[y * q.size + x]) ctx.fillRect((x + q.quiet) * unit, (y + q.quiet) * unit, unit, unit);
-      }
-    }
+    paintQr(canvas, q, Math.max(1, Math.floor((css * dpr) / side)));
     canvas.dataset.version = String(q.version);
     canvas.dataset.size = String(q.size);
     canvas.setAttribute('aria-label', `QR code of the link to "${this.current()?.title || 'Untitled set'}"`);

@@ -390,13 +390,6 @@ export class Drill {
   act(what) {
     if (what === 'next') return this.next();
     if (!this.data.current) return;
-    if (what === 'hint') this.board.hint();
-    else if (what === 'solution') this.board.showSolution();
-    else if (what === 'study') {
-      const pos = this.board.trainer.position();
-      if (pos) this.app.study.openPosition(pos);
-    }
-    else if (what === 'undo') this.board.undo();
-    else if (what === 'retry') this.board.retry();
+    this.board.act(what, this.app.study);
   }
 }

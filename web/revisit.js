@@ -123,15 +123,8 @@ export class Revisit {
   }
 
   act(what) {
-    if (what === 'hint') this.board.hint();
-    else if (what === 'solution') this.board.showSolution();
-    else if (what === 'study') {
-      const pos = this.board.trainer.position();
-      if (pos) this.app.study.openPosition(pos);
-    }
-    else if (what === 'undo') this.board.undo();
-    else if (what === 'retry') this.board.retry();
-    else if (what === 'next') {
+    if (this.board.act(what, this.app.study)) return;
+    if (what === 'next') {
       this.index += 1;
       if (this.index >= this.queue.length) this.showList();
       else this.load();

@@ -5,7 +5,7 @@ import { attemptWords, librarySets, parseSet, qrMatrix, recordedAttempt, resultC
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
 import { save } from './store.js';
-import { $, POINT_NAME, announce, banner, el, fill, isInt, own, put, keepFocus } from './ui.js';
+import { $, POINT_NAME, announce, banner, el, fill, isInt, own, paintQr, put, keepFocus } from './ui.js';
 
 // Attempt names and their words, from the engine (read once the engine has started).
 let outcomeWords = null;
@@ -106,21 +106,11 @@ function drawQr(canvas, text) {
   const side = m.size + 2 * m.quiet;
   const dpr = window.devicePixelRatio || 1;
   const px = Math.max(Math.round(QR_MODULE_MIN * dpr), Math.floor((QR_WIDTH * dpr) / side));
-  canvas.width = side * px;
-  canvas.height = side * px;
+  paintQr(canvas, m, px);
   // Whole device pixels a module on screen too (the style sheet lets it shrink to fit).
   canvas.style.width = `${(side * px) / dpr}px`;
   canvas.dataset.version = String(m.version);
   canvas.dataset.modules = String(m.size);
-  const ctx = canvas.getContext('2d');
-  ctx.fillStyle = '#ffffff';
-  ctx.fillRect(0, 0, canvas.width, canvas.height);
-  ctx.fillStyle = '#000000';
-  for (let y = 0; y < m.size; y++) {
-    for (let x = 0; x < m.size; x++) {
-      if (m.dark[y * m.size + x]) ctx.fillRect((x + m.quiet) * px, (y + m.quiet) * px, px, px);
-    }
-  }
   return true;
 }
 
@@ -571,16 +561,9 @@ export class Tonight {
   act(what) {
     const key = this.data.open;
     if (!key) return;
-    const prog = this.progressOf(key);
-    if (what === 'hint') this.board.hint();
-    else if (what === 'solution') this.board.showSolution();
-    else if (what === 'study') {
-      const pos = this.board.trainer.position();
-      if (pos) this.app.study.openPosition(pos);
-    }
-    else if (what === 'undo') this.board.undo();
-    else if (what === 'retry') this.board.retry();
-    else if (what === 'next') {
+    if (this.board.act(what, this.app.study)) return;
+    if (what === 'next') {
+      const prog = this.progressOf(key);
       if (prog.index + 1 < this.puzzlesOf(key).length) this.openSet(key, prog.index + 1);
       else if (this.untried(key).length) this.askFinish(key);
       else this.showSummary();

@@ -144,3 +144,21 @@ export const own = (obj, key) => (Object.hasOwn(obj, key) ? obj[key] : undefined
 export function put(obj, key, value) {
   Object.defineProperty(obj, key, { value, enumerable: true, writable: true, configurable: true });
 }
+
+/** Paints a QR code's modules (`m` from the engine's `qrMatrix`) on `canvas`, dark on white
+ * with its quiet zone, `px` device pixels a module; returns the side in modules. */
+export function paintQr(canvas, m, px) {
+  const side = m.size + 2 * m.quiet;
+  canvas.width = side * px;
+  canvas.height = side * px;
+  const ctx = canvas.getContext('2d');
+  ctx.fillStyle = '#ffffff';
+  ctx.fillRect(0, 0, canvas.width, canvas.height);
+  ctx.fillStyle = '#000000';
+  for (let y = 0; y < m.size; y++) {
+    for (let x = 0; x < m.size; x++) {
+      if (m.dark[y * m.size + x]) ctx.fillRect((x + m.quiet) * px, (y + m.quiet) * px, px, px);
+    }
+  }
+  return side;
+}
