@@ -199,6 +199,7 @@ class App {
     if (name === 'drill') this.drill.activate();
     if (name === 'revisit') this.revisit.activate();
     if (name === 'progress') this.progress.activate();
+    if (name === 'coach') this.coach.activate();
   }
 
   // The skip link goes to the board of the screen on show (else to the screen itself), and

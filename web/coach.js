@@ -6,12 +6,11 @@
 // names from outside are only ever written as text.
 
 import {
-  classCsv, classRead, librarySets, parseSet, puzzleWords, qrMatrix, setKey, shareLink, sheetHtml,
-  themeRatings, themes,
+  librarySets, parseSet, puzzleWords, qrMatrix, setKey, shareLink, themeRatings, themes,
 } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
-import { loadScanner } from './platform.js';
+import { loadScanner, loadWorkshop } from './platform.js';
 import { save } from './store.js';
 import { $, RULES, announce, banner, download, el, fill, isInt, keepFocus, paintQr, randomSeed } from './ui.js';
 
@@ -109,6 +108,7 @@ export class Coach {
     this.making = null;
     this.sel = 0;
     this.scanner = null;
+    this.ws = null;
     this.themeList = JSON.parse(themes());
     this.sources = null;
     this.board = new BoardView($('coach-board'), { message: $('coach-goal') });
@@ -175,6 +175,24 @@ export class Coach {
   init(data) {
     this.cancelMaking(true);
     this.data = data ?? emptyCoach();
+    this.show();
+  }
+
+  /** Called when the screen opens: the sheet and the class table come from the workshop
+   * module, loaded here on first use (a student who never opens Coach never loads it). */
+  async activate() {
+    if (this.ws) return;
+    try {
+      this.ws = await loadWorkshop();
+    } catch (e) {
+      banner(`Coach could not start: ${e?.message ?? e}. Reload the page to try again.`, { kind: 'error', id: 'coach' });
+      return;
+    }
+    this.show();
+  }
+
+  show() {
+    if (!this.ws) return; // activate() shows the screen once the module is there
     if (this.current()) this.openSet(this.data.open, this.data.tab);
     else this.showList();
   }
@@ -704,7 +722,7 @@ export class Coach {
     if (!text) return false;
     // Only the body: the sheet's own style element is for the command line's file (this page
     // prints with style.css), and the page's policy refuses inline styles even in a parsed copy.
-    const html = sheetHtml(text);
+    const html = this.ws.sheetHtml(text);
     const doc = new DOMParser().parseFromString(html.slice(html.indexOf('<body')), 'text/html');
     for (const bad of doc.querySelectorAll('script, style, link, iframe, object, embed')) bad.remove();
     fill($('coach-print'), [...doc.body.childNodes].map((n) => document.adoptNode(n)));
@@ -738,7 +756,7 @@ export class Coach {
   tableOf(s) {
     if (!s.puzzles.length) return null;
     try {
-      return classRead(coachSetFile(s), s.codes, '', s.sort).table;
+      return this.ws.classRead(coachSetFile(s), s.codes, '', s.sort).table;
     } catch {
       return null;
     }
@@ -757,7 +775,7 @@ export class Coach {
     }
     let r;
     try {
-      r = classRead(coachSetFile(s), s.codes, text, s.sort);
+      r = this.ws.classRead(coachSetFile(s), s.codes, text, s.sort);
     } catch (e) {
       banner(`The codes could not be read: ${e}. Nothing was changed.`, { kind: 'error', id: 'coach' });
       return;
@@ -824,7 +842,7 @@ export class Coach {
     if (!s || !s.codes.length) return;
     let csv;
     try {
-      csv = classCsv(coachSetFile(s), s.codes, s.sort);
+      csv = this.ws.classCsv(coachSetFile(s), s.codes, s.sort);
     } catch (e) {
       banner(`The table could not be exported: ${e}`, { kind: 'error', id: 'coach' });
       return;

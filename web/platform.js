@@ -1,5 +1,6 @@
 // How the app starts its engine and its workers when it is served over http(s) (the usual
-// case): the wasm module and the worker are files next to the page. The single-file build
+// case): the wasm modules and the worker are files next to the page. The page starts on the
+// small module in pkg/; the worker and the instructor's screens use the workshop module. The single-file build
 // (web/tools/single.mjs) swaps this module for web/tools/platform-inline.js.
 
 import init from './pkg/fivefold_web.js';
@@ -7,6 +8,18 @@ import init from './pkg/fivefold_web.js';
 /** Loads and starts the engine on the page. */
 export async function startEngine() {
   await init();
+}
+
+/** The workshop module (web/dist/workshop: the engine with generation, searches, reviews and
+ * Coach's sheet and class table), started on first use: the worker runs on it, and the page
+ * loads it only for the screens that need it, so that a student's first visit does not. */
+let workshop = null;
+export function loadWorkshop() {
+  workshop ??= import('./workshop/fivefold_web.js').then(async (m) => {
+    await m.default();
+    return m;
+  });
+  return workshop;
 }
 
 /** A new worker running web/worker.js. */

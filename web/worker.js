@@ -1,10 +1,10 @@
-// The app's worker: generates Drill puzzles and runs Study board searches off the page's
+// The app's worker, on the workshop module: generates Drill puzzles and runs Study board searches off the page's
 // thread, so the page stays responsive. Messages in: {type: "init", module} (optional: a
 // compiled wasm module, used by the single-file build), {id, type: "generate", options},
 // {id, type: "solve", query}, {id, type: "prove", puzzle} and {id, type: "review", query}
 // (a game checked move by move, with progress {checked, total}). Messages out: {id, progress}, {id, result} or {id, error, fatal}.
 
-import init, { checkGame, generateSet, provePuzzle, solvePosition } from './pkg/fivefold_web.js';
+import init, { checkGame, generateSet, provePuzzle, solvePosition } from './workshop/fivefold_web.js';
 
 let ready = null;
 

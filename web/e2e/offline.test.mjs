@@ -35,7 +35,7 @@ test('after a first visit, the app works with the network off', async () => {
     const c = await caches.open(keys.find((k) => k.startsWith('fivefold-')));
     return (await c.keys()).map((r) => new URL(r.url).pathname);
   });
-  for (const f of ['/', '/app.js', '/worker.js', '/pkg/fivefold_web_bg.wasm', '/manifest.webmanifest', '/icon-512.png']) {
+  for (const f of ['/', '/app.js', '/worker.js', '/pkg/fivefold_web_bg.wasm', '/workshop/fivefold_web_bg.wasm', '/manifest.webmanifest', '/icon-512.png']) {
     assert.ok(cached.includes(f), `${f} is cached`);
   }
 
@@ -51,6 +51,31 @@ test('after a first visit, the app works with the network off', async () => {
   await page.waitForSelector('#drill-board[data-mode="puzzle"]', { timeout: 60000 });
   assert.equal(env.server.requests.length, served, 'nothing was fetched from the server while offline');
   assert.deepEqual(errors, []);
+  await ctx.close();
+});
+
+test('a first visit plays a puzzle on the page module alone; Coach and the worker load the workshop module', async () => {
+  // Service workers blocked: only what the page itself asks for is counted (the service
+  // worker fills the offline cache afterwards, in the background).
+  const ctx = await env.browser.newContext({ viewport: { width: 390, height: 844 }, serviceWorkers: 'block' });
+  const page = await ctx.newPage();
+  const paths = [];
+  ctx.on('request', (r) => paths.push(new URL(r.url()).pathname));
+  await page.goto(env.server.url);
+  await ready(page);
+  await addFromLibrary(page, CLUB.title);
+  const s = await solve(page, BOARD, CLUB.puzzles[0].solution.line);
+  assert.equal(s.outcome, 'clean');
+  assert.ok(paths.includes('/pkg/fivefold_web_bg.wasm'), 'the page module was loaded');
+  assert.ok(!paths.some((p) => p.startsWith('/workshop/') || p.startsWith('/scan/')),
+    `nothing but the page module was loaded: ${paths.join(' ')}`);
+  if (await page.isVisible('.rail [data-go="coach"]')) await page.click('.rail [data-go="coach"]');
+  else {
+    await page.click('#nav-more');
+    await page.click('#more [data-go="coach"]');
+  }
+  await page.waitForSelector('#coach-list:not([hidden])');
+  assert.ok(paths.includes('/workshop/fivefold_web_bg.wasm'), 'Coach loaded the workshop module');
   await ctx.close();
 });
 

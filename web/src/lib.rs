@@ -13,8 +13,11 @@
 #![deny(missing_docs)]
 
 pub mod api;
+#[cfg(feature = "workshop")]
 pub mod bench;
 pub mod boards;
+#[cfg(feature = "workshop")]
+pub mod classroom;
 pub mod coach;
 pub mod drill;
 pub mod games;
@@ -24,6 +27,8 @@ pub mod practice;
 pub mod qr;
 pub mod render;
 mod surface;
+#[cfg(feature = "workshop")]
+pub mod worker;
 
 use wasm_bindgen::prelude::*;
 

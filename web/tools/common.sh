@@ -123,29 +123,37 @@ need_node() {
     command -v node >/dev/null || die "node (Node.js 18 or later) is needed to build the app"
 }
 
-# Builds the app into $DIST: the release wasm and its bindings (name section removed), the
-# camera scanner's QR reader (web/scan, its own small wasm module in $DIST/scan, loaded only
-# when scanning starts), the page's files, the PNG icons and the stamped service worker
-# (tools/stamp.mjs), and the single-file build $DIST/fivefold.html (tools/single.mjs).
+# Builds the app into $DIST: two builds of the web crate, the page's module (without the
+# `workshop` feature: the board, grading, practice, codes; $DIST/pkg) and the workshop module
+# (everything: generation, searches, reviews, Coach's sheet and class table; $DIST/workshop,
+# loaded by the worker and on first use of Coach), with their bindings (name section
+# removed); the camera scanner's QR reader (web/scan, its own small wasm module in $DIST/scan,
+# loaded only when scanning starts); the page's files, the PNG icons and the stamped service
+# worker (tools/stamp.mjs), and the single-file build $DIST/fivefold.html (tools/single.mjs).
+# The two builds share the engine's compiled code; only the web crate is built twice.
 build_app() {
     need_wasm_target
     need_wasm_bindgen
     need_node
-    step "Building the wasm modules (cargo build --release --target $WASM_TARGET -p fivefold-web -p fivefold-scan)"
-    (cd "$ROOT" && cargo build --release --target "$WASM_TARGET" -p fivefold-web -p fivefold-scan) ||
-        die "the wasm build failed"
-    local target wasm scan f
+    local target out f
     target="$(target_dir)" || die "cargo metadata failed"
-    wasm="$target/$WASM_TARGET/release/fivefold_web.wasm"
-    scan="$target/$WASM_TARGET/release/fivefold_scan.wasm"
-    [ -f "$wasm" ] || die "no $wasm after the build"
-    [ -f "$scan" ] || die "no $scan after the build"
-    step "Generating the bindings and copying the page into $DIST"
+    out="$target/$WASM_TARGET/release"
     rm -rf "$DIST"
-    mkdir -p "$DIST/pkg" "$DIST/scan"
-    wasm-bindgen --target web --no-typescript --remove-name-section --out-dir "$DIST/pkg" "$wasm" ||
-        die "wasm-bindgen failed"
-    wasm-bindgen --target web --no-typescript --remove-name-section --out-dir "$DIST/scan" "$scan" ||
+    mkdir -p "$DIST/pkg" "$DIST/workshop" "$DIST/scan"
+    step "Building the page's wasm module (cargo build --release --target $WASM_TARGET -p fivefold-web --no-default-features)"
+    (cd "$ROOT" && cargo build --release --target "$WASM_TARGET" -p fivefold-web --no-default-features) ||
+        die "the wasm build of the page's module failed"
+    [ -f "$out/fivefold_web.wasm" ] || die "no $out/fivefold_web.wasm after the build"
+    wasm-bindgen --target web --no-typescript --remove-name-section --out-dir "$DIST/pkg" "$out/fivefold_web.wasm" ||
+        die "wasm-bindgen failed on the page's module"
+    step "Building the workshop and scanner modules (cargo build --release --target $WASM_TARGET -p fivefold-web -p fivefold-scan)"
+    (cd "$ROOT" && cargo build --release --target "$WASM_TARGET" -p fivefold-web -p fivefold-scan) ||
+        die "the wasm build of the workshop module failed"
+    [ -f "$out/fivefold_scan.wasm" ] || die "no $out/fivefold_scan.wasm after the build"
+    step "Generating the bindings and copying the page into $DIST"
+    wasm-bindgen --target web --no-typescript --remove-name-section --out-dir "$DIST/workshop" "$out/fivefold_web.wasm" ||
+        die "wasm-bindgen failed on the workshop module"
+    wasm-bindgen --target web --no-typescript --remove-name-section --out-dir "$DIST/scan" "$out/fivefold_scan.wasm" ||
         die "wasm-bindgen failed on the scanner"
     for f in "${APP_FILES[@]}"; do
         cp "$WEB_DIR/$f" "$DIST/$f" || die "copying $f failed"

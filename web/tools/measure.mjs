@@ -1,7 +1,8 @@
 // Measures the built app (web/dist) here, in headless Chromium:
-//   1. page weight: each file gzip -9 compressed (HTML, JS, CSS, WASM, the worker), and the
-//      single-file build apart; the camera scanner (scan.js and scan/, loaded only when
-//      scanning starts) is listed apart and not counted in the page's total;
+//   1. page weight: each file gzip -9 compressed (HTML, JS, CSS, WASM), and the single-file
+//      build apart; what is loaded on first use (the camera scanner, scan.js and scan/; the
+//      workshop module, workshop/, with the worker that runs on it) is listed apart and not
+//      counted in the page's total (web/tools/weight.mjs weighs what a first visit fetches);
 //   2. first board on screen: from navigation to the first puzzle board drawn (the page's
 //      performance mark "fivefold:first-board"), for a returning student (a set open, the
 //      service worker installed) and for a first visit from a share link;
@@ -59,8 +60,9 @@ for (const p of walk(DIST).sort()) {
   if (kind === 'other') continue; // icons and the manifest are fetched by the installer, not the page
   const raw = statSync(p).size;
   const gz = gz9(p);
-  if (name === 'scan.js' || name.startsWith('scan/')) {
-    // The camera scanner: loaded only when scanning starts, never by the student's page.
+  if (name === 'scan.js' || name.startsWith('scan/') || name.startsWith('workshop/') || name === 'worker.js') {
+    // Loaded on first use: the camera scanner when scanning starts, the workshop module by
+    // the worker (Drill, the Study board's searches) and by Coach.
     weight.scanner.files.push({ name, raw, gz });
     weight.scanner.raw += raw;
     weight.scanner.gz += gz;
@@ -195,7 +197,9 @@ try {
   wrongGrading.push(...out.wrongs);
   hints.push(...out.hintTimes);
   wasmSuite = JSON.parse(await gp.evaluate(async (text) => {
-    const m = await import('./pkg/fivefold_web.js');
+    // The suite's timer is in the workshop module (the worker's engine).
+    const m = await import('./workshop/fivefold_web.js');
+    await m.default();
     return m.benchSuite(text);
   }, SUITE));
   await g.close();
@@ -213,9 +217,9 @@ for (const f of weight.files) say(`  ${f.name.padEnd(28)} ${String(f.raw).padSta
 say(`  total                        ${String(weight.total.raw).padStart(9)} B  ->  ${String(weight.total.gz).padStart(8)} B (${kb(weight.total.gz)})`);
 say(`  by kind: ${Object.entries(weight.byKind).map(([k, v]) => `${k} ${kb(v)}`).join(', ')}`);
 say(`  single file fivefold.html    ${String(weight.single.raw).padStart(9)} B  ->  ${String(weight.single.gz).padStart(8)} B (${kb(weight.single.gz)})`);
-say('  camera scanner, loaded only when scanning starts (not in the total):');
+say('  loaded on first use (not in the total): the camera scanner, the workshop module and the worker:');
 for (const f of weight.scanner.files) say(`    ${f.name.padEnd(26)} ${String(f.raw).padStart(9)} B  ->  ${String(f.gz).padStart(8)} B`);
-say(`    scanner total              ${String(weight.scanner.raw).padStart(9)} B  ->  ${String(weight.scanner.gz).padStart(8)} B (${kb(weight.scanner.gz)})`);
+say(`    first-use total              ${String(weight.scanner.raw).padStart(9)} B  ->  ${String(weight.scanner.gz).padStart(8)} B (${kb(weight.scanner.gz)})`);
 say();
 for (const [k, xs] of Object.entries(firstBoard)) {
   say(`First board on screen, ${k === 'returning' ? 'returning student (set open, service worker)' : 'first visit from a share link'}: ` +

@@ -1,23 +1,33 @@
 // How the single-file build (web/dist/fivefold.html) starts its engine and workers: it takes
-// the place of web/platform.js there. The wasm module sits base64-encoded in a data block of
-// the page, and the worker's source (the glue plus web/worker.js, as a classic script) in
-// another; the worker runs from a blob: URL, which works from file:// where module workers and
+// the place of web/platform.js there. The workshop wasm module sits gzipped and base64-encoded
+// in a data block of the page, and the worker's source (the glue plus web/worker.js, as a
+// classic script) in another; the worker runs from a blob: URL, which works from file:// where module workers and
 // separate files do not. `__wbg_init` is the glue's initialiser, pasted into the same script.
 
 let inlineModule = null;
 let inlineWorkerUrl = null;
 
-function inlineWasmBytes() {
+// The module is gzipped, then base64 (tools/single.mjs).
+async function inlineWasmBytes() {
   const text = document.getElementById('fivefold-wasm').textContent.trim();
   const raw = atob(text);
-  const bytes = new Uint8Array(raw.length);
-  for (let i = 0; i < raw.length; i++) bytes[i] = raw.charCodeAt(i);
-  return bytes;
+  const packed = new Uint8Array(raw.length);
+  for (let i = 0; i < raw.length; i++) packed[i] = raw.charCodeAt(i);
+  if (typeof DecompressionStream !== 'function') {
+    throw new Error('this browser cannot unpack the single-file copy; open Fivefold from its web address');
+  }
+  const stream = new Blob([packed]).stream().pipeThrough(new DecompressionStream('gzip'));
+  return new Uint8Array(await new Response(stream).arrayBuffer());
 }
 
 export async function startEngine() {
-  inlineModule = await WebAssembly.compile(inlineWasmBytes());
+  inlineModule = await WebAssembly.compile(await inlineWasmBytes());
   await __wbg_init({ module_or_path: inlineModule });
+}
+
+/** The workshop's functions: here they are the page's own, from the one module of the file. */
+export async function loadWorkshop() {
+  return WORKSHOP;
 }
 
 export function makeWorker() {

@@ -1,0 +1,225 @@
+//! The worker's jobs (in the workshop module only, see `Cargo.toml`): puzzle generation for
+//! Drill and Coach, the Study board's searches, and the proof of an answer key from outside.
+//! Each runs off the page's thread, with progress reported through a JavaScript callback.
+
+use engine::formats::setfile;
+use engine::notation;
+use engine::puzzle::generate::{self, Options};
+use engine::puzzle::{verify, Theme};
+use engine::search::Budget;
+use engine::study::{study, StudyAnswer, StudySearch};
+use engine::words;
+use engine::{Point, Rule, Stone};
+use serde::{Deserialize, Serialize};
+use wasm_bindgen::prelude::*;
+
+use crate::api::{err, with_solver};
+
+#[derive(Serialize)]
+#[serde(rename_all = "camelCase")]
+struct ProvedJs {
+    /// "ok" (the key holds), "corrected" (the key was wrong or incomplete: `puzzle` has the
+    /// proved answers) or "unproved" (no answer could be proved).
+    state: &'static str,
+    /// The puzzle with the proved answers, as set-file puzzle JSON (for "corrected").
+    puzzle: Option<serde_json::Value>,
+    /// What was wrong, in words.
+    problems: Vec<String>,
+}
+
+/// Proves a puzzle's answer key from scratch (in the worker, for a set from a file or a
+/// link): `puzzleJson` is one set-file puzzle object; returns `{state, puzzle, problems}`.
+#[wasm_bindgen(js_name = provePuzzle)]
+pub fn prove_puzzle(puzzle_json: &str) -> Result<JsValue, JsValue> {
+    let wrapped = format!(
+        "{{\"format\":\"fivefold-set\",\"version\":1,\"title\":\"\",\"created\":\"2026-12-01\",\"puzzles\":[{puzzle_json}]}}"
+    );
+    let set = setfile::parse(&wrapped).map_err(err)?;
+    let p = set.puzzles.first().ok_or_else(|| err("no puzzle"))?;
+    let out = match with_solver(|s| verify::prove(s, p)) {
+        Ok(proved) if proved.problems.is_empty() => ProvedJs {
+            state: "ok",
+            puzzle: None,
+            problems: Vec::new(),
+        },
+        Ok(proved) => {
+            let one = setfile::PuzzleSet {
+                title: String::new(),
+                created: "2026-12-01".into(),
+                puzzles: vec![proved.puzzle],
+                generator: None,
+            };
+            let v: serde_json::Value =
+                serde_json::from_str(&setfile::to_json(&one)).map_err(err)?;
+            ProvedJs {
+                state: "corrected",
+                puzzle: v["puzzles"].get(0).cloned(),
+                problems: proved.problems,
+            }
+        }
+        Err(why) => ProvedJs {
+            state: "unproved",
+            puzzle: None,
+            problems: vec![why.to_string()],
+        },
+    };
+    crate::boards::to_js(&out)
+}
+
+#[derive(Deserialize)]
+#[serde(rename_all = "camelCase")]
+struct GenerateJs {
+    theme: String,
+    rule: String,
+    #[serde(default = "fifteen")]
+    size: u8,
+    rating_lo: u32,
+    rating_hi: u32,
+    seed: u64,
+    #[serde(default = "one")]
+    count: usize,
+}
+
+fn fifteen() -> u8 {
+    15
+}
+
+fn one() -> usize {
+    1
+}
+
+/// Generates puzzles (for Drill, in the worker): options `{theme, rule, size, ratingLo,
+/// ratingHi, seed, count}`; returns set-file JSON. The same options give the same set here and
+/// natively. `progress`, if given, is called after every self-play game with the puzzles kept
+/// and the games played so far.
+#[wasm_bindgen(js_name = generateSet)]
+pub fn generate_set(
+    options: JsValue,
+    progress: Option<js_sys::Function>,
+) -> Result<String, JsValue> {
+    let o: GenerateJs = serde_wasm_bindgen::from_value(options).map_err(err)?;
+    let theme: Theme = o.theme.parse().map_err(err)?;
+    let rule: Rule = o.rule.parse().map_err(err)?;
+    let options = Options {
+        theme,
+        rule,
+        size: o.size,
+        count: o.count,
+        rating: (o.rating_lo, o.rating_hi),
+        seed: o.seed,
+    };
+    let puzzles = generate::generate(&options, |p| {
+        if let Some(f) = &progress {
+            let _ = f.call2(
+                &JsValue::NULL,
+                &JsValue::from(p.kept as u32),
+                &JsValue::from(p.games as f64),
+            );
+        }
+    })
+    .map_err(err)?;
+    Ok(setfile::to_json(&setfile::PuzzleSet {
+        title: format!("Drill: {}", words::theme(theme)),
+        created: today(),
+        puzzles,
+        generator: None,
+    }))
+}
+
+/// Today's date, `YYYY-MM-DD`, from the browser's clock (UTC).
+fn today() -> String {
+    let iso: String = js_sys::Date::new_0().to_iso_string().into();
+    iso.chars().take(10).collect()
+}
+
+#[derive(Deserialize)]
+#[serde(rename_all = "camelCase")]
+struct SolveJs {
+    rule: String,
+    size: u8,
+    black: Vec<String>,
+    white: Vec<String>,
+    to_move: String,
+    search: String,
+    #[serde(default)]
+    nodes: Option<u64>,
+}
+
+#[derive(Serialize)]
+#[serde(rename_all = "camelCase")]
+struct SolveOut {
+    result: &'static str,
+    say: Vec<String>,
+    line: Vec<Point>,
+    /// The side that plays the line's first move.
+    first: Stone,
+    first_moves: Vec<Point>,
+    unknown: Vec<Point>,
+    nodes: u64,
+    /// The nodes in words: "3,000,002 positions searched".
+    searched: String,
+}
+
+/// Answers a study question (in the worker): `{rule, size, black, white, toMove, search:
+/// "vcf"|"vct"|"defend", nodes}`; returns `{result, say, line, first, firstMoves, unknown,
+/// nodes}` (see `engine::study`), where for "defend" `firstMoves` are the defences and `line`
+/// is the threat, and `first` is the side that starts `line`.
+/// `progress`, if given, is called with the nodes spent so far, about every 50,000 nodes.
+#[wasm_bindgen(js_name = solvePosition)]
+pub fn solve_position(
+    query: JsValue,
+    progress: Option<js_sys::Function>,
+) -> Result<JsValue, JsValue> {
+    let q: SolveJs = serde_wasm_bindgen::from_value(query).map_err(err)?;
+    let rule: Rule = q.rule.parse().map_err(err)?;
+    let board =
+        notation::setup(q.size, rule, &q.black.join(" "), &q.white.join(" ")).map_err(err)?;
+    if let Some(w) = board.find_winner() {
+        return Err(err(format!("{} has already made five", words::colour(w))));
+    }
+    let to_move: Stone = q.to_move.parse().map_err(err)?;
+    let search: StudySearch = q.search.parse().map_err(err)?;
+    // A study question asked with its own budget (in the worker, cancellable): a hard limit
+    // on the whole question.
+    let budget = Budget::total(
+        q.nodes
+            .unwrap_or(Budget::STUDY.total)
+            .clamp(1_000, 20_000_000),
+    );
+    let next = std::cell::Cell::new(0u64);
+    let report = |spent: u64| {
+        if spent >= next.get() {
+            next.set(spent + 50_000);
+            if let Some(f) = &progress {
+                let _ = f.call1(&JsValue::NULL, &JsValue::from(spent as f64));
+            }
+        }
+        false
+    };
+    let s = with_solver(|solver| study(solver, &board, to_move, search, budget, Some(&report)));
+    let (line, first) = s.answer.shown_line(to_move);
+    let (first_moves, unknown) = match &s.answer {
+        StudyAnswer::Win {
+            first_moves,
+            undecided,
+            ..
+        } => (first_moves.clone(), undecided.clone()),
+        StudyAnswer::Threat {
+            defences,
+            undecided,
+            ..
+        } => (defences.clone(), undecided.clone()),
+        _ => (Vec::new(), Vec::new()),
+    };
+    let out = SolveOut {
+        result: s.answer.result(),
+        say: words::study(&s),
+        line: line.to_vec(),
+        first,
+        first_moves,
+        unknown,
+        nodes: s.nodes,
+        searched: words::searched(s.nodes),
+    };
+    crate::boards::to_js(&out)
+}
