@@ -1,7 +1,7 @@
 // Drill: an endless stream of puzzles at the player's level, filtered by theme and rule,
 // generated a few ahead in the worker so that the next one is ready when it is wanted.
 
-import { attemptWords, drillChoice, parseSet, rateTry, themes } from './pkg/fivefold_web.js';
+import { attemptWords, drillChoice, librarySets, parseSet, rateTry, themes } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
 import { save } from './store.js';
@@ -215,12 +215,35 @@ export class Drill {
     $('drill').dataset.ready = String(n);
   }
 
+  /** A starter-library puzzle of the filters that this player has not had in Drill, in the
+   * band [lo, hi] if there is one (else the nearest rating), or null: the first puzzle of a
+   * theme starts at once while the worker makes the next ones. */
+  fromLibrary(theme, rule, lo, hi) {
+    this.library ??= JSON.parse(librarySets()).flatMap((set) => set.puzzles);
+    const had = new Set([...Object.keys(this.data.puzzleRatings ?? {}), ...this.data.queue.map((p) => p.id),
+      ...Object.values(this.data.stock ?? {}).flat().map((p) => p.id)]);
+    const fresh = this.library.filter((p) => p.theme === theme && p.rule === rule && !had.has(p.id));
+    if (!fresh.length) return null;
+    const off = (p) => Math.max(0, lo - p.rating, p.rating - hi);
+    const best = Math.min(...fresh.map(off));
+    const near = fresh.filter((p) => off(p) === best);
+    return near[randomSeed() % near.length];
+  }
+
   async fill() {
     if (this.generating || this.data.queue.length >= AHEAD) return;
     const { theme, rule } = this.data;
     const choice = drillChoice(theme, rule, this.ratingFor(rule));
     const [lo, hi] = [choice.low, choice.high];
     $('drill-band').textContent = choice.say;
+    if (!this.data.current && !this.data.queue.length) {
+      const first = this.fromLibrary(theme, rule, lo, hi);
+      if (first) {
+        this.data.queue.push(first);
+        this.next(); // plays it, and comes back here to make the next ones
+        return;
+      }
+    }
     const job = { theme, rule };
     this.generating = job;
     this.renderQueue();

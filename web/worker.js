@@ -1,8 +1,9 @@
 // The app's worker, on the workshop module: generates Drill puzzles and runs Study board searches off the page's
 // thread, so the page stays responsive. Messages in: {type: "init", module} (optional: a
 // compiled wasm module, used by the single-file build), {id, type: "generate", options},
-// {id, type: "solve", query}, {id, type: "prove", puzzle} and {id, type: "review", query}
-// (a game checked move by move, with progress {checked, total}). Messages out: {id, progress}, {id, result} or {id, error, fatal}.
+// {id, type: "solve", query}, {id, type: "prove", puzzle}, {id, type: "review", query}
+// (a game checked move by move, with progress {checked, total}) and {id, type: "memory"} (the
+// engine's linear memory in bytes, for web/tools/measure-drill.mjs). Messages out: {id, progress}, {id, result} or {id, error, fatal}.
 
 import init, { checkGame, generateSet, provePuzzle, solvePosition } from './workshop/fivefold_web.js';
 
@@ -36,6 +37,9 @@ self.onmessage = async (event) => {
         self.postMessage({ id: m.id, progress: { checked, total } });
       });
       self.postMessage({ id: m.id, result });
+    } else if (m.type === 'memory') {
+      // The engine's linear memory in bytes: it never shrinks, so this is its peak so far.
+      self.postMessage({ id: m.id, result: (await start()).memory.buffer.byteLength });
     } else if (m.type === 'prove') {
       self.postMessage({ id: m.id, result: provePuzzle(m.puzzle) });
     } else {

@@ -5,6 +5,7 @@ import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import {
   boardState,
+  librarySet,
   open,
   ready,
   solve,
@@ -38,10 +39,12 @@ test('Drill produces puzzles from the worker while the page stays responsive', a
     }, 20);
   });
   await page.click('[data-go="drill"]');
-  assert.equal(await page.getAttribute('#drill', 'data-waiting'), 'true');
-  assert.ok(await page.isVisible('#drill-wait'), 'a progress indicator while no puzzle is ready');
-  assert.match(await page.textContent('#drill-wait-text'), /^Making a puzzle at your level/);
-  // While the first puzzle is being made, the page answers at once.
+  // The first puzzle of a theme is one of the starter library's that this player has not had,
+  // at once; the worker makes the next ones meanwhile.
+  assert.equal(await page.getAttribute('#drill', 'data-waiting'), 'false', 'a first puzzle at once');
+  const libraryIds = new Set(librarySet('fours-freestyle-club').puzzles.concat(librarySet('fours-freestyle-strong').puzzles).map((q) => q.id));
+  assert.ok(libraryIds.has((await stored(page)).current.puzzle.id), 'the first puzzle is a library puzzle of the theme');
+  // While the next ones are being made, the page answers at once.
   const t0 = Date.now();
   await page.click('[data-go="study"]');
   await page.click('[data-go="drill"]');
@@ -51,7 +54,7 @@ test('Drill produces puzzles from the worker while the page stays responsive', a
   assert.ok(page.workers().some((w) => /\/worker\.js$/.test(w.url())), 'a worker runs web/worker.js');
   await page.waitForSelector(`#${BOARD}[data-mode="puzzle"]`, { timeout: 60000 });
   assert.ok(await page.isHidden('#drill-wait'));
-  // The queue fills up ahead in the background.
+  // The queue fills up ahead in the background, from the worker.
   await page.waitForFunction(() => Number(document.getElementById('drill').dataset.ready) >= 2, null, { timeout: 60000 });
   // The bound leaves room for scheduling hiccups on a busy two-core machine (gaps of 0.7 s
   // have been seen there with the worker using one core); a generation job run on the page's
@@ -81,6 +84,7 @@ test('Drill produces puzzles from the worker while the page stays responsive', a
   assert.equal(next.mode, 'puzzle');
   assert.equal(next.moves, '');
   assert.notEqual((await stored(page)).current.puzzle.id, p.id);
+  assert.ok(!libraryIds.has((await stored(page)).current.puzzle.id), 'the second puzzle was made by the worker');
   // And after a reload the same puzzle is back.
   const id = (await stored(page)).current.puzzle.id;
   await page.reload();
@@ -101,7 +105,10 @@ test('the theme and rule filters decide what the worker makes next', async () =>
   await page.selectOption('#drill-rule', 'standard');
   assert.deepEqual(await page.$$eval('#drill-theme option', (o) => o.map((x) => x.value)), ['four-three', 'vcf', 'vct', 'defend']);
   await page.selectOption('#drill-theme', 'four-three');
+  // The library has no four-three puzzles under standard rules: the worker makes the first.
   assert.equal(await page.getAttribute('#drill', 'data-waiting'), 'true');
+  assert.ok(await page.isVisible('#drill-wait'), 'a progress indicator while no puzzle is ready');
+  assert.match(await page.textContent('#drill-wait-text'), /^Making a puzzle at your level/);
   // A puzzle made for the earlier filters may still be on the board while the new one is
   // made: wait for the new one.
   await page.waitForFunction(() => {

@@ -745,7 +745,8 @@ fn generation_in_the_browser_matches_the_native_fixture() {
         "count": 3,
     });
     let options = js_sys::JSON::parse(&options.to_string()).unwrap();
-    let got: Value = serde_json::from_str(&fivefold_web::worker::generate_set(options, None).unwrap()).unwrap();
+    let got: Value =
+        serde_json::from_str(&fivefold_web::worker::generate_set(options, None).unwrap()).unwrap();
     assert_eq!(got["puzzles"].as_array().map(Vec::len), Some(3));
     assert_eq!(got["puzzles"], want["puzzles"]);
     assert_eq!(

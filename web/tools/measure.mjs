@@ -6,8 +6,9 @@
 //   2. first board on screen: from navigation to the first puzzle board drawn (the page's
 //      performance mark "fivefold:first-board"), for a returning student (a set open, the
 //      service worker installed) and for a first visit from a share link;
-//   3. grading latency: Trainer.play on every player move of every starter-library puzzle's
-//      solution (median, 95th percentile, worst), the defender's reply included;
+//   3. grading latency: PuzzleBoard.play on every player move of every starter-library puzzle's
+//      solution (median, 95th percentile, worst), the defender's reply included, and the
+//      page's WebAssembly linear memory after it (its peak);
 //   4. WebAssembly against native: the solver benchmark suite (engine/benches/suite.txt) timed
 //      in the page by benchSuite and natively by `cargo bench -p fivefold-engine --bench
 //      solver` (the same engine::suite::time_all in both), and the ratio of the times.
@@ -86,6 +87,7 @@ const wrongGrading = [];
 const hints = [];
 const shares = [];
 let wasmSuite = null;
+let pageMemory = null;
 
 async function mark(page) {
   await page.waitForFunction(() => performance.getEntriesByName('fivefold:first-board').length > 0, null, { timeout: 20000 });
@@ -135,16 +137,15 @@ try {
     canvas.style.width = '600px';
     canvas.style.height = '600px';
     document.body.append(canvas);
-    const t = new m.Trainer(canvas);
-    t.fit(2);
+    const t = new m.PuzzleBoard(canvas);
+    t.fit(2, 16);
     const plays = [];
     const wrongs = [];
     const hintTimes = [];
     const sets = JSON.parse(m.librarySets());
     for (const set of sets) {
       for (const p of set.puzzles) {
-        t.loadPuzzle(JSON.stringify(p));
-        t.trustKey(true); // as Tonight grades the built-in library
+        t.load(JSON.stringify(p), true, null); // trusted, as Tonight grades the built-in library
         const moves = p.goal === 'defend' ? [p.solution.first_moves[0]] : p.solution.line.filter((_, i) => i % 2 === 0);
         for (const mv of moves) {
           // Where the app's reply left the stored line, the line's next move may be taken.
@@ -158,7 +159,7 @@ try {
         }
         // One wrong first move: the empty point nearest the key move that is not an answer
         // (as the native grading benchmark picks it).
-        t.loadPuzzle(JSON.stringify(p));
+        t.load(JSON.stringify(p), true, null);
         const col = (n) => n.charCodeAt(0) - 97;
         const row = (n) => Number(n.slice(1)) - 1;
         const key = p.solution.first_moves[0];
@@ -183,7 +184,7 @@ try {
     // Hints, in a second pass (the tables hold other positions by then).
     for (const set of sets) {
       for (const p of set.puzzles) {
-        t.loadPuzzle(JSON.stringify(p));
+        t.load(JSON.stringify(p), true, null);
         for (let step = 0; step < 3; step++) {
           const h0 = performance.now();
           t.hint();
@@ -191,8 +192,11 @@ try {
         }
       }
     }
-    return { plays, wrongs, hintTimes };
+    // The page's linear memory (it never shrinks: the peak of all the grading above).
+    const memory = (await m.default()).memory.buffer.byteLength;
+    return { plays, wrongs, hintTimes, memory };
   });
+  pageMemory = out.memory;
   grading.push(...out.plays);
   wrongGrading.push(...out.wrongs);
   hints.push(...out.hintTimes);
@@ -232,7 +236,7 @@ say(`Share codes of the ${shares.length} library sets: ${Math.min(...codeLens)} 
   `the minified set files are ${Math.min(...shares.map((x) => x.json))} to ${Math.max(...shares.map((x) => x.json))} bytes`);
 say();
 const times = grading.map((x) => x.ms);
-say(`Grading latency, Trainer.play on ${times.length} solution moves of the starter library (reply included):`);
+say(`Grading latency, PuzzleBoard.play on ${times.length} solution moves of the starter library (reply included):`);
 say(`  median ${ms(quantile(times, 0.5))}, 95th percentile ${ms(quantile(times, 0.95))}, worst ${ms(Math.max(...times))}`);
 const themes = [...new Set(grading.map((x) => x.theme))];
 for (const th of themes) {
@@ -256,6 +260,7 @@ say(`  slowest: ${slow.map((x) => `${x.id} ${x.move} ${ms(x.ms)}`).join('; ')}`)
     `slowest: ${slowest.map((x) => `${x.id} ${x.move} ${ms(x.ms)}`).join('; ')}`);
 }
 say(`Hints, each step timed: median ${ms(quantile(hints, 0.5))}, p95 ${ms(quantile(hints, 0.95))}`);
+say(`The page's WebAssembly linear memory after all the grading (its peak): ${(pageMemory / 2 ** 20).toFixed(1)} MiB`);
 say();
 // The native run of the same suite: the bench binary prints one line per kind.
 let nativeSuite = null;
@@ -293,5 +298,5 @@ if (wasmSuite.mismatches.length) say(`  MISMATCHES in the browser: ${wasmSuite.m
 const report = lines.join('\n');
 console.log(report);
 mkdirSync(ARTEFACTS, { recursive: true });
-writeFileSync(join(ARTEFACTS, 'measure.json'), JSON.stringify({ weight, firstBoard, grading, wrongGrading, hints, wasmSuite, nativeSuite, shares: shares.map(({ code, ...x }) => ({ ...x, code: code.length })) }, null, 1));
+writeFileSync(join(ARTEFACTS, 'measure.json'), JSON.stringify({ weight, pageMemory, firstBoard, grading, wrongGrading, hints, wasmSuite, nativeSuite, shares: shares.map(({ code, ...x }) => ({ ...x, code: code.length })) }, null, 1));
 writeFileSync(join(ARTEFACTS, 'measure.txt'), `${report}\n`);
