@@ -123,11 +123,13 @@ test('Drill: while a puzzle is being made there is no goal and nothing to press;
   const labels = await page.$$eval('#drill-theme option', (os) => os.map((o) => o.textContent));
   assert.ok(labels.length >= 4);
   for (const l of labels) assert.doesNotMatch(l, /^(A|An|The) /, `"${l}" starts with an article`);
-  // The first puzzle on the board, then another theme: the board waits for a new puzzle. The
-  // state is read in the page in the same moment the wait is seen.
+  // The first puzzle on the board, then a theme the starter library has no puzzle of (four-
+  // threes under standard rules): the board waits for the worker's puzzle. The state is read
+  // in the page in the same moment the wait is seen.
+  await page.selectOption('#drill-rule', 'standard');
   await page.waitForSelector('#drill[data-waiting="false"]', { timeout: 120000 });
   assert.notEqual(await page.textContent('#drill-message'), '');
-  await page.selectOption('#drill-theme', 'defend');
+  await page.selectOption('#drill-theme', 'four-three');
   const during = await (await page.waitForFunction(() => {
     if (document.getElementById('drill').dataset.waiting !== 'true') return null;
     return {
@@ -139,7 +141,7 @@ test('Drill: while a puzzle is being made there is no goal and nothing to press;
   assert.equal(during.message, '');
   assert.deepEqual(during.enabled, []);
   await page.waitForSelector('#drill[data-waiting="false"]', { timeout: 120000 });
-  assert.match(await page.textContent('#drill-message'), /stop|defend|win/i);
+  assert.match(await page.textContent('#drill-message'), /four-three/i);
   assert.deepEqual(errors, []);
   await context.close();
 });
