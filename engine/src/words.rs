@@ -526,8 +526,11 @@ pub fn finding(f: &Finding) -> String {
             threat,
             defences,
             complete,
+            all,
         } => {
             let stops = match defences.len() {
+                1 if !*all => format!("A defence was {}.", defences[0]),
+                _ if !*all => format!("Defences included {}.", commas(defences)),
                 1 if *complete => format!("The only defence was {}.", defences[0]),
                 1 => format!("The defence found was {}.", defences[0]),
                 _ => format!("The defences were {}.", commas(defences)),
@@ -560,7 +563,7 @@ pub fn finding(f: &Finding) -> String {
 pub fn review_summary(r: &GameReview) -> String {
     let (_, _, undecided) = r.counts();
     let findings = r.findings().count();
-    let checked = r.moves.len();
+    let checked = r.moves.len() - r.unchecked();
     let mut out = format!(
         "{} checked: {}",
         count(checked as u16, "move", "moves"),
@@ -577,7 +580,10 @@ pub fn review_summary(r: &GameReview) -> String {
     }
     out.push('.');
     if r.stopped {
-        out.push_str(" The check was stopped: the moves not reached are undecided.");
+        out.push_str(&format!(
+            " The check was stopped: {} not checked.",
+            count(r.unchecked() as u16, "move", "moves")
+        ));
     }
     out
 }
