@@ -2,7 +2,8 @@
 // thread, so the page stays responsive. Messages in: {type: "init", module} (optional: a
 // compiled wasm module, used by the single-file build), {id, type: "generate", options},
 // {id, type: "solve", query}, {id, type: "prove", puzzle} and {id, type: "review", query}
-// (a game checked move by move, with progress {checked, total}). Messages out: {id, progress}, {id, result} or {id, error, fatal}.
+// (a game's task: checked move by move, with progress {checked, total, move}; or its puzzles
+// or a finding's defences, query.task). Messages out: {id, progress}, {id, result} or {id, error, fatal}.
 
 import init, { checkGame, generateSet, provePuzzle, solvePosition } from './pkg/fivefold_web.js';
 
@@ -32,8 +33,8 @@ self.onmessage = async (event) => {
       });
       self.postMessage({ id: m.id, result });
     } else if (m.type === 'review') {
-      const result = checkGame(m.query, (checked, total) => {
-        self.postMessage({ id: m.id, progress: { checked, total } });
+      const result = checkGame(m.query, (checked, total, move) => {
+        self.postMessage({ id: m.id, progress: { checked, total, move } });
       });
       self.postMessage({ id: m.id, result });
     } else if (m.type === 'prove') {

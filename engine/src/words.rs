@@ -562,27 +562,43 @@ pub fn finding(f: &Finding) -> String {
 /// A review in one sentence: "60 moves checked: 3 findings, 1 move undecided."
 pub fn review_summary(r: &GameReview) -> String {
     let (_, _, undecided) = r.counts();
-    let findings = r.findings().count();
-    let checked = r.moves.len() - r.unchecked();
+    let unchecked = r.unchecked();
+    review_counts(
+        r.moves.len() - unchecked,
+        r.findings().count(),
+        undecided,
+        r.stopped.then_some(unchecked),
+    )
+}
+
+/// A review in one sentence from its counts: moves checked, findings, moves undecided, and,
+/// when the check was stopped, the moves not checked.
+pub fn review_counts(
+    checked: usize,
+    findings: usize,
+    undecided: usize,
+    unchecked: Option<usize>,
+) -> String {
+    let n = |k: usize| k.min(u16::MAX as usize) as u16;
     let mut out = format!(
         "{} checked: {}",
-        count(checked as u16, "move", "moves"),
+        count(n(checked), "move", "moves"),
         match findings {
             0 => "nothing found".to_string(),
-            k => count(k as u16, "finding", "findings"),
+            k => count(n(k), "finding", "findings"),
         }
     );
     if undecided > 0 {
         out.push_str(&format!(
             ", {} undecided",
-            count(undecided as u16, "move", "moves")
+            count(n(undecided), "move", "moves")
         ));
     }
     out.push('.');
-    if r.stopped {
+    if let Some(left) = unchecked {
         out.push_str(&format!(
             " The check was stopped: {} not checked.",
-            count(r.unchecked() as u16, "move", "moves")
+            count(n(left), "move", "moves")
         ));
     }
     out
