@@ -1,10 +1,11 @@
 // My games: the player's own games, pasted or opened (our move lists or SGF), checked move by
 // move in the worker (missed wins, blunders, missed defences, renju forbidden points), shown
 // as a timeline beside a board, and turned into puzzles for Tonight (and so for Revisit) or a
-// set file. Games checked are kept on this device. Names and titles from a record are shown
-// as text only.
+// set file. A check stopped half-way keeps the moves it checked. The puzzles and a missed
+// defence's whole list are made in the worker when the player asks for them. Games checked
+// are kept on this device. Names and titles from a record are shown as text only.
 
-import { parseSet, readGames } from './pkg/fivefold_web.js';
+import { checkBudget, parseSet, readGames, stoppedSummary } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
 import { save } from './store.js';
@@ -14,10 +15,11 @@ const GAMES_KEPT = 40;
 const GAME_FILE_BYTES = 2_000_000;
 const GAME_TEXT_MAX = 200;
 const FINDING_KINDS = ['missed-win', 'blunder', 'missed-defence', 'forbidden-point'];
-const MOVE_VERDICTS = ['fine', 'finding', 'undecided'];
+const MOVE_VERDICTS = ['fine', 'finding', 'undecided', 'unchecked'];
 const GAME_PLAYERS = ['black', 'white', 'both'];
 const GAME_COLOURS = ['black', 'white'];
-const MOVE_VERDICT_WORDS = { fine: 'fine', finding: 'a finding', undecided: 'undecided' };
+const MOVE_VERDICT_WORDS = { fine: 'fine', finding: 'a finding', undecided: 'undecided', unchecked: 'not checked' };
+const isOptBool = (v) => v === undefined || typeof v === 'boolean';
 
 const isPointList = (a, max = 361) => Array.isArray(a) && a.length <= max && a.every((p) => typeof p === 'string' && POINT_NAME.test(p));
 const isGameText = (v) => v === null || (typeof v === 'string' && v.length <= GAME_TEXT_MAX);
@@ -28,7 +30,8 @@ function checkStoredFinding(f, moves) {
   if (!isInt(f.number, 1, moves) || !GAME_COLOURS.includes(f.colour) || !POINT_NAME.test(f.played ?? '')) return 'names no move';
   if (!FINDING_KINDS.includes(f.kind) || typeof f.words !== 'string' || f.words.length > 2000) return 'has no words';
   if (!isInt(f.at, 0, moves) || !isPointList(f.line) || !GAME_COLOURS.includes(f.first) || !isPointList(f.defences)) return 'has a malformed line';
-  if (typeof f.puzzle !== 'boolean') return 'is malformed';
+  if (typeof f.puzzle !== 'boolean' || !isOptBool(f.all) || !isOptBool(f.complete) || !isOptBool(f.onto)) return 'is malformed';
+  if (![undefined, null, 'vcf', 'vct'].includes(f.mode) || !(f.depth === undefined || isInt(f.depth, 0, 400))) return 'is malformed';
   return null;
 }
 
@@ -53,6 +56,7 @@ export function checkGames(d) {
       if (why) return `a finding of ${what} ${why}`;
     }
     if (typeof g.summary !== 'string' || typeof g.checked !== 'string' || typeof g.budget !== 'string') return `${what} is incomplete`;
+    if (!isOptBool(g.made) || !isOptBool(g.stopped)) return `${what} is malformed`;
     if (g.set !== null) {
       if (typeof g.set !== 'string') return `the puzzles of ${what} are malformed`;
       try {
@@ -161,6 +165,11 @@ export class Games {
       announce(`Not loaded: ${e}.`);
       return;
     }
+    this.offer(got, source);
+  }
+
+  /** Shows what was read (`{games, warnings}`) for the player to pick, set up and check. */
+  offer(got, source) {
     this.loaded = { ...got, source };
     const n = got.games.length;
     const warn = got.warnings.length ? ` Note: ${got.warnings.join(' ')}` : '';
@@ -170,6 +179,15 @@ export class Games {
     $('games-pick-box').hidden = n < 2;
     $('games-setup').hidden = false;
     this.renderSetup();
+  }
+
+  /** Offers one game (`{size, rule, moves}`, from the Study board) to be checked. */
+  takeGame(game, source) {
+    this.app.go('games');
+    this.showList();
+    this.offer({ games: [{ title: null, black: null, white: null, date: null, ...game }], warnings: [] }, source);
+    $('games-setup').scrollIntoView?.({ block: 'nearest' });
+    $('games-check').focus({ preventScroll: true });
   }
 
   picked() {
@@ -209,27 +227,35 @@ export class Games {
     show(0, total);
     this.busy(true);
     const started = performance.now();
+    // Every move as the worker checks it: kept if the player stops the check.
+    const kept = [];
     let r;
     try {
       const query = { size: g.size, rule, moves: g.moves, player, created: gameDay() };
-      r = await this.jobs.run('review', { query }, (p) => show(p.checked, p.total));
+      r = await this.jobs.run('review', { query }, (p) => {
+        if (p.move) kept.push(p.move);
+        show(p.checked, p.total);
+      });
     } catch (e) {
       this.busy(false);
-      if (e instanceof Cancelled) return;
-      this.note(`The game could not be checked: ${e.message}. Nothing was saved.`, 'refused');
-      announce(`Not checked: ${e.message}.`);
-      return;
+      if (this.discard) {
+        this.discard = false;
+        return;
+      }
+      if (!(e instanceof Cancelled)) {
+        this.note(`The game could not be checked: ${e.message}. Nothing was saved.`, 'refused');
+        announce(`Not checked: ${e.message}.`);
+        return;
+      }
+      if (!kept.length) {
+        this.note('The check was stopped before its first move was done; nothing was saved. Check the game again when you like.', 'info');
+        announce('Check stopped.');
+        return;
+      }
+      r = this.stoppedResult(g, kept);
     }
     this.busy(false);
     const secs = (performance.now() - started) / 1000;
-    let set = r.set;
-    if (set) {
-      // The set's title says which game it came from (the same title for every game would
-      // leave Tonight with several sets of one name).
-      const s = JSON.parse(set);
-      s.title = `${s.title}: ${gameHeading(g)}`.slice(0, 120);
-      set = parseSet(JSON.stringify(s));
-    }
     const entry = {
       id: newGameId(),
       title: g.title ?? null,
@@ -243,7 +269,9 @@ export class Games {
       verdicts: r.moves.map((m) => m.verdict),
       findings: r.findings,
       summary: r.summary,
-      set: set ?? null,
+      set: null,
+      made: false,
+      stopped: r.stopped,
       checked: new Date().toISOString(),
       budget: r.budget,
       seconds: Math.round(secs * 10) / 10,
@@ -255,18 +283,29 @@ export class Games {
       dropped = ` Only the latest ${GAMES_KEPT} games are kept: the oldest was removed.`;
     }
     this.save();
-    this.note(`Checked in ${secs.toFixed(1)} s: ${r.summary}${dropped}`, 'info');
+    this.note(`${r.stopped ? 'Stopped after' : 'Checked in'} ${secs.toFixed(1)} s: ${r.summary}${dropped}`, 'info');
     this.openGame(entry.id);
   }
 
-  cancel(quiet = false) {
-    const was = this.jobs.busy;
+  /** What a stopped check kept: the moves checked, in order; the rest not checked. */
+  stoppedResult(g, kept) {
+    const verdicts = g.moves.map((_, i) => kept[i]?.verdict ?? 'unchecked');
+    const findings = kept.flatMap((m) => m.findings ?? []);
+    return {
+      moves: verdicts.map((verdict) => ({ verdict })),
+      findings,
+      summary: stoppedSummary(verdicts, findings.length, g.moves.length),
+      stopped: true,
+      budget: checkBudget(),
+    };
+  }
+
+  /** Stops the check in flight (the moves checked so far are kept, unless `discard`: the
+   * games are being replaced) or the puzzles' work. */
+  cancel(discard = false) {
+    this.discard = discard && this.jobs.busy;
     this.jobs.cancel();
     this.busy(false);
-    if (was && !quiet) {
-      this.note('The check was cancelled; nothing was saved. Check the game again when you like.', 'info');
-      announce('Check cancelled.');
-    }
   }
 
   // ---- The list of games checked ----
@@ -280,6 +319,7 @@ export class Games {
   }
 
   showList() {
+    if (this.open && this.jobs.busy) this.jobs.cancel();
     this.open = null;
     this.view('list');
     this.renderSaved();
@@ -320,17 +360,97 @@ export class Games {
     this.view('view');
     $('games-view-title').textContent = gameHeading(g);
     $('games-summary').textContent = g.summary;
-    const n = g.set ? JSON.parse(g.set).puzzles.length : 0;
-    $('games-play').disabled = !n;
-    $('games-export').disabled = !n;
-    const whose = g.player === 'both' ? 'both sides' : `${g.player === 'black' ? 'Black' : 'White'}'s moves`;
-    $('games-puzzles').textContent = (n
-      ? `${n === 1 ? 'One finding' : `${n} findings`} of ${whose} became ${n === 1 ? 'a puzzle' : 'puzzles'}.`
-      : `No finding of ${whose} became a puzzle (a five to make or block, or too many answers, makes none).`) +
-      ` Checked under ${g.rule} rules with ${g.budget}; a move that budget could not settle is marked undecided, never guessed.`;
+    this.renderPuzzles();
     this.renderTimeline();
     const first = g.findings[0];
     this.go(first ? first.number : 0);
+  }
+
+  /** The findings the puzzles may come from: the player's (or both sides'), not a forbidden point. */
+  puzzleFindings(g) {
+    return g.findings.filter((f) => f.kind !== 'forbidden-point' && (g.player === 'both' || f.colour === g.player));
+  }
+
+  renderPuzzles(making = null) {
+    const g = this.open;
+    const made = g.made !== false;
+    const n = made && g.set ? JSON.parse(g.set).puzzles.length : 0;
+    const can = made ? n > 0 : this.puzzleFindings(g).length > 0;
+    $('games-play').disabled = !can || !!making;
+    $('games-export').disabled = !can || !!making;
+    const whose = g.player === 'both' ? 'both sides' : `${g.player === 'black' ? 'Black' : 'White'}'s moves`;
+    let say;
+    if (making) say = `Making puzzles from the findings of ${whose}: ${making.done} of ${making.total} done…`;
+    else if (!made) {
+      say = can
+        ? `The findings of ${whose} become puzzles when you play or save them (each is proved first, which takes a moment).`
+        : `No finding of ${g.player === 'both' ? 'either side' : whose} can become a puzzle.`;
+    } else {
+      say = n
+        ? `${n === 1 ? 'One finding' : `${n} findings`} of ${whose} became ${n === 1 ? 'a puzzle' : 'puzzles'}.`
+        : `No finding of ${g.player === 'both' ? 'either side' : whose} became a puzzle (a five to make or block, or too many answers, makes none).`;
+    }
+    const stopped = g.stopped ? ' The check was stopped: the moves not checked are marked so.' : '';
+    $('games-puzzles').textContent = `${say} Checked under ${g.rule} rules with ${g.budget}; a move that budget could not settle is marked undecided, never guessed.${stopped}`;
+  }
+
+  /** Makes the open game's puzzles in the worker if they are not made yet; true when done. */
+  async makePuzzles() {
+    const g = this.open;
+    if (!g || g.made !== false) return true;
+    if (this.jobs.busy) return false;
+    const findings = this.puzzleFindings(g);
+    this.renderPuzzles({ done: 0, total: findings.length });
+    let r;
+    try {
+      const query = { size: g.size, rule: g.rule, moves: g.moves, player: g.player, created: g.checked.slice(0, 10), task: 'puzzles', findings };
+      r = await this.jobs.run('review', { query }, (p) => {
+        if (this.open === g) this.renderPuzzles({ done: p.checked, total: p.total });
+      });
+    } catch (e) {
+      if (this.open === g) this.renderPuzzles();
+      if (!(e instanceof Cancelled)) banner(`The puzzles could not be made: ${e.message}.`, { kind: 'error', id: 'games' });
+      return false;
+    }
+    let set = r.set;
+    if (set) {
+      // The set's title says which game it came from (the same title for every game would
+      // leave Tonight with several sets of one name).
+      const s = JSON.parse(set);
+      s.title = `${s.title}: ${gameHeading(g)}`.slice(0, 120);
+      set = parseSet(JSON.stringify(s));
+    }
+    findings.forEach((f, i) => { f.puzzle = r.made[i]; });
+    g.set = set ?? null;
+    g.made = true;
+    this.save();
+    if (this.open === g) this.renderPuzzles();
+    return true;
+  }
+
+  /** Every defence of a missed defence, from the worker; the stored finding is updated. */
+  async listDefences(f) {
+    const g = this.open;
+    if (!g || this.jobs.busy) return;
+    const button = document.querySelector(`#games-finding [data-defences="${f.number}"]`);
+    if (button) {
+      button.disabled = true;
+      button.textContent = 'Looking for every defence…';
+    }
+    let r;
+    try {
+      const query = { size: g.size, rule: g.rule, moves: g.moves, player: g.player, created: g.checked.slice(0, 10), task: 'defences', findings: [f] };
+      r = await this.jobs.run('review', { query });
+    } catch (e) {
+      if (!(e instanceof Cancelled)) banner(`The defences could not be listed: ${e.message}.`, { kind: 'error', id: 'games' });
+      if (this.open === g) this.renderFindings();
+      return;
+    }
+    const i = g.findings.indexOf(f);
+    if (i >= 0) g.findings[i] = { ...r.finding, puzzle: f.puzzle };
+    this.save();
+    if (this.open === g) this.renderFindings();
+    announce(r.finding.words);
   }
 
   renderTimeline() {
@@ -398,9 +518,11 @@ export class Games {
     const box = $('games-finding');
     if (!here.length) {
       const v = this.at ? g.verdicts[this.at - 1] ?? 'undecided' : null;
-      const say = v === 'undecided'
-        ? `Move ${this.at} is undecided: the check's budget could not settle it.`
-        : v === 'fine' ? `Move ${this.at}: nothing found.` : '';
+      const say = {
+        undecided: `Move ${this.at} is undecided: the check's budget could not settle it.`,
+        unchecked: `Move ${this.at} was not checked: the check was stopped first.`,
+        fine: `Move ${this.at}: nothing found.`,
+      }[v] ?? '';
       box.replaceChildren(...(say ? [el('p', { text: say })] : []));
       box.dataset.kind = v ?? '';
       return;
@@ -416,6 +538,14 @@ export class Games {
           'data-show-line': String(f.number),
           onclick: () => this.showLine(f),
         }, 'Show the line on the board'));
+      }
+      if (f.kind === 'missed-defence' && f.all === false) {
+        parts.push(el('button', {
+          type: 'button',
+          class: 'secondary',
+          'data-defences': String(f.number),
+          onclick: () => this.listDefences(f),
+        }, 'List every defence'));
       }
       return el('div', { class: 'finding', 'data-kind': f.kind }, ...parts);
     }));
@@ -452,9 +582,10 @@ export class Games {
 
   // ---- Puzzles ----
 
-  play() {
+  async play() {
     const g = this.open;
-    if (!g?.set) return;
+    if (!g || !(await this.makePuzzles()) || this.open !== g) return;
+    if (!g.set) return;
     let got;
     try {
       got = this.app.tonight.addSet(g.set, 'games');
@@ -468,9 +599,10 @@ export class Games {
     this.app.tonight.openSet(got.key);
   }
 
-  exportSet() {
+  async exportSet() {
     const g = this.open;
-    if (!g?.set) return;
+    if (!g || !(await this.makePuzzles()) || this.open !== g) return;
+    if (!g.set) return;
     download(`from-my-games-${g.checked.slice(0, 10)}.json`, g.set);
     announce('The set file is downloaded.');
   }

@@ -71,6 +71,17 @@ export class Study {
       this.board.changed('clear');
     });
     $('study-setup').addEventListener('click', () => this.paste());
+    $('study-to-games').addEventListener('click', () => this.toGames());
+  }
+
+  /** Takes the game played out on the board (its moves, size and rule) into My games. */
+  toGames() {
+    const s = this.t.status();
+    if (!s.game) {
+      this.board.say(['Only a game played out from an empty board can be checked: play the moves in turn with the Play tool, black first, or paste a move list.'], 'refused');
+      return;
+    }
+    this.app.games.takeGame({ size: s.size, rule: s.rule, moves: s.moves }, 'the Study board');
   }
 
   init(data) {

@@ -1,9 +1,11 @@
-// The app's worker, on the workshop module: generates Drill puzzles and runs Study board searches off the page's
-// thread, so the page stays responsive. Messages in: {type: "init", module} (optional: a
+// The app's worker, on the workshop module: generates Drill puzzles and runs Study board
+// searches off the page's thread, so the page stays responsive. Messages in: {type: "init", module} (optional: a
 // compiled wasm module, used by the single-file build), {id, type: "generate", options},
-// {id, type: "solve", query}, {id, type: "prove", puzzle}, {id, type: "review", query}
-// (a game checked move by move, with progress {checked, total}) and {id, type: "memory"} (the
-// engine's linear memory in bytes, for web/tools/measure-drill.mjs). Messages out: {id, progress}, {id, result} or {id, error, fatal}.
+// {id, type: "solve", query}, {id, type: "prove", puzzle}, {id, type: "review", query} (a
+// game's task: checked move by move, with progress {checked, total, move}; or its puzzles or
+// a finding's defences, query.task) and {id, type: "memory"} (the engine's linear memory in
+// bytes, for web/tools/measure-drill.mjs). Messages out: {id, progress}, {id, result} or
+// {id, error, fatal}.
 
 import init, { checkGame, generateSet, provePuzzle, solvePosition } from './workshop/fivefold_web.js';
 
@@ -33,8 +35,8 @@ self.onmessage = async (event) => {
       });
       self.postMessage({ id: m.id, result });
     } else if (m.type === 'review') {
-      const result = checkGame(m.query, (checked, total) => {
-        self.postMessage({ id: m.id, progress: { checked, total } });
+      const result = checkGame(m.query, (checked, total, move) => {
+        self.postMessage({ id: m.id, progress: { checked, total, move } });
       });
       self.postMessage({ id: m.id, result });
     } else if (m.type === 'memory') {

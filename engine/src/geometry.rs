@@ -41,6 +41,14 @@ impl serde::Serialize for Point {
     }
 }
 
+/// And reads back from its name (a name that does not parse is the reader's error).
+impl<'de> serde::Deserialize<'de> for Point {
+    fn deserialize<D: serde::Deserializer<'de>>(d: D) -> Result<Self, D::Error> {
+        let name = String::deserialize(d)?;
+        name.trim().parse().map_err(serde::de::Error::custom)
+    }
+}
+
 /// Why a piece of text is not a coordinate.
 #[derive(Clone, Debug, PartialEq, Eq)]
 pub struct PointParseError {

@@ -17,10 +17,18 @@
 //!   win of white's that ends by driving black onto a forbidden point is a missed win or a
 //!   blunder like any other, marked by [`ForcedWin::onto_forbidden`].
 //!
-//! Every finding carries its proved line (or the proved defences), and every move gets one
-//! [`MoveVerdict`]: fine, a finding, or undecided when a question it rests on ran out of
-//! budget. Nothing is guessed: a move is fine only when every question it rests on was
-//! answered.
+//! Every finding carries its proved line (or a proved defence), and every move gets one
+//! [`MoveVerdict`]: fine, a finding, undecided when a question it rests on ran out of budget,
+//! or not checked when the review was stopped first. Nothing is guessed: a move is fine only
+//! when every question it rests on was answered.
+//!
+//! The check asks only what the verdicts need, cheapest first: the side's own win at a
+//! position is the answer the previous move's check already gave about the opponent's win
+//! after it (one question serves both moves); whether the opponent threatened a win before
+//! the move is asked only when it has one after it; and a missed defence needs one proved
+//! defence, not the list ([`crate::search::Asking::first_defence`]). The rest is asked when a
+//! player wants it: [`GameReview::list_defences`] (or [`every_defence`]) for every defence,
+//! and [`GameReview::make_puzzles`] (or [`finding_puzzle`]) for the puzzles.
 //!
 //! Findings become puzzles through [`crate::puzzle::generate::analyse`], the generator's own
 //! proof and quality filters (with [`Budget::GENERATION`], whatever the review's budget): a
@@ -96,11 +104,14 @@ pub enum FindingKind {
     MissedDefence {
         /// The opponent's threat (from the position before the move, the opponent first).
         threat: ForcedWin,
-        /// Every defence proved.
+        /// The defences proved: the first one found, or every one when `all` says so.
         defences: Vec<Point>,
         /// Whether every move that could defend was tried (see
-        /// [`crate::search::Defences::complete`]).
+        /// [`crate::search::Defences::complete`]); meaningful when `all`.
         complete: bool,
+        /// Whether `defences` is the whole list (every candidate tried), not only the first
+        /// defence found ([`GameReview::list_defences`] completes it).
+        all: bool,
     },
     /// Renju: black played a forbidden point and lost there.
     ForbiddenPoint {
@@ -138,8 +149,27 @@ pub struct Finding {
     /// played from the position before the move (a missed win or defence), `number` when from
     /// the position after it (a blunder, a forbidden point).
     pub at: usize,
-    /// The finding as a puzzle, when the generator's filters keep its position.
+    /// The finding as a puzzle, when the generator's filters keep its position (made by
+    /// [`GameReview::make_puzzles`]; `None` before).
     pub puzzle: Option<Puzzle>,
+}
+
+/// What a finding's puzzle is asked about: the side to play from the finding's position, and
+/// whether it is to win (with the class of the win found) or to defend.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum PuzzleAim {
+    /// `side` to play and win; `mode` is the class of the win the review proved.
+    Win {
+        /// The side to play.
+        side: Stone,
+        /// The class of the win.
+        mode: Mode,
+    },
+    /// `side` to play and stop the opponent's win.
+    Defend {
+        /// The side to play.
+        side: Stone,
+    },
 }
 
 impl Finding {
@@ -152,6 +182,19 @@ impl Finding {
             FindingKind::ForbiddenPoint { .. } => (&[], self.colour.opponent()),
         }
     }
+
+    /// What the finding's puzzle would ask, from the position after [`Finding::at`] moves;
+    /// `None` for a forbidden point (the game is over there).
+    pub fn aim(&self) -> Option<PuzzleAim> {
+        match &self.kind {
+            FindingKind::MissedWin { win } | FindingKind::Blunder { win } => Some(PuzzleAim::Win {
+                side: win.side,
+                mode: win.mode,
+            }),
+            FindingKind::MissedDefence { .. } => Some(PuzzleAim::Defend { side: self.colour }),
+            FindingKind::ForbiddenPoint { .. } => None,
+        }
+    }
 }
 
 /// The verdict on one move.
@@ -161,18 +204,20 @@ pub enum MoveVerdict {
     Fine,
     /// Something was found (see the move's findings).
     Finding,
-    /// A question the verdict rests on ran out of budget (or the review was stopped): nothing
-    /// is claimed either way.
+    /// A question the verdict rests on ran out of budget: nothing is claimed either way.
     Undecided,
+    /// The review was stopped before this move's check was done: nothing is claimed.
+    Unchecked,
 }
 
 impl MoveVerdict {
-    /// `"fine"`, `"finding"` or `"undecided"`.
+    /// `"fine"`, `"finding"`, `"undecided"` or `"unchecked"`.
     pub const fn name(self) -> &'static str {
         match self {
             MoveVerdict::Fine => "fine",
             MoveVerdict::Finding => "finding",
             MoveVerdict::Undecided => "undecided",
+            MoveVerdict::Unchecked => "unchecked",
         }
     }
 }
@@ -192,13 +237,16 @@ pub struct MoveReview {
     pub findings: Vec<Finding>,
 }
 
-/// How far a review has got: moves checked of all the moves to check.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+/// How far a review has got: moves checked of all the moves to check, and the move just
+/// checked (so that a caller that may be stopped keeps every move checked so far).
+#[derive(Clone, Debug, PartialEq, Eq)]
 pub struct ReviewProgress {
     /// Moves checked so far.
     pub checked: usize,
     /// Moves to check.
     pub total: usize,
+    /// The move just checked, with its verdict and findings.
+    pub latest: MoveReview,
 }
 
 /// A game checked move by move.
@@ -211,8 +259,8 @@ pub struct GameReview {
     /// The moves of the game, in order, black first.
     pub game: Vec<Point>,
     /// Every move checked, in order (the moves after a forbidden point, which ends a renju
-    /// game, are not checked; when the review was stopped, the moves not reached are
-    /// undecided).
+    /// game, are not checked; when the review was stopped, the moves not done are
+    /// [`MoveVerdict::Unchecked`]).
     pub moves: Vec<MoveReview>,
     /// Whether the stop check ended the review early.
     pub stopped: bool,
@@ -230,7 +278,8 @@ impl GameReview {
         self.moves.iter().flat_map(|m| m.findings.iter())
     }
 
-    /// How many moves have each verdict: (fine, with a finding, undecided).
+    /// How many moves have each verdict: (fine, with a finding, undecided); the moves not
+    /// checked are the rest ([`GameReview::unchecked`]).
     pub fn counts(&self) -> (usize, usize, usize) {
         let n = |v| self.moves.iter().filter(|m| m.verdict == v).count();
         (
@@ -238,6 +287,90 @@ impl GameReview {
             n(MoveVerdict::Finding),
             n(MoveVerdict::Undecided),
         )
+    }
+
+    /// How many moves were not checked (the review was stopped first).
+    pub fn unchecked(&self) -> usize {
+        self.moves
+            .iter()
+            .filter(|m| m.verdict == MoveVerdict::Unchecked)
+            .count()
+    }
+
+    /// The position after the game's first `at` moves (at most the moves the rule allows).
+    fn position(&self, at: usize) -> Board {
+        let board = Board::new(self.size, self.rule).expect("a review's size is a record's");
+        let mut game = Game::new(board);
+        for &m in &self.game[..at.min(self.game.len())] {
+            if game.play(m).is_err() {
+                break;
+            }
+        }
+        game.board().clone()
+    }
+
+    /// Makes the findings' puzzles (of both sides, or of `side` only) that are not made yet,
+    /// each proved by the generator's own analysis ([`finding_puzzle`]); `progress` hears
+    /// (findings done, findings to do) after each, and `stop`, polled between findings, ends
+    /// the work early (the findings not reached keep no puzzle).
+    pub fn make_puzzles(
+        &mut self,
+        solver: &mut Solver,
+        side: Option<Stone>,
+        stop: Option<StopCheck>,
+        mut progress: impl FnMut(usize, usize),
+    ) {
+        let todo: Vec<(usize, usize)> = self
+            .moves
+            .iter()
+            .enumerate()
+            .flat_map(|(i, m)| (0..m.findings.len()).map(move |j| (i, j)))
+            .filter(|&(i, j)| {
+                let f = &self.moves[i].findings[j];
+                side.is_none_or(|s| s == f.colour) && f.puzzle.is_none() && f.aim().is_some()
+            })
+            .collect();
+        let total = todo.len();
+        for (k, (i, j)) in todo.into_iter().enumerate() {
+            if stop.is_some_and(|s| s(0)) {
+                return;
+            }
+            let f = &self.moves[i].findings[j];
+            let (at, aim) = (f.at, f.aim());
+            let board = self.position(at);
+            if let Some(aim) = aim {
+                self.moves[i].findings[j].puzzle = finding_puzzle(solver, &board, aim);
+            }
+            progress(k + 1, total);
+        }
+    }
+
+    /// Completes every missed defence's list of defences ([`every_defence`], each asked with
+    /// `budget`); a list that budget cannot complete keeps what it had.
+    pub fn list_defences(&mut self, solver: &mut Solver, budget: Budget) {
+        for i in 0..self.moves.len() {
+            for j in 0..self.moves[i].findings.len() {
+                let f = &self.moves[i].findings[j];
+                let (at, colour) = (f.at, f.colour);
+                if !matches!(f.kind, FindingKind::MissedDefence { all: false, .. }) {
+                    continue;
+                }
+                let board = self.position(at);
+                if let Some((list, done)) = every_defence(solver, &board, colour, budget, None) {
+                    if let FindingKind::MissedDefence {
+                        defences,
+                        complete,
+                        all,
+                        ..
+                    } = &mut self.moves[i].findings[j].kind
+                    {
+                        *defences = list;
+                        *complete = done;
+                        *all = true;
+                    }
+                }
+            }
+        }
     }
 
     /// The puzzles made from the findings (of both sides, or of `side` only), each position
@@ -282,10 +415,12 @@ enum Answer {
 }
 
 /// Checks every move of `record` under `rule`, each question with `budget`; `stop` is polled
-/// during every search and between moves, and `progress` hears after every move. Fails only
+/// during every search and between moves, and `progress` hears after every move (with the
+/// move's verdict, so that a caller keeps what was checked whatever happens next). Fails only
 /// when the record has a move after the game was over (a five made earlier): such a record is
 /// not a game, and the error names the move. A forbidden point played by black under renju is
-/// a finding, not an error.
+/// a finding, not an error. No puzzle is made here ([`GameReview::make_puzzles`]), and a
+/// missed defence holds the first defence found ([`GameReview::list_defences`]).
 pub fn review(
     solver: &mut Solver,
     record: &GameRecord,
@@ -316,145 +451,67 @@ pub fn review(
         winner: None,
     };
     let stopped = || stop.is_some_and(|s| s(0));
-    let mut nodes = 0u64;
+    let mut q = Questions {
+        solver,
+        budget,
+        stop,
+        nodes: 0,
+    };
+    // The side to move's own win at the next position: the answer about the opponent's win
+    // after the move just checked (the same position, the same side to move).
     let mut own_next: Option<Answer> = None;
     for (i, &m) in record.moves()[..legal].iter().enumerate() {
         let me = game.to_move();
-        let them = me.opponent();
         let number = i + 1;
+        let unchecked = MoveReview {
+            number,
+            colour: me,
+            point: m,
+            verdict: MoveVerdict::Unchecked,
+            findings: Vec::new(),
+        };
         if out.stopped || stopped() {
             out.stopped = true;
-            out.moves.push(MoveReview {
-                number,
-                colour: me,
-                point: m,
-                verdict: MoveVerdict::Undecided,
-                findings: Vec::new(),
-            });
+            out.moves.push(unchecked);
             continue;
         }
         let before = game.board().clone();
-        let own = match own_next.take() {
-            Some(a) => a,
-            None => win_of(solver, &before, me, budget, stop, &mut nodes),
-        };
-        let idx = before.index(m);
-        let five = before.wins_at(idx, me);
+        let five = before.wins_at(before.index(m), me);
         if game.play(m).is_err() {
             unreachable!("the replay allowed this move");
         }
         let after = game.board().clone();
-        let mut findings = Vec::new();
-        let mut undecided = false;
-        if five {
+        let (verdict, findings, now) = if five {
             // The game ends here, won: nothing after it to ask.
             out.winner = Some(me);
+            (MoveVerdict::Fine, Vec::new(), None)
         } else {
-            match &own {
-                Answer::Win(win) => {
-                    match kept_win(solver, &before, &after, me, m, budget, stop, &mut nodes) {
-                        Verdict::Win => {}
-                        Verdict::NoWin => findings.push(Finding {
-                            number,
-                            colour: me,
-                            played: m,
-                            kind: FindingKind::MissedWin { win: win.clone() },
-                            at: i,
-                            puzzle: None,
-                        }),
-                        Verdict::Unknown => undecided = true,
-                    }
-                    let now = win_of(solver, &after, them, budget, stop, &mut nodes);
-                    if !findings.is_empty() {
-                        // The win let go may also have let the opponent in (a renju black
-                        // stone can make its own block forbidden).
-                        if let Answer::Win(win) = &now {
-                            let threat = win_of(solver, &before, them, budget, stop, &mut nodes);
-                            if matches!(threat, Answer::NoWin) {
-                                findings.push(Finding {
-                                    number,
-                                    colour: me,
-                                    played: m,
-                                    kind: FindingKind::Blunder { win: win.clone() },
-                                    at: number,
-                                    puzzle: None,
-                                });
-                            }
-                        }
-                    }
-                    own_next = Some(now);
-                }
-                Answer::NoWin | Answer::Unknown => {
-                    undecided |= matches!(own, Answer::Unknown);
-                    let threat = win_of(solver, &before, them, budget, stop, &mut nodes);
-                    let now = win_of(solver, &after, them, budget, stop, &mut nodes);
-                    match (&threat, &now) {
-                        // Defended, or nothing to defend and nothing allowed.
-                        (_, Answer::NoWin) => {}
-                        (Answer::NoWin, Answer::Win(win)) => findings.push(Finding {
-                            number,
-                            colour: me,
-                            played: m,
-                            kind: FindingKind::Blunder { win: win.clone() },
-                            at: number,
-                            puzzle: None,
-                        }),
-                        (Answer::Win(threat), Answer::Win(_)) => {
-                            let mut ask = solver.ask(budget);
-                            if let Some(s) = stop {
-                                ask = ask.watch(s);
-                            }
-                            let d = ask.defences(&before, me, Mode::Vct);
-                            nodes += ask.spent();
-                            let proved = d.threat == Verdict::Win && !d.moves.proved.is_empty();
-                            if proved && !d.moves.proved.contains(&m) {
-                                findings.push(Finding {
-                                    number,
-                                    colour: me,
-                                    played: m,
-                                    kind: FindingKind::MissedDefence {
-                                        threat: threat.clone(),
-                                        defences: d.moves.proved,
-                                        complete: d.complete,
-                                    },
-                                    at: i,
-                                    puzzle: None,
-                                });
-                            } else if !proved
-                                && (d.threat != Verdict::Win || !d.moves.unknown.is_empty())
-                            {
-                                // No defence proved, but one may exist: say nothing.
-                                undecided = true;
-                            }
-                            // Otherwise the position was lost whatever the move: nothing to
-                            // find.
-                        }
-                        _ => undecided = true,
-                    }
-                    own_next = Some(now);
-                }
-            }
-        }
-        for f in &mut findings {
-            f.puzzle = puzzle_of(solver, f, &before, &after);
-        }
-        let verdict = if !findings.is_empty() {
-            MoveVerdict::Finding
-        } else if undecided {
-            MoveVerdict::Undecided
-        } else {
-            MoveVerdict::Fine
+            let own = match own_next.take() {
+                Some(a) => a,
+                None => q.win_of(&before, me),
+            };
+            let (verdict, findings, now) = q.check_move(&before, &after, me, m, i, own);
+            (verdict, findings, Some(now))
         };
-        out.moves.push(MoveReview {
+        own_next = now;
+        if stopped() {
+            // Stopped during this move's questions: its answers may be cut short.
+            out.stopped = true;
+            out.moves.push(unchecked);
+            continue;
+        }
+        let checked = MoveReview {
             number,
             colour: me,
             point: m,
             verdict,
             findings,
-        });
+        };
+        out.moves.push(checked.clone());
         progress(ReviewProgress {
             checked: number,
             total,
+            latest: checked,
         });
         if five {
             break;
@@ -466,38 +523,199 @@ pub fn review(
         // Forced: the point was the only block of a white four.
         let fives = board.cells_with(Stone::White, threat::FIVE);
         let forced = fives.len() == 1 && fives.first() == Some(board.index(p));
-        let verdict = if out.stopped {
-            MoveVerdict::Undecided
-        } else {
-            out.winner = Some(Stone::White);
-            MoveVerdict::Finding
+        let mut checked = MoveReview {
+            number,
+            colour: Stone::Black,
+            point: p,
+            verdict: MoveVerdict::Unchecked,
+            findings: Vec::new(),
         };
-        let findings = if out.stopped {
-            Vec::new()
-        } else {
-            vec![Finding {
+        if !out.stopped {
+            out.winner = Some(Stone::White);
+            checked.verdict = MoveVerdict::Finding;
+            checked.findings.push(Finding {
                 number,
                 colour: Stone::Black,
                 played: p,
                 kind: FindingKind::ForbiddenPoint { why, forced },
                 at: legal,
                 puzzle: None,
-            }]
-        };
-        out.moves.push(MoveReview {
-            number,
-            colour: Stone::Black,
-            point: p,
-            verdict,
-            findings,
-        });
-        progress(ReviewProgress {
-            checked: number,
-            total,
-        });
+            });
+        }
+        out.moves.push(checked.clone());
+        if !out.stopped {
+            progress(ReviewProgress {
+                checked: number,
+                total,
+                latest: checked,
+            });
+        }
     }
-    out.nodes = nodes;
+    out.nodes = q.nodes;
     Ok(out)
+}
+
+/// The solver and what every question of one review shares.
+struct Questions<'a, 's> {
+    solver: &'a mut Solver,
+    budget: Budget,
+    stop: Option<StopCheck<'s>>,
+    nodes: u64,
+}
+
+impl Questions<'_, '_> {
+    /// One move: `me` played `m` (the game's move `i + 1`, not a five) from `before` to
+    /// `after`, where `own` is `me`'s win before it. Answers the verdict, the findings, and
+    /// the opponent's win after the move (the next move's own win).
+    fn check_move(
+        &mut self,
+        before: &Board,
+        after: &Board,
+        me: Stone,
+        m: Point,
+        i: usize,
+        own: Answer,
+    ) -> (MoveVerdict, Vec<Finding>, Answer) {
+        let them = me.opponent();
+        let number = i + 1;
+        let finding = |kind, at| Finding {
+            number,
+            colour: me,
+            played: m,
+            kind,
+            at,
+            puzzle: None,
+        };
+        let mut findings = Vec::new();
+        let mut undecided = false;
+        if let Answer::Win(win) = &own {
+            match self.kept_win(before, after, me, m) {
+                Verdict::Win => {}
+                Verdict::NoWin => {
+                    findings.push(finding(FindingKind::MissedWin { win: win.clone() }, i))
+                }
+                Verdict::Unknown => undecided = true,
+            }
+        } else {
+            undecided |= matches!(own, Answer::Unknown);
+        }
+        let now = self.win_of(after, them);
+        if matches!(own, Answer::Win(_)) && findings.is_empty() {
+            // The side kept its win (or that was undecided): the opponent's win after the
+            // move is no finding of this move's.
+            return (verdict(&findings, undecided), findings, now);
+        }
+        let Answer::Win(win) = &now else {
+            // Nothing let in (and so nothing to defend, or defended); after a win let go,
+            // nothing more to find.
+            undecided |= findings.is_empty() && matches!(now, Answer::Unknown);
+            return (verdict(&findings, undecided), findings, now);
+        };
+        // The opponent wins after the move: did it threaten to win before it?
+        match self.win_of(before, them) {
+            Answer::NoWin => {
+                // A blunder (for a renju black stone that makes its own block forbidden,
+                // besides the win let go).
+                findings.push(finding(FindingKind::Blunder { win: win.clone() }, number));
+            }
+            Answer::Win(threat) if findings.is_empty() => {
+                // A threat the move did not stop: a missed defence if some defence existed.
+                let mut ask = self.solver.ask(self.budget);
+                if let Some(s) = self.stop {
+                    ask = ask.watch(s);
+                }
+                let d = ask.first_defence(before, me, Mode::Vct);
+                self.nodes += ask.spent();
+                if d.threat == Verdict::Win && !d.moves.proved.is_empty() {
+                    if !d.moves.proved.contains(&m) {
+                        let complete = d.complete && d.moves.unknown.is_empty();
+                        findings.push(finding(
+                            FindingKind::MissedDefence {
+                                threat,
+                                defences: d.moves.proved,
+                                complete,
+                                all: d.every,
+                            },
+                            i,
+                        ));
+                    }
+                } else if d.threat != Verdict::Win || !d.moves.unknown.is_empty() {
+                    // No defence proved, but one may exist: say nothing.
+                    undecided = true;
+                }
+                // Otherwise the position was lost whatever the move: nothing to find.
+            }
+            Answer::Win(_) => {}
+            Answer::Unknown => undecided |= findings.is_empty(),
+        }
+        (verdict(&findings, undecided), findings, now)
+    }
+
+    /// Does `side`, to move on `board`, have a forced win: a VCF (a five counts, as a VCF of
+    /// length 0), else a VCT?
+    fn win_of(&mut self, board: &Board, side: Stone) -> Answer {
+        win_of(
+            self.solver,
+            board,
+            side,
+            self.budget,
+            self.stop,
+            &mut self.nodes,
+        )
+    }
+
+    fn kept_win(&mut self, before: &Board, after: &Board, me: Stone, m: Point) -> Verdict {
+        kept_win(
+            self.solver,
+            before,
+            after,
+            me,
+            m,
+            self.budget,
+            self.stop,
+            &mut self.nodes,
+        )
+    }
+}
+
+fn verdict(findings: &[Finding], undecided: bool) -> MoveVerdict {
+    if !findings.is_empty() {
+        MoveVerdict::Finding
+    } else if undecided {
+        MoveVerdict::Undecided
+    } else {
+        MoveVerdict::Fine
+    }
+}
+
+/// Every defence `defender` (to move on `board`) has against the opponent's forced win, asked
+/// with `budget`: the defences proved, and whether the list is complete (every move that could
+/// defend was tried, see [`crate::search::Defences::complete`], and none was left unknown);
+/// `None` when the budget proved no threat or no defence.
+pub fn every_defence(
+    solver: &mut Solver,
+    board: &Board,
+    defender: Stone,
+    budget: Budget,
+    stop: Option<StopCheck>,
+) -> Option<(Vec<Point>, bool)> {
+    let mut ask = solver.ask(budget);
+    if let Some(s) = stop {
+        ask = ask.watch(s);
+    }
+    let d = ask.defences(board, defender, Mode::Vct);
+    let complete = d.complete && d.moves.unknown.is_empty();
+    (d.threat == Verdict::Win && !d.moves.proved.is_empty()).then_some((d.moves.proved, complete))
+}
+
+/// The puzzle a finding makes from `board` (the position after the finding's
+/// [`Finding::at`] moves), made and proved by the generator's own analysis; `None` when the
+/// generator's filters would not keep the position.
+pub fn finding_puzzle(solver: &mut Solver, board: &Board, aim: PuzzleAim) -> Option<Puzzle> {
+    match aim {
+        PuzzleAim::Win { side, mode } => win_puzzle(solver, board, side, mode),
+        PuzzleAim::Defend { side } => analyse(solver, board, side, Theme::Defend),
+    }
 }
 
 /// Does `side`, to move on `board`, have a forced win: a VCF (a five counts, as a VCF of
@@ -591,30 +809,20 @@ fn kept_win(
     out
 }
 
-/// The finding's position as a puzzle, made and proved by the generator's own analysis.
-fn puzzle_of(solver: &mut Solver, f: &Finding, before: &Board, after: &Board) -> Option<Puzzle> {
-    match &f.kind {
-        FindingKind::MissedWin { win } => win_puzzle(solver, before, win),
-        FindingKind::Blunder { win } => win_puzzle(solver, after, win),
-        FindingKind::MissedDefence { .. } => analyse(solver, before, f.colour, Theme::Defend),
-        FindingKind::ForbiddenPoint { .. } => None,
-    }
-}
-
 /// The themes a win can be a puzzle of, the most specific first.
-fn win_puzzle(solver: &mut Solver, board: &Board, win: &ForcedWin) -> Option<Puzzle> {
+fn win_puzzle(solver: &mut Solver, board: &Board, side: Stone, mode: Mode) -> Option<Puzzle> {
     let mut themes = Vec::new();
     if board.rule() == Rule::Renju {
-        themes.push(match win.side {
+        themes.push(match side {
             Stone::White => Theme::ForbiddenTrap,
             Stone::Black => Theme::ForbiddenWin,
         });
     }
-    match win.mode {
+    match mode {
         Mode::Vcf => themes.extend([Theme::FourThree, Theme::Vcf]),
         Mode::Vct => themes.push(Theme::Vct),
     }
     themes
         .into_iter()
-        .find_map(|t| analyse(solver, board, win.side, t))
+        .find_map(|t| analyse(solver, board, side, t))
 }

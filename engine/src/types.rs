@@ -55,6 +55,14 @@ impl serde::Serialize for Stone {
     }
 }
 
+/// And reads back from its name (a name that does not parse is the reader's error).
+impl<'de> serde::Deserialize<'de> for Stone {
+    fn deserialize<D: serde::Deserializer<'de>>(d: D) -> Result<Self, D::Error> {
+        let name = String::deserialize(d)?;
+        name.trim().parse().map_err(serde::de::Error::custom)
+    }
+}
+
 impl fmt::Display for Stone {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         f.write_str(self.name())

@@ -526,8 +526,11 @@ pub fn finding(f: &Finding) -> String {
             threat,
             defences,
             complete,
+            all,
         } => {
             let stops = match defences.len() {
+                1 if !*all => format!("A defence was {}.", defences[0]),
+                _ if !*all => format!("Defences included {}.", commas(defences)),
                 1 if *complete => format!("The only defence was {}.", defences[0]),
                 1 => format!("The defence found was {}.", defences[0]),
                 _ => format!("The defences were {}.", commas(defences)),
@@ -559,25 +562,44 @@ pub fn finding(f: &Finding) -> String {
 /// A review in one sentence: "60 moves checked: 3 findings, 1 move undecided."
 pub fn review_summary(r: &GameReview) -> String {
     let (_, _, undecided) = r.counts();
-    let findings = r.findings().count();
-    let checked = r.moves.len();
+    let unchecked = r.unchecked();
+    review_counts(
+        r.moves.len() - unchecked,
+        r.findings().count(),
+        undecided,
+        r.stopped.then_some(unchecked),
+    )
+}
+
+/// A review in one sentence from its counts: moves checked, findings, moves undecided, and,
+/// when the check was stopped, the moves not checked.
+pub fn review_counts(
+    checked: usize,
+    findings: usize,
+    undecided: usize,
+    unchecked: Option<usize>,
+) -> String {
+    let n = |k: usize| k.min(u16::MAX as usize) as u16;
     let mut out = format!(
         "{} checked: {}",
-        count(checked as u16, "move", "moves"),
+        count(n(checked), "move", "moves"),
         match findings {
             0 => "nothing found".to_string(),
-            k => count(k as u16, "finding", "findings"),
+            k => count(n(k), "finding", "findings"),
         }
     );
     if undecided > 0 {
         out.push_str(&format!(
             ", {} undecided",
-            count(undecided as u16, "move", "moves")
+            count(n(undecided), "move", "moves")
         ));
     }
     out.push('.');
-    if r.stopped {
-        out.push_str(" The check was stopped: the moves not reached are undecided.");
+    if let Some(left) = unchecked {
+        out.push_str(&format!(
+            " The check was stopped: {} not checked.",
+            count(n(left), "move", "moves")
+        ));
     }
     out
 }

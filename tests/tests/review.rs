@@ -13,7 +13,8 @@
 //! which is the blunder the renju game shows.
 //!
 //! Every game is on 15x15, checked with three million nodes per question, so that no move of
-//! these short games is left undecided; each finding's puzzle is re-proved the way
+//! these short games is left undecided; every missed defence's list is then completed and the
+//! findings' puzzles made (as a player asks for them), and each puzzle is re-proved the way
 //! `fivefold verify` re-proves a set.
 
 use engine::formats::games::GameRecord;
@@ -28,27 +29,56 @@ fn pts(text: &str) -> Vec<engine::Point> {
     text.split_whitespace().map(p).collect()
 }
 
+/// The review, then (as a player asks for them) every defence of a missed defence and the
+/// findings' puzzles.
 fn check(moves: &str, rule: Rule) -> GameReview {
     let points = pts(moves);
     let record = GameRecord::new(15, points).unwrap();
     let mut solver = Solver::default();
     let mut heard = Vec::new();
-    let r = review(
+    let budget = Budget::total(3_000_000);
+    let mut r = review(
         &mut solver,
         &record,
         rule,
-        Budget::total(3_000_000),
+        budget,
         None,
-        |p: ReviewProgress| heard.push((p.checked, p.total)),
+        |p: ReviewProgress| heard.push((p.checked, p.total, p.latest)),
     )
     .unwrap();
-    // Progress is heard once a move, in order, ending at the total.
+    // Progress is heard once a move, in order, ending at the total, with the move as checked.
     let n = r.moves.len();
     assert_eq!(heard.len(), n);
-    assert!(heard
-        .iter()
-        .enumerate()
-        .all(|(i, &(c, t))| c == i + 1 && t == n));
+    for (i, (c, t, latest)) in heard.iter().enumerate() {
+        assert_eq!((*c, *t), (i + 1, n));
+        assert_eq!(latest, &r.moves[i]);
+    }
+    // The check makes no puzzle, and a missed defence holds one proved defence.
+    assert!(r.findings().all(|f| f.puzzle.is_none()));
+    let first: Vec<_> = r
+        .findings()
+        .filter_map(|f| match &f.kind {
+            FindingKind::MissedDefence { defences, .. } => Some((f.number, defences.clone())),
+            _ => None,
+        })
+        .collect();
+    assert!(first.iter().all(|(_, d)| d.len() == 1), "{first:?}");
+    r.list_defences(&mut solver, budget);
+    let mut done = Vec::new();
+    r.make_puzzles(&mut solver, None, None, |k, of| done.push((k, of)));
+    assert!(done.iter().enumerate().all(|(i, &(k, _))| k == i + 1));
+    // The defence the check found is one of the list.
+    for f in r.findings() {
+        if let FindingKind::MissedDefence { defences, all, .. } = &f.kind {
+            assert!(all, "move {}", f.number);
+            let (_, d) = first.iter().find(|(n, _)| *n == f.number).unwrap();
+            assert!(
+                defences.contains(&d[0]),
+                "move {}: {d:?} {defences:?}",
+                f.number
+            );
+        }
+    }
     r
 }
 
@@ -181,6 +211,7 @@ fn a_missed_only_defence() {
             threat,
             defences,
             complete,
+            ..
         } => {
             assert!(threat.is_five());
             assert_eq!(defences, &vec![p("l8")]);
@@ -276,7 +307,7 @@ fn a_game_with_no_finding() {
 }
 
 #[test]
-fn a_stopped_review_leaves_the_rest_undecided_and_a_move_after_five_is_refused() {
+fn a_stopped_review_keeps_what_it_checked_and_a_move_after_five_is_refused() {
     let points = pts("h8 g8 i8 i9 j8 h7 k10 l10 k9 c3");
     let record = GameRecord::new(15, points).unwrap();
     let mut solver = Solver::default();
@@ -292,14 +323,40 @@ fn a_stopped_review_leaves_the_rest_undecided_and_a_move_after_five_is_refused()
     .unwrap();
     assert!(r.stopped);
     assert_eq!(r.moves.len(), 10);
-    assert!(r.moves.iter().all(|m| m.verdict == MoveVerdict::Undecided));
+    assert!(r.moves.iter().all(|m| m.verdict == MoveVerdict::Unchecked));
     assert_eq!(r.findings().count(), 0);
+    assert_eq!(
+        engine::words::review_summary(&r),
+        "0 moves checked: nothing found. The check was stopped: 10 moves not checked."
+    );
+    // Stopped once move 10 (the missed defence) has been heard: the moves before it keep
+    // their verdicts, move 10 is not checked.
+    let heard = std::cell::Cell::new(0usize);
+    let stop_late = |_: u64| heard.get() >= 9;
+    let r = review(
+        &mut solver,
+        &record,
+        Rule::Freestyle,
+        Budget::total(3_000_000),
+        Some(&stop_late),
+        |p| heard.set(p.checked),
+    )
+    .unwrap();
+    assert!(r.stopped);
+    assert_eq!(r.unchecked(), 1);
+    assert_eq!(r.moves[9].verdict, MoveVerdict::Unchecked);
+    assert_eq!(r.counts(), (9, 0, 0));
+    assert_eq!(
+        engine::words::review_summary(&r),
+        "9 moves checked: nothing found. The check was stopped: 1 move not checked."
+    );
     // A tiny budget decides nothing it cannot prove: no move is called fine or a finding
     // unless proved (here the early quiet moves are cheap to prove; the rest is undecided
     // or proved, never contradicted).
+    // (A fresh solver: the tables of the reviews above would answer from memory.)
     let full = check("h8 g8 i8 i9 j8 h7 k10 l10 k9 c3", Rule::Freestyle);
     let small = review(
-        &mut solver,
+        &mut Solver::default(),
         &record,
         Rule::Freestyle,
         Budget::total(200),

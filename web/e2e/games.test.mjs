@@ -1,18 +1,25 @@
 // End-to-end: My games. A pasted hand-built game (the one of tests/tests/review.rs: Black's
 // 11. k10 makes a win with fours, White's 12. c3 misses the defence, Black's 13. m3 lets the
 // win go) is checked in the worker with progress; the timeline marks moves 12 and 13 as
-// findings; the finding's words and line are shown; its puzzle is played in Tonight, failed,
-// and is due in Revisit the next day (Playwright's clock). A bad SGF record is refused with a
-// message and nothing is loaded; a checked game is kept on the device, reopened and deleted.
+// findings; the finding's words and line are shown, and a missed defence's whole list on
+// request; its puzzle is made when asked for, played in Tonight, failed, and is due in
+// Revisit the next day (Playwright's clock). A bad SGF record is refused with a message and
+// nothing is loaded; a checked game is kept on the device, reopened and deleted. A check
+// stopped half-way keeps the moves it checked; a game played out on the Study board is
+// checked in My games; and the single-file build checks a game from a file:// URL.
 
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
-import { artefact, boardState, context, ready, tap, useBrowser, wrongMove, PHONE, DESKTOP } from './support.mjs';
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
+import { artefact, boardState, context, ready, tap, useBrowser, wrongMove, DIST, PHONE, DESKTOP } from './support.mjs';
 
 const env = useBrowser();
 const GAME = 'h8 g8 i8 i9 j8 h7 i7 j6 h6 g5 k10 c3 m3 k8';
 const DAY = 86_400_000;
 const START = new Date('2026-12-02T10:00:00');
+const SIXTY = readFileSync(new URL('../../engine/benches/data/sixty_moves.txt', import.meta.url), 'utf8');
 
 async function openAt(when, options) {
   const c = await context(env.browser, options);
@@ -95,18 +102,32 @@ test('a pasted game is checked, its missed win is shown and played as a puzzle, 
   assert.match(await page.textContent('#games-line-at'), /^Line: 2 of 7: White/);
   await artefact(page, 'games-desktop-line');
 
-  // Saved on the device, with the set of Black's one puzzle.
-  const saved = await storedGames(page);
+  // Move 12, White's missed defence: the check proved one defence; the whole list on request.
+  await page.click('#games-timeline .mark[data-move="12"]');
+  assert.match(await page.textContent('#games-finding'), /White's c3 does not stop it\. A defence was (k8|k9|l8|l10)\./);
+  await page.click('#games-finding [data-defences="12"]');
+  await page.waitForFunction(() => document.getElementById('games-finding').textContent.includes('The defences were k8, k9, l8, l10.'));
+  assert.equal(await page.locator('#games-finding [data-defences]').count(), 0);
+  await artefact(page, 'games-desktop-defences');
+
+  // Saved on the device; the puzzles are not made until asked for.
+  let saved = await storedGames(page);
   assert.equal(saved.length, 1);
+  assert.equal(saved[0].made, false);
+  assert.equal(saved[0].set, null);
+  assert.match(saved[0].findings[0].words, /The defences were k8, k9, l8, l10\./);
+  assert.match(await page.textContent('#games-puzzles'), /become puzzles when you play or save them/);
+
+  // Made (Black's one puzzle), played in Tonight, and failed.
+  await page.click('#games-play');
+  await page.waitForSelector('#tonight-board[data-mode="puzzle"]', { timeout: 60000 });
+  saved = await storedGames(page);
+  assert.equal(saved[0].made, true);
   const set = JSON.parse(saved[0].set);
   assert.equal(set.puzzles.length, 1);
   assert.match(set.title, /^From my games: Harbour Street Circle, round 3$/);
   const puzzle = set.puzzles[0];
   assert.equal(puzzle.to_move, 'black');
-
-  // Played in Tonight, and failed.
-  await page.click('#games-play');
-  await page.waitForSelector('#tonight-board[data-mode="puzzle"]');
   assert.equal(await page.textContent('#tonight-set-title'), set.title);
   await tap(page, 'tonight-board', wrongMove(puzzle));
   await page.waitForSelector('#tonight-board[data-state="failed"][data-pending="0"]', { timeout: 30000 });
@@ -166,6 +187,91 @@ test('a bad SGF record is refused and nothing is loaded; a checked game is kept,
   await page.click('#games-saved li button:has-text("Delete")');
   assert.equal(await page.locator('#games-saved li').count(), 0);
   assert.deepEqual(await storedGames(page), []);
+  assert.deepEqual(errors, []);
+  await ctx.close();
+});
+
+test('a stopped check keeps the moves it checked, the rest marked not checked (phone)', async () => {
+  const { page, context: ctx, errors } = await openAt(START, PHONE);
+  await goGames(page);
+  await page.fill('#games-text', SIXTY);
+  await page.click('#games-read');
+  await page.waitForSelector('#games-setup:not([hidden])');
+  await page.selectOption('#games-player', 'both');
+  // Stop as soon as the fifth move is heard (from inside the page, so that the worker is
+  // still checking when it is stopped).
+  await page.evaluate(() => {
+    const text = document.getElementById('games-busy-text');
+    new MutationObserver((_, o) => {
+      if (/Checked 5 of 60/.test(text.textContent)) {
+        o.disconnect();
+        document.getElementById('games-cancel').click();
+      }
+    }).observe(text, { childList: true, characterData: true, subtree: true });
+  });
+  await page.click('#games-check');
+  await page.waitForSelector('#games-view:not([hidden])', { timeout: 60000 });
+  const [g] = await storedGames(page);
+  assert.equal(g.stopped, true);
+  const checked = g.verdicts.filter((v) => v !== 'unchecked').length;
+  assert.ok(checked >= 5 && checked < 60, `${checked} moves kept`);
+  assert.deepEqual(g.verdicts.slice(checked), Array(60 - checked).fill('unchecked'), 'the moves checked are the first ones');
+  assert.ok(g.findings.every((f) => f.number <= checked));
+  assert.match(await page.textContent('#games-summary'), new RegExp(`^${checked} moves checked: .*The check was stopped: ${60 - checked} moves not checked\\.$`));
+  assert.equal(await page.locator('#games-timeline .mark[data-verdict="unchecked"]').count(), 60 - checked);
+  await page.click('#games-timeline .mark[data-move="60"]');
+  assert.match(await page.textContent('#games-finding'), /Move 60 was not checked/);
+  await artefact(page, 'games-phone-stopped');
+  assert.deepEqual(errors, []);
+  await ctx.close();
+});
+
+test('a game played out on the Study board is checked in My games', async () => {
+  const { page, context: ctx, errors } = await openAt(START, DESKTOP);
+  await page.click('[data-go="study"]');
+  // A position set up with the colour tools is no game.
+  await page.click('#study-tools label:has-text("White")');
+  await tap(page, 'study-board', 'a1');
+  await page.click('#study-to-games');
+  assert.match(await page.textContent('#study-message'), /Only a game played out from an empty board/);
+  await page.click('#study-clear');
+  await page.selectOption('#study-rule', 'standard');
+  await page.click('#study-tools label:has-text("Play")');
+  await page.fill('#study-moves', GAME.split(' ').slice(0, 12).join(' '));
+  await page.click('#study-setup');
+  await tap(page, 'study-board', 'm3');
+  await tap(page, 'study-board', 'k8');
+  await page.click('#study-to-games');
+  await page.waitForSelector('#games:not([hidden]) #games-setup:not([hidden])');
+  assert.match(await page.textContent('#games-note'), /Read one game from the Study board/);
+  assert.equal(await page.textContent('#games-setup-title'), 'A game of 14 moves');
+  assert.equal(await page.inputValue('#games-rule'), 'standard');
+  await page.selectOption('#games-player', 'black');
+  await page.click('#games-check');
+  await page.waitForSelector('#games-view:not([hidden])', { timeout: 60000 });
+  const [g] = await storedGames(page);
+  assert.deepEqual(g.moves, GAME.split(' '));
+  assert.equal(g.rule, 'standard');
+  assert.deepEqual(g.findings.map((f) => [f.number, f.kind]), [[12, 'missed-defence'], [13, 'missed-win']]);
+  await artefact(page, 'games-desktop-from-study');
+  assert.deepEqual(errors, []);
+  await ctx.close();
+});
+
+test('the single-file build checks a pasted game from a file:// URL', async () => {
+  const { page, context: ctx, errors } = await context(env.browser, PHONE);
+  await page.goto(pathToFileURL(join(DIST, 'fivefold.html')).href);
+  await ready(page);
+  await goGames(page);
+  await pasteAndCheck(page, GAME, { player: 'black' });
+  const marks = await page.$$eval('#games-timeline .mark[data-verdict="finding"]', (bs) => bs.map((b) => b.dataset.move));
+  assert.deepEqual(marks, ['12', '13']);
+  await page.click('#games-timeline .mark[data-move="13"]');
+  assert.match(await page.textContent('#games-finding'), /Move 13: Black had a win with fours/);
+  // The puzzles are made in the single file's worker too.
+  await page.click('#games-play');
+  await page.waitForSelector('#tonight-board[data-mode="puzzle"]', { timeout: 60000 });
+  await artefact(page, 'games-phone-single-file');
   assert.deepEqual(errors, []);
   await ctx.close();
 });

@@ -1,21 +1,26 @@
 //! "My games" for the page and its worker: game records read from pasted text or file bytes
-//! (our move lists or SGF, through `engine::formats::games::read_games`), and a game checked
-//! move by move (`engine::review::review`) with progress and a stop check, in the worker.
+//! (our move lists or SGF, through `engine::formats::games::read_games`), and the worker's
+//! three tasks on a game: the check move by move (`engine::review::review`, each move sent
+//! with the progress, so that a check the player stops keeps what was done), the findings'
+//! puzzles, and every defence of one missed defence (both made only when the player asks).
 //!
 //! The browser checks with [`Budget::GRADING`] for every question (the command line uses the
-//! generator's budget): a sixty-move game then takes seconds, not most of a minute, and a
-//! question that budget cannot settle leaves its move undecided, shown as undecided, never
-//! guessed. The findings' puzzles are still made and proved by the generator's own analysis
-//! with its own budget (see `engine::review`), so a puzzle from a game is as sound as a
-//! generated one.
+//! generator's budget): a question that budget cannot settle leaves its move undecided, shown
+//! as undecided, never guessed. The findings' puzzles are made and proved by the generator's
+//! own analysis with its own budget (see `engine::review`), so a puzzle from a game is as
+//! sound as a generated one.
 //!
 //! Values cross the boundary as plain objects (points as names like `h8`, colours and rules by
 //! name); the puzzles go out as set-file JSON text, like every set the page holds.
 
+use engine::board::Board;
 use engine::formats::games::{read_games, Choices, GameRecord};
 use engine::formats::setfile;
-use engine::review::{review, FindingKind, GameReview, ReviewProgress};
-use engine::search::{Budget, StopCheck};
+use engine::review::{
+    every_defence, finding_puzzle, review, Finding, FindingKind, ForcedWin, GameReview, MoveReview,
+    PuzzleAim, ReviewProgress,
+};
+use engine::search::{Budget, Mode, StopCheck};
 use engine::{words, Point, Rule, Stone};
 use serde::{Deserialize, Serialize};
 use wasm_bindgen::prelude::*;
@@ -115,6 +120,13 @@ pub struct CheckQuery {
     /// Node budget of each question; default [`BROWSER_BUDGET`] (for the tests).
     #[serde(default)]
     pub nodes: Option<u64>,
+    /// The task: "check" (the default), "puzzles" (the findings' puzzles) or "defences"
+    /// (every defence of one missed defence).
+    #[serde(default)]
+    pub task: Option<String>,
+    /// The findings, as the check gave them (tasks "puzzles" and "defences").
+    #[serde(default)]
+    pub findings: Vec<FindingJs>,
 }
 
 /// One move, checked.
@@ -126,12 +138,16 @@ pub struct MoveJs {
     pub colour: Stone,
     /// Where.
     pub point: Point,
-    /// "fine", "finding" or "undecided".
+    /// "fine", "finding", "undecided" or "unchecked".
     pub verdict: &'static str,
+    /// Its findings (sent with the progress; the whole check lists them apart).
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    pub findings: Vec<FindingJs>,
 }
 
-/// One finding, ready to show.
-#[derive(Serialize, Debug)]
+/// One finding, ready to show, and enough of it to make its puzzle or list its defences
+/// later.
+#[derive(Serialize, Deserialize, Debug, Clone, PartialEq)]
 pub struct FindingJs {
     /// The move it is about, from 1.
     pub number: usize,
@@ -140,7 +156,7 @@ pub struct FindingJs {
     /// The point played.
     pub played: Point,
     /// "missed-win", "blunder", "missed-defence" or "forbidden-point".
-    pub kind: &'static str,
+    pub kind: String,
     /// The finding in words.
     pub words: String,
     /// The game's moves before the line starts.
@@ -151,8 +167,103 @@ pub struct FindingJs {
     pub first: Stone,
     /// The proved defences (a missed defence), else empty.
     pub defences: Vec<Point>,
-    /// Whether the finding made a puzzle.
+    /// Whether `defences` is every defence (else the first found).
+    #[serde(default = "yes")]
+    pub all: bool,
+    /// Whether every move that could defend was tried.
+    #[serde(default)]
+    pub complete: bool,
+    /// The class of the win shown ("vcf" or "vct"), if any.
+    #[serde(default)]
+    pub mode: Option<String>,
+    /// The win's length in the search's measure.
+    #[serde(default)]
+    pub depth: u16,
+    /// Renju: the win ends on a point black may not take.
+    #[serde(default)]
+    pub onto: bool,
+    /// Whether the finding made a puzzle (false until the puzzles are made).
     pub puzzle: bool,
+}
+
+const fn yes() -> bool {
+    true
+}
+
+fn finding_js(f: &Finding) -> FindingJs {
+    let (line, first) = f.shown_line();
+    let (defences, all, complete) = match &f.kind {
+        FindingKind::MissedDefence {
+            defences,
+            all,
+            complete,
+            ..
+        } => (defences.clone(), *all, *complete),
+        _ => (Vec::new(), true, false),
+    };
+    let win = match &f.kind {
+        FindingKind::MissedWin { win } | FindingKind::Blunder { win } => Some(win),
+        FindingKind::MissedDefence { threat, .. } => Some(threat),
+        FindingKind::ForbiddenPoint { .. } => None,
+    };
+    FindingJs {
+        number: f.number,
+        colour: f.colour,
+        played: f.played,
+        kind: f.kind.name().into(),
+        words: words::finding(f),
+        at: f.at,
+        line: line.to_vec(),
+        first,
+        defences,
+        all,
+        complete,
+        mode: win.map(|w| w.mode_name().into()),
+        depth: win.map_or(0, |w| w.depth),
+        onto: win.is_some_and(|w| w.onto_forbidden),
+        puzzle: f.puzzle.is_some(),
+    }
+}
+
+/// The finding a [`FindingJs`] describes (a win, a blunder or a missed defence; a forbidden
+/// point has nothing to make).
+fn to_finding(f: &FindingJs) -> Result<Finding, String> {
+    let mode = match f.mode.as_deref() {
+        Some("vcf") => Mode::Vcf,
+        Some("vct") => Mode::Vct,
+        _ => {
+            return Err(format!(
+                "the finding of move {} has no class of win",
+                f.number
+            ))
+        }
+    };
+    let win = ForcedWin {
+        side: f.first,
+        mode,
+        line: f.line.clone(),
+        depth: f.depth,
+        onto_forbidden: f.onto,
+    };
+    let kind = match f.kind.as_str() {
+        "missed-win" => FindingKind::MissedWin { win },
+        "blunder" => FindingKind::Blunder { win },
+        "missed-defence" => FindingKind::MissedDefence {
+            threat: win,
+            defences: f.defences.clone(),
+            complete: f.complete,
+            all: f.all,
+        },
+        k => return Err(format!("a finding of the kind '{k}' makes nothing")),
+    };
+    Ok(Finding {
+        number: f.number,
+        colour: f.colour,
+        played: f.played,
+        kind,
+        at: f.at,
+        puzzle: None,
+    })
 }
 
 /// A game checked.
@@ -168,10 +279,6 @@ pub struct CheckedJs {
     pub findings: Vec<FindingJs>,
     /// The review in one sentence.
     pub summary: String,
-    /// The player's findings' puzzles as set-file JSON ("From my games"), or null.
-    pub set: Option<String>,
-    /// How many puzzles the set holds.
-    pub puzzles: usize,
     /// Whether the check was stopped before the end.
     pub stopped: bool,
     /// The winner of the game as played.
@@ -182,65 +289,55 @@ pub struct CheckedJs {
     pub budget: String,
 }
 
-/// The review's values as the page shows them.
-fn to_checked(r: &GameReview, player: Option<Stone>, created: &str) -> Result<CheckedJs, String> {
-    let set = r.puzzles(player, created);
-    if let Some(s) = &set {
-        setfile::check(s).map_err(|e| format!("the puzzles would not read back: {e}"))?;
+fn move_js(m: &MoveReview, with_findings: bool) -> MoveJs {
+    MoveJs {
+        number: m.number,
+        colour: m.colour,
+        point: m.point,
+        verdict: m.verdict.name(),
+        findings: if with_findings {
+            m.findings.iter().map(finding_js).collect()
+        } else {
+            Vec::new()
+        },
     }
-    let findings = r
-        .findings()
-        .map(|f| {
-            let (line, first) = f.shown_line();
-            let defences = match &f.kind {
-                FindingKind::MissedDefence { defences, .. } => defences.clone(),
-                _ => Vec::new(),
-            };
-            FindingJs {
-                number: f.number,
-                colour: f.colour,
-                played: f.played,
-                kind: f.kind.name(),
-                words: words::finding(f),
-                at: f.at,
-                line: line.to_vec(),
-                first,
-                defences,
-                puzzle: f.puzzle.is_some(),
-            }
-        })
-        .collect();
-    Ok(CheckedJs {
+}
+
+/// The review's values as the page shows them.
+fn to_checked(r: &GameReview) -> CheckedJs {
+    CheckedJs {
         rule: r.rule,
         size: r.size,
-        moves: r
-            .moves
-            .iter()
-            .map(|m| MoveJs {
-                number: m.number,
-                colour: m.colour,
-                point: m.point,
-                verdict: m.verdict.name(),
-            })
-            .collect(),
-        findings,
+        moves: r.moves.iter().map(|m| move_js(m, false)).collect(),
+        findings: r.findings().map(finding_js).collect(),
         summary: words::review_summary(r),
-        puzzles: set.as_ref().map_or(0, |s| s.puzzles.len()),
-        set: set.as_ref().map(setfile::to_json),
         stopped: r.stopped,
         winner: r.winner,
         nodes: r.nodes as f64,
         budget: words::searched(r.budget.total) + " at most per question",
-    })
+    }
 }
 
-/// Checks a game: the plain Rust behind [`check_game`], with the progress callback and stop
-/// check as closures (natively testable).
-pub fn check(
-    q: &CheckQuery,
-    stop: Option<StopCheck>,
-    progress: impl FnMut(ReviewProgress),
-) -> Result<CheckedJs, String> {
+/// The findings' puzzles, made on request.
+#[derive(Serialize, Debug)]
+pub struct PuzzlesJs {
+    /// The player's findings' puzzles as set-file JSON ("From my games"), or null.
+    pub set: Option<String>,
+    /// How many puzzles the set holds.
+    pub puzzles: usize,
+    /// For each finding sent, whether it made a puzzle.
+    pub made: Vec<bool>,
+}
+
+/// Every defence of one missed defence, on request.
+#[derive(Serialize, Debug)]
+pub struct DefencesJs {
+    /// The finding with its whole list (and its words saying so).
+    pub finding: FindingJs,
+}
+
+/// A query's rule, player, record and budget.
+fn parts(q: &CheckQuery) -> Result<(Rule, Option<Stone>, GameRecord, Budget), String> {
     let rule: Rule = q.rule.parse().map_err(|e| format!("{e}"))?;
     let player = match q.player.as_deref() {
         None | Some("both") => None,
@@ -258,17 +355,129 @@ pub fn check(
     let budget = q.nodes.map_or(BROWSER_BUDGET, |n| {
         Budget::total(n.clamp(1_000, BROWSER_BUDGET.total))
     });
-    let r = with_solver(|s| review(s, &record, rule, budget, stop, progress))
-        .map_err(|e| e.to_string())?;
-    to_checked(&r, player, &q.created)
+    Ok((rule, player, record, budget))
 }
 
-/// Checks a game move by move (in the worker): `query` is `{size, rule, moves, player,
-/// created, nodes}`; returns `{rule, size, moves: [{number, colour, point, verdict}],
-/// findings: [{number, colour, played, kind, words, at, line, first, defences, puzzle}],
-/// summary, set, puzzles, stopped, winner, nodes, budget}`. `progress(checked, total)` is
-/// called after every move; `stop()`, if given, is polled during the searches and ends the
-/// check when it returns true (the moves not reached are undecided).
+/// The position after a game's first `at` moves (which the rule must allow).
+fn position(record: &GameRecord, rule: Rule, at: usize) -> Result<Board, String> {
+    let first = GameRecord::new(
+        record.size(),
+        record.moves()[..at.min(record.moves().len())].to_vec(),
+    )
+    .map_err(|e| e.to_string())?;
+    let game = first.replay(rule).map_err(|e| e.to_string())?;
+    Ok(game.board().clone())
+}
+
+/// Checks a game: the plain Rust behind [`check_game`]'s task "check", with the progress
+/// callback (moves checked, of all, the move just checked) and stop check as closures
+/// (natively testable).
+pub fn check(
+    q: &CheckQuery,
+    stop: Option<StopCheck>,
+    mut progress: impl FnMut(usize, usize, MoveJs),
+) -> Result<CheckedJs, String> {
+    let (rule, _, record, budget) = parts(q)?;
+    let r = with_solver(|s| {
+        review(s, &record, rule, budget, stop, |p: ReviewProgress| {
+            progress(p.checked, p.total, move_js(&p.latest, true))
+        })
+    })
+    .map_err(|e| e.to_string())?;
+    Ok(to_checked(&r))
+}
+
+/// The findings' puzzles (the player's, or both sides' when the query's player is "both"):
+/// [`check_game`]'s task "puzzles". `progress(done, of)` hears after each finding.
+pub fn puzzles(
+    q: &CheckQuery,
+    mut progress: impl FnMut(usize, usize),
+) -> Result<PuzzlesJs, String> {
+    let (rule, player, record, _) = parts(q)?;
+    let total = q.findings.len();
+    let mut made = Vec::with_capacity(total);
+    let mut list: Vec<engine::puzzle::Puzzle> = Vec::new();
+    for (k, f) in q.findings.iter().enumerate() {
+        let mut got = None;
+        if player.is_none_or(|s| s == f.colour) && f.kind != "forbidden-point" {
+            let aim = to_finding(f)?.aim();
+            if f.at > record.moves().len() {
+                return Err(format!(
+                    "the finding of move {} is past the game's end",
+                    f.number
+                ));
+            }
+            let board = position(&record, rule, f.at)?;
+            got = aim.and_then(|aim: PuzzleAim| with_solver(|s| finding_puzzle(s, &board, aim)));
+        }
+        made.push(got.is_some());
+        if let Some(p) = got {
+            if !list.iter().any(|q| q.id == p.id) {
+                list.push(p);
+            }
+        }
+        progress(k + 1, total);
+    }
+    let set = (!list.is_empty()).then(|| setfile::PuzzleSet {
+        title: engine::review::SET_TITLE.to_string(),
+        created: q.created.clone(),
+        puzzles: list,
+        generator: None,
+    });
+    if let Some(s) = &set {
+        setfile::check(s).map_err(|e| format!("the puzzles would not read back: {e}"))?;
+    }
+    Ok(PuzzlesJs {
+        puzzles: set.as_ref().map_or(0, |s| s.puzzles.len()),
+        set: set.as_ref().map(setfile::to_json),
+        made,
+    })
+}
+
+/// Every defence of the query's one finding, a missed defence: [`check_game`]'s task
+/// "defences". The finding comes back with its whole list and its words, or unchanged when
+/// the budget proved no more.
+pub fn defences(q: &CheckQuery, stop: Option<StopCheck>) -> Result<DefencesJs, String> {
+    let (rule, _, record, budget) = parts(q)?;
+    let [f] = q.findings.as_slice() else {
+        return Err("one finding at a time".into());
+    };
+    if f.kind != "missed-defence" || f.at > record.moves().len() {
+        return Err(format!("move {} holds no missed defence", f.number));
+    }
+    let mut finding = to_finding(f)?;
+    let board = position(&record, rule, f.at)?;
+    if let Some((list, done)) = with_solver(|s| every_defence(s, &board, f.colour, budget, stop)) {
+        if let FindingKind::MissedDefence {
+            defences,
+            complete,
+            all,
+            ..
+        } = &mut finding.kind
+        {
+            *defences = list;
+            *complete = done;
+            *all = true;
+        }
+    }
+    Ok(DefencesJs {
+        finding: finding_js(&finding),
+    })
+}
+
+/// A game's task in the worker. `query` is `{size, rule, moves, player, created, nodes,
+/// task, findings}`:
+/// * task "check" (the default): checks the game move by move; returns `{rule, size, moves:
+///   [{number, colour, point, verdict}], findings: [{number, colour, played, kind, words, at,
+///   line, first, defences, all, complete, mode, depth, onto, puzzle}], summary, stopped,
+///   winner, nodes, budget}`; `progress(checked, total, move)` is called after every move with
+///   the move as checked (`{number, colour, point, verdict, findings}`);
+/// * task "puzzles": makes the puzzles of `findings`; returns `{set, puzzles, made}`;
+///   `progress(done, total)` after each finding;
+/// * task "defences": every defence of the one missed defence in `findings`; returns
+///   `{finding}`.
+///
+/// `stop()`, if given, is polled during the searches and ends the work when it returns true.
 #[wasm_bindgen(js_name = checkGame)]
 pub fn check_game(
     query: JsValue,
@@ -287,17 +496,56 @@ pub fn check_game(
                 .and_then(|f| f.call0(&JsValue::NULL).ok())
                 .is_some_and(|v| v.is_truthy())
     };
-    let out = check(&q, stop.as_ref().map(|_| &stop_check as StopCheck), |p| {
+    let stop_check = stop.as_ref().map(|_| &stop_check as StopCheck);
+    let tell = |a: u32, b: u32, m: Option<&MoveJs>| -> Result<(), JsValue> {
         if let Some(f) = &progress {
-            let _ = f.call2(
-                &JsValue::NULL,
-                &JsValue::from(p.checked as u32),
-                &JsValue::from(p.total as u32),
-            );
+            let m = match m {
+                Some(m) => crate::boards::to_js(m)?,
+                None => JsValue::UNDEFINED,
+            };
+            let _ = f.call3(&JsValue::NULL, &JsValue::from(a), &JsValue::from(b), &m);
         }
-    })
-    .map_err(err)?;
-    crate::boards::to_js(&out)
+        Ok(())
+    };
+    match q.task.as_deref().unwrap_or("check") {
+        "check" => {
+            let out = check(&q, stop_check, |c, t, m| {
+                let _ = tell(c as u32, t as u32, Some(&m));
+            })
+            .map_err(err)?;
+            crate::boards::to_js(&out)
+        }
+        "puzzles" => {
+            let out = puzzles(&q, |d, t| {
+                let _ = tell(d as u32, t as u32, None);
+            })
+            .map_err(err)?;
+            crate::boards::to_js(&out)
+        }
+        "defences" => crate::boards::to_js(&defences(&q, stop_check).map_err(err)?),
+        t => Err(err(format!("unknown task '{t}'"))),
+    }
+}
+
+/// The sentence for a check the player stopped, from the verdicts of the moves it kept
+/// ("fine", "finding", "undecided"; the rest of the game's `total` moves were not checked)
+/// and its findings' count.
+#[wasm_bindgen(js_name = stoppedSummary)]
+pub fn stopped_summary(verdicts: Vec<String>, findings: usize, total: usize) -> String {
+    let undecided = verdicts.iter().filter(|v| *v == "undecided").count();
+    let checked = verdicts.iter().filter(|v| *v != "unchecked").count();
+    words::review_counts(
+        checked,
+        findings,
+        undecided,
+        Some(total.saturating_sub(checked)),
+    )
+}
+
+/// The browser's budget per question, in words (as a check's `budget` says it).
+#[wasm_bindgen(js_name = checkBudget)]
+pub fn check_budget() -> String {
+    words::searched(BROWSER_BUDGET.total) + " at most per question"
 }
 
 #[cfg(test)]
@@ -316,6 +564,8 @@ mod tests {
             player: player.map(String::from),
             created: "2026-12-01".into(),
             nodes: None,
+            task: None,
+            findings: Vec::new(),
         }
     }
 
@@ -347,14 +597,24 @@ mod tests {
     }
 
     #[test]
-    fn the_missed_win_is_found_at_the_browser_budget_and_makes_the_players_puzzle() {
+    fn the_missed_win_is_found_at_the_browser_budget_and_makes_the_players_puzzle_on_request() {
         let mut heard = Vec::new();
-        let r = check(&query(MISSED_VCF, Some("black")), None, |p| {
-            heard.push((p.checked, p.total))
+        let r = check(&query(MISSED_VCF, Some("black")), None, |c, t, m| {
+            heard.push((c, t, m))
         })
         .unwrap();
-        assert_eq!(heard.last(), Some(&(14, 14)));
-        let found: Vec<_> = r.findings.iter().map(|f| (f.number, f.kind)).collect();
+        assert_eq!(heard.len(), 14);
+        assert_eq!((heard[13].0, heard[13].1), (14, 14));
+        // Each move comes with its verdict and findings as it is checked.
+        assert_eq!(heard[11].2.verdict, "finding");
+        assert_eq!(heard[11].2.findings[0].kind, "missed-defence");
+        assert_eq!(heard[12].2.findings, vec![r.findings[1].clone()]);
+        assert!(heard[10].2.findings.is_empty());
+        let found: Vec<_> = r
+            .findings
+            .iter()
+            .map(|f| (f.number, f.kind.as_str()))
+            .collect();
         assert_eq!(found, vec![(12, "missed-defence"), (13, "missed-win")]);
         assert_eq!(r.moves[12].verdict, "finding");
         let f = &r.findings[1];
@@ -364,26 +624,61 @@ mod tests {
             f.words
         );
         assert_eq!((f.at, f.line.len(), f.first), (12, 7, Stone::Black));
-        // Only Black's finding goes into Black's set.
-        assert_eq!(r.puzzles, 1);
-        let set = setfile::parse(r.set.as_deref().unwrap()).unwrap();
+        assert_eq!(
+            (f.mode.as_deref(), f.depth, f.puzzle),
+            (Some("vcf"), 3, false)
+        );
+        // The puzzles, on request: only Black's finding goes into Black's set.
+        let mut q = query(MISSED_VCF, Some("black"));
+        q.task = Some("puzzles".into());
+        q.findings = r.findings.clone();
+        let mut done = Vec::new();
+        let p = puzzles(&q, |d, t| done.push((d, t))).unwrap();
+        assert_eq!(done, vec![(1, 2), (2, 2)]);
+        assert_eq!((p.puzzles, p.made.clone()), (1, vec![false, true]));
+        let set = setfile::parse(p.set.as_deref().unwrap()).unwrap();
         assert_eq!(set.title, "From my games");
         assert_eq!(set.puzzles[0].to_move, Stone::Black);
         // White's findings made no puzzle.
-        let w = check(&query(MISSED_VCF, Some("white")), None, |_| {}).unwrap();
+        q.player = Some("white".into());
+        let w = puzzles(&q, |_, _| {}).unwrap();
         assert_eq!((w.puzzles, w.set.is_none()), (0, true));
+        // Every defence of White's missed defence, on request: four, where the check found
+        // one.
+        let d = &r.findings[0];
+        assert_eq!((d.defences.len(), d.all), (1, false));
+        assert!(d.words.contains("A defence was"), "{}", d.words);
+        q.findings = vec![d.clone()];
+        let all = defences(&q, None).unwrap().finding;
+        assert_eq!(all.defences.len(), 4);
+        assert!(all.all && all.defences.contains(&d.defences[0]));
+        assert!(
+            all.words.contains("The defences were k8, k9, l8, l10"),
+            "{}",
+            all.words
+        );
+        // A forbidden point or a made-up kind makes nothing.
+        let mut bad = d.clone();
+        bad.kind = "missed-lunch".into();
+        q.findings = vec![bad];
+        assert!(defences(&q, None).is_err());
     }
 
     #[test]
-    fn a_stopped_check_leaves_moves_undecided_and_bad_queries_are_refused() {
+    fn a_stopped_check_keeps_no_move_it_did_not_finish_and_bad_queries_are_refused() {
         let stop = |_: u64| true;
-        let r = check(&query(MISSED_VCF, None), Some(&stop), |_| {}).unwrap();
+        let r = check(&query(MISSED_VCF, None), Some(&stop), |_, _, _| {}).unwrap();
         assert!(r.stopped);
-        assert!(r.moves.iter().all(|m| m.verdict == "undecided"));
+        assert!(r.moves.iter().all(|m| m.verdict == "unchecked"));
         assert!(r.findings.is_empty());
-        assert!(check(&query("h8 h8", None), None, |_| {}).is_err());
+        assert!(check(&query("h8 h8", None), None, |_, _, _| {}).is_err());
         let mut q = query(MISSED_VCF, None);
         q.rule = "chess".into();
-        assert!(check(&q, None, |_| {}).is_err());
+        assert!(check(&q, None, |_, _, _| {}).is_err());
+        let kept: Vec<String> = ["fine", "fine", "finding"].map(String::from).into();
+        assert_eq!(
+            stopped_summary(kept, 1, 14),
+            "3 moves checked: 1 finding. The check was stopped: 11 moves not checked."
+        );
     }
 }

@@ -1,8 +1,9 @@
 // Measures My games in the browser: the built app (web/dist) in headless Chromium checks the
 // sixty-move game engine/benches/data/sixty_moves.txt (pasted, freestyle, both sides' findings
 // in the set) at the browser's budget, `runs` times in fresh pages, and prints the time from
-// "Check the game" to the game on show (worker start included), with the findings, undecided
-// moves and puzzles. Run after a build:
+// "Check the game" to the game on show (worker start included), with the findings and
+// undecided moves; then the time to make the findings' puzzles, which the app does when the
+// player asks for them (here: "Save the puzzles as a set file"). Run after a build:
 //   node web/tools/measure-games.mjs [--runs 3]
 
 import { readFileSync } from 'node:fs';
@@ -27,10 +28,16 @@ try {
     await page.click('#games-check');
     await page.waitForSelector('#games-view:not([hidden])', { timeout: 600000 });
     const secs = (Date.now() - t0) / 1000;
-    const g = await page.evaluate(() => JSON.parse(localStorage.getItem('fivefold.games')).data.list[0]);
+    const stored = () => page.evaluate(() => JSON.parse(localStorage.getItem('fivefold.games')).data.list[0]);
+    const g = await stored();
     const undecided = g.verdicts.filter((v) => v === 'undecided').length;
-    const puzzles = g.set ? JSON.parse(g.set).puzzles.length : 0;
-    console.log(`run ${i + 1}: ${secs.toFixed(1)} s; ${g.moves.length} moves, ${g.findings.length} findings, ${undecided} undecided, ${puzzles} puzzles (${g.budget})`);
+    const t1 = Date.now();
+    await page.click('#games-export');
+    await page.waitForFunction(() => JSON.parse(localStorage.getItem('fivefold.games')).data.list[0].made === true, null, { timeout: 600000 });
+    const made = (Date.now() - t1) / 1000;
+    const h = await stored();
+    const puzzles = h.set ? JSON.parse(h.set).puzzles.length : 0;
+    console.log(`run ${i + 1}: check ${secs.toFixed(1)} s; ${g.moves.length} moves, ${g.findings.length} findings, ${undecided} undecided (${g.budget}); puzzles made on request in ${made.toFixed(1)} s: ${puzzles}`);
     times.push(secs);
     await context.close();
   }

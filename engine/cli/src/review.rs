@@ -38,9 +38,14 @@ pub struct ReviewArgs {
     #[arg(long)]
     pub json: bool,
     /// Write the findings' puzzles as a set file "From my games" (written whole or not at
-    /// all; nothing is written when no finding makes a puzzle).
+    /// all; nothing is written when no finding makes a puzzle). The puzzles are made and
+    /// proved only with this option.
     #[arg(long)]
     pub out: Option<String>,
+    /// List every defence of a missed defence (the check itself stops at the first defence
+    /// it proves).
+    #[arg(long)]
+    pub all_defences: bool,
     /// Only the findings of this colour's moves go into the set (black or white).
     #[arg(long)]
     pub player: Option<Stone>,
@@ -72,6 +77,8 @@ struct JsonFinding {
     win: Option<JsonWin>,
     #[serde(skip_serializing_if = "Option::is_none")]
     defences: Option<Vec<String>>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    all_defences: Option<bool>,
     #[serde(skip_serializing_if = "Option::is_none")]
     forbidden: Option<&'static str>,
     puzzle: Option<String>,
@@ -108,14 +115,22 @@ fn json_win(w: &ForcedWin) -> JsonWin {
 }
 
 fn json_finding(f: &Finding) -> JsonFinding {
-    let (win, defences, forbidden) = match &f.kind {
+    let (win, defences, all_defences, forbidden) = match &f.kind {
         FindingKind::MissedWin { win } | FindingKind::Blunder { win } => {
-            (Some(json_win(win)), None, None)
+            (Some(json_win(win)), None, None, None)
         }
         FindingKind::MissedDefence {
-            threat, defences, ..
-        } => (Some(json_win(threat)), Some(names(defences)), None),
-        FindingKind::ForbiddenPoint { why, .. } => (None, None, Some(why.name())),
+            threat,
+            defences,
+            all,
+            ..
+        } => (
+            Some(json_win(threat)),
+            Some(names(defences)),
+            Some(*all),
+            None,
+        ),
+        FindingKind::ForbiddenPoint { why, .. } => (None, None, None, Some(why.name())),
     };
     JsonFinding {
         number: f.number,
@@ -125,6 +140,7 @@ fn json_finding(f: &Finding) -> JsonFinding {
         words: words::finding(f),
         win,
         defences,
+        all_defences,
         forbidden,
         puzzle: f.puzzle.as_ref().map(|p| p.id.clone()),
     }
@@ -185,6 +201,23 @@ pub fn run(args: &ReviewArgs) -> Result<(), String> {
         .map_err(|e| format!("{name}: {e}"))?;
         bar.finish_and_clear();
         reviews.push((k, g.info().title.clone(), r));
+    }
+    for (_, _, r) in &mut reviews {
+        if args.all_defences {
+            r.list_defences(&mut solver, budget);
+        }
+        if args.out.is_some() {
+            let bar = out::progress(
+                r.findings().count() as u64,
+                args.quiet,
+                "{spinner} [{bar:30}] {pos}/{len} findings made into puzzles ({elapsed})",
+            );
+            r.make_puzzles(&mut solver, args.player, None, |done, of| {
+                bar.set_length(of as u64);
+                bar.set_position(done as u64);
+            });
+            bar.finish_and_clear();
+        }
     }
     if let Some(path) = &args.out {
         let created = args.created.clone().unwrap_or_else(date::today);

@@ -63,6 +63,32 @@ fn findings_in_words_json_and_a_set_that_verifies() {
     assert_eq!(g["findings"][1]["win"]["depth"], 3);
     assert_eq!(g["verdicts"][12], "finding");
     assert_eq!(g["verdicts"][0], "fine");
+    // The check proves one defence of White's missed defence; --all-defences lists them all.
+    let one = &g["findings"][0];
+    assert_eq!(one["all_defences"], false);
+    assert_eq!(one["defences"].as_array().unwrap().len(), 1);
+    assert!(one["puzzle"].is_null(), "puzzles are made with --out only");
+    let out = fivefold(&[
+        "review",
+        &path,
+        "--quiet",
+        "--json",
+        "--nodes",
+        "3000000",
+        "--all-defences",
+    ]);
+    assert!(out.status.success());
+    let v: Value = serde_json::from_slice(&out.stdout).unwrap();
+    let all = &v[0]["findings"][0];
+    assert_eq!(all["all_defences"], true);
+    assert_eq!(
+        all["defences"],
+        serde_json::json!(["k8", "k9", "l8", "l10"])
+    );
+    assert!(all["defences"]
+        .as_array()
+        .unwrap()
+        .contains(&one["defences"][0]));
 
     let set = dir.path().join("mine.json");
     let set = set.to_str().unwrap();

@@ -150,6 +150,10 @@ pub struct Defences {
     /// are the defender's fours and the points near the threat's main line, a practical bound,
     /// and a defence elsewhere cannot be ruled out.
     pub complete: bool,
+    /// Whether every candidate was tried: false when a question that stops early
+    /// ([`Asking::defences_up_to`], [`Asking::first_defence`]) stopped before the last one, so
+    /// that `moves` may miss defences.
+    pub every: bool,
     /// The threat as a main line (opponent first, ending with its five) when there is one:
     /// the opponent's shortest VCF if it has one, else its shortest VCT.
     pub line: Vec<Point>,
@@ -383,6 +387,13 @@ impl<'s, 'w> Asking<'s, 'w> {
         limit: usize,
     ) -> MoveSets {
         self.question(|q| q.winning_moves_up_to_q(board, to_move, mode, limit))
+    }
+
+    /// [`Asking::defences`] for a caller that needs one defence, not the list: stops at the
+    /// first defence proved (`moves.proved` then holds it alone, and `every` says whether the
+    /// candidates ran out there); a move whose status is unknown is passed over.
+    pub fn first_defence(&mut self, board: &Board, defender: Stone, mode: Mode) -> Defences {
+        self.question(|q| q.defences_impl(board, defender, mode, 0, false))
     }
 
     /// The opponent's forced win if `defender` (to move) passed, as a main line; empty if the
@@ -812,6 +823,7 @@ impl<'s, 'w> Asking<'s, 'w> {
             moves: MoveSets::default(),
             line: Vec::new(),
             complete: true,
+            every: true,
         };
         // The threat the defence must stop. Any defence against a VCT also stops the
         // opponent's VCF when there is one, so the VCF's candidate set is complete.
@@ -859,6 +871,7 @@ impl<'s, 'w> Asking<'s, 'w> {
             let m = m as usize;
             if out.moves.proved.len() > limit || (stop_on_unknown && !out.moves.unknown.is_empty())
             {
+                out.every = false;
                 break;
             }
             if seen[m] || !b.is_empty_at(m) {

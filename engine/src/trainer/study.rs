@@ -74,6 +74,9 @@ pub struct StudyStatus {
     pub goal: String,
     /// The points edited, in order.
     pub moves: Vec<Point>,
+    /// Whether the position is a game played out from the empty board (every edit a move of
+    /// the play tool, black first, in turn): then `moves` is its move list.
+    pub game: bool,
     /// The tool in use.
     pub tool: Tool,
     /// Black stones, row by row from a1.
@@ -377,6 +380,26 @@ impl StudyBoard {
         }
     }
 
+    /// Whether the edits are a game played out from the empty board: each a move of the play
+    /// tool on an empty point, black first and in turn, with the side to move next and no
+    /// other stone on the board.
+    fn is_game(&self) -> bool {
+        let n = self.edits.len();
+        let turn = |i: usize| {
+            if i.is_multiple_of(2) {
+                Stone::Black
+            } else {
+                Stone::White
+            }
+        };
+        n > 0
+            && self.to_move == turn(n)
+            && self.board.count(Stone::Black) + self.board.count(Stone::White) == n
+            && self.edits.iter().enumerate().all(|(i, e)| {
+                e.played && e.before.is_none() && self.board.get(e.point) == Some(turn(i))
+            })
+    }
+
     /// Where things stand.
     pub fn status(&self) -> StudyStatus {
         StudyStatus {
@@ -385,6 +408,7 @@ impl StudyBoard {
             to_move: self.to_move,
             goal: words::to_move(self.to_move),
             moves: self.edits.iter().map(|e| e.point).collect(),
+            game: self.is_game(),
             tool: self.tool,
             black: self.board.stones_of(Stone::Black),
             white: self.board.stones_of(Stone::White),
@@ -481,6 +505,30 @@ mod tests {
         assert_eq!(b.touch(p("g8"), false).kind, AnswerKind::Refused, "taken");
         assert_eq!(b.to_move(), Stone::Black);
         assert_eq!(b.status().moves.len(), 8);
+    }
+
+    #[test]
+    fn a_game_played_out_is_told_from_a_position_set_up() {
+        let mut b = StudyBoard::new(15, Rule::Freestyle).unwrap();
+        assert!(!b.status().game, "an empty board is no game");
+        for m in ["h8", "h9", "i8"] {
+            b.touch(p(m), false);
+        }
+        let s = b.status();
+        assert!(s.game);
+        assert_eq!(s.moves, vec![p("h8"), p("h9"), p("i8")]);
+        // A pasted move list is a game too.
+        b.paste("h8 i9 j10").unwrap();
+        assert!(b.status().game);
+        // A stone set with the white tool is not a move of a game.
+        b.set_tool(Tool::White);
+        b.touch(p("a1"), false);
+        assert!(!b.status().game);
+        b.undo();
+        assert!(b.status().game);
+        // Nor is a position where the side to move was changed by hand.
+        b.set_to_move(Stone::Black);
+        assert!(!b.status().game);
     }
 
     #[test]
