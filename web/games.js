@@ -5,9 +5,10 @@
 // defence's whole list are made in the worker when the player asks for them. Games checked
 // are kept on this device. Names and titles from a record are shown as text only.
 
-import { checkBudget, parseSet, readGames, stoppedSummary } from './pkg/fivefold_web.js';
+import { parseSet } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
+import { loadWorkshop } from './platform.js';
 import { save } from './store.js';
 import { $, POINT_NAME, RULES, announce, banner, bringBoard, download, el, fill, isInt, keepFocus } from './ui.js';
 
@@ -155,11 +156,25 @@ export class Games {
     this.read(new Uint8Array(await f.arrayBuffer()), `"${f.name}"`);
   }
 
+  /** The workshop module's functions (the game reader and the check's words), loaded on
+   * first use: a student who never opens My games never loads them. */
+  async workshop() {
+    try {
+      this.ws ??= await loadWorkshop();
+      return this.ws;
+    } catch (e) {
+      this.note(`My games could not start: ${e?.message ?? e}. Reload the page to try again.`, 'refused');
+      return null;
+    }
+  }
+
   /** Reads games from bytes; on an error nothing changes but the message. */
-  read(bytes, source) {
+  async read(bytes, source) {
+    const ws = await this.workshop();
+    if (!ws) return;
     let got;
     try {
-      got = readGames(bytes, Number($('games-size').value));
+      got = ws.readGames(bytes, Number($('games-size').value));
     } catch (e) {
       this.note(`${source[0].toUpperCase()}${source.slice(1)} cannot be read: ${e}. Nothing was loaded.`, 'refused');
       announce(`Not loaded: ${e}.`);
@@ -215,7 +230,7 @@ export class Games {
 
   async check() {
     const g = this.picked();
-    if (!g || this.jobs.busy) return;
+    if (!g || this.jobs.busy || !(await this.workshop())) return;
     const rule = $('games-rule').value;
     const player = $('games-player').value;
     const total = g.moves.length;
@@ -294,9 +309,9 @@ export class Games {
     return {
       moves: verdicts.map((verdict) => ({ verdict })),
       findings,
-      summary: stoppedSummary(verdicts, findings.length, g.moves.length),
+      summary: this.ws.stoppedSummary(verdicts, findings.length, g.moves.length),
       stopped: true,
-      budget: checkBudget(),
+      budget: this.ws.checkBudget(),
     };
   }
 

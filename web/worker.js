@@ -1,6 +1,7 @@
 // The app's worker, on the workshop module: generates Drill puzzles and runs Study board
-// searches off the page's thread, so the page stays responsive. Messages in: {type: "init", module} (optional: a
-// compiled wasm module, used by the single-file build), {id, type: "generate", options},
+// searches off the page's thread, so the page stays responsive. Messages in: {type: "init",
+// module} (optional: a compiled wasm module, used by the single-file build), {id, type:
+// "generate", options},
 // {id, type: "solve", query}, {id, type: "prove", puzzle}, {id, type: "review", query} (a
 // game's task: checked move by move, with progress {checked, total, move}; or its puzzles or
 // a finding's defences, query.task) and {id, type: "memory"} (the engine's linear memory in

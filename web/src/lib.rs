@@ -5,11 +5,13 @@
 //! controllers in `engine::trainer`, its sentences in `engine::words`): [`boards`] holds the
 //! two board handles (a puzzle board and a study board, each a thin shell over an engine
 //! controller and one canvas), [`api`] the plain functions (sets, share and result codes,
-//! ratings, generation and solving for the worker), [`coach`] the instructor's screen (links,
-//! QR codes, the printable sheet, the class table), [`drill`] the choice of a drill's rating
+//! ratings), [`worker`] the worker's generation and solving, [`coach`] and [`classroom`] the
+//! instructor's screen (links, the printable sheet, the class table), [`drill`] the choice of a drill's rating
 //! band, [`games`] the player's own games (read, and checked move by move in the worker),
 //! [`layout`] places the grid and [`render`] draws it, [`qr`] gives the modules of a QR
-//! code; [`bench`] times the solver's benchmark suite in the browser.
+//! code; [`bench`] times the solver's benchmark suite in the browser. [`worker`],
+//! [`classroom`], [`games`] and [`bench`] are in the workshop module only (the `workshop`
+//! feature), which the worker and the instructor's screens load; the page starts without them.
 #![deny(missing_docs)]
 
 pub mod api;
@@ -20,6 +22,7 @@ pub mod boards;
 pub mod classroom;
 pub mod coach;
 pub mod drill;
+#[cfg(feature = "workshop")]
 pub mod games;
 pub mod layout;
 pub mod library;
