@@ -45,6 +45,8 @@ fn regenerate(set: &PuzzleSet) -> String {
         count: g.count,
         rating: g.rating,
         seed: g.seed,
+        min_moves: g.min_moves,
+        unique: g.unique,
     };
     let puzzles = generate::generate(&options, |_| {}).expect("regeneration succeeds");
     setfile::to_json(&PuzzleSet {
@@ -121,14 +123,7 @@ fn a_shipped_set_regenerates_byte_for_byte() {
 
 /// The options of the fixture that the browser test regenerates too.
 pub fn fixture_options() -> Options {
-    Options {
-        theme: Theme::FourThree,
-        rule: Rule::Renju,
-        size: 15,
-        count: 3,
-        rating: (600, 2600),
-        seed: 2026,
-    }
+    Options::new(Theme::FourThree, Rule::Renju, 3, (600, 2600), 2026)
 }
 
 #[test]
