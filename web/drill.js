@@ -1,7 +1,7 @@
 // Drill: an endless stream of puzzles at the player's level, filtered by theme and rule,
 // generated a few ahead in the worker so that the next one is ready when it is wanted.
 
-import { attemptWords, drillChoice, parseSet, rateTry, themes } from './pkg/fivefold_web.js';
+import { attemptWords, drillChoice, librarySets, parseSet, rateTry, themes } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
 import { save } from './store.js';
@@ -15,6 +15,35 @@ const AHEAD = 3;
 // made for a filter stays when the filter changes, so going back to it starts at once.
 const STOCK = AHEAD + 1;
 const stockKey = (theme, rule) => `${theme}/${rule}`;
+
+// Deep lines for strong players: the starter library's deep sets (made with a minimum line
+// length; a deep puzzle takes the generator up to a minute) are Drill's stock for them, one
+// choice per kind, served nearest the player's rating first; when a player has been through
+// them all, new ones are made in the worker like any other drill.
+const DEEP_LABELS = {
+  vcf: 'Deep fours (10 to 20 fours)',
+  vct: 'Deep threats (6 to 10 threats)',
+  defend: 'Hard defences (long threats)',
+};
+const DEEP_BAND = [1900, 2600];
+
+/** The deep choices: `{name, label, rules, theme, minMoves, puzzles}` from the library. */
+function deepChoices() {
+  const out = [];
+  for (const set of JSON.parse(librarySets())) {
+    const g = set.generator;
+    if (!g || !(g.min_moves > 0) || !DEEP_LABELS[g.theme]) continue;
+    let c = out.find((x) => x.theme === g.theme);
+    if (!c) {
+      c = { name: `deep-${g.theme}`, label: DEEP_LABELS[g.theme], rules: [], theme: g.theme, minMoves: g.min_moves, puzzles: [] };
+      out.push(c);
+    }
+    if (!c.rules.includes(g.rule)) c.rules.push(g.rule);
+    c.minMoves = Math.min(c.minMoves, g.min_moves);
+    c.puzzles.push(...set.puzzles);
+  }
+  return out;
+}
 
 function checkRating(r) {
   return r === null || (r && [r.rating, r.deviation, r.volatility].every(Number.isFinite));
@@ -96,7 +125,8 @@ export class Drill {
     this.jobs = new Jobs();
     this.generating = null;
     this.active = false;
-    this.themes = JSON.parse(themes());
+    this.deep = deepChoices();
+    this.themes = [...JSON.parse(themes()), ...this.deep];
     this.board = new BoardView($('drill-board'), {
       log: $('drill-log'),
       message: $('drill-message'),
@@ -215,17 +245,40 @@ export class Drill {
     $('drill').dataset.ready = String(n);
   }
 
+  /** A deep choice: fills the queue from the library's deep puzzles not yet played here,
+   * nearest the player's rating first. False when none is left. */
+  fillDeep(deep, rule) {
+    const d = this.data;
+    const seen = new Set([...d.queue, ...(d.current ? [d.current.puzzle] : [])].map((p) => p.id));
+    for (const id of Object.keys(d.puzzleRatings ?? {})) seen.add(id);
+    const r = this.ratingFor(rule)?.rating ?? 1500;
+    const left = deep.puzzles.filter((p) => p.rule === rule && !seen.has(p.id))
+      .sort((a, b) => Math.abs(a.rating - r) - Math.abs(b.rating - r) || (a.id < b.id ? -1 : 1));
+    $('drill-band').textContent = left.length
+      ? `${deep.label}: ${left.length} from the library not yet played, rated ${DEEP_BAND[0]} and up.`
+      : `${deep.label}: every library puzzle played; new ones are made here (up to a minute each).`;
+    if (!left.length) return false;
+    d.queue.push(...left.slice(0, AHEAD - d.queue.length));
+    this.save();
+    if (!d.current) this.next();
+    this.renderQueue();
+    return true;
+  }
+
   async fill() {
     if (this.generating || this.data.queue.length >= AHEAD) return;
     const { theme, rule } = this.data;
-    const choice = drillChoice(theme, rule, this.ratingFor(rule));
+    const deep = this.deep.find((t) => t.name === theme);
+    if (deep && this.fillDeep(deep, rule)) return;
+    const choice = deep ? { low: DEEP_BAND[0], high: DEEP_BAND[1] } : drillChoice(theme, rule, this.ratingFor(rule));
     const [lo, hi] = [choice.low, choice.high];
-    $('drill-band').textContent = choice.say;
+    if (!deep) $('drill-band').textContent = choice.say;
     const job = { theme, rule };
     this.generating = job;
     this.renderQueue();
+    const kind = deep ? { theme: deep.theme, minMoves: deep.minMoves, unique: true } : { theme };
     const ask = (ratingLo, ratingHi) => this.jobs.run('generate', {
-      options: { theme, rule, size: 15, ratingLo, ratingHi, seed: randomSeed(), count: 1 },
+      options: { ...kind, rule, size: 15, ratingLo, ratingHi, seed: randomSeed(), count: 1 },
     }, (p) => {
       if (!$('drill-wait').hidden) {
         $('drill-wait-text').textContent = `Making a puzzle at your level… ${p.games} game${p.games === 1 ? '' : 's'} looked at.`;

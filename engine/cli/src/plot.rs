@@ -35,7 +35,11 @@ const GROUPS: [(&str, &str, &[Theme]); 4] = [
         ],
     ),
     ("threats (vct)", "#c2571a", &[Theme::Vct]),
-    ("defences (the threat's length)", "#2f8a4c", &[Theme::Defend]),
+    (
+        "defences (the threat's length)",
+        "#2f8a4c",
+        &[Theme::Defend],
+    ),
     ("mean rating at that length", "#222222", &[]),
 ];
 

@@ -651,7 +651,12 @@ fn parse_generator(v: &Value) -> Result<GeneratorInfo, (String, String)> {
         Some(v) => v
             .as_u64()
             .and_then(|n| u16::try_from(n).ok())
-            .ok_or_else(|| ("min_moves".to_string(), "not a small whole number".to_string()))?,
+            .ok_or_else(|| {
+                (
+                    "min_moves".to_string(),
+                    "not a small whole number".to_string(),
+                )
+            })?,
     };
     let unique = match obj.get("unique") {
         None => false,

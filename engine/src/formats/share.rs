@@ -351,7 +351,10 @@ fn body_bits(set: &PuzzleSet) -> BitWriter {
     w.put(5, number(8..10));
     // A generator block of a deep or unique-only generation has fields a version 2 code cannot
     // hold: such a block is left out rather than carried half.
-    let generator = set.generator.as_ref().filter(|g| g.min_moves == 0 && !g.unique);
+    let generator = set
+        .generator
+        .as_ref()
+        .filter(|g| g.min_moves == 0 && !g.unique);
     w.flag(generator.is_some());
     if let Some(g) = generator {
         w.var(g.seed);

@@ -32,7 +32,7 @@ pub fn moves_before_win(line: &[Point]) -> u16 {
 
 /// Takes forcing exchanges back from `board` until `attacker`'s shortest win of `mode` has at
 /// least `want` attacker moves before the winning one (and at most `max`). Returns up to
-/// `keep` such smaller positions with their lines, in the order found (none when no sequence
+/// `keep` such smaller positions with their lines, the longest first (none when no sequence
 /// of exchanges found within [`SEARCHES`] searches lengthens the win enough). A depth-first
 /// walk: every exchange whose removal lengthens the win is followed, in the board's stone
 /// order, before the next is tried, and a position reached again by the same exchanges in
@@ -67,6 +67,9 @@ pub fn deepen(
         found: Vec::new(),
     };
     walk.back(ask, board, n);
+    // Longest first; a stable sort keeps the walk's order among equals.
+    walk.found
+        .sort_by_key(|(_, line)| std::cmp::Reverse(moves_before_win(line)));
     walk.found
 }
 
@@ -129,8 +132,10 @@ impl Walk {
                     continue;
                 }
                 if m >= self.want {
-                    self.found.push((b, sol.line));
-                } else {
+                    self.found.push((b.clone(), sol.line));
+                }
+                // Deeper still, for longer lines among the ones found.
+                if m < self.max {
                     self.back(ask, &b, m);
                 }
             }

@@ -103,7 +103,10 @@ mod tests {
         let fours = |n| r(&Features { length: n, ..easy });
         assert!(fours(15) >= fours(4) + 600, "{} {}", fours(15), fours(4));
         assert!((1..20).all(|n| fours(n + 1) > fours(n)));
-        assert!(fours(20) < 2600, "a plain 20-four line leaves room for the other terms");
+        assert!(
+            fours(20) < 2600,
+            "a plain 20-four line leaves room for the other terms"
+        );
         let extreme = Features {
             length: 40,
             tempting: 99,
