@@ -38,5 +38,8 @@ deep-fours-renju        vcf             renju      12  603  1900-2600  10 Deep f
 deep-threats-freestyle  vct             freestyle  12  701  1900-2600  6  Deep threats (freestyle)
 deep-threats-standard   vct             standard   12  702  1900-2600  6  Deep threats (standard)
 deep-threats-renju      vct             renju      12  703  1900-2600  6  Deep threats (renju)
+hard-defences-freestyle defend          freestyle  6   801  1900-2600  5  Hard defences (freestyle)
+hard-defences-standard  defend          standard   6   802  1900-2600  5  Hard defences (standard)
+hard-defences-renju     defend          renju      6   803  1900-2600  5  Hard defences (renju)
 SETS
 for f in puzzles/*.json; do "$F" verify "$f" --quiet; done

@@ -171,9 +171,8 @@ fn svg(points: &[(usize, u16, u32)]) -> String {
     );
     // Legend.
     for (i, (name, colour, _)) in GROUPS.iter().enumerate() {
-        let ly = h - 52.0 + 14.0 * (i as f64 - 1.0);
-        let lx = if i % 2 == 0 { left } else { left + 360.0 };
-        let ly = if i < 2 { ly } else { ly + 16.0 };
+        let lx = left + 360.0 * (i % 2) as f64;
+        let ly = h - 56.0 + 20.0 * (i / 2) as f64;
         let _ = writeln!(
             s,
             "<rect x=\"{lx}\" y=\"{:.1}\" width=\"10\" height=\"10\" fill=\"{colour}\"/>\
