@@ -23,6 +23,10 @@ export const COACH_BANDS = [
   { name: 'strong', words: 'Strong club', lo: 1500, hi: 1900 },
   { name: 'expert', words: 'Expert', lo: 1900, hi: 2600 },
 ];
+// The Expert band makes deep lines for the themes that have them (as the library's deep sets
+// are made: at least this many attacker moves before the winning one, one answer); each such
+// puzzle takes the worker up to a minute.
+const COACH_DEEP_MOVES = { vcf: 10, vct: 6, defend: 5 };
 const COACH_MAX_PUZZLES = 40;
 const COACH_MAX_SETS = 100;
 const COACH_MAX_CODES = 2000;
@@ -429,7 +433,11 @@ export class Coach {
    * worker; resolves to the puzzle. */
   async makeOne(s, kind, index, onGames) {
     const band = COACH_BANDS.find((b) => b.name === s.band) ?? COACH_BANDS[0];
-    const options = { ...kind, ratingLo: band.lo, ratingHi: band.hi, seed: s.seed + index, count: 1 };
+    const deep = band.name === 'expert' && COACH_DEEP_MOVES[kind.theme];
+    const options = {
+      ...kind, ratingLo: band.lo, ratingHi: band.hi, seed: s.seed + index, count: 1,
+      ...(deep ? { minMoves: deep, unique: true } : {}),
+    };
     const json = await this.jobs.run('generate', { options }, (p) => onGames?.(p.games));
     return JSON.parse(json).puzzles[0];
   }

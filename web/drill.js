@@ -16,6 +16,35 @@ const AHEAD = 3;
 const STOCK = AHEAD + 1;
 const stockKey = (theme, rule) => `${theme}/${rule}`;
 
+// Deep lines for strong players: the starter library's deep sets (made with a minimum line
+// length; a deep puzzle takes the generator up to a minute) are Drill's stock for them, one
+// choice per kind, served nearest the player's rating first; when a player has been through
+// them all, new ones are made in the worker like any other drill.
+const DEEP_LABELS = {
+  vcf: 'Deep fours (10 to 20 fours)',
+  vct: 'Deep threats (6 to 10 threats)',
+  defend: 'Hard defences (long threats)',
+};
+const DEEP_BAND = [1900, 2600];
+
+/** The deep choices: `{name, label, rules, theme, minMoves, puzzles}` from the library. */
+function deepChoices() {
+  const out = [];
+  for (const set of JSON.parse(librarySets())) {
+    const g = set.generator;
+    if (!g || !(g.min_moves > 0) || !DEEP_LABELS[g.theme]) continue;
+    let c = out.find((x) => x.theme === g.theme);
+    if (!c) {
+      c = { name: `deep-${g.theme}`, label: DEEP_LABELS[g.theme], rules: [], theme: g.theme, minMoves: g.min_moves, puzzles: [] };
+      out.push(c);
+    }
+    if (!c.rules.includes(g.rule)) c.rules.push(g.rule);
+    c.minMoves = Math.min(c.minMoves, g.min_moves);
+    c.puzzles.push(...set.puzzles);
+  }
+  return out;
+}
+
 function checkRating(r) {
   return r === null || (r && [r.rating, r.deviation, r.volatility].every(Number.isFinite));
 }
@@ -96,7 +125,8 @@ export class Drill {
     this.jobs = new Jobs();
     this.generating = null;
     this.active = false;
-    this.themes = JSON.parse(themes());
+    this.deep = deepChoices();
+    this.themes = [...JSON.parse(themes()), ...this.deep];
     this.board = new BoardView($('drill-board'), {
       log: $('drill-log'),
       message: $('drill-message'),
@@ -219,7 +249,8 @@ export class Drill {
    * band [lo, hi] if there is one (else the nearest rating), or null: the first puzzle of a
    * theme starts at once while the worker makes the next ones. */
   fromLibrary(theme, rule, lo, hi) {
-    this.library ??= JSON.parse(librarySets()).flatMap((set) => set.puzzles);
+    // The deep sets are the deep choices' own.
+    this.library ??= JSON.parse(librarySets()).filter((set) => !(set.generator?.min_moves > 0)).flatMap((set) => set.puzzles);
     const had = new Set([...Object.keys(this.data.puzzleRatings ?? {}), ...this.data.queue.map((p) => p.id),
       ...Object.values(this.data.stock ?? {}).flat().map((p) => p.id)]);
     const fresh = this.library.filter((p) => p.theme === theme && p.rule === rule && !had.has(p.id));
@@ -230,13 +261,35 @@ export class Drill {
     return near[randomSeed() % near.length];
   }
 
+  /** A deep choice: fills the queue from the library's deep puzzles not yet played here,
+   * nearest the player's rating first. False when none is left. */
+  fillDeep(deep, rule) {
+    const d = this.data;
+    const seen = new Set([...d.queue, ...(d.current ? [d.current.puzzle] : [])].map((p) => p.id));
+    for (const id of Object.keys(d.puzzleRatings ?? {})) seen.add(id);
+    const r = this.ratingFor(rule)?.rating ?? 1500;
+    const left = deep.puzzles.filter((p) => p.rule === rule && !seen.has(p.id))
+      .sort((a, b) => Math.abs(a.rating - r) - Math.abs(b.rating - r) || (a.id < b.id ? -1 : 1));
+    $('drill-band').textContent = left.length
+      ? `${deep.label}: ${left.length} from the library not yet played, rated ${DEEP_BAND[0]} and up.`
+      : `${deep.label}: every library puzzle played; new ones are made here (up to a minute each).`;
+    if (!left.length) return false;
+    d.queue.push(...left.slice(0, AHEAD - d.queue.length));
+    this.save();
+    if (!d.current) this.next();
+    this.renderQueue();
+    return true;
+  }
+
   async fill() {
     if (this.generating || this.data.queue.length >= AHEAD) return;
     const { theme, rule } = this.data;
-    const choice = drillChoice(theme, rule, this.ratingFor(rule));
+    const deep = this.deep.find((t) => t.name === theme);
+    if (deep && this.fillDeep(deep, rule)) return;
+    const choice = deep ? { low: DEEP_BAND[0], high: DEEP_BAND[1] } : drillChoice(theme, rule, this.ratingFor(rule));
     const [lo, hi] = [choice.low, choice.high];
-    $('drill-band').textContent = choice.say;
-    if (!this.data.current && !this.data.queue.length) {
+    if (!deep) $('drill-band').textContent = choice.say;
+    if (!deep && !this.data.current && !this.data.queue.length) {
       const first = this.fromLibrary(theme, rule, lo, hi);
       if (first) {
         this.data.queue.push(first);
@@ -247,8 +300,9 @@ export class Drill {
     const job = { theme, rule };
     this.generating = job;
     this.renderQueue();
+    const kind = deep ? { theme: deep.theme, minMoves: deep.minMoves, unique: true } : { theme };
     const ask = (ratingLo, ratingHi) => this.jobs.run('generate', {
-      options: { theme, rule, size: 15, ratingLo, ratingHi, seed: randomSeed(), count: 1 },
+      options: { ...kind, rule, size: 15, ratingLo, ratingHi, seed: randomSeed(), count: 1 },
     }, (p) => {
       if (!$('drill-wait').hidden) {
         $('drill-wait-text').textContent = `Making a puzzle at your level… ${p.games} game${p.games === 1 ? '' : 's'} looked at.`;

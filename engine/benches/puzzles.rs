@@ -42,14 +42,7 @@ fn main() {
             (Theme::ForbiddenWin, Rule::Renju, 6),
         ];
         for (theme, rule, count) in plan {
-            let options = Options {
-                theme,
-                rule,
-                size: 15,
-                count,
-                rating: (600, 2600),
-                seed: 77,
-            };
+            let options = Options::new(theme, rule, count, (600, 2600), 77);
             let start = Instant::now();
             let set = generate::generate(&options, |_| {}).expect("generation succeeds");
             let t = start.elapsed().as_secs_f64();

@@ -125,6 +125,8 @@ fn set() -> impl Strategy<Value = PuzzleSet> {
                 size,
                 count,
                 rating,
+                min_moves: 0,
+                unique: false,
             }),
         })
 }

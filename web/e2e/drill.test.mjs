@@ -101,9 +101,10 @@ test('the theme and rule filters decide what the worker makes next', async () =>
   await page.click('[data-go="drill"]');
   await page.selectOption('#drill-rule', 'renju');
   const renjuThemes = await page.$$eval('#drill-theme option', (o) => o.map((x) => x.value));
-  assert.deepEqual(renjuThemes, ['four-three', 'vcf', 'vct', 'defend', 'forbidden-trap', 'forbidden-win']);
+  const DEEP = ['deep-vcf', 'deep-vct', 'deep-defend'];
+  assert.deepEqual(renjuThemes, ['four-three', 'vcf', 'vct', 'defend', 'forbidden-trap', 'forbidden-win', ...DEEP]);
   await page.selectOption('#drill-rule', 'standard');
-  assert.deepEqual(await page.$$eval('#drill-theme option', (o) => o.map((x) => x.value)), ['four-three', 'vcf', 'vct', 'defend']);
+  assert.deepEqual(await page.$$eval('#drill-theme option', (o) => o.map((x) => x.value)), ['four-three', 'vcf', 'vct', 'defend', ...DEEP]);
   await page.selectOption('#drill-theme', 'four-three');
   // The library has no four-three puzzles under standard rules: the worker makes the first.
   assert.equal(await page.getAttribute('#drill', 'data-waiting'), 'true');
@@ -120,6 +121,28 @@ test('the theme and rule filters decide what the worker makes next', async () =>
   const d = await stored(page);
   assert.equal(d.current.puzzle.theme, 'four-three');
   assert.equal(d.current.puzzle.rule, 'standard');
+  assert.deepEqual(errors, []);
+  await context.close();
+});
+
+test('the deep choices serve the library\'s deep puzzles at once, nearest the player\'s rating, never one played', async () => {
+  const { page, context, errors } = await open(env.browser, env.server.url);
+  await page.click('[data-go="drill"]');
+  const deep = librarySet('deep-fours-freestyle');
+  const ids = deep.puzzles.map((p) => p.id);
+  await page.selectOption('#drill-rule', 'freestyle');
+  await page.selectOption('#drill-theme', 'deep-vcf');
+  // No generation to wait for: the stock is the library's.
+  await page.waitForSelector('#drill[data-waiting="false"]', { timeout: 5000 });
+  const d = await stored(page);
+  assert.ok(ids.includes(d.current.puzzle.id), d.current.puzzle.id);
+  assert.ok(d.queue.every((p) => ids.includes(p.id)));
+  assert.equal(new Set([d.current.puzzle.id, ...d.queue.map((p) => p.id)]).size, 1 + d.queue.length);
+  assert.match(await page.textContent('#drill-band'), /^Deep fours \(10 to 20 fours\): \d+ from the library not yet played/);
+  // A new player (1500) gets the lowest rated first.
+  const lowest = Math.min(...deep.puzzles.map((p) => p.rating));
+  assert.equal(d.current.puzzle.rating, lowest);
+  await page.waitForSelector(`#${BOARD}[data-mode="puzzle"][data-rule="freestyle"]`);
   assert.deepEqual(errors, []);
   await context.close();
 });

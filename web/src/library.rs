@@ -16,12 +16,15 @@ thread_local! {
 }
 
 /// The ratings of the library's puzzles of `theme` under `rule` (under any rule if the library
-/// has none under that one).
+/// has none under that one), deep sets left out.
 pub fn ratings(theme: Theme, rule: Rule) -> Vec<u32> {
     RATINGS.with(|cell| {
         let all = cell.get_or_init(|| {
             SETS.iter()
                 .filter_map(|(_, json)| setfile::parse(json).ok())
+                // Deep sets are made with a minimum line length, which plain generation (what
+                // these ratings steer) does not ask for.
+                .filter(|set| set.generator.as_ref().is_none_or(|g| g.min_moves == 0))
                 .flat_map(|set| set.puzzles)
                 .map(|p| (p.theme, p.rule, p.rating))
                 .collect()

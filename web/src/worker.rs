@@ -78,6 +78,12 @@ struct GenerateJs {
     seed: u64,
     #[serde(default = "one")]
     count: usize,
+    /// Deep lines: the fewest attacker moves before the winning one (0: any).
+    #[serde(default)]
+    min_moves: u16,
+    /// Only puzzles with one correct first move.
+    #[serde(default)]
+    unique: bool,
 }
 
 fn fifteen() -> u8 {
@@ -88,8 +94,9 @@ fn one() -> usize {
     1
 }
 
-/// Generates puzzles (for Drill, in the worker): options `{theme, rule, size, ratingLo,
-/// ratingHi, seed, count}`; returns set-file JSON. The same options give the same set here and
+/// Generates puzzles (for Drill and Coach, in the worker): options `{theme, rule, size,
+/// ratingLo, ratingHi, seed, count, minMoves, unique}` (the last two optional); returns
+/// set-file JSON. The same options give the same set here and
 /// natively. `progress`, if given, is called after every self-play game with the puzzles kept
 /// and the games played so far.
 #[wasm_bindgen(js_name = generateSet)]
@@ -107,6 +114,8 @@ pub fn generate_set(
         count: o.count,
         rating: (o.rating_lo, o.rating_hi),
         seed: o.seed,
+        min_moves: o.min_moves,
+        unique: o.unique,
     };
     let puzzles = generate::generate(&options, |p| {
         if let Some(f) = &progress {

@@ -73,6 +73,20 @@ pub struct GenerateArgs {
     /// No progress bar.
     #[arg(long)]
     pub quiet: bool,
+    /// Deep lines: at least this many attacker moves before the winning one (vcf: fours, up to
+    /// 20; vct: threes and fours, up to 10; defend: the opponent's threat, up to 20), made by
+    /// taking forcing exchanges back from played positions; each line is checked for detours.
+    #[arg(
+        long,
+        value_name = "MOVES",
+        default_value_t = 0,
+        value_parser = value_parser!(u16).range(0..=20),
+        allow_negative_numbers = true
+    )]
+    pub min_moves: u16,
+    /// Keep only puzzles with exactly one correct first move (or one defence).
+    #[arg(long)]
+    pub unique: bool,
     /// Threads to play games on, 1 to 256 [default: every core]. The set is the same for any
     /// number, byte for byte.
     #[arg(
@@ -133,6 +147,8 @@ pub fn run(args: &GenerateArgs) -> Result<(), String> {
         count: args.count,
         rating: (args.rating.0, args.rating.1),
         seed: args.seed,
+        min_moves: args.min_moves,
+        unique: args.unique,
     };
     options.check().map_err(|e| e.to_string())?;
     let created = args.created.clone().unwrap_or_else(date::today);
@@ -170,6 +186,8 @@ pub fn run(args: &GenerateArgs) -> Result<(), String> {
             size: args.size,
             count: args.count,
             rating: options.rating,
+            min_moves: options.min_moves,
+            unique: options.unique,
         }),
     };
     // Nothing is written that the set file's reader would refuse.

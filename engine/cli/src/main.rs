@@ -11,6 +11,7 @@ mod date;
 mod generate;
 mod inspect;
 mod out;
+mod plot;
 mod position;
 mod results;
 mod review;
@@ -52,6 +53,8 @@ enum Command {
     Verify(generate::VerifyArgs),
     /// Print a set as a page: numbered diagrams with the goal under each, answers at the end.
     Sheet(generate::SheetArgs),
+    /// Draw the estimated rating of set files' puzzles against their line length, as SVG.
+    Plot(plot::PlotArgs),
     /// Print the link (or bare code) that hands a set out, and write its QR code.
     Share(share::ShareArgs),
     /// Check a player's own games move by move: missed wins, blunders, missed defences.
@@ -110,6 +113,7 @@ fn main() -> ExitCode {
         Command::Verify(args) => generate::verify(&args),
         Command::Sheet(args) => generate::sheet(&args),
         Command::Share(args) => share::run(&args),
+        Command::Plot(args) => plot::run(&args),
         Command::Results(args) => results::run(&args),
         Command::Review(args) => review::run(&args),
         Command::QrVersions(args) => share::qr_versions(&args),

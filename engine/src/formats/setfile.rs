@@ -50,6 +50,10 @@ pub struct GeneratorInfo {
     pub count: usize,
     /// The rating band.
     pub rating: (u32, u32),
+    /// Deep lines: the fewest attacker moves before the winning one (0: any length).
+    pub min_moves: u16,
+    /// Whether only puzzles with one correct first move were kept.
+    pub unique: bool,
 }
 
 /// A puzzle set.
@@ -124,6 +128,18 @@ struct WireGenerator {
     size: u8,
     count: usize,
     rating: [u32; 2],
+    #[serde(skip_serializing_if = "is_zero")]
+    min_moves: u16,
+    #[serde(skip_serializing_if = "is_false")]
+    unique: bool,
+}
+
+fn is_zero(n: &u16) -> bool {
+    *n == 0
+}
+
+fn is_false(b: &bool) -> bool {
+    !*b
 }
 
 #[derive(Serialize)]
@@ -176,6 +192,8 @@ pub fn to_json(set: &PuzzleSet) -> String {
             size: g.size,
             count: g.count,
             rating: [g.rating.0, g.rating.1],
+            min_moves: g.min_moves,
+            unique: g.unique,
         }),
     };
     let mut s = serde_json::to_string_pretty(&wire).expect("set serialisation cannot fail");
@@ -451,6 +469,12 @@ fn check_generator(g: &GeneratorInfo) -> Result<(), (String, String)> {
             format!("ratings run from 0 to {}", limits::MAX_RATING),
         );
     }
+    if g.min_moves > limits::MAX_LENGTH {
+        return bad(
+            "min_moves",
+            format!("{} is more than {}", g.min_moves, limits::MAX_LENGTH),
+        );
+    }
     Ok(())
 }
 
@@ -621,7 +645,28 @@ fn parse_generator(v: &Value) -> Result<GeneratorInfo, (String, String)> {
         })?;
     let size = num("size")?;
     let count = num("count")?;
+    // Optional: absent means a plain generation.
+    let min_moves = match obj.get("min_moves") {
+        None => 0,
+        Some(v) => v
+            .as_u64()
+            .and_then(|n| u16::try_from(n).ok())
+            .ok_or_else(|| {
+                (
+                    "min_moves".to_string(),
+                    "not a small whole number".to_string(),
+                )
+            })?,
+    };
+    let unique = match obj.get("unique") {
+        None => false,
+        Some(v) => v
+            .as_bool()
+            .ok_or_else(|| ("unique".to_string(), "not true or false".to_string()))?,
+    };
     Ok(GeneratorInfo {
+        min_moves,
+        unique,
         seed: num("seed")?,
         theme: text("theme")?
             .parse()

@@ -349,8 +349,14 @@ fn body_bits(set: &PuzzleSet) -> BitWriter {
     w.put(14, number(0..4));
     w.put(4, number(5..7));
     w.put(5, number(8..10));
-    w.flag(set.generator.is_some());
-    if let Some(g) = &set.generator {
+    // A generator block of a deep or unique-only generation has fields a version 2 code cannot
+    // hold: such a block is left out rather than carried half.
+    let generator = set
+        .generator
+        .as_ref()
+        .filter(|g| g.min_moves == 0 && !g.unique);
+    w.flag(generator.is_some());
+    if let Some(g) = generator {
         w.var(g.seed);
         w.put(3, theme_bits(g.theme));
         w.put(2, rule_bits(g.rule));
@@ -624,6 +630,8 @@ fn read_body(bytes: &[u8]) -> Result<PuzzleSet, ShareError> {
             size,
             count,
             rating,
+            min_moves: 0,
+            unique: false,
         })
     } else {
         None

@@ -1,11 +1,11 @@
 //! The difficulty estimate: a rating on the Glicko scale (1500 is an average club player) from
 //! features of the proof.
 //!
-//! The formula is a first guess, to be calibrated against players' results:
+//! The formula is an estimate, to be calibrated against players' results:
 //!
 //! ```text
 //! rating = base(theme)
-//!        + 110 * (attacker moves before the five - 1)
+//!        + depth(n)
 //!        +  25 * min(tempting forcing moves that fail, 12)
 //!        +  45 * defender replies beyond the first, summed over the main line (at most 10)
 //!        +  70 * counter-four traps (at most 4)
@@ -13,8 +13,18 @@
 //!        - 160 * log2(correct first moves)
 //! ```
 //!
-//! clamped to 600..=2600, with `base` 1050 for a four-three, 1100 for a VCF, 1350 for a VCT,
-//! 1250 for a defence, 1400 for a forbidden-point trap and 1350 for a win past forbidden points.
+//! clamped to 600..=2600, where `n` is the attacker's moves in the main line before the winning
+//! move (fours and threats alike; for a defence, the opponent's threat's moves plus one) and
+//!
+//! ```text
+//! depth(n) = 110 * (n - 1)               for n <= 6
+//!          = 550 + 60 * (n - 6)          for n > 6
+//! ```
+//!
+//! (each of the first moves of a line adds much; past six, each further forced move adds a
+//! steady 60, so that a 10-four VCF rates about 1850 and a 20-four one about 2450 before the
+//! other terms), with `base` 1050 for a four-three, 1100 for a VCF, 1250 for a VCT, 1250 for a
+//! defence, 1400 for a forbidden-point trap and 1350 for a win past forbidden points.
 //! A longer line, more plausible moves that fail, a defender with more ways to resist, traps in
 //! which a block makes a four, and moves far apart all make a puzzle harder; several correct
 //! answers make it easier.
@@ -43,17 +53,27 @@ pub const fn base(theme: Theme) -> f64 {
     match theme {
         Theme::FourThree => 1050.0,
         Theme::Vcf => 1100.0,
-        Theme::Vct => 1350.0,
+        Theme::Vct => 1250.0,
         Theme::Defend => 1250.0,
         Theme::ForbiddenTrap => 1400.0,
         Theme::ForbiddenWin => 1350.0,
     }
 }
 
+/// The length term: 110 per attacker move up to six, 60 per move after that.
+pub fn depth(moves: u32) -> f64 {
+    let n = moves.max(1) as f64;
+    if n <= 6.0 {
+        110.0 * (n - 1.0)
+    } else {
+        550.0 + 60.0 * (n - 6.0)
+    }
+}
+
 /// The estimated rating.
 pub fn rating(theme: Theme, f: &Features) -> u32 {
     let r = base(theme)
-        + 110.0 * (f.length.saturating_sub(1)) as f64
+        + depth(f.length)
         + 25.0 * f.tempting.min(12) as f64
         + 45.0 * f.branching.min(10) as f64
         + 70.0 * f.counter_fours.min(4) as f64
@@ -79,6 +99,14 @@ mod tests {
         assert!(r(&long) > r(&easy));
         assert!(r(&many) < r(&easy));
         assert!(rating(Theme::Vct, &easy) > rating(Theme::Vcf, &easy));
+        // Depth: a 15-four line rates far above a 4-four one, and every move counts.
+        let fours = |n| r(&Features { length: n, ..easy });
+        assert!(fours(15) >= fours(4) + 600, "{} {}", fours(15), fours(4));
+        assert!((1..20).all(|n| fours(n + 1) > fours(n)));
+        assert!(
+            fours(20) < 2600,
+            "a plain 20-four line leaves room for the other terms"
+        );
         let extreme = Features {
             length: 40,
             tempting: 99,

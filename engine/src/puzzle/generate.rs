@@ -40,6 +40,28 @@ pub struct Options {
     pub rating: (u32, u32),
     /// The seed.
     pub seed: u64,
+    /// Deep lines: at least this many attacker moves before the winning one in the main line
+    /// (for a defence, in the opponent's threat), reached by taking forcing exchanges back
+    /// (see [`super::deep`]); 0 for any length. Only for vcf, vct and defend.
+    pub min_moves: u16,
+    /// Only puzzles with exactly one correct first move (or one defence).
+    pub unique: bool,
+}
+
+impl Options {
+    /// Plain options: any length, several answers allowed now and then.
+    pub fn new(theme: Theme, rule: Rule, count: usize, rating: (u32, u32), seed: u64) -> Options {
+        Options {
+            theme,
+            rule,
+            size: 15,
+            count,
+            rating,
+            seed,
+            min_moves: 0,
+            unique: false,
+        }
+    }
 }
 
 /// Why generation could not run or finish.
@@ -111,15 +133,43 @@ impl Options {
                 "the rating range {lo}-{hi} lies outside 600-2600, where ratings fall"
             ));
         }
+        if self.min_moves > 0 {
+            if !matches!(self.theme, Theme::Vcf | Theme::Vct | Theme::Defend) {
+                return bad(format!(
+                    "a minimum line length is for vcf, vct and defend, not {}",
+                    self.theme
+                ));
+            }
+            let most = max_moves(self.theme);
+            if self.min_moves > most {
+                return bad(format!(
+                    "a {} line of at least {} moves is too long (at most {most})",
+                    self.theme, self.min_moves
+                ));
+            }
+        }
         Ok(())
     }
 }
 
-/// Games to play per puzzle asked for before giving up (the forbidden-point themes are rare).
-fn games_per_puzzle(theme: Theme) -> u64 {
-    match theme {
+/// Games to play per puzzle asked for before giving up (the forbidden-point themes are rare,
+/// and so are unique answers and deep lines).
+fn games_per_puzzle(options: &Options) -> u64 {
+    let base = match options.theme {
         Theme::ForbiddenTrap | Theme::ForbiddenWin => 600,
         _ => 150,
+    };
+    let unique = if options.unique { 2 } else { 1 };
+    let deep = if options.min_moves > 0 { 4 } else { 1 };
+    base * unique * deep
+}
+
+/// The longest deep line of a theme, in attacker moves before the winning one: twenty fours;
+/// ten threats (threes and fours) for a VCT.
+pub fn max_moves(theme: Theme) -> u16 {
+    match theme {
+        Theme::Vct => 10,
+        _ => super::deep::MAX_MOVES,
     }
 }
 
@@ -170,13 +220,20 @@ pub fn play_game(options: &Options, number: u64, solver: &mut Solver) -> Option<
     };
     let mut player = Player::new(play::next_seed(&mut rng), config);
     let max_stones = 40 + play::below(&mut rng, 50) as usize;
+    if options.min_moves > 0 {
+        return play_deep_game(options, solver, game, &mut player, max_stones + 60);
+    }
     while !game.is_over() && game.board().stones() < max_stones {
         if game.board().stones() >= 8 {
             if let Some(p) = analyse(solver, game.board(), game.to_move(), options.theme) {
                 let (lo, hi) = options.rating;
                 // Several correct answers are allowed, but less often.
                 let n = p.first_moves.len() as u32;
-                let keep_shared = play::below(&mut rng, n * n) == 0;
+                let keep_shared = if options.unique {
+                    n == 1
+                } else {
+                    play::below(&mut rng, n * n) == 0
+                };
                 if (lo..=hi).contains(&p.rating) && keep_shared {
                     let key = (
                         game.board().canonical_hash(),
@@ -211,7 +268,7 @@ impl Harvest {
             seen: HashSet::new(),
             out: Vec::new(),
             games: 0,
-            max_games: games_per_puzzle(options.theme) * options.count as u64 + 50,
+            max_games: games_per_puzzle(options) * options.count as u64 + 50,
             count: options.count,
         }
     }
@@ -336,6 +393,114 @@ pub fn generate_on(
     Ok(harvest.out)
 }
 
+/// A deep puzzle from a game: the game is played to its end first (its last forcing line
+/// leaves the most exchanges on the board to take back), then its positions are tried from
+/// the last one backwards; at most [`DEEP_TRIES`] positions whose attacker has a line at all.
+fn play_deep_game(
+    options: &Options,
+    solver: &mut Solver,
+    mut game: crate::rules::Game,
+    player: &mut Player,
+    max_stones: usize,
+) -> Option<GamePuzzle> {
+    let mut positions = Vec::new();
+    while !game.is_over() && game.board().stones() < max_stones {
+        if game.board().stones() >= 8 {
+            positions.push((game.board().clone(), game.to_move()));
+        }
+        let m = player.choose(&game)?;
+        if game.play(m).is_err() {
+            return None;
+        }
+    }
+    let mut tries = DEEP_TRIES;
+    for (board, to_move) in positions.iter().rev() {
+        if let Some(p) = try_deep(options, solver, board, *to_move, &mut tries) {
+            let key = (board.canonical_hash(), p.to_move, p.rule);
+            let key = (p.board().canonical_hash(), key.1, key.2);
+            return Some(GamePuzzle { key, puzzle: p });
+        }
+        if tries == 0 {
+            break;
+        }
+    }
+    None
+}
+
+/// Positions of one game that a deep generation walks back from, at most.
+const DEEP_TRIES: u32 = 3;
+
+/// A deep puzzle from this position, if its attacker has a forcing line that can be walked
+/// back to the options' length: the line is searched (a VCF, or for the vct theme a VCT
+/// without a VCF; a defence faces the opponent's VCF), exchanges are taken back by
+/// [`super::deep::deepen`], and the smaller position must then make a puzzle of the theme with
+/// a long enough line, in the rating band, unique if asked, and with no detour in its line.
+/// Each position whose attacker has a line at all uses one of `tries`.
+fn try_deep(
+    options: &Options,
+    solver: &mut Solver,
+    board: &Board,
+    to_move: Stone,
+    tries: &mut u32,
+) -> Option<Puzzle> {
+    let theme = options.theme;
+    let attacker = match theme.goal() {
+        Goal::Win => to_move,
+        Goal::Defend => to_move.opponent(),
+    };
+    if !board.cells_with(Stone::Black, threat::FIVE).is_empty()
+        || !board.cells_with(Stone::White, threat::FIVE).is_empty()
+        || !can_start(board, attacker, Theme::Vcf)
+    {
+        return None;
+    }
+    let mode = match theme {
+        Theme::Vct => Mode::Vct,
+        _ => Mode::Vcf,
+    };
+    let mut ask = solver.ask(Budget::GENERATION);
+    if mode == Mode::Vct && ask.solve(board, attacker, Mode::Vcf).verdict != Verdict::NoWin {
+        return None;
+    }
+    let start = ask.solve(board, attacker, mode);
+    // A line to walk back from (a five to make is no puzzle position).
+    if start.verdict != Verdict::Win || super::deep::moves_before_win(&start.line) < 1 {
+        return None;
+    }
+    *tries -= 1;
+    let most = max_moves(theme);
+    let found = super::deep::deepen(
+        &mut ask,
+        board,
+        attacker,
+        mode,
+        (options.min_moves, most),
+        DEEP_KEEP,
+    );
+    drop(ask);
+    let (lo, hi) = options.rating;
+    for (deeper, _) in found {
+        let Some(p) = analyse(solver, &deeper, to_move, theme) else {
+            continue;
+        };
+        let moves = super::deep::moves_before_win(&p.line);
+        if moves < options.min_moves
+            || moves > most
+            || (options.unique && p.first_moves.len() != 1)
+            || !(lo..=hi).contains(&p.rating)
+        {
+            continue;
+        }
+        if super::deep::detours(solver, &p).is_empty() {
+            return Some(p);
+        }
+    }
+    None
+}
+
+/// Deep positions one walk back offers the quality filters, at most.
+const DEEP_KEEP: usize = 8;
+
 /// Stack of a generation thread (the solver recurses along a line).
 const WORKER_STACK: usize = 16 << 20;
 
@@ -447,7 +612,7 @@ fn analyse_win(ask: &mut Asking, board: &Board, me: Stone, theme: Theme) -> Opti
     let mut first_moves = wins.proved.clone();
     first_moves.sort_by_key(|p| (p.y, p.x));
     let features = Features {
-        length: depth as u32,
+        length: super::deep::moves_before_win(&sol.line) as u32,
         tempting: (wins.tried.saturating_sub(wins.proved.len())) as u32,
         branching: ask.line_branching(board, me, mode, &sol.line),
         counter_fours: counter_four_traps(board, me),
@@ -502,7 +667,7 @@ fn analyse_defence(ask: &mut Asking, board: &Board, me: Stone) -> Option<Puzzle>
     let mut first_moves = d.moves.proved.clone();
     first_moves.sort_by_key(|p| (p.y, p.x));
     let features = Features {
-        length: threat.depth as u32 + 1,
+        length: super::deep::moves_before_win(&threat.line) as u32 + 1,
         tempting: d.moves.tried.saturating_sub(n) as u32,
         branching: 0,
         counter_fours: 0,
@@ -627,14 +792,7 @@ mod tests {
     use super::*;
 
     fn options(count: usize) -> Options {
-        Options {
-            theme: Theme::FourThree,
-            rule: Rule::Freestyle,
-            size: 15,
-            count,
-            rating: (600, 2600),
-            seed: 11,
-        }
+        Options::new(Theme::FourThree, Rule::Freestyle, count, (600, 2600), 11)
     }
 
     fn ids(set: &[Puzzle]) -> Vec<String> {
@@ -674,7 +832,7 @@ mod tests {
         let want = Err(GenerateError::NotEnough {
             found: 0,
             wanted: 1,
-            games: games_per_puzzle(Theme::FourThree) + 50,
+            games: games_per_puzzle(&options(1)) + 50,
         });
         assert_eq!(generate_on(&o, 2, |_| {}), want);
     }

@@ -9,6 +9,7 @@
 //! steps. [`attempt::Attempt`] is how a try went.
 
 pub mod attempt;
+pub mod deep;
 pub mod difficulty;
 pub mod generate;
 pub mod grade;

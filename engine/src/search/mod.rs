@@ -370,6 +370,24 @@ impl<'s, 'w> Asking<'s, 'w> {
         self.question(|q| q.shortest_win_q(board, attacker, to_move, mode, max))
     }
 
+    /// Whether `attacker`, to move, wins within `depth` in the class's own measure (fours
+    /// before the five for a VCF; threats that are not fours for a VCT, the moves so far
+    /// counting as [`Asking::after`] says). `NoWin` proves that no line that short exists.
+    pub fn wins_within(
+        &mut self,
+        board: &Board,
+        attacker: Stone,
+        mode: Mode,
+        depth: u16,
+    ) -> Verdict {
+        self.question(|q| {
+            let mut b = board.clone();
+            let limit = q.budget.nodes;
+            let depth = depth.min(q.depth_for(mode));
+            verdict(q.run(&mut b, attacker, attacker, mode, depth, limit).0)
+        })
+    }
+
     /// Every first move with which `to_move` wins by `mode`, among the moves of that class.
     pub fn winning_moves(&mut self, board: &Board, to_move: Stone, mode: Mode) -> MoveSets {
         self.question(|q| q.winning_moves_q(board, to_move, mode))
