@@ -151,6 +151,8 @@ test('a bad SGF record is refused and nothing is loaded; a checked game is kept,
   await goGames(page);
   await page.fill('#games-text', '(;FF[4]GM[1]SZ[15];B[hh];W[hi])');
   await page.click('#games-read');
+  // The reader is in the workshop module, loaded on this first read: wait for its answer.
+  await page.waitForFunction(() => document.getElementById('games-note').textContent !== '');
   const note = await page.textContent('#games-note');
   assert.match(note, /cannot be read: .*GM.*Nothing was loaded/);
   assert.equal(await page.isHidden('#games-setup'), true, 'no game is offered');

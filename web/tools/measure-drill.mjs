@@ -7,9 +7,12 @@
 //      asked for one puzzle per theme and rule, in a new player's band, `runs` seeds each,
 //      worker start included;
 //   3. the worker's memory: its WebAssembly linear memory (which never shrinks, so it is the
-//      peak) after those generations, per rule.
+//      peak) after those generations, per rule;
+//   4. deep lines (--only deep, not part of the default run): one deep puzzle of each kind
+//      under freestyle as Coach's Expert band asks for it (min moves 10, 6 and 5, unique,
+//      1900-2600), `runs` seeds each, in a fresh worker.
 // Run after a build:
-//   node web/tools/measure-drill.mjs [--runs 10] [--only first|made]
+//   node web/tools/measure-drill.mjs [--runs 10] [--only first|made|deep]
 // It prints a table (median, 95th percentile, worst, in ms) and writes
 // web/artefacts/measure-drill.json.
 
@@ -51,7 +54,35 @@ const server = await serve();
 const browser = await launch();
 const out = { first: {}, made: {}, memory: {} };
 try {
-  if (ONLY !== 'made') {
+  if (ONLY === 'deep') {
+    console.log('Time to a deep puzzle made by the worker (ms, freestyle, worker start included):');
+    const { page, context } = await open(browser, server.url);
+    for (const [theme, minMoves] of [['vcf', 10], ['vct', 6], ['defend', 5]]) {
+      const times = [];
+      for (let i = 0; i < RUNS; i++) {
+        times.push(await page.evaluate(async (options) => {
+          const t0 = performance.now();
+          const w = new Worker('./worker.js', { type: 'module' });
+          const made = await new Promise((ok, fail) => {
+            w.onmessage = (e) => {
+              if (e.data.progress) return;
+              if ('error' in e.data) fail(new Error(e.data.error));
+              else ok(e.data.result);
+            };
+            w.postMessage({ id: 1, type: 'generate', options });
+          });
+          w.terminate();
+          if (!JSON.parse(made).puzzles.length) throw new Error('no puzzle');
+          return performance.now() - t0;
+        }, { theme, rule: 'freestyle', size: 15, ratingLo: 1900, ratingHi: 2600, seed: 601 + i, count: 1, minMoves, unique: true }));
+      }
+      out.deep ??= {};
+      out.deep[`${theme}/min ${minMoves}`] = summary(times);
+      console.log(row(`${theme} (min ${minMoves} moves)`, times));
+    }
+    await context.close();
+  }
+  if (ONLY === 'all' || ONLY === 'first') {
     console.log('Time to a playable first puzzle (ms, from picking the theme):');
     for (const [rule, themes] of Object.entries(THEMES)) {
       for (const theme of themes) {
@@ -76,7 +107,7 @@ try {
       }
     }
   }
-  if (ONLY !== 'first') {
+  if (ONLY === 'all' || ONLY === 'made') {
     console.log('Time to a puzzle made by the worker (ms, worker start included; a new player\'s band):');
     for (const [rule, themes] of Object.entries(THEMES)) {
       const { page, context } = await open(browser, server.url);
