@@ -435,7 +435,8 @@ impl Session {
 
     /// While the player follows the stored main line, the defender answers as the line does
     /// (so that play matches the answer key), provided that reply is one the defender could
-    /// make: the block of a four, or one of the replies the search considers.
+    /// make: the block of a four, or, for a key not trusted, one of the replies the search
+    /// considers.
     fn stored_reply(&self, ask: &mut Asking, me: Stone, mode: Mode) -> Option<(Point, ReplyNote)> {
         let r = self.next_on_line()?;
         let them = me.opponent();
@@ -460,7 +461,9 @@ impl Session {
             };
             return Some((r, note));
         }
-        if !ask.defender_replies(&self.board, me, mode).contains(&r) {
+        // A trusted line's replies come from its proof; another line's must be one the search
+        // considers.
+        if !self.trusted && !ask.defender_replies(&self.board, me, mode).contains(&r) {
             return None;
         }
         Some((r, self.threat_reply_note(r)))
