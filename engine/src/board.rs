@@ -480,6 +480,30 @@ impl Board {
         self.remove_at(idx);
     }
 
+    /// The position before a forcing exchange: this board without the attacker's stone `a` and
+    /// the defender's stone `d`, when the two lie within four steps on one line, `a` played
+    /// again by `attacker` makes a four, and `d` is then that four's only five point (so the
+    /// exchange can be taken back and replayed). `None` otherwise. Legality under renju is the
+    /// caller's question.
+    pub fn taken_back(&self, a: Point, d: Point, attacker: Stone) -> Option<Board> {
+        let (dx, dy) = (a.x as i32 - d.x as i32, a.y as i32 - d.y as i32);
+        let collinear = dx == 0 || dy == 0 || dx.abs() == dy.abs();
+        if !collinear || dx.abs().max(dy.abs()) > 4 {
+            return None;
+        }
+        let mut b = self.clone();
+        b.remove(a);
+        b.remove(d);
+        let ia = b.index(a);
+        if b.flags_at(ia, attacker) & threat::FOUR == 0 {
+            return None;
+        }
+        b.place_at(ia, attacker);
+        let fives: Vec<usize> = b.cells_with(attacker, threat::FIVE).iter().collect();
+        b.remove_at(ia);
+        (fives == [b.index(d)]).then_some(b)
+    }
+
     /// Places a stone of `c` on an empty padded cell.
     #[inline]
     pub fn place_at(&mut self, idx: usize, c: Stone) {

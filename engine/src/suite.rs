@@ -373,29 +373,12 @@ fn extend(solver: &mut Solver, quotas: &mut Quotas, out: &mut Vec<Case>) {
                 Stone::Black => (&case.black, &case.white),
                 Stone::White => (&case.white, &case.black),
             };
+            let whole = case.board();
             'pairs: for &a in mine {
                 for &b in theirs {
-                    let (dx, dy) = (a.x as i32 - b.x as i32, a.y as i32 - b.y as i32);
-                    let collinear = dx == 0 || dy == 0 || dx.abs() == dy.abs();
-                    if !collinear || dx.abs().max(dy.abs()) > 4 {
+                    let Some(board) = whole.taken_back(a, b, attacker) else {
                         continue;
-                    }
-                    let mut board = case.board();
-                    board.remove(a);
-                    board.remove(b);
-                    let ia = board.index(a);
-                    if board.flags_at(ia, attacker) & crate::board::threat::FOUR == 0 {
-                        continue;
-                    }
-                    board.place(a, attacker);
-                    let fives: Vec<usize> = board
-                        .cells_with(attacker, crate::board::threat::FIVE)
-                        .iter()
-                        .collect();
-                    board.remove(a);
-                    if fives != [board.index(b)] {
-                        continue;
-                    }
+                    };
                     let sol = solver.ask(HARVEST).solve(&board, attacker, Mode::Vcf);
                     let d = sol.depth as usize;
                     if sol.verdict == Verdict::Win && d > n as usize && d <= 15 && quotas.vcf[d] > 0

@@ -107,15 +107,10 @@ impl Walk {
                 if self.done() {
                     return;
                 }
-                let (dx, dy) = (a.x as i32 - d.x as i32, a.y as i32 - d.y as i32);
-                let collinear = dx == 0 || dy == 0 || dx.abs() == dy.abs();
-                if !collinear || dx.abs().max(dy.abs()) > 4 {
+                let Some(mut b) = board.taken_back(a, d, attacker) else {
                     continue;
-                }
-                let mut b = board.clone();
-                b.remove(a);
-                b.remove(d);
-                if !blocks_only(&mut b, a, d, attacker) {
+                };
+                if !b.legal_at(b.index(a), attacker) {
                     continue;
                 }
                 // Nobody may have a five to make in the smaller position.
@@ -141,18 +136,6 @@ impl Walk {
             }
         }
     }
-}
-
-/// Whether `a`, played by `attacker` on `b`, is a four whose only five point is `d`.
-fn blocks_only(b: &mut Board, a: Point, d: Point, attacker: Stone) -> bool {
-    let ia = b.index(a);
-    if b.flags_at(ia, attacker) & threat::FOUR == 0 || !b.legal_at(ia, attacker) {
-        return false;
-    }
-    b.place(a, attacker);
-    let fives: Vec<usize> = b.cells_with(attacker, threat::FIVE).iter().collect();
-    b.remove(a);
-    fives == [b.index(d)]
 }
 
 /// The detours in a puzzle's stored line, in words (empty when there are none): see the
