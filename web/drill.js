@@ -27,10 +27,10 @@ const DEEP_LABELS = {
 };
 const DEEP_BAND = [1900, 2600];
 
-/** The deep choices: `{name, label, rules, theme, minMoves, puzzles}` from the library. */
-function deepChoices() {
+/** The deep choices: `{name, label, rules, theme, minMoves, puzzles}` from the library's sets. */
+function deepChoices(sets) {
   const out = [];
-  for (const set of JSON.parse(librarySets())) {
+  for (const set of sets) {
     const g = set.generator;
     if (!g || !(g.min_moves > 0) || !DEEP_LABELS[g.theme]) continue;
     let c = out.find((x) => x.theme === g.theme);
@@ -125,7 +125,11 @@ export class Drill {
     this.jobs = new Jobs();
     this.generating = null;
     this.active = false;
-    this.deep = deepChoices();
+    // The starter library, read once: the deep choices come from its deep sets, and a theme's
+    // first puzzle from the others (fromLibrary).
+    const sets = JSON.parse(librarySets());
+    this.deep = deepChoices(sets);
+    this.library = sets.filter((set) => !(set.generator?.min_moves > 0)).flatMap((set) => set.puzzles);
     this.themes = [...JSON.parse(themes()), ...this.deep];
     this.board = new BoardView($('drill-board'), {
       log: $('drill-log'),
@@ -245,14 +249,19 @@ export class Drill {
     $('drill').dataset.ready = String(n);
   }
 
+  /** The ids of the puzzles this player has had in Drill (rated), or has waiting (on the
+   * board, in the queue, in stock). */
+  had() {
+    const d = this.data;
+    const waiting = [...d.queue, ...(d.current ? [d.current.puzzle] : []), ...Object.values(d.stock ?? {}).flat()];
+    return new Set([...Object.keys(d.puzzleRatings ?? {}), ...waiting.map((p) => p.id)]);
+  }
+
   /** A starter-library puzzle of the filters that this player has not had in Drill, in the
    * band [lo, hi] if there is one (else the nearest rating), or null: the first puzzle of a
    * theme starts at once while the worker makes the next ones. */
   fromLibrary(theme, rule, lo, hi) {
-    // The deep sets are the deep choices' own.
-    this.library ??= JSON.parse(librarySets()).filter((set) => !(set.generator?.min_moves > 0)).flatMap((set) => set.puzzles);
-    const had = new Set([...Object.keys(this.data.puzzleRatings ?? {}), ...this.data.queue.map((p) => p.id),
-      ...Object.values(this.data.stock ?? {}).flat().map((p) => p.id)]);
+    const had = this.had();
     const fresh = this.library.filter((p) => p.theme === theme && p.rule === rule && !had.has(p.id));
     if (!fresh.length) return null;
     const off = (p) => Math.max(0, lo - p.rating, p.rating - hi);
@@ -265,8 +274,7 @@ export class Drill {
    * nearest the player's rating first. False when none is left. */
   fillDeep(deep, rule) {
     const d = this.data;
-    const seen = new Set([...d.queue, ...(d.current ? [d.current.puzzle] : [])].map((p) => p.id));
-    for (const id of Object.keys(d.puzzleRatings ?? {})) seen.add(id);
+    const seen = this.had();
     const r = this.ratingFor(rule)?.rating ?? 1500;
     const left = deep.puzzles.filter((p) => p.rule === rule && !seen.has(p.id))
       .sort((a, b) => Math.abs(a.rating - r) - Math.abs(b.rating - r) || (a.id < b.id ? -1 : 1));

@@ -96,9 +96,8 @@ fn one() -> usize {
 
 /// Generates puzzles (for Drill and Coach, in the worker): options `{theme, rule, size,
 /// ratingLo, ratingHi, seed, count, minMoves, unique}` (the last two optional); returns
-/// set-file JSON. The same options give the same set here and
-/// natively. `progress`, if given, is called after every self-play game with the puzzles kept
-/// and the games played so far.
+/// set-file JSON. The same options give the same set here and natively. `progress`, if given,
+/// is called after every self-play game with the puzzles kept and the games played so far.
 #[wasm_bindgen(js_name = generateSet)]
 pub fn generate_set(
     options: JsValue,

@@ -50,6 +50,46 @@ const shows = ([theme, rule]) => {
     document.getElementById('drill-board').dataset.mode === 'puzzle';
 };
 
+// Runs `jobs` one after another in a fresh app worker (web/worker.js) in the page; each job is
+// a list of messages tried in turn until one is answered without an error. Resolves to the
+// answers and the milliseconds from starting the worker to the last answer.
+const inWorker = (page, jobs) => page.evaluate(async (jobs) => {
+  const t0 = performance.now();
+  const w = new Worker('./worker.js', { type: 'module' });
+  let id = 0;
+  const ask = (m) => new Promise((ok, fail) => {
+    w.onmessage = (e) => {
+      if (e.data.progress) return;
+      if ('error' in e.data) fail(new Error(e.data.error));
+      else ok(e.data.result);
+    };
+    w.postMessage({ id: ++id, ...m });
+  });
+  const results = [];
+  try {
+    for (const tries of jobs) {
+      for (const [k, m] of tries.entries()) {
+        try {
+          results.push(await ask(m));
+          break;
+        } catch (e) {
+          if (k === tries.length - 1) throw e;
+        }
+      }
+    }
+  } finally {
+    w.terminate();
+  }
+  return { results, ms: performance.now() - t0 };
+}, jobs);
+
+// The time to one made puzzle: `tries` are generate options tried in turn.
+async function timeMade(page, tries) {
+  const { results, ms } = await inWorker(page, [tries.map((options) => ({ type: 'generate', options }))]);
+  if (!JSON.parse(results[0]).puzzles.length) throw new Error('no puzzle');
+  return ms;
+}
+
 const server = await serve();
 const browser = await launch();
 const out = { first: {}, made: {}, memory: {} };
@@ -60,21 +100,7 @@ try {
     for (const [theme, minMoves] of [['vcf', 10], ['vct', 6], ['defend', 5]]) {
       const times = [];
       for (let i = 0; i < RUNS; i++) {
-        times.push(await page.evaluate(async (options) => {
-          const t0 = performance.now();
-          const w = new Worker('./worker.js', { type: 'module' });
-          const made = await new Promise((ok, fail) => {
-            w.onmessage = (e) => {
-              if (e.data.progress) return;
-              if ('error' in e.data) fail(new Error(e.data.error));
-              else ok(e.data.result);
-            };
-            w.postMessage({ id: 1, type: 'generate', options });
-          });
-          w.terminate();
-          if (!JSON.parse(made).puzzles.length) throw new Error('no puzzle');
-          return performance.now() - t0;
-        }, { theme, rule: 'freestyle', size: 15, ratingLo: 1900, ratingHi: 2600, seed: 601 + i, count: 1, minMoves, unique: true }));
+        times.push(await timeMade(page, [{ theme, rule: 'freestyle', size: 15, ratingLo: 1900, ratingHi: 2600, seed: 601 + i, count: 1, minMoves, unique: true }]));
       }
       out.deep ??= {};
       out.deep[`${theme}/min ${minMoves}`] = summary(times);
@@ -114,52 +140,19 @@ try {
       for (const theme of themes) {
         const times = [];
         for (let i = 0; i < RUNS; i++) {
-          times.push(await page.evaluate(async ([theme, rule, seed]) => {
-            const t0 = performance.now();
-            const w = new Worker('./worker.js', { type: 'module' });
-            const answer = (m) => new Promise((ok, fail) => {
-              w.onmessage = (e) => {
-                if (e.data.progress) return;
-                if ('error' in e.data) fail(new Error(e.data.error));
-                else ok(e.data.result);
-              };
-              w.postMessage(m);
-            });
-            // The band Drill asks for a new player (rating 1500 ± its uncertainty), then any.
-            let made = null;
-            try {
-              made = await answer({ id: 1, type: 'generate', options: { theme, rule, size: 15, ratingLo: 1250, ratingHi: 1750, seed, count: 1 } });
-            } catch {
-              made = await answer({ id: 2, type: 'generate', options: { theme, rule, size: 15, ratingLo: 600, ratingHi: 2600, seed, count: 1 } });
-            }
-            const ms = performance.now() - t0;
-            if (!JSON.parse(made).puzzles.length) throw new Error('no puzzle');
-            w.terminate();
-            return ms;
-          }, [theme, rule, 1000 + i]));
+          // The band Drill asks for a new player (rating 1500 ± its uncertainty), then any.
+          const seed = 1000 + i;
+          times.push(await timeMade(page, [
+            { theme, rule, size: 15, ratingLo: 1250, ratingHi: 1750, seed, count: 1 },
+            { theme, rule, size: 15, ratingLo: 600, ratingHi: 2600, seed, count: 1 },
+          ]));
         }
         out.made[`${theme}/${rule}`] = summary(times);
         console.log(row(`${theme}/${rule}`, times));
       }
       // The worker's linear memory after one generation of each theme in a row.
-      out.memory[rule] = await page.evaluate(async ([themes, rule]) => {
-        const w = new Worker('./worker.js', { type: 'module' });
-        let id = 0;
-        const ask = (m) => new Promise((ok, fail) => {
-          w.onmessage = (e) => {
-            if (e.data.progress) return;
-            if ('error' in e.data) fail(new Error(e.data.error));
-            else ok(e.data.result);
-          };
-          w.postMessage({ id: ++id, ...m });
-        });
-        for (const theme of themes) {
-          await ask({ type: 'generate', options: { theme, rule, size: 15, ratingLo: 600, ratingHi: 2600, seed: 7, count: 3 } });
-        }
-        const bytes = await ask({ type: 'memory' });
-        w.terminate();
-        return bytes;
-      }, [themes, rule]);
+      const jobs = themes.map((theme) => [{ type: 'generate', options: { theme, rule, size: 15, ratingLo: 600, ratingHi: 2600, seed: 7, count: 3 } }]);
+      out.memory[rule] = (await inWorker(page, [...jobs, [{ type: 'memory' }]])).results.at(-1);
       console.log(`  worker linear memory after 3 puzzles of each ${rule} theme: ${(out.memory[rule] / 2 ** 20).toFixed(1)} MiB`);
       await context.close();
     }
