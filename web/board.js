@@ -5,8 +5,14 @@
 // log and the live region.
 
 import { PuzzleBoard, StudyBoard } from './pkg/fivefold_web.js';
+import { Jobs } from './jobs.js';
 import { announce, bringBoard, el } from './ui.js';
 import { sound } from './sounds.js';
+
+// The worker that settles the moves a board could not within a frame's work (rare: about one
+// move in a hundred of the starter library's benchmark). Its own worker, so that it never
+// waits behind a Drill puzzle being made; started the first time a move needs it.
+let graders = null;
 
 // Pauses before the app's moves are shown, in milliseconds.
 const REPLY_MS = 320;
@@ -149,6 +155,7 @@ export class BoardView {
     this.cancelPacing();
     this.clearLog();
     this.trainer.load(puzzleJson, trusted, record);
+    this.puzzle = { json: puzzleJson, trusted };
     this.shownAt = performance.now();
     this.reported = this.trainer.status().state !== 'playing';
     this.fit();
@@ -177,7 +184,7 @@ export class BoardView {
   }
 
   click(e) {
-    if (this.readOnly) return;
+    if (this.readOnly || this.checking) return;
     const touch = (e.pointerType || this.lastPointer) === 'touch';
     const a = this.trainer.tap(e.clientX, e.clientY, touch);
     this.answer(a);
@@ -191,16 +198,21 @@ export class BoardView {
       const stone = this.trainer.stoneAt(p);
       announce(`${p}${stone ? `, ${stone} stone` : ', empty'}`);
       this.canvas.dataset.cursor = p;
-    } else if ((e.key === 'Enter' || e.key === ' ') && !this.readOnly) {
+    } else if ((e.key === 'Enter' || e.key === ' ') && !this.readOnly && !this.checking) {
       e.preventDefault();
       this.answer(this.trainer.placeAtCursor());
     }
   }
 
-  /** Handles a Trainer answer: sentences, animation, and the pacing of the app's moves. */
-  answer(a) {
+  /** Handles a Trainer answer: sentences, animation, and the pacing of the app's moves. A
+   * move the page could not settle within a frame's work goes to the worker first. */
+  answer(a, settled = false) {
     if (!a || a.kind === 'none') {
       if (a?.say?.length) this.say(a.say, 'info');
+      return;
+    }
+    if (a.kind === 'undecided' && !settled && this.puzzle && this.trainer instanceof PuzzleBoard) {
+      this.settle(a);
       return;
     }
     const kind = {
@@ -227,6 +239,38 @@ export class BoardView {
     const token = ++this.token;
     this.changed(a.kind);
     if (a.pending > 0) this.pace(token, a.kind === 'wrong');
+  }
+
+  /** Has the worker settle the move of the page's undecided answer `a`, with the whole
+   * allowance of a move, and puts its grade on the board. The board takes no move meanwhile;
+   * a new puzzle, an undo or a retry drops the worker's answer. */
+  async settle(a) {
+    const token = ++this.token;
+    const point = a.point;
+    this.checking = point;
+    this.canvas.dataset.checking = point;
+    const colour = this.trainer.status().toMove;
+    this.note(`${colour[0].toUpperCase()}${colour.slice(1)} ${point}: checking it more deeply…`, 'info');
+    announce(`Checking ${point}.`);
+    let settled = null;
+    try {
+      graders ??= new Jobs();
+      const grade = await graders.run('grade', {
+        puzzle: this.puzzle.json,
+        trusted: this.puzzle.trusted,
+        moves: this.trainer.gradedMoves(),
+        move: point,
+      });
+      if (token === this.token) settled = this.trainer.settle(point, grade);
+    } catch {
+      // No worker here, or it stopped: the page's own answer stands (undecided).
+    }
+    if (this.checking === point) {
+      this.checking = null;
+      delete this.canvas.dataset.checking;
+    }
+    if (token !== this.token) return;
+    this.answer(settled ?? a, true);
   }
 
   async pace(token, slow) {

@@ -2,13 +2,14 @@
 // searches off the page's thread, so the page stays responsive. Messages in: {type: "init",
 // module} (optional: a compiled wasm module, used by the single-file build), {id, type:
 // "generate", options},
-// {id, type: "solve", query}, {id, type: "prove", puzzle}, {id, type: "review", query} (a
+// {id, type: "solve", query}, {id, type: "prove", puzzle}, {id, type: "grade", puzzle, trusted,
+// moves, move} (a move the page could not settle within a frame: the grade as JSON), {id, type: "review", query} (a
 // game's task: checked move by move, with progress {checked, total, move}; or its puzzles or
 // a finding's defences, query.task) and {id, type: "memory"} (the engine's linear memory in
 // bytes, for web/tools/measure-drill.mjs). Messages out: {id, progress}, {id, result} or
 // {id, error, fatal}.
 
-import init, { checkGame, generateSet, provePuzzle, solvePosition } from './workshop/fivefold_web.js';
+import init, { checkGame, generateSet, gradeMove, provePuzzle, solvePosition } from './workshop/fivefold_web.js';
 
 let ready = null;
 
@@ -43,6 +44,9 @@ self.onmessage = async (event) => {
     } else if (m.type === 'memory') {
       // The engine's linear memory in bytes: it never shrinks, so this is its peak so far.
       self.postMessage({ id: m.id, result: (await start()).memory.buffer.byteLength });
+    } else if (m.type === 'grade') {
+      // A move the page left undecided within its frame's work: settled here, off its thread.
+      self.postMessage({ id: m.id, result: gradeMove(m.puzzle, m.trusted, m.moves, m.move) });
     } else if (m.type === 'prove') {
       self.postMessage({ id: m.id, result: provePuzzle(m.puzzle) });
     } else {

@@ -18,7 +18,7 @@ use crate::patterns::LineShape;
 use crate::types::Stone;
 
 /// Why a point is forbidden for black under renju.
-#[derive(Clone, Copy, PartialEq, Eq, Hash, Debug)]
+#[derive(Clone, Copy, PartialEq, Eq, Hash, Debug, serde::Serialize, serde::Deserialize)]
 pub enum Forbidden {
     /// Two or more threes at once.
     DoubleThree,
@@ -210,7 +210,7 @@ impl Notes for Vec<u16> {
 }
 
 /// Why a move was refused.
-#[derive(Clone, Copy, PartialEq, Eq, Debug)]
+#[derive(Clone, Copy, PartialEq, Eq, Debug, serde::Serialize, serde::Deserialize)]
 pub enum MoveError {
     /// The point is not on the board.
     OffBoard(Point),

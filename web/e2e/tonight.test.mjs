@@ -146,6 +146,50 @@ test('a wrong first move is refuted slowly, with its reason', async () => {
   await context.close();
 });
 
+test('a move the page cannot settle within a frame is settled by the worker, not left undecided', async () => {
+  // Puzzle 7 of the standard threats set, and l7, a first move next to its key k8: the engine
+  // benchmark (engine/benches/puzzles.rs, grading) finds that settling it needs more than the
+  // page's allowance of a move (grade::PAGE_NODES). With the whole allowance it is a win too
+  // (another way in), so it is accepted, and the reply is played.
+  const set = librarySet('threats-standard');
+  const p = set.puzzles[6];
+  assert.equal(p.id, 'vt-1a943849a66b');
+  assert.ok(!p.solution.first_moves.includes('l7'));
+  const { page, context, errors } = await open(env.browser, env.server.url);
+  const workers = [];
+  page.on('worker', (w) => workers.push(w.url()));
+  await addFromLibrary(page, set.title);
+  await page.click('#tonight-marks li:nth-child(7) button');
+  await page.waitForFunction(() => document.getElementById('tonight-count').textContent.startsWith('Puzzle 7 '));
+  await page.evaluate(() => {
+    window.checkingTrace = [];
+    const c = document.getElementById('tonight-board');
+    new MutationObserver(() => window.checkingTrace.push([c.dataset.checking ?? '', document.getElementById('tonight-message').textContent]))
+      .observe(c, { attributes: true, attributeFilter: ['data-checking'] });
+  });
+  const before = workers.length;
+  await tap(page, BOARD, 'l7');
+  await page.waitForFunction(() => window.checkingTrace.length >= 2);
+  const trace = await page.evaluate(() => window.checkingTrace);
+  assert.deepEqual(trace.map((t) => t[0]), ['l7', ''], 'the board was checking l7, then done');
+  assert.equal(trace[0][1], 'White l7: checking it more deeply…');
+  assert.ok(workers.length > before, 'a worker settled the move');
+  await page.waitForSelector(`#${BOARD}[data-pending="0"]`);
+  const s = await boardState(page, BOARD);
+  assert.equal(s.state, 'playing');
+  assert.equal(s.moves.split(' ').length, 2, 'the move and the reply');
+  assert.equal(s.moves.split(' ')[0], 'l7');
+  assert.equal(await page.textContent('#tonight-message'), 'White l7: correct.');
+  const log = await logLines(page, 'tonight-log');
+  assert.equal(log[0], 'White l7: correct.');
+  assert.match(log.at(-1), new RegExp(`^Black .*${s.moves.split(' ')[1]}\\.$`), 'the reply is told');
+  // Undo takes the move and its reply back, as after any move.
+  await page.click('#tonight-play [data-act="undo"]');
+  assert.equal((await boardState(page, BOARD)).moves, '');
+  assert.deepEqual(errors, []);
+  await context.close();
+});
+
 test('three hint steps: the theme and length, the area of the key move, the move', async () => {
   const { page, context, errors } = await open(env.browser, env.server.url, { dpr: 2 });
   await addFromLibrary(page, CLUB.title);

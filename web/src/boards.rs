@@ -8,6 +8,7 @@ use std::str::FromStr;
 
 use engine::formats::setfile;
 use engine::puzzle::attempt::Attempt;
+use engine::puzzle::grade::{self, Grade};
 use engine::trainer::{Answer, AnswerKind, PuzzleBoard, Record, Settings, StudyBoard, Tool, View};
 use engine::{Point, Rule, Stone};
 use serde::{Deserialize, Serialize};
@@ -185,6 +186,9 @@ impl PuzzleBoardHandle {
         if let Some(r) = record {
             with_solver(|s| board.restore(s, &r));
         }
+        // A move the page cannot settle within a frame's work goes to the worker
+        // (`gradedMoves`, then `settle`).
+        board.set_allowance(grade::PAGE_NODES);
         self.board = Some(board);
         self.surface.still();
         let view = self.view();
@@ -211,6 +215,27 @@ impl PuzzleBoardHandle {
             Err(e) => refused(e),
         };
         self.answer(a)
+    }
+
+    /// The moves since the puzzle's start, `[[point, colour], ...]` as JSON: with the puzzle
+    /// and the move, what the worker needs to settle a move the page left undecided (its
+    /// `gradeMove` job).
+    #[wasm_bindgen(js_name = gradedMoves)]
+    pub fn graded_moves(&self) -> Result<String, JsValue> {
+        let moves = self.board.as_ref().map_or(&[][..], |b| b.graded_moves());
+        serde_json::to_string(moves).map_err(err)
+    }
+
+    /// Puts on the board the grade the worker settled for the move `name` (`gradeJson`, from
+    /// `gradeMove`) and answers as `play` does; null if it no longer fits this board (another
+    /// puzzle, or moves taken back meanwhile), and then nothing changed.
+    pub fn settle(&mut self, name: &str, grade_json: &str) -> Result<JsValue, JsValue> {
+        let p = point(name)?;
+        let grade: Grade = serde_json::from_str(grade_json).map_err(err)?;
+        match self.board.as_mut().and_then(|b| b.apply(p, grade)) {
+            Some(a) => self.answer(a),
+            None => Ok(JsValue::NULL),
+        }
     }
 
     /// Shows the next move the app has played: `{point, colour, say, more}`, or null.

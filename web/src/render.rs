@@ -12,7 +12,7 @@
 use engine::trainer::View;
 use engine::{Point, Stone};
 use wasm_bindgen::JsValue;
-use web_sys::CanvasRenderingContext2d;
+use web_sys::{CanvasRenderingContext2d, HtmlCanvasElement};
 
 use crate::layout::Layout;
 
@@ -73,7 +73,18 @@ struct Pen<'a> {
     lw: f64,
 }
 
-impl Pen<'_> {
+impl<'a> Pen<'a> {
+    /// A pen for this layout, or `None` when the grid is too small to draw on (under four
+    /// device pixels a step: only the board's colour is painted then).
+    fn new(ctx: &'a CanvasRenderingContext2d, layout: &'a Layout, dpr: f64) -> Option<Pen<'a>> {
+        (layout.step * dpr >= 4.0).then(|| Pen {
+            ctx,
+            layout,
+            dpr,
+            lw: dpr.round().max(1.0),
+        })
+    }
+
     fn step(&self) -> f64 {
         self.layout.step * self.dpr
     }
@@ -226,15 +237,11 @@ impl Pen<'_> {
 /// diamond for the last move, rings on a winning line, a cross on a forbidden point, a dashed
 /// square for a hint's area, a double ring for a hinted move, corner brackets for the keyboard
 /// cursor, a hollow square on a refuted move, and a half-clear stone for a preview.
-pub fn draw(
-    ctx: &CanvasRenderingContext2d,
-    layout: &Layout,
-    dpr: f64,
-    view: &View,
-    growing: Option<(Point, f64)>,
-) -> Result<(), JsValue> {
-    let stones = &view.stones;
-    let marks = &view.marks;
+/// Paints what stays the same from one move to the next on a board of this layout: the
+/// board's colour, the grid with its star points, and the coordinates. [`draw`] copies it from
+/// a canvas it was painted on once (text is the dearest thing a canvas draws: in headless
+/// Chromium thirty labels a redraw cost up to a second now and then, web/tools/measure.mjs).
+pub fn backdrop(ctx: &CanvasRenderingContext2d, layout: &Layout, dpr: f64) -> Result<(), JsValue> {
     ctx.set_transform(1.0, 0.0, 0.0, 1.0, 0.0, 0.0)?;
     ctx.set_fill_style_str(BOARD);
     ctx.fill_rect(
@@ -243,17 +250,37 @@ pub fn draw(
         (layout.width * dpr).round(),
         (layout.height * dpr).round(),
     );
-    if layout.step * dpr < 4.0 {
-        return Ok(());
+    match Pen::new(ctx, layout, dpr) {
+        Some(pen) => {
+            pen.grid();
+            pen.coordinates()
+        }
+        None => Ok(()),
     }
-    let pen = Pen {
-        ctx,
-        layout,
-        dpr,
-        lw: dpr.round().max(1.0),
+}
+
+/// Draws the board: the backdrop (copied from `backdrop` when given, a canvas of the same size
+/// that [`backdrop`] painted for this layout; else painted here), then the stones and marks.
+pub fn draw(
+    ctx: &CanvasRenderingContext2d,
+    layout: &Layout,
+    dpr: f64,
+    view: &View,
+    growing: Option<(Point, f64)>,
+    painted: Option<&HtmlCanvasElement>,
+) -> Result<(), JsValue> {
+    let stones = &view.stones;
+    let marks = &view.marks;
+    match painted {
+        Some(b) => {
+            ctx.set_transform(1.0, 0.0, 0.0, 1.0, 0.0, 0.0)?;
+            ctx.draw_image_with_html_canvas_element(b, 0.0, 0.0)?;
+        }
+        None => backdrop(ctx, layout, dpr)?,
+    }
+    let Some(pen) = Pen::new(ctx, layout, dpr) else {
+        return Ok(());
     };
-    pen.grid();
-    pen.coordinates()?;
     if let Some((a, b)) = marks.hint_area {
         pen.area(a, b);
     }

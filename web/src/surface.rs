@@ -2,6 +2,8 @@
 //! sits on it, which point a tap lands on, and the animation of a stone appearing. Both board
 //! handles ([`crate::boards`]) draw through one of these.
 
+use std::cell::RefCell;
+
 use engine::trainer::View;
 use engine::Point;
 use wasm_bindgen::prelude::*;
@@ -25,6 +27,19 @@ pub(crate) struct Surface {
     text: f64,
     /// A stone that is appearing, and when it started (set by the first frame).
     growing: Option<(Point, Option<f64>)>,
+    /// The backdrop painted once for a layout, ratio and size (see [`render::backdrop`]), on
+    /// a canvas of its own that each redraw copies; `None` until the first redraw, or where
+    /// no canvas can be made (then each redraw paints it).
+    backdrop: RefCell<Option<Backdrop>>,
+}
+
+/// A backdrop canvas and what it was painted for: the layout, the pixel ratio and the size in
+/// device pixels.
+struct Backdrop {
+    layout: Layout,
+    dpr: f64,
+    size: (u32, u32),
+    canvas: HtmlCanvasElement,
 }
 
 impl Surface {
@@ -41,6 +56,7 @@ impl Surface {
             dpr: 1.0,
             text: 16.0,
             growing: None,
+            backdrop: RefCell::new(None),
         })
     }
 
@@ -129,6 +145,38 @@ impl Surface {
         }
         self.canvas
             .set_attribute("data-size", &view.size.to_string())?;
-        render::draw(&self.ctx, &self.layout, self.dpr, view, growing)
+        let (w, h) = (self.canvas.width(), self.canvas.height());
+        let mut cache = self.backdrop.borrow_mut();
+        let fresh = cache
+            .as_ref()
+            .is_some_and(|b| b.layout == self.layout && b.dpr == self.dpr && b.size == (w, h));
+        if !fresh {
+            *cache = self.paint_backdrop(w, h).ok().map(|canvas| Backdrop {
+                layout: self.layout,
+                dpr: self.dpr,
+                size: (w, h),
+                canvas,
+            });
+        }
+        let painted = cache.as_ref().map(|b| &b.canvas);
+        render::draw(&self.ctx, &self.layout, self.dpr, view, growing, painted)
+    }
+
+    /// A canvas of `w` by `h` device pixels with the backdrop of the current layout on it.
+    fn paint_backdrop(&self, w: u32, h: u32) -> Result<HtmlCanvasElement, JsValue> {
+        let canvas = self
+            .canvas
+            .owner_document()
+            .ok_or_else(|| err("no document"))?
+            .create_element("canvas")?
+            .dyn_into::<HtmlCanvasElement>()?;
+        canvas.set_width(w);
+        canvas.set_height(h);
+        let ctx = canvas
+            .get_context("2d")?
+            .ok_or_else(|| err("no 2d context"))?
+            .dyn_into::<CanvasRenderingContext2d>()?;
+        render::backdrop(&ctx, &self.layout, self.dpr)?;
+        Ok(canvas)
     }
 }

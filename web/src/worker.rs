@@ -5,6 +5,7 @@
 use engine::formats::setfile;
 use engine::notation;
 use engine::puzzle::generate::{self, Options};
+use engine::puzzle::grade::Session;
 use engine::puzzle::{verify, Theme};
 use engine::search::Budget;
 use engine::study::{study, StudyAnswer, StudySearch};
@@ -64,6 +65,30 @@ pub fn prove_puzzle(puzzle_json: &str) -> Result<JsValue, JsValue> {
         },
     };
     crate::boards::to_js(&out)
+}
+
+/// Settles a move the page could not within its frame's allowance (in the worker): the
+/// puzzle as one set-file puzzle object, whether its key is trusted (as the page loaded it),
+/// the moves since its start (`[[point, colour], ...]`, the page's `gradedMoves`) and the
+/// player's move. Grades it as the page would, with the whole allowance of a move
+/// (`grade::MOVE_NODES`), and returns the grade as JSON for the page's `settle`.
+#[wasm_bindgen(js_name = gradeMove)]
+pub fn grade_move(
+    puzzle_json: &str,
+    trusted: bool,
+    moves_json: &str,
+    mv: &str,
+) -> Result<String, JsValue> {
+    let puzzle = crate::boards::parse_puzzle(puzzle_json)?;
+    let moves: Vec<(Point, Stone)> = serde_json::from_str(moves_json).map_err(err)?;
+    let p: Point = mv.trim().parse().map_err(err)?;
+    let mut session = Session::new(puzzle);
+    session.trust_key(trusted);
+    if !session.replay(&moves) {
+        return Err(err("the moves do not fit the puzzle"));
+    }
+    let grade = with_solver(|s| session.play(s, p));
+    serde_json::to_string(&grade).map_err(err)
 }
 
 #[derive(Deserialize)]

@@ -12,7 +12,8 @@
 //!
 //! Every question is asked with [`Budget::GRADING`] and the moves since the puzzle's start, so
 //! that a question in the middle of a line searches the same VCT class as the proof from the
-//! start did.
+//! start did, and all the questions of one move together spend at most the session's
+//! allowance ([`MOVE_NODES`] unless set): a grade is bounded, whatever it has to ask.
 
 use super::{Goal, Puzzle};
 use crate::board::{threat, Board};
@@ -20,6 +21,16 @@ use crate::geometry::Point;
 use crate::rules::{Forbidden, MoveError};
 use crate::search::{Asking, Budget, Mode, Solver, SolverConfig, Verdict};
 use crate::types::Stone;
+
+/// What one move's grade may spend in all, unless set (see [`Session::set_allowance`]):
+/// the per-question total of [`Budget::GRADING`] twice over, which settles every move of the
+/// starter library's benchmark (engine/benches/README.md, "Grading").
+pub const MOVE_NODES: u64 = 2 * Budget::GRADING.total;
+
+/// What the page spends on a move before it hands the move to its worker: about a frame's
+/// work in the browser here (engine/benches/README.md, "Grading"). Nearly every move is
+/// settled within it.
+pub const PAGE_NODES: u64 = 3_000;
 
 /// The tables moves are graded with, in the browser and in the tests that stand for it:
 /// 12 + 4 MB. Each question is asked with [`Budget::GRADING`].
@@ -32,7 +43,7 @@ pub fn solver_config() -> SolverConfig {
 }
 
 /// What the opponent's reply to an accepted move does.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, serde::Serialize, serde::Deserialize)]
 pub enum ReplyNote {
     /// Blocks the player's four.
     Blocks,
@@ -58,7 +69,7 @@ pub enum ReplyNote {
 }
 
 /// How a puzzle was solved.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, serde::Serialize, serde::Deserialize)]
 pub enum SolvedBy {
     /// The player made five.
     Five,
@@ -67,7 +78,7 @@ pub enum SolvedBy {
 }
 
 /// Why a move is wrong. The refutation that shows it is in [`Grade::Wrong`].
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, serde::Serialize, serde::Deserialize)]
 pub enum WrongReason {
     /// The move was a four; the forced block at `block` leaves no winning follow-up.
     NoFollowUp {
@@ -109,8 +120,9 @@ pub enum WrongReason {
     },
 }
 
-/// The answer to one move.
-#[derive(Clone, Debug, PartialEq, Eq)]
+/// The answer to one move. It travels as JSON (serde) from the worker that settles a move the
+/// page could not, to the page's session ([`Session::apply`]).
+#[derive(Clone, Debug, PartialEq, Eq, serde::Serialize, serde::Deserialize)]
 pub enum Grade {
     /// The move is good; the opponent's reply is already played.
     Accepted {
@@ -188,6 +200,10 @@ pub struct Session {
     /// Whether the answer key may settle a move the grading budget cannot decide (see
     /// [`Session::trust_key`]).
     pub(super) trusted: bool,
+    /// Nodes one move's grade may spend in all (see [`Session::set_allowance`]).
+    allowance: u64,
+    /// Nodes the last move's grade spent.
+    spent: u64,
 }
 
 impl Session {
@@ -204,7 +220,23 @@ impl Session {
             turns: Vec::new(),
             state: State::Playing,
             trusted: false,
+            allowance: MOVE_NODES,
+            spent: 0,
         }
+    }
+
+    /// Sets what one move's grade may spend in all, every question it asks together (the
+    /// win, the class of the line and afresh, the refutation's tries); [`MOVE_NODES`] unless
+    /// set. A move that cannot be settled within it is [`Grade::Undecided`] and nothing of it
+    /// stays, so a caller may ask again with a larger allowance (the page grades within a
+    /// frame's worth and hands what that cannot settle to its worker).
+    pub fn set_allowance(&mut self, nodes: u64) {
+        self.allowance = nodes;
+    }
+
+    /// Nodes the last move's grade spent (every question it asked).
+    pub fn last_spent(&self) -> u64 {
+        self.spent
     }
 
     /// Says whether this puzzle's answer key was proved by this program (the built-in library,
@@ -282,8 +314,66 @@ impl Session {
         while self.undo() {}
     }
 
-    /// Grades the player's move `p` and, when it is accepted, plays the opponent's reply.
+    /// Puts moves already graded back on the board, in order (the player's and the app's),
+    /// without grading them: a worker asked to settle the next move rebuilds the page's
+    /// session with them. Stops at the first move that is not a legal move of its colour
+    /// here and says whether every move was put.
+    pub fn replay(&mut self, moves: &[(Point, Stone)]) -> bool {
+        for &(p, c) in moves {
+            if self.state != State::Playing || self.board.check_move(p, c).is_err() {
+                return false;
+            }
+            self.put(p, c);
+            self.turns.push(1);
+        }
+        true
+    }
+
+    /// Puts on the board the grade of the player's move `p` that was settled elsewhere (by
+    /// the worker, on a session replayed to this one's moves, see [`Session::replay`]): the
+    /// move, and the reply or refutation, exactly as [`Session::play`] would have. A grade
+    /// that changes nothing (illegal, undecided, finished) changes nothing here either.
+    /// Returns whether the grade fits this session (the player to move, `p` legal and every
+    /// stone of the grade on an empty point); if not, nothing changed.
+    pub fn apply(&mut self, p: Point, grade: &Grade) -> bool {
+        let me = self.player();
+        if self.state != State::Playing || self.board.check_move(p, me).is_err() {
+            return false;
+        }
+        let fits = match grade {
+            Grade::Accepted { reply, .. } => {
+                *reply != p && self.board.contains(*reply) && self.board.get(*reply).is_none()
+            }
+            // The refutation's stones go on the points still empty, as in `fail`.
+            Grade::Wrong { refutation, .. } => refutation.iter().all(|&q| self.board.contains(q)),
+            Grade::Solved { .. } => true,
+            Grade::Illegal { .. } | Grade::Undecided | Grade::Finished => return true,
+        };
+        if !fits {
+            return false;
+        }
+        let before = self.history.len();
+        self.put(p, me);
+        match grade {
+            Grade::Accepted { reply, .. } => self.put(*reply, me.opponent()),
+            Grade::Wrong { refutation, reason } => {
+                self.fail(refutation.clone(), *reason);
+            }
+            _ => self.state = State::Solved,
+        }
+        self.turns.push(self.history.len() - before);
+        true
+    }
+
+    /// Grades the player's move `p` and, when it is accepted, plays the opponent's reply. The
+    /// grade's questions spend at most the session's allowance together.
     pub fn play(&mut self, solver: &mut Solver, p: Point) -> Grade {
+        let (grade, spent) = solver.within(self.allowance, |s| self.grade(s, p));
+        self.spent = spent;
+        grade
+    }
+
+    fn grade(&mut self, solver: &mut Solver, p: Point) -> Grade {
         if self.state != State::Playing {
             return Grade::Finished;
         }
@@ -634,16 +724,33 @@ mod tests {
         p
     }
 
-    #[test]
-    fn an_alternative_winning_move_is_accepted() {
-        // Black's open three h8-j8 plus a vertical pair: both ends of the three win.
-        let p = puzzle(
+    /// Black's open three h8-j8 plus a vertical pair: both ends of the three win.
+    fn open_three() -> Puzzle {
+        puzzle(
             Rule::Freestyle,
             "h8 i8 j8",
             "a1 a3 o15",
             Stone::Black,
             Theme::Vcf,
-        );
+        )
+    }
+
+    /// Black's three h8-j8 is capped by White's g8, so k8 makes only a four, and White's
+    /// forced block at l8 completes White's own four l8-l11.
+    fn capped_three() -> Puzzle {
+        puzzle(
+            Rule::Freestyle,
+            "h8 i8 j8 e5 f5",
+            "g8 l9 l10 l11 a1",
+            Stone::Black,
+            Theme::Vcf,
+        )
+    }
+
+    #[test]
+    fn an_alternative_winning_move_is_accepted() {
+        // Black's open three h8-j8 plus a vertical pair: both ends of the three win.
+        let p = open_three();
         let mut solver = Solver::default();
         for first in ["g8", "k8"] {
             let mut s = Session::new(p.clone());
@@ -669,13 +776,7 @@ mod tests {
     fn a_move_that_allows_a_counter_four_is_refuted() {
         // Black's three h8-j8 is capped by White's g8, so k8 makes only a four, and White's
         // forced block at l8 completes White's own four l8-l11.
-        let p = puzzle(
-            Rule::Freestyle,
-            "h8 i8 j8 e5 f5",
-            "g8 l9 l10 l11 a1",
-            Stone::Black,
-            Theme::Vcf,
-        );
+        let p = capped_three();
         let mut solver = Solver::default();
         let mut s = Session::new(p);
         match s.play(&mut solver, "k8".parse().unwrap()) {
@@ -725,5 +826,73 @@ mod tests {
         }
         assert_eq!(s.board().hash(), before);
         assert!(s.history().is_empty());
+    }
+
+    /// The page grades with a small allowance and hands what it cannot settle to the worker,
+    /// whose grade the page then applies: the result must be what grading the move with the
+    /// whole allowance gives, on the board, in the history and in the state.
+    #[test]
+    fn a_grade_settled_elsewhere_is_applied_as_if_played_here() {
+        let cases = [
+            // An alternative answer: accepted, with the reply played.
+            (open_three(), "g8"),
+            // A four whose forced block makes a counter-four: wrong, with the refutation.
+            (capped_three(), "k8"),
+        ];
+        for (p, mv) in cases {
+            let m: Point = mv.parse().unwrap();
+            let mut direct = Session::new(p.clone());
+            let want = direct.play(&mut Solver::default(), m);
+            assert!(direct.last_spent() > 0, "{mv}: the case must need a search");
+            assert!(matches!(want, Grade::Accepted { .. } | Grade::Wrong { .. }));
+
+            // The page: no allowance at all, so nothing is settled; nothing changes.
+            let mut page = Session::new(p.clone());
+            page.set_allowance(0);
+            assert_eq!(
+                page.play(&mut Solver::default(), m),
+                Grade::Undecided,
+                "{mv}"
+            );
+            assert!(page.last_spent() <= 1, "{mv}: spent {}", page.last_spent());
+            assert!(page.history().is_empty());
+
+            // The worker: replays the page's moves, settles the move, sends it as JSON.
+            let mut worker = Session::new(p.clone());
+            assert!(worker.replay(page.history()));
+            let got = worker.play(&mut Solver::default(), m);
+            assert_eq!(got, want, "{mv}");
+            let text = serde_json::to_string(&got).unwrap();
+            let got: Grade = serde_json::from_str(&text).unwrap();
+
+            assert!(page.apply(m, &got), "{mv}");
+            assert_eq!(page.history(), direct.history(), "{mv}");
+            assert_eq!(page.state(), direct.state(), "{mv}");
+            assert_eq!(page.board().hash(), direct.board().hash(), "{mv}");
+            // One turn, taken back whole.
+            assert!(page.undo());
+            assert!(page.history().is_empty());
+            assert_eq!(page.state(), State::Playing);
+        }
+    }
+
+    #[test]
+    fn a_grade_that_does_not_fit_changes_nothing() {
+        let p = open_three();
+        let mut s = Session::new(p);
+        let before = s.board().hash();
+        let g8: Point = "g8".parse().unwrap();
+        // The reply on an occupied point, and the move on an occupied point.
+        let onto_stone = Grade::Accepted {
+            reply: "a1".parse().unwrap(),
+            note: ReplyNote::Blocks,
+        };
+        assert!(!s.apply(g8, &onto_stone));
+        assert!(!s.apply("h8".parse().unwrap(), &Grade::Solved { by: SolvedBy::Five }));
+        // Moves that do not fit stop a replay.
+        assert!(!Session::new(s.puzzle().clone()).replay(&[(g8, Stone::Black), (g8, Stone::White)]));
+        assert_eq!(s.board().hash(), before);
+        assert!(s.history().is_empty());
+        assert_eq!(s.state(), State::Playing);
     }
 }

@@ -202,6 +202,9 @@ pub struct Solver {
     tt: Table,
     oracle: VcfOracle,
     config: SolverConfig,
+    /// Nodes every question still may spend together, inside [`Solver::within`]; `None`
+    /// outside it (each question has only its own budget).
+    allowance: Option<u64>,
 }
 
 impl Default for Solver {
@@ -220,7 +223,24 @@ impl Solver {
                 Budget::VERIFICATION.vcf_question,
             ),
             config,
+            allowance: None,
         }
+    }
+
+    /// Runs `f` with at most `nodes` nodes for all the questions it asks together, each
+    /// question's own budget still applying: a caller that asks several questions about one
+    /// thing (a grade: does the win hold, and if not, which reply refutes it) stays within
+    /// one total. A question that finds the allowance spent ends as `Unknown`, as it would at
+    /// its own budget. Returns `f`'s answer and the nodes spent. Nested calls never give
+    /// more than the outer one has left.
+    pub fn within<T>(&mut self, nodes: u64, f: impl FnOnce(&mut Solver) -> T) -> (T, u64) {
+        let outer = self.allowance;
+        let given = outer.map_or(nodes, |o| o.min(nodes));
+        self.allowance = Some(given);
+        let out = f(self);
+        let spent = given - self.allowance.unwrap_or(0);
+        self.allowance = outer.map(|o| o.saturating_sub(spent));
+        (out, spent)
     }
 
     /// The tables and class in use.
@@ -249,6 +269,7 @@ impl Solver {
             history: Vec::new(),
             stop: None,
             spent: 0,
+            limit: budget.total,
             inside: false,
         }
     }
@@ -269,6 +290,9 @@ pub struct Asking<'s, 'w> {
     stop: Option<StopCheck<'w>>,
     /// Nodes the current question has spent, sub-searches included.
     spent: u64,
+    /// Nodes the current question may spend in all: the budget's total, or less inside
+    /// [`Solver::within`].
+    limit: u64,
     /// Whether a question is under way (an inner call is part of it, not a new one).
     inside: bool,
 }
@@ -304,6 +328,7 @@ impl<'s, 'w> Asking<'s, 'w> {
             history: self.history,
             stop: Some(stop),
             spent: self.spent,
+            limit: self.limit,
             inside: self.inside,
         }
     }
@@ -464,9 +489,10 @@ impl<'s, 'w> Asking<'s, 'w> {
         self.question(|q| q.exact_q(board, to_move))
     }
 
-    /// Nodes the current question may still spend, sub-searches included.
+    /// Nodes the current question may still spend, sub-searches included: its budget's
+    /// total, or what the solver's allowance had left when it began (see [`Solver::within`]).
     fn left(&self) -> u64 {
-        self.budget.total.saturating_sub(self.spent)
+        self.limit.saturating_sub(self.spent)
     }
 
     /// Whether the stop check says stop now. Each search asks it before it starts (as well
@@ -502,10 +528,17 @@ impl<'s, 'w> Asking<'s, 'w> {
         if outer {
             self.spent = 0;
             self.inside = true;
+            self.limit = self
+                .solver
+                .allowance
+                .map_or(self.budget.total, |a| a.min(self.budget.total));
         }
         let out = f(self);
         if outer {
             self.inside = false;
+            if let Some(a) = self.solver.allowance.as_mut() {
+                *a = a.saturating_sub(self.spent);
+            }
         }
         out
     }

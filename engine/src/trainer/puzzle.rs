@@ -205,6 +205,36 @@ impl PuzzleBoard {
         self.revealed = self.session.history().len();
         let me = self.session.to_move();
         let grade = self.session.play(solver, p);
+        self.answer(me, p, grade)
+    }
+
+    /// Sets what one move's grade may spend on this board (see [`Session::set_allowance`]).
+    pub fn set_allowance(&mut self, nodes: u64) {
+        self.session.set_allowance(nodes);
+    }
+
+    /// Every move since the puzzle's start, the player's and the app's, with its colour (what
+    /// a worker replays to settle the next move, see [`Session::replay`]).
+    pub fn graded_moves(&self) -> &[(Point, Stone)] {
+        self.session.history()
+    }
+
+    /// Puts on the board the grade of the player's move `p` that a worker settled (see
+    /// [`Session::apply`]) and answers as [`PuzzleBoard::play`] would have. `None` if the
+    /// grade does not fit this board any more (nothing changed then).
+    pub fn apply(&mut self, p: Point, grade: Grade) -> Option<Answer> {
+        if self.solution.is_some() {
+            return None;
+        }
+        self.revealed = self.session.history().len();
+        let me = self.session.to_move();
+        if !self.session.apply(p, &grade) {
+            return None;
+        }
+        Some(self.answer(me, p, grade))
+    }
+
+    fn answer(&mut self, me: Stone, p: Point, grade: Grade) -> Answer {
         let mut a = Answer::of(AnswerKind::None);
         a.point = Some(p);
         match grade {
