@@ -70,6 +70,11 @@ pub fn depth(moves: u32) -> f64 {
     }
 }
 
+/// The lowest rating the estimate gives.
+pub const FLOOR: u32 = 600;
+/// The highest rating the estimate gives.
+pub const CEILING: u32 = 2600;
+
 /// The estimated rating.
 pub fn rating(theme: Theme, f: &Features) -> u32 {
     let r = base(theme)
@@ -79,12 +84,92 @@ pub fn rating(theme: Theme, f: &Features) -> u32 {
         + 70.0 * f.counter_fours.min(4) as f64
         + 10.0 * f.spread
         - 160.0 * (f.answers.max(1) as f64).log2();
-    r.round().clamp(600.0, 2600.0) as u32
+    r.round().clamp(f64::from(FLOOR), f64::from(CEILING)) as u32
+}
+
+/// Whether a win puzzle with these features could still rate within `band` once its answers
+/// are proved: `tried` first moves will be tried, and a kept puzzle has one to three correct
+/// ones (the generator keeps no more), each of which is a tried move that is not tempting.
+/// Exact: it is the estimate itself for every count of answers still possible, so a
+/// candidate it refuses is one the band would refuse after the proofs (the generator asks it
+/// before the proofs of the answers, three quarters of a banded generation's time).
+pub fn may_rate_within(theme: Theme, known: &Features, tried: u32, band: (u32, u32)) -> bool {
+    if tried == 0 {
+        // A five on the board: its answers are the fives, not tried moves.
+        return true;
+    }
+    (1..=tried.min(3)).any(|answers| {
+        let f = Features {
+            answers,
+            tempting: tried.saturating_sub(answers),
+            ..*known
+        };
+        (band.0..=band.1).contains(&rating(theme, &f))
+    })
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// The early refusal of a banded generation never refuses a puzzle the band would take:
+    /// for every kept puzzle (one to three answers, the other tried moves tempting) whose
+    /// rating is in the band, the features known before the proofs say it may be. And it does
+    /// refuse: a long threat line cannot make a club-level puzzle.
+    #[test]
+    fn the_early_band_check_refuses_only_what_the_band_would() {
+        let bands = [
+            (600, 2600),
+            (1200, 1600),
+            (1250, 1750),
+            (600, 1450),
+            (1451, 2600),
+        ];
+        let mut refused = 0;
+        for theme in Theme::ALL {
+            for length in 1..=20 {
+                for branching in [0, 3, 10] {
+                    for counter_fours in [0, 2] {
+                        for spread in [0.0, 2.5, 6.0] {
+                            let known = Features {
+                                length,
+                                branching,
+                                counter_fours,
+                                spread,
+                                ..Default::default()
+                            };
+                            for tried in 1..=16 {
+                                for band in bands {
+                                    let may = may_rate_within(theme, &known, tried, band);
+                                    refused += usize::from(!may);
+                                    for answers in 1..=tried.min(3) {
+                                        let full = Features {
+                                            answers,
+                                            tempting: tried - answers,
+                                            ..known
+                                        };
+                                        let r = rating(theme, &full);
+                                        assert!(
+                                            may || !(band.0..=band.1).contains(&r),
+                                            "{theme:?} {full:?} rates {r}, in {band:?}, but was refused"
+                                        );
+                                    }
+                                }
+                            }
+                        }
+                    }
+                }
+            }
+        }
+        assert!(refused > 0);
+        let long = Features {
+            length: 12,
+            branching: 6,
+            ..Default::default()
+        };
+        assert!(!may_rate_within(Theme::Vct, &long, 10, (1200, 1600)));
+        assert!(may_rate_within(Theme::Vct, &long, 10, (FLOOR, CEILING)));
+    }
 
     #[test]
     fn harder_features_rate_higher() {

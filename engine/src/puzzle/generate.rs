@@ -225,7 +225,8 @@ pub fn play_game(options: &Options, number: u64, solver: &mut Solver) -> Option<
     }
     while !game.is_over() && game.board().stones() < max_stones {
         if game.board().stones() >= 8 {
-            if let Some(p) = analyse(solver, game.board(), game.to_move(), options.theme) {
+            let aim = Some(options.rating);
+            if let Some(p) = analyse_in(solver, game.board(), game.to_move(), options.theme, aim) {
                 let (lo, hi) = options.rating;
                 // Several correct answers are allowed, but less often.
                 let n = p.first_moves.len() as u32;
@@ -508,6 +509,20 @@ const WORKER_STACK: usize = 16 << 20;
 /// makes it (with its proved answers, main line and rating). Every search is asked with
 /// [`Budget::GENERATION`]: a puzzle whose proof needs more is not kept.
 pub fn analyse(solver: &mut Solver, board: &Board, to_move: Stone, theme: Theme) -> Option<Puzzle> {
+    analyse_in(solver, board, to_move, theme, None)
+}
+
+/// [`analyse`] aimed at a rating band: a win puzzle whose rating cannot fall in `band`,
+/// whatever its answers turn out to be ([`difficulty::may_rate_within`]), is refused before
+/// its answers are proved. `None`, or a band that holds every rating, asks exactly what
+/// [`analyse`] asks (the library's sets of the whole range are made so, byte for byte).
+fn analyse_in(
+    solver: &mut Solver,
+    board: &Board,
+    to_move: Stone,
+    theme: Theme,
+    band: Option<(u32, u32)>,
+) -> Option<Puzzle> {
     if !theme.allowed(board.rule()) || board.find_winner().is_some() {
         return None;
     }
@@ -535,8 +550,9 @@ pub fn analyse(solver: &mut Solver, board: &Board, to_move: Stone, theme: Theme)
         return None;
     }
     let mut ask = solver.ask(Budget::GENERATION);
+    let band = band.filter(|&(lo, hi)| lo > difficulty::FLOOR || hi < difficulty::CEILING);
     match theme.goal() {
-        Goal::Win => analyse_win(&mut ask, board, to_move, theme),
+        Goal::Win => analyse_win(&mut ask, board, to_move, theme, band),
         Goal::Defend => analyse_defence(&mut ask, board, to_move),
     }
 }
@@ -557,7 +573,13 @@ fn can_start(board: &Board, attacker: Stone, theme: Theme) -> bool {
     }
 }
 
-fn analyse_win(ask: &mut Asking, board: &Board, me: Stone, theme: Theme) -> Option<Puzzle> {
+fn analyse_win(
+    ask: &mut Asking,
+    board: &Board,
+    me: Stone,
+    theme: Theme,
+    band: Option<(u32, u32)>,
+) -> Option<Puzzle> {
     let vcf = ask.solve(board, me, Mode::Vcf);
     let sol = match theme {
         Theme::Vct => {
@@ -604,6 +626,25 @@ fn analyse_win(ask: &mut Asking, board: &Board, me: Stone, theme: Theme) -> Opti
         }
         Theme::Vct | Theme::Defend => {}
     }
+    // Aimed at a band: what is known before the answers are proved bounds the rating, and
+    // proving them is the dear part.
+    let early = match band {
+        Some(band) => {
+            let known = Features {
+                length: super::deep::moves_before_win(&sol.line) as u32,
+                branching: ask.line_branching(board, me, mode, &sol.line),
+                counter_fours: counter_four_traps(board, me),
+                spread: spread(&sol.line),
+                ..Features::default()
+            };
+            let tried = ask.first_move_count(board, me, mode) as u32;
+            if !difficulty::may_rate_within(theme, &known, tried, band) {
+                return None;
+            }
+            Some(known.branching)
+        }
+        None => None,
+    };
     // More than three correct answers make a poor puzzle: stop counting there.
     let wins = ask.winning_moves_up_to(board, me, mode, 3);
     if !wins.unknown.is_empty() || wins.proved.is_empty() || wins.proved.len() > 3 {
@@ -614,7 +655,10 @@ fn analyse_win(ask: &mut Asking, board: &Board, me: Stone, theme: Theme) -> Opti
     let features = Features {
         length: super::deep::moves_before_win(&sol.line) as u32,
         tempting: (wins.tried.saturating_sub(wins.proved.len())) as u32,
-        branching: ask.line_branching(board, me, mode, &sol.line),
+        branching: match early {
+            Some(b) => b,
+            None => ask.line_branching(board, me, mode, &sol.line),
+        },
         counter_fours: counter_four_traps(board, me),
         spread: spread(&sol.line),
         answers: first_moves.len() as u32,

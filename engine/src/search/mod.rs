@@ -418,6 +418,16 @@ impl<'s, 'w> Asking<'s, 'w> {
         self.question(|q| q.winning_moves_q(board, to_move, mode))
     }
 
+    /// How many first moves [`Asking::winning_moves`] would try here (its `tried`), found by
+    /// move generation alone, before any of them is searched: 0 when `to_move` has a five.
+    pub fn first_move_count(&mut self, board: &Board, to_move: Stone, mode: Mode) -> usize {
+        if !board.cells_with(to_move, threat::FIVE).is_empty() {
+            return 0;
+        }
+        let mut b = board.clone();
+        self.first_candidates(&mut b, to_move, mode).len()
+    }
+
     /// [`Asking::winning_moves`] for a caller that only wants positions with few answers, all
     /// proved: stops as soon as more than `limit` winning moves are proved (then `proved`
     /// holds `limit + 1` of them) or one move's status is unknown; the moves after that are
@@ -781,24 +791,7 @@ impl<'s, 'w> Asking<'s, 'w> {
             out.proved = fives.iter().map(|&i| b.point(i)).collect();
             return out;
         }
-        let mut cands = Vec::new();
-        {
-            let s = &mut *self.solver;
-            let oracle = (mode == Mode::Vct).then_some(&mut s.oracle);
-            let mut sp = ThreatSpace::new(&mut b, to_move, to_move, mode, UNLIMITED, oracle)
-                .with_history(&self.history);
-            let dfives = *sp.board.cells_with(to_move.opponent(), threat::FIVE);
-            match dfives.len() {
-                0 => sp.attacker_moves(&mut cands),
-                1 => {
-                    let blk = dfives.first().unwrap_or(0);
-                    if sp.board.legal_at(blk, to_move) {
-                        cands.push(blk as u16);
-                    }
-                }
-                _ => {}
-            }
-        }
+        let cands = self.first_candidates(&mut b, to_move, mode);
         let depth = self.depth_for(mode);
         let forced = !b.cells_with(to_move.opponent(), threat::FIVE).is_empty();
         out.tried = cands.len();
@@ -839,6 +832,29 @@ impl<'s, 'w> Asking<'s, 'w> {
             }
         }
         out
+    }
+
+    /// The first moves [`Asking::winning_moves`] tries (when `to_move` has no five): the
+    /// block of the opponent's four if there is one, else the attacker's candidates of the
+    /// class, strongest first. Move generation only: no search, no table touched.
+    fn first_candidates(&mut self, b: &mut Board, to_move: Stone, mode: Mode) -> Vec<u16> {
+        let mut cands = Vec::new();
+        let s = &mut *self.solver;
+        let oracle = (mode == Mode::Vct).then_some(&mut s.oracle);
+        let mut sp = ThreatSpace::new(b, to_move, to_move, mode, UNLIMITED, oracle)
+            .with_history(&self.history);
+        let dfives = *sp.board.cells_with(to_move.opponent(), threat::FIVE);
+        match dfives.len() {
+            0 => sp.attacker_moves(&mut cands),
+            1 => {
+                let blk = dfives.first().unwrap_or(0);
+                if sp.board.legal_at(blk, to_move) {
+                    cands.push(blk as u16);
+                }
+            }
+            _ => {}
+        }
+        cands
     }
 
     fn threat_q(&mut self, board: &Board, defender: Stone, mode: Mode) -> Solution {
