@@ -252,6 +252,7 @@ export class BoardView {
     const colour = this.trainer.status().toMove;
     this.note(`${colour[0].toUpperCase()}${colour.slice(1)} ${point}: checking it more deeply…`, 'info');
     announce(`Checking ${point}.`);
+    this.trainer.preview(point);
     let settled = null;
     try {
       graders ??= new Jobs();
@@ -270,6 +271,7 @@ export class BoardView {
       delete this.canvas.dataset.checking;
     }
     if (token !== this.token) return;
+    if (!settled) this.trainer.preview('');
     this.answer(settled ?? a, true);
   }
 

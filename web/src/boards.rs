@@ -226,6 +226,20 @@ impl PuzzleBoardHandle {
         serde_json::to_string(moves).map_err(err)
     }
 
+    /// Shows the player's stone on the point named `name` faintly while the worker settles
+    /// its grade; an empty name takes it away.
+    pub fn preview(&mut self, name: &str) -> Result<(), JsValue> {
+        let p = if name.trim().is_empty() {
+            None
+        } else {
+            Some(point(name)?)
+        };
+        if let Some(b) = self.board.as_mut() {
+            b.preview(p);
+        }
+        self.redraw()
+    }
+
     /// Puts on the board the grade the worker settled for the move `name` (`gradeJson`, from
     /// `gradeMove`) and answers as `play` does; null if it no longer fits this board (another
     /// puzzle, or moves taken back meanwhile), and then nothing changed.

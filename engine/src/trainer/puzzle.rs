@@ -208,6 +208,19 @@ impl PuzzleBoard {
         self.answer(me, p, grade)
     }
 
+    /// Shows the player's stone on `p` faintly, as a two-tap preview is shown, while its
+    /// grade is settled elsewhere (the worker); `None` takes it away. Only an empty point of
+    /// a puzzle still being played is shown.
+    pub fn preview(&mut self, p: Option<Point>) {
+        let b = self.session.board();
+        self.ghost = p.filter(|&p| {
+            self.solution.is_none()
+                && self.session.state() == State::Playing
+                && b.contains(p)
+                && b.get(p).is_none()
+        });
+    }
+
     /// Sets what one move's grade may spend on this board (see [`Session::set_allowance`]).
     pub fn set_allowance(&mut self, nodes: u64) {
         self.session.set_allowance(nodes);
@@ -223,6 +236,7 @@ impl PuzzleBoard {
     /// [`Session::apply`]) and answers as [`PuzzleBoard::play`] would have. `None` if the
     /// grade does not fit this board any more (nothing changed then).
     pub fn apply(&mut self, p: Point, grade: Grade) -> Option<Answer> {
+        self.ghost = None;
         if self.solution.is_some() {
             return None;
         }
@@ -571,6 +585,37 @@ mod tests {
             confirm: true,
             ..Settings::default()
         }
+    }
+
+    /// A move the page hands to the worker shows faintly until the worker's grade is put on
+    /// the board, which then answers as playing it here would have.
+    #[test]
+    fn a_move_settled_by_the_worker_shows_faintly_then_answers_as_played() {
+        let p = fixture().into_iter().next().unwrap();
+        let first = p.line[0];
+        let mut direct = PuzzleBoard::new(p.clone(), true);
+        let want = direct.play(&mut solver(), first);
+        assert_eq!(want.kind, AnswerKind::Accepted);
+
+        let mut b = PuzzleBoard::new(p.clone(), true);
+        b.preview(Some(first));
+        assert_eq!(b.view().marks.ghost, Some((first, b.status().to_move)));
+        assert!(b.status().moves.is_empty(), "a preview plays nothing");
+        // A stone's point is not previewed.
+        let taken = p.black[0];
+        b.preview(Some(taken));
+        assert_eq!(b.view().marks.ghost, None);
+        b.preview(Some(first));
+
+        let mut worker = Session::new(p);
+        worker.trust_key(true);
+        assert!(worker.replay(b.graded_moves()));
+        let grade = worker.play(&mut solver(), first);
+        let got = b.apply(first, grade).expect("the grade fits");
+        assert_eq!(got.kind, want.kind);
+        assert_eq!(got.say, want.say);
+        assert_eq!(b.view().marks.ghost, None);
+        assert_eq!(b.status().moves, direct.status().moves);
     }
 
     #[test]
