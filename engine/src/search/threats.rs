@@ -260,6 +260,10 @@ impl<'b> ThreatSpace<'b> {
                 .union(self.board.cells_with(a, threat::CLOSED_THREE));
         }
         let fours = *self.board.cells_with(a, threat::FOUR);
+        // Without forbidden points for the attacker, whether a quiet move makes a VCF threat
+        // is read from the shape tables as they would be after it (see `makes_vcf_threat`).
+        let before = (self.mode == Mode::Vct && !self.board.rule().has_forbidden(a))
+            .then(|| self.board.double_threat_points(a));
         let mut scored: Vec<(i32, u16)> = Vec::new();
         for c in cand.iter() {
             if !self.legal(c, a) {
@@ -272,7 +276,8 @@ impl<'b> ThreatSpace<'b> {
                 // Threes are threats by themselves; other moves only if they make a VCF threat,
                 // and after the first move only where they depend on the line so far.
                 let three = self.board.flags_at(c, a) & threat::THREE != 0;
-                let threat = (three && self.real_three(c)) || self.makes_vcf_threat(c);
+                let threat =
+                    (three && self.real_three(c)) || self.makes_vcf_threat(c, before.as_deref());
                 if !threat {
                     continue;
                 }
@@ -287,10 +292,16 @@ impl<'b> ThreatSpace<'b> {
     /// point where one stone makes a double four or a four-three, so that it would win by VCF
     /// (within [`THREAT_FOURS`] fours) if the defender passed. This is a quick test on the
     /// shape tables; the defender's node below checks the VCF itself before trusting it.
-    fn makes_vcf_threat(&mut self, c: usize) -> bool {
+    /// `before`, the attacker's double-threat points as the board stands, when the attacker
+    /// has no forbidden points: then the tables are read as they would be after the move
+    /// ([`Board::double_threat_after`]) instead of placing it and taking it back.
+    fn makes_vcf_threat(&mut self, c: usize, before: Option<&[usize]>) -> bool {
         let a = self.attacker;
         if self.depth == 0 {
             return false;
+        }
+        if let Some(before) = before {
+            return self.board.double_threat_after(c, a, before);
         }
         self.board.place_at(c, a);
         let fours: Vec<usize> = self.board.cells_with(a, threat::FOUR).iter().collect();
