@@ -101,6 +101,17 @@ impl CellShapes {
     }
 }
 
+/// How far a stone's digits reach along a line, given what it adds to each slot (`deltas`):
+/// the cells five steps away only when the outer slots count (exact-five rules, an own stone).
+#[inline(always)]
+fn reach(deltas: &[u32; patterns::SLOTS]) -> isize {
+    if deltas[0] | deltas[patterns::SLOTS - 1] == 0 {
+        4
+    } else {
+        5
+    }
+}
+
 /// The [`threat`] flag of each [`LineShape`], by its number.
 const FLAG_OF: [u8; 16] = {
     let mut t = [0u8; 16];
@@ -570,6 +581,18 @@ impl Board {
         h
     }
 
+    /// The two cells `n` steps from `idx` along direction `d` whose windows hold `idx`, with
+    /// the slot `idx` fills in each: the cell n steps back sees it at offset +n, the cell n
+    /// steps on at -n.
+    #[inline(always)]
+    fn window_cells(&self, idx: usize, d: usize, n: isize) -> [(usize, usize); 2] {
+        let step = self.dirs[d];
+        [
+            ((idx as isize - n * step) as usize, n as usize + 4),
+            ((idx as isize + n * step) as usize, 5 - n as usize),
+        ]
+    }
+
     /// Adds (or removes) the digits of a stone at `idx` to the keys of the 40 cells whose
     /// windows contain it, and refreshes the shapes of those that are empty. The cells five
     /// steps away are skipped when the stone adds nothing to their keys (the outer slots count
@@ -577,20 +600,11 @@ impl Board {
     #[inline]
     fn shift_keys(&self, s: &mut Shapes, idx: usize, c: Stone, add: bool) {
         let deltas = s.deltas[c.index()];
-        let reach = if deltas[0] | deltas[patterns::SLOTS - 1] == 0 {
-            4
-        } else {
-            5
-        };
+        let reach = reach(&deltas);
         let tables = s.tables;
         for d in 0..4 {
-            let step = self.dirs[d];
             for n in 1..=reach {
-                // The cell n steps back sees `idx` at offset +n; the cell n steps on, at -n.
-                for (q, slot) in [
-                    ((idx as isize - n * step) as usize, n as usize + 4),
-                    ((idx as isize + n * step) as usize, 5 - n as usize),
-                ] {
+                for (q, slot) in self.window_cells(idx, d, n) {
                     let cell = self.cells[q];
                     if cell == WALL {
                         continue;
@@ -664,24 +678,14 @@ impl Board {
     pub fn double_threat_after(&self, idx: usize, c: Stone, before: &[usize]) -> bool {
         let s = self.shapes();
         let deltas = s.deltas[c.index()];
-        let reach = if deltas[0] | deltas[patterns::SLOTS - 1] == 0 {
-            4
-        } else {
-            5
-        };
+        let reach = reach(&deltas);
         let table = s.tables[c.index()];
         let shift = 16 * c.index();
         let mut seen = [usize::MAX; 40];
         let mut n = 0;
         for d in 0..4 {
-            let step = self.dirs[d];
             for k in 1..=reach {
-                // As in `shift_keys`: the cell k steps back sees `idx` at offset +k, the cell k
-                // steps on at -k.
-                for (q, slot) in [
-                    ((idx as isize - k * step) as usize, k as usize + 4),
-                    ((idx as isize + k * step) as usize, 5 - k as usize),
-                ] {
+                for (q, slot) in self.window_cells(idx, d, k) {
                     let cell = self.cells[q];
                     if cell == WALL {
                         continue;
