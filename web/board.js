@@ -86,9 +86,14 @@ export class BoardView {
     this.trainer.setOptions(!!confirm, !!forbidden, !!numbers);
   }
 
-  /** Stops any pacing of the app's moves (a new puzzle, undo, retry). */
+  /** Stops any pacing of the app's moves (a new puzzle, undo, retry), and stops waiting for
+   * a move the worker is checking: its answer is dropped and the board takes moves again. */
   cancelPacing() {
     this.token++;
+    if (this.checking) {
+      this.checking = null;
+      delete this.canvas.dataset.checking;
+    }
   }
 
   status() {

@@ -23,13 +23,14 @@ use crate::search::{Asking, Budget, Mode, Solver, SolverConfig, Verdict};
 use crate::types::Stone;
 
 /// What one move's grade may spend in all, unless set (see [`Session::set_allowance`]):
-/// the per-question total of [`Budget::GRADING`] twice over, which settles every move of the
-/// starter library's benchmark (engine/benches/README.md, "Grading").
+/// the per-question total of [`Budget::GRADING`] twice over. No move of the starter library's
+/// grading benchmark spends a tenth of it (engine/benches/README.md, "grading within a
+/// frame").
 pub const MOVE_NODES: u64 = 2 * Budget::GRADING.total;
 
 /// What the page spends on a move before it hands the move to its worker: about a frame's
-/// work in the browser here (engine/benches/README.md, "Grading"). Nearly every move is
-/// settled within it.
+/// work in the browser here (engine/benches/README.md, "grading within a frame"). 99 % of the
+/// starter library's benchmark moves are settled within it.
 pub const PAGE_NODES: u64 = 3_000;
 
 /// The tables moves are graded with, in the browser and in the tests that stand for it:
@@ -333,8 +334,8 @@ impl Session {
     /// the worker, on a session replayed to this one's moves, see [`Session::replay`]): the
     /// move, and the reply or refutation, exactly as [`Session::play`] would have. A grade
     /// that changes nothing (illegal, undecided, finished) changes nothing here either.
-    /// Returns whether the grade fits this session (the player to move, `p` legal and every
-    /// stone of the grade on an empty point); if not, nothing changed.
+    /// Returns whether the grade fits this session (the player to move, `p` legal, a reply on
+    /// an empty point, a refutation on the board); if not, nothing changed.
     pub fn apply(&mut self, p: Point, grade: &Grade) -> bool {
         let me = self.player();
         if self.state != State::Playing || self.board.check_move(p, me).is_err() {
