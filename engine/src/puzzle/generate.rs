@@ -630,18 +630,12 @@ fn analyse_win(
     // proving them is the dear part.
     let early = match band {
         Some(band) => {
-            let known = Features {
-                length: super::deep::moves_before_win(&sol.line) as u32,
-                branching: ask.line_branching(board, me, mode, &sol.line),
-                counter_fours: counter_four_traps(board, me),
-                spread: spread(&sol.line),
-                ..Features::default()
-            };
+            let known = line_features(ask, board, me, mode, &sol.line);
             let tried = ask.first_move_count(board, me, mode) as u32;
             if !difficulty::may_rate_within(theme, &known, tried, band) {
                 return None;
             }
-            Some(known.branching)
+            Some(known)
         }
         None => None,
     };
@@ -652,16 +646,14 @@ fn analyse_win(
     }
     let mut first_moves = wins.proved.clone();
     first_moves.sort_by_key(|p| (p.y, p.x));
+    let known = match early {
+        Some(known) => known,
+        None => line_features(ask, board, me, mode, &sol.line),
+    };
     let features = Features {
-        length: super::deep::moves_before_win(&sol.line) as u32,
         tempting: (wins.tried.saturating_sub(wins.proved.len())) as u32,
-        branching: match early {
-            Some(b) => b,
-            None => ask.line_branching(board, me, mode, &sol.line),
-        },
-        counter_fours: counter_four_traps(board, me),
-        spread: spread(&sol.line),
         answers: first_moves.len() as u32,
+        ..known
     };
     Some(make(
         board,
@@ -672,6 +664,24 @@ fn analyse_win(
         depth,
         &features,
     ))
+}
+
+/// What a win puzzle's rating needs besides its answers: the line's length and spread, the
+/// defender's replies along it and the counter-four traps.
+fn line_features(
+    ask: &mut Asking,
+    board: &Board,
+    me: Stone,
+    mode: Mode,
+    line: &[Point],
+) -> Features {
+    Features {
+        length: super::deep::moves_before_win(line) as u32,
+        branching: ask.line_branching(board, me, mode, line),
+        counter_fours: counter_four_traps(board, me),
+        spread: spread(line),
+        ..Features::default()
+    }
 }
 
 fn analyse_defence(ask: &mut Asking, board: &Board, me: Stone) -> Option<Puzzle> {

@@ -262,8 +262,9 @@ impl<'b> ThreatSpace<'b> {
         let fours = *self.board.cells_with(a, threat::FOUR);
         // Without forbidden points for the attacker, whether a quiet move makes a VCF threat
         // is read from the shape tables as they would be after it (see `makes_vcf_threat`).
-        let before = (self.mode == Mode::Vct && !self.board.rule().has_forbidden(a))
-            .then(|| self.board.double_threat_points(a));
+        // Its `before` is found once, when the first quiet candidate needs it.
+        let read = self.mode == Mode::Vct && self.depth > 0 && !self.board.rule().has_forbidden(a);
+        let mut before: Option<Vec<usize>> = None;
         let mut scored: Vec<(i32, u16)> = Vec::new();
         for c in cand.iter() {
             if !self.legal(c, a) {
@@ -276,8 +277,12 @@ impl<'b> ThreatSpace<'b> {
                 // Threes are threats by themselves; other moves only if they make a VCF threat,
                 // and after the first move only where they depend on the line so far.
                 let three = self.board.flags_at(c, a) & threat::THREE != 0;
-                let threat =
-                    (three && self.real_three(c)) || self.makes_vcf_threat(c, before.as_deref());
+                let threat = (three && self.real_three(c)) || {
+                    if read && before.is_none() {
+                        before = Some(self.board.double_threat_points(a));
+                    }
+                    self.makes_vcf_threat(c, before.as_deref())
+                };
                 if !threat {
                     continue;
                 }
