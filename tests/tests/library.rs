@@ -161,12 +161,7 @@ fn deep_lines_are_long_unique_and_direct() {
     for (name, l) in &lengths {
         eprintln!("{name}: moves before the win {l:?}");
     }
-    assert!(
-        failures.is_empty(),
-        "{} problems:\n{}",
-        failures.len(),
-        failures.join("\n")
-    );
+    no_failures(&failures, "problems");
 }
 
 /// The estimate follows depth over the library: the deep fours rate well above the other
@@ -251,12 +246,7 @@ fn every_shipped_puzzle_proves_again() {
         }
     }
     assert!(n >= 300);
-    assert!(
-        failures.is_empty(),
-        "{} problems:\n{}",
-        failures.len(),
-        failures.join("\n")
-    );
+    no_failures(&failures, "problems");
 }
 
 #[test]
@@ -275,6 +265,16 @@ fn a_shipped_set_regenerates_byte_for_byte() {
             }
         }
     }
+}
+
+/// Fails with every failure listed, `what` saying what they are ("problems").
+fn no_failures(failures: &[String], what: &str) {
+    assert!(
+        failures.is_empty(),
+        "{} {what}:\n{}",
+        failures.len(),
+        failures.join("\n")
+    );
 }
 
 /// The options of the fixture that the browser test regenerates too.
@@ -371,10 +371,5 @@ fn every_stored_line_is_accepted_by_the_grader_with_the_browser_budget() {
     );
     assert!(undecided.len() <= 5, "too many undecided: {undecided:?}");
     assert!(moves >= 600, "only {moves} moves graded");
-    assert!(
-        failures.is_empty(),
-        "{} stored moves graded wrong:\n{}",
-        failures.len(),
-        failures.join("\n")
-    );
+    no_failures(&failures, "stored moves graded wrong");
 }
