@@ -6,7 +6,7 @@
 // names from outside are only ever written as text.
 
 import {
-  librarySets, parseSet, puzzleWords, qrMatrix, setKey, shareLink, themeRatings, themes,
+  librarySets, parseSet, setKey, themes,
 } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
@@ -375,7 +375,7 @@ export class Coach {
     for (const t of s.themes) {
       let r;
       try {
-        r = themeRatings(t, s.rule);
+        r = this.ws.themeRatings(t, s.rule);
       } catch {
         continue;
       }
@@ -408,7 +408,7 @@ export class Coach {
     const p = s.puzzles[this.sel];
     let w;
     try {
-      w = puzzleWords(JSON.stringify(p));
+      w = this.ws.puzzleWords(JSON.stringify(p));
     } catch (e) {
       w = { goal: '', answer: `The answer cannot be shown (${e}).`, theme: p.theme };
     }
@@ -604,7 +604,7 @@ export class Coach {
       const have = s.puzzles.some((q) => q.id === p.id);
       let goal = '';
       try {
-        goal = puzzleWords(JSON.stringify(p)).goal;
+        goal = this.ws.puzzleWords(JSON.stringify(p)).goal;
       } catch {
         goal = p.theme;
       }
@@ -663,7 +663,7 @@ export class Coach {
     if (empty || !base) return;
     let link;
     try {
-      link = shareLink(base, coachSetFile(s));
+      link = this.ws.shareLink(base, coachSetFile(s));
     } catch (e) {
       $('coach-link').value = '';
       $('coach-link-note').textContent = `This set cannot be shared as a link: ${e}`;
@@ -679,10 +679,10 @@ export class Coach {
   drawQr() {
     const link = $('coach-link').value;
     const canvas = $('coach-qr');
-    if (!link) return;
+    if (!link || !this.ws) return;
     let q;
     try {
-      q = qrMatrix(link);
+      q = this.ws.qrMatrix(link);
     } catch (e) {
       canvas.hidden = true;
       $('coach-qr-note').textContent = `No QR code: ${e}`;

@@ -1,9 +1,10 @@
 // Tonight: the sets a student has been given (from a link, a file or the starter library),
 // played puzzle by puzzle with progress, and a summary with a result code at the end.
 
-import { attemptWords, librarySets, parseSet, qrMatrix, recordedAttempt, resultCode, setKey, shareEncode, shareDecode } from './pkg/fivefold_web.js';
+import { attemptWords, librarySets, parseSet, recordedAttempt, setKey, shareDecode } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
+import { loadWorkshop } from './platform.js';
 import { save } from './store.js';
 import { $, POINT_NAME, announce, banner, el, fill, isInt, own, paintQr, put, keepFocus } from './ui.js';
 
@@ -95,8 +96,9 @@ const QR_MODULE_MIN = 4;
 const QR_WIDTH = 288;
 
 /** Draws the QR code of `text` on `canvas`, dark on white with its quiet zone, whole device
- * pixels a module (so its edges stay sharp); false if the text cannot be a QR code. */
-function drawQr(canvas, text) {
+ * pixels a module (so its edges stay sharp); false if the text cannot be a QR code. `qrMatrix`
+ * is the workshop module's. */
+function drawQr(canvas, text, qrMatrix) {
   let m;
   try {
     m = qrMatrix(text);
@@ -617,10 +619,25 @@ export class Tonight {
     announce(`Summary: ${n('clean')} solved clean, ${n('helped')} with help, ${n('failed')} failed, ${n('untried')} not tried.`);
   }
 
-  renderCode() {
+  /** Writes the result code and its QR code. The code writer is in the workshop module, loaded
+   * here on first use (a student who never finishes a set never loads it). */
+  async renderCode() {
     const key = this.data.open;
     if (!key) return;
     this.code = null;
+    $('copy-code').disabled = true;
+    $('share-code').hidden = true;
+    let ws;
+    try {
+      ws = await loadWorkshop();
+    } catch (e) {
+      $('result-code').textContent = `No code: the code writer could not be loaded (${e?.message ?? e}). Reload the page to try again.`;
+      $('result-qr-box').hidden = true;
+      return;
+    }
+    // The player may have left the summary while the module loaded.
+    if (this.data.open !== key || this.data.view !== 'summary') return;
+    const { qrMatrix, resultCode } = ws;
     try {
       const recs = this.progressOf(key).puzzles;
       const results = this.puzzlesOf(key).map((p) => {
@@ -632,7 +649,7 @@ export class Tonight {
     } catch (e) {
       $('result-code').textContent = `No code: ${e}`;
     }
-    $('result-qr-box').hidden = !this.code || !drawQr($('result-qr'), this.code);
+    $('result-qr-box').hidden = !this.code || !drawQr($('result-qr'), this.code, qrMatrix);
     $('copy-code').disabled = !this.code;
     $('share-code').hidden = !this.code || !canShare(this.code);
   }
@@ -649,10 +666,18 @@ export class Tonight {
     }
   }
 
-  share(key = this.data.open) {
+  /** Shows and copies the set's link. The code writer is in the workshop module, loaded here on
+   * first use. */
+  async share(key = this.data.open) {
     const s = this.set(key);
     if (!s) return;
-    const code = shareEncode(s.json);
+    let code;
+    try {
+      code = (await loadWorkshop()).shareEncode(s.json);
+    } catch (e) {
+      banner(`This set cannot be shared as a link: ${e?.message ?? e}`, { kind: 'error', id: 'share' });
+      return;
+    }
     const link = `${location.href.split('#')[0]}#set=${code}`;
     if (this.data.view !== 'play' || this.data.open !== key) this.openSet(key);
     $('tonight-share-box').hidden = false;

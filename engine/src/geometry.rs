@@ -26,6 +26,48 @@ impl Point {
     pub const fn new(x: u8, y: u8) -> Self {
         Point { x, y }
     }
+
+    /// Puts points in reading order from a1: by row, then by column.
+    pub fn sort_by_rows(points: &mut [Point]) {
+        sort_keys(
+            points,
+            |p| u64::from(p.y) << 8 | u64::from(p.x),
+            |k| Point::new(k as u8, (k >> 8) as u8),
+        );
+    }
+
+    /// Puts points in their own order: by column, then by row.
+    pub fn sort_by_columns(points: &mut [Point]) {
+        sort_keys(
+            points,
+            |p| u64::from(p.x) << 8 | u64::from(p.y),
+            |k| Point::new((k >> 8) as u8, k as u8),
+        );
+    }
+}
+
+/// The sort key of a scored cell: the higher score first, the lower cell first on a tie (the
+/// sign bit flipped keeps the order of `i32`s; the complement reverses it). The cell is the
+/// key's low 16 bits.
+pub fn best_first_key(score: i32, cell: u16) -> u64 {
+    u64::from(!(score as u32 ^ 0x8000_0000)) << 16 | u64::from(cell)
+}
+
+/// The score and the cell of a [`best_first_key`].
+pub fn best_first_parts(key: u64) -> (i32, u16) {
+    ((!(key >> 16) as u32 ^ 0x8000_0000) as i32, key as u16)
+}
+
+/// Sorts `items` by the `u64` key each one packs into, which `unpack` turns back into the item
+/// (so the key holds the whole item and equal keys are equal items). Every sort of the engine
+/// is a sort of `u64`s: the wasm modules then hold one sort routine, not one per item type and
+/// order (each is several kilobytes).
+pub fn sort_keys<T>(items: &mut [T], pack: impl Fn(&T) -> u64, unpack: impl Fn(u64) -> T) {
+    let mut keys: Vec<u64> = items.iter().map(pack).collect();
+    keys.sort_unstable();
+    for (item, k) in items.iter_mut().zip(keys) {
+        *item = unpack(k);
+    }
 }
 
 impl fmt::Display for Point {
@@ -228,6 +270,45 @@ impl Symmetry {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use proptest::prelude::*;
+
+    proptest! {
+        /// The packed keys sort exactly as the comparisons they replace (the slice sort of the
+        /// standard library is the reference).
+        #[test]
+        fn packed_keys_sort_as_the_comparisons(
+            scores in proptest::collection::vec(any::<i32>(), 0..60),
+            points in proptest::collection::hash_set((0u8..19, 0u8..19), 0..60),
+        ) {
+            let mut scored: Vec<(i32, u16)> =
+                scores.iter().enumerate().map(|(i, &s)| (s % 50 * (i as i32 % 3), i as u16)).collect();
+            let mut want = scored.clone();
+            want.sort_by(|x, y| y.0.cmp(&x.0).then(x.1.cmp(&y.1)));
+            sort_keys(&mut scored, |&(s, c)| best_first_key(s, c), best_first_parts);
+            prop_assert_eq!(&scored, &want);
+            for &s in &scores {
+                prop_assert_eq!(best_first_parts(best_first_key(s, 7)), (s, 7));
+            }
+            let pts: Vec<Point> = points.iter().map(|&(x, y)| Point::new(x, y)).collect();
+            let (mut rows, mut cols) = (pts.clone(), pts.clone());
+            Point::sort_by_rows(&mut rows);
+            Point::sort_by_columns(&mut cols);
+            let (mut want_rows, mut want_cols) = (pts.clone(), pts);
+            want_rows.sort_by_key(|p| (p.y, p.x));
+            want_cols.sort();
+            prop_assert_eq!(rows, want_rows);
+            prop_assert_eq!(cols, want_cols);
+        }
+    }
+
+    #[test]
+    fn best_first_keys_keep_the_extremes() {
+        for s in [i32::MIN, -1, 0, 1, i32::MAX] {
+            assert_eq!(best_first_parts(best_first_key(s, u16::MAX)), (s, u16::MAX));
+        }
+        assert!(best_first_key(i32::MAX, 9) < best_first_key(i32::MIN, 0));
+        assert!(best_first_key(0, 1) < best_first_key(0, 2));
+    }
 
     #[test]
     fn coordinates_round_trip_and_ignore_case() {

@@ -11,7 +11,7 @@ use rand_chacha::rand_core::{RngCore, SeedableRng};
 use rand_chacha::ChaCha8Rng;
 
 use crate::board::{threat, Board};
-use crate::geometry::Point;
+use crate::geometry::{best_first_key, best_first_parts, sort_keys, Point};
 use crate::rules::Game;
 use crate::types::Rule;
 use crate::types::Stone;
@@ -238,7 +238,14 @@ fn candidates(board: &mut Board, me: Stone, n: usize) -> Vec<(usize, i32)> {
         let s = quick_score(board, i, me) * 5 + quick_score(board, i, opp) * 4;
         out.push((i, s));
     }
-    out.sort_by(|a, b| b.1.cmp(&a.1).then(a.0.cmp(&b.0)));
+    sort_keys(
+        &mut out,
+        |&(i, s)| best_first_key(s, i as u16),
+        |k| {
+            let (s, i) = best_first_parts(k);
+            (i as usize, s)
+        },
+    );
     let mut kept = Vec::with_capacity(n);
     for c in out {
         if kept.len() >= n {

@@ -203,7 +203,8 @@ test('the class round trip: make, hand out, three students, read the codes back'
 
   // A code for another set (a library set) and a damaged code (one character changed).
   const other = await page.evaluate(async (json) => {
-    const m = await import('./pkg/fivefold_web.js');
+    const m = await import('./workshop/fivefold_web.js');
+    await m.default();
     const n = JSON.parse(json).puzzles.length;
     return m.resultCode(json, 'Tomas Reyne', Array.from({ length: n }, () => ({ attempt: 'clean', hints: 0, seconds: null })));
   }, JSON.stringify(librarySet('four-threes-freestyle')));
@@ -231,7 +232,8 @@ test('the class round trip: make, hand out, three students, read the codes back'
   const saved = (p) => p.evaluate(() => Object.fromEntries(Object.keys(localStorage)
     .filter((k) => k.startsWith('fivefold.')).map((k) => [k, localStorage.getItem(k)])));
   const qr = await page.evaluate(async (code) => {
-    const m = await import('./pkg/fivefold_web.js');
+    const m = await import('./workshop/fivefold_web.js');
+    await m.default();
     const q = m.qrMatrix(code);
     return { size: q.size, quiet: q.quiet, dark: Array.from(q.dark) };
   }, codes['=Ines Varga']);

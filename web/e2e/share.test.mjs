@@ -24,10 +24,12 @@ const env = useBrowser();
 
 const setCount = (page) => page.$$eval('#tonight-sets li', (l) => l.length);
 
-// A share code made by the app's own engine (the page's wasm module) for a set object.
+// A share code made by the app's own engine (the workshop module, which writes codes) for a
+// set object.
 function encode(page, set) {
   return page.evaluate(async (json) => {
-    const m = await import('./pkg/fivefold_web.js');
+    const m = await import('./workshop/fivefold_web.js');
+    await m.default();
     return m.shareEncode(json);
   }, JSON.stringify(set));
 }

@@ -2,7 +2,9 @@
 //! ratings, generation and solving. Sets cross the boundary as set-file JSON text (the wire
 //! format of `engine::formats::setfile`), so the page never holds an engine type.
 
-use engine::formats::result::{self, PuzzleResult, TimeBucket};
+use engine::formats::result;
+#[cfg(feature = "workshop")]
+use engine::formats::result::{PuzzleResult, TimeBucket};
 use engine::formats::{setfile, share};
 use engine::puzzle::attempt::Attempt;
 use engine::puzzle::{grade, Theme};
@@ -37,7 +39,9 @@ pub fn library_sets() -> String {
     format!("[{}]", parts.join(","))
 }
 
-/// The share code of a set given as set-file JSON.
+/// The share code of a set given as set-file JSON (workshop module: the page loads it to write
+/// a code; reading one is the page's own).
+#[cfg(feature = "workshop")]
 #[wasm_bindgen(js_name = shareEncode)]
 pub fn share_encode(set_json: &str) -> Result<String, JsValue> {
     let set = setfile::parse(set_json).map_err(err)?;
@@ -53,6 +57,7 @@ pub fn share_decode(code: &str) -> Result<String, JsValue> {
 }
 
 /// One puzzle's result as the page keeps it.
+#[cfg(feature = "workshop")]
 #[derive(Deserialize)]
 struct ResultJs {
     attempt: String,
@@ -65,7 +70,9 @@ struct ResultJs {
 
 /// The result code a student sends back: `results` holds one `{attempt, hints, seconds}` per
 /// puzzle of the set, in order (`attempt` an attempt name, see `Attempt`; `seconds` null when
-/// not timed). A name or a set the code cannot hold is refused with a message.
+/// not timed). A name or a set the code cannot hold is refused with a message. Workshop module:
+/// the page loads it for the summary.
+#[cfg(feature = "workshop")]
 #[wasm_bindgen(js_name = resultCode)]
 pub fn result_code(set_json: &str, name: &str, results: JsValue) -> Result<String, JsValue> {
     let set = setfile::parse(set_json).map_err(err)?;

@@ -20,6 +20,7 @@ pub mod bench;
 pub mod boards;
 #[cfg(feature = "workshop")]
 pub mod classroom;
+#[cfg(feature = "workshop")]
 pub mod coach;
 pub mod drill;
 #[cfg(feature = "workshop")]
@@ -27,6 +28,7 @@ pub mod games;
 pub mod layout;
 pub mod library;
 pub mod practice;
+#[cfg(feature = "workshop")]
 pub mod qr;
 pub mod render;
 mod surface;

@@ -112,7 +112,8 @@ try {
   }
   // Share codes of the library's sets (the one open is used for first visits).
   shares.push(...await page.evaluate(async () => {
-    const m = await import('./pkg/fivefold_web.js');
+    const m = await import('./workshop/fivefold_web.js');
+    await m.default();
     return JSON.parse(m.librarySets()).map((set) => {
       const json = JSON.stringify(set);
       return { title: set.title, puzzles: set.puzzles.length, json: json.length, code: m.shareEncode(json) };

@@ -645,7 +645,7 @@ fn analyse_win(
         return None;
     }
     let mut first_moves = wins.proved.clone();
-    first_moves.sort_by_key(|p| (p.y, p.x));
+    Point::sort_by_rows(&mut first_moves);
     let known = match early {
         Some(known) => known,
         None => line_features(ask, board, me, mode, &sol.line),
@@ -719,7 +719,7 @@ fn analyse_defence(ask: &mut Asking, board: &Board, me: Stone) -> Option<Puzzle>
         return None;
     }
     let mut first_moves = d.moves.proved.clone();
-    first_moves.sort_by_key(|p| (p.y, p.x));
+    Point::sort_by_rows(&mut first_moves);
     let features = Features {
         length: super::deep::moves_before_win(&threat.line) as u32 + 1,
         tempting: d.moves.tried.saturating_sub(n) as u32,

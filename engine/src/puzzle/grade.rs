@@ -674,20 +674,21 @@ impl Session {
 
 /// The legal empty point nearest to `p` for colour `c`.
 pub(super) fn nearest_legal(board: &Board, p: Point, c: Stone) -> Option<Point> {
-    let mut cands: Vec<(u32, Point)> = board
+    // Keys: the distance, then the row, then the column.
+    let mut cands: Vec<u64> = board
         .points()
         .filter(|&q| board.get(q).is_none() && q != p)
         .map(|q| {
             let d = (q.x as i32 - p.x as i32)
                 .unsigned_abs()
                 .max((q.y as i32 - p.y as i32).unsigned_abs());
-            (d, q)
+            u64::from(d) << 16 | u64::from(q.y) << 8 | u64::from(q.x)
         })
         .collect();
-    cands.sort_by_key(|&(d, q)| (d, q.y, q.x));
+    cands.sort_unstable();
     cands
         .into_iter()
-        .map(|(_, q)| q)
+        .map(|k| Point::new(k as u8, (k >> 8) as u8))
         .find(|&q| !board.rule().has_forbidden(c) || board.forbidden(q).is_none())
 }
 

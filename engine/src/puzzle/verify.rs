@@ -70,9 +70,9 @@ pub fn check(solver: &mut Solver, p: &Puzzle) -> Vec<String> {
                 return problems;
             }
             let mut want = p.first_moves.clone();
-            want.sort_by_key(|q| (q.x, q.y));
+            Point::sort_by_columns(&mut want);
             let mut got = d.moves.proved.clone();
-            got.sort_by_key(|q| (q.x, q.y));
+            Point::sort_by_columns(&mut got);
             if want != got {
                 let show = |v: &[Point]| {
                     v.iter()
@@ -159,7 +159,7 @@ pub fn prove(solver: &mut Solver, p: &Puzzle) -> Result<Proved, Unproved> {
                     firsts.push(f);
                 }
             }
-            firsts.sort_by_key(|q| (q.y, q.x));
+            Point::sort_by_rows(&mut firsts);
             out.first_moves = firsts;
             out.line = sol.line;
             out.length = sol.depth;
@@ -176,7 +176,7 @@ pub fn prove(solver: &mut Solver, p: &Puzzle) -> Result<Proved, Unproved> {
             }
             whole = d.moves.unknown.is_empty() && d.complete;
             let mut firsts = d.moves.proved;
-            firsts.sort_by_key(|q| (q.y, q.x));
+            Point::sort_by_rows(&mut firsts);
             out.first_moves = firsts;
             out.line = d.line;
         }

@@ -24,14 +24,15 @@ pub(crate) struct ExactSpace<'b> {
 impl<'b> ExactSpace<'b> {
     pub(crate) fn new(board: &'b mut Board, attacker: Stone, to_move: Stone) -> ExactSpace<'b> {
         let (w, h) = (board.width() as i32, board.height() as i32);
-        let mut order: Vec<(i32, u16)> = board
+        // Keys: the squared distance from the centre (doubled coordinates), then the cell.
+        let mut order: Vec<u64> = board
             .points()
             .map(|p| {
                 let (dx, dy) = (2 * p.x as i32 - (w - 1), 2 * p.y as i32 - (h - 1));
-                (dx * dx + dy * dy, board.index(p) as u16)
+                ((dx * dx + dy * dy) as u64) << 16 | board.index(p) as u64
             })
             .collect();
-        order.sort();
+        order.sort_unstable();
         let salt = 0x6A09_E667_F3BC_C908
             ^ (attacker.index() as u64) << 60
             ^ (board.width() as u64) << 8
@@ -58,7 +59,7 @@ impl<'b> ExactSpace<'b> {
             attacker,
             to_move,
             salt,
-            order: order.into_iter().map(|o| o.1).collect(),
+            order: order.into_iter().map(|k| k as u16).collect(),
             windows,
         }
     }
@@ -217,7 +218,9 @@ impl Space for ExactSpace<'_> {
         }
         // Order by how much a stone does on its lines: for the mover's own open lines and for
         // blocking the opponent's, each weighted by the stones already in the line.
-        let mut scored: Vec<(u32, u16)> = Vec::new();
+        // Keys: the score (complemented, so the highest first), then the rank in the
+        // centre-first order (ties keep it), then the cell.
+        let mut scored: Vec<u64> = Vec::new();
         let mut score = vec![0u32; self.board.cell_count()];
         for w in &self.windows {
             let mine = w
@@ -239,14 +242,14 @@ impl Space for ExactSpace<'_> {
                 }
             }
         }
-        for &i in &self.order {
+        for (rank, &i) in self.order.iter().enumerate() {
             if self.board.is_empty_at(i as usize) {
-                scored.push((score[i as usize], i));
+                scored
+                    .push(u64::from(!score[i as usize]) << 32 | (rank as u64) << 16 | u64::from(i));
             }
         }
-        // Stable: ties keep the centre-first order.
-        scored.sort_by_key(|s| std::cmp::Reverse(s.0));
-        moves.extend(scored.iter().map(|s| s.1));
+        scored.sort_unstable();
+        moves.extend(scored.iter().map(|&k| k as u16));
         if moves.is_empty() {
             // A full board with no line: a draw, which is not a win for the attacker.
             return Node::Loss;

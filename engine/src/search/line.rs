@@ -305,7 +305,8 @@ fn finish(sp: &mut ThreatSpace, attacker: Stone, line: &mut Vec<u16>, played: &m
     } else {
         // The defender cannot block: show its nearest legal move.
         let fp = board.point(first as usize);
-        let mut cands: Vec<(u32, usize)> = board
+        // Keys: the distance, then the cell.
+        let mut cands: Vec<u64> = board
             .indices()
             .filter(|&i| board.is_empty_at(i) && !fives.contains(&(i as u16)))
             .map(|i| {
@@ -313,14 +314,15 @@ fn finish(sp: &mut ThreatSpace, attacker: Stone, line: &mut Vec<u16>, played: &m
                 let d = (p.x as i32 - fp.x as i32)
                     .unsigned_abs()
                     .max((p.y as i32 - fp.y as i32).unsigned_abs());
-                (d, i)
+                u64::from(d) << 32 | i as u64
             })
             .collect();
-        cands.sort();
+        cands.sort_unstable();
         cands
             .into_iter()
-            .find(|&(_, i)| board.legal_at(i, defender))
-            .map(|(_, i)| i as u16)
+            .map(|k| k as u32 as usize)
+            .find(|&i| board.legal_at(i, defender))
+            .map(|i| i as u16)
     };
     let Some(r) = reply else { return };
     line.push(r);

@@ -965,8 +965,8 @@ impl<'s, 'w> Asking<'s, 'w> {
                 Status::Proved => {}
             }
         }
-        out.moves.proved.sort_by_key(|p| (p.x, p.y));
-        out.moves.unknown.sort_by_key(|p| (p.x, p.y));
+        Point::sort_by_columns(&mut out.moves.proved);
+        Point::sort_by_columns(&mut out.moves.unknown);
         out
     }
 

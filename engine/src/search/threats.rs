@@ -19,7 +19,7 @@ use super::defence::defence_candidates;
 use super::dfpn::{Node, Space, Watch};
 use super::vcf::{VcfLine, VcfOracle};
 use crate::board::{threat, Board};
-use crate::geometry::Point;
+use crate::geometry::{best_first_key, Point};
 use crate::types::{Rule, Stone};
 use crate::zobrist::splitmix64;
 
@@ -265,7 +265,7 @@ impl<'b> ThreatSpace<'b> {
         // Its `before` is found once, when the first quiet candidate needs it.
         let read = self.mode == Mode::Vct && self.depth > 0 && !self.board.rule().has_forbidden(a);
         let mut before: Option<Vec<usize>> = None;
-        let mut scored: Vec<(i32, u16)> = Vec::new();
+        let mut scored: Vec<u64> = Vec::new();
         for c in cand.iter() {
             if !self.legal(c, a) {
                 continue;
@@ -287,10 +287,10 @@ impl<'b> ThreatSpace<'b> {
                     continue;
                 }
             }
-            scored.push((self.score(c, a), c as u16));
+            scored.push(best_first_key(self.score(c, a), c as u16));
         }
-        scored.sort_by(|x, y| y.0.cmp(&x.0).then(x.1.cmp(&y.1)));
-        out.extend(scored.iter().map(|s| s.1));
+        scored.sort_unstable();
+        out.extend(scored.iter().map(|&k| k as u16));
     }
 
     /// Whether a quiet (non-four) move on `c` makes a threat: after it the attacker has a
@@ -485,7 +485,7 @@ impl<'b> ThreatSpace<'b> {
         }
         // Likeliest refutations first: points the attacker wants most, then the defender's own
         // strongest shapes.
-        let mut scored: Vec<(i32, u16)> = cand
+        let mut scored: Vec<u64> = cand
             .into_iter()
             .map(|m| {
                 let i = m as usize;
@@ -505,11 +505,11 @@ impl<'b> ThreatSpace<'b> {
                         s += w / 2;
                     }
                 }
-                (s, m)
+                best_first_key(s, m)
             })
             .collect();
-        scored.sort_by(|x, y| y.0.cmp(&x.0).then(x.1.cmp(&y.1)));
-        out.extend(scored.into_iter().map(|x| x.1));
+        scored.sort_unstable();
+        out.extend(scored.into_iter().map(|k| k as u16));
         Node::And
     }
 }

@@ -205,7 +205,7 @@ impl Cursor {
 fn describe(head: &str, stones: &[(Point, Stone)], last: Option<Point>) -> String {
     let of = |c: Stone| {
         let mut v: Vec<Point> = stones.iter().filter(|s| s.1 == c).map(|s| s.0).collect();
-        v.sort_by_key(|p| (p.y, p.x));
+        Point::sort_by_rows(&mut v);
         v
     };
     let (b, w) = (of(Stone::Black), of(Stone::White));

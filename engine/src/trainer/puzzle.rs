@@ -501,7 +501,7 @@ impl PuzzleBoard {
         let stones = self.shown_stones();
         let of = |c: Stone| {
             let mut v: Vec<Point> = stones.iter().filter(|s| s.1 == c).map(|s| s.0).collect();
-            v.sort_by_key(|p| (p.y, p.x));
+            Point::sort_by_rows(&mut v);
             v
         };
         let h = self.moves();
