@@ -1,8 +1,22 @@
-//! Builds the starter library into the app: every `puzzles/*.json`, minified, in file-name
-//! order, as `$OUT_DIR/library.rs`. A set that is not valid JSON stops the build.
+//! Builds the starter library's tables into the app, from every `puzzles/*.json` in file-name
+//! order, as `$OUT_DIR/library.rs`:
+//! - `INDEX`: what the page needs before a set is opened, as JSON: per set its file stem,
+//!   title, puzzle count, rules, key (the fingerprint `setKey` gives) and generator
+//!   (theme, rule, minimum moves). The sets themselves are files the page fetches when it
+//!   needs them (web/tools/common.sh copies them to `dist/library/`);
+//! - `RATINGS`: (theme, rule, rating) of every puzzle of the plain (not deep) sets, which steer
+//!   the Drill's and the generator's rating bands;
+//! - `SETS`: (file stem, set-file JSON, minified) of every set, in the workshop module only
+//!   (Coach's sources, the single-file build, the tests).
+//!
+//! Every set is read with the engine's own set-file reader: a set that is not valid stops the
+//! build.
 
 use std::fmt::Write as _;
 use std::path::Path;
+
+use engine::formats::{result, setfile};
+use serde_json::json;
 
 fn main() {
     let dir = Path::new(env!("CARGO_MANIFEST_DIR")).join("../puzzles");
@@ -13,19 +27,62 @@ fn main() {
         .filter(|p| p.extension().is_some_and(|x| x == "json"))
         .collect();
     files.sort();
-    let mut out = String::from(
-        "/// (file stem, set-file JSON) for every shipped set.\npub const SETS: &[(&str, &str)] = &[\n",
+    let mut index = Vec::new();
+    let mut ratings = String::from(
+        "/// (theme, rule, rating) of every puzzle of the library's plain sets (deep sets left out).\n\
+         pub const RATINGS: &[(&str, &str, u32)] = &[\n",
+    );
+    let mut sets = String::from(
+        "/// (file stem, set-file JSON) for every shipped set.\n\
+         #[cfg(feature = \"workshop\")]\npub const SETS: &[(&str, &str)] = &[\n",
     );
     for f in &files {
         println!("cargo:rerun-if-changed={}", f.display());
         let text = std::fs::read_to_string(f).expect("a readable set");
-        let value: serde_json::Value =
-            serde_json::from_str(&text).unwrap_or_else(|e| panic!("{}: {e}", f.display()));
+        let set = setfile::parse(&text).unwrap_or_else(|e| panic!("{}: {e}", f.display()));
+        let value: serde_json::Value = serde_json::from_str(&text).expect("valid JSON");
         let stem = f.file_stem().unwrap().to_string_lossy();
+        let mut rules: Vec<String> = Vec::new();
+        for p in &set.puzzles {
+            let r = p.rule.to_string();
+            if !rules.contains(&r) {
+                rules.push(r);
+            }
+        }
+        let deep = set.generator.as_ref().is_some_and(|g| g.min_moves > 0);
+        index.push(json!({
+            "file": stem,
+            "title": set.title,
+            "count": set.puzzles.len(),
+            "rules": rules,
+            "key": format!("{:08x}", result::fingerprint(&set)),
+            "generator": set.generator.as_ref().map(|g| json!({
+                "theme": g.theme.to_string(),
+                "rule": g.rule.to_string(),
+                "min_moves": g.min_moves,
+            })),
+        }));
+        if !deep {
+            for p in &set.puzzles {
+                writeln!(
+                    ratings,
+                    "    ({:?}, {:?}, {}),",
+                    p.theme.to_string(),
+                    p.rule.to_string(),
+                    p.rating
+                )
+                .unwrap();
+            }
+        }
         let min = serde_json::to_string(&value).expect("serialisable");
-        writeln!(out, "    ({stem:?}, {min:?}),").unwrap();
+        writeln!(sets, "    ({stem:?}, {min:?}),").unwrap();
     }
-    out.push_str("];\n");
+    ratings.push_str("];\n");
+    sets.push_str("];\n");
+    let index = serde_json::to_string(&index).expect("serialisable");
+    let out = format!(
+        "/// The library's index for the page (JSON; see build.rs).\npub const INDEX: &str = {index:?};\n{ratings}{sets}"
+    );
     let dest = Path::new(&std::env::var("OUT_DIR").unwrap()).join("library.rs");
     std::fs::write(dest, out).expect("writable OUT_DIR");
 }

@@ -6,7 +6,7 @@
 // names from outside are only ever written as text.
 
 import {
-  librarySets, parseSet, setKey, themes,
+  parseSet, setKey, themes,
 } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
@@ -584,7 +584,7 @@ export class Coach {
 
   renderSources() {
     if (!$('coach-library').open) return;
-    this.library ??= JSON.parse(librarySets());
+    this.library ??= JSON.parse(this.ws.librarySets());
     const tonight = this.app.tonight.sets.list.map((t) => ({ title: `Tonight: ${t.title || 'Untitled set'}`, json: t.json }));
     this.sources = [...this.library.map((set) => ({ title: `Library: ${set.title}`, set })), ...tonight];
     const pick = $('coach-source');

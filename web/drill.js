@@ -1,9 +1,10 @@
 // Drill: an endless stream of puzzles at the player's level, filtered by theme and rule,
 // generated a few ahead in the worker so that the next one is ready when it is wanted.
 
-import { attemptWords, drillChoice, librarySets, parseSet, rateTry, themes } from './pkg/fivefold_web.js';
+import { attemptWords, drillChoice, parseSet, rateTry, themes } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
+import { allLibrarySets, library } from './library.js';
 import { save } from './store.js';
 import { today } from './practice.js';
 import { $, POINT_NAME, RULES, announce, el, fill, isInt, own, put, randomSeed } from './ui.js';
@@ -27,20 +28,21 @@ const DEEP_LABELS = {
 };
 const DEEP_BAND = [1900, 2600];
 
-/** The deep choices: `{name, label, rules, theme, minMoves, puzzles}` from the library's sets. */
-function deepChoices(sets) {
+/** The deep choices: `{name, label, rules, theme, minMoves, files, puzzles}` from the library's
+ * index (`puzzles` filled when the library's sets are loaded). */
+function deepChoices(index) {
   const out = [];
-  for (const set of sets) {
-    const g = set.generator;
+  for (const entry of index) {
+    const g = entry.generator;
     if (!g || !(g.min_moves > 0) || !DEEP_LABELS[g.theme]) continue;
     let c = out.find((x) => x.theme === g.theme);
     if (!c) {
-      c = { name: `deep-${g.theme}`, label: DEEP_LABELS[g.theme], rules: [], theme: g.theme, minMoves: g.min_moves, puzzles: [] };
+      c = { name: `deep-${g.theme}`, label: DEEP_LABELS[g.theme], rules: [], theme: g.theme, minMoves: g.min_moves, files: [], puzzles: [] };
       out.push(c);
     }
     if (!c.rules.includes(g.rule)) c.rules.push(g.rule);
     c.minMoves = Math.min(c.minMoves, g.min_moves);
-    c.puzzles.push(...set.puzzles);
+    c.files.push(entry.file);
   }
   return out;
 }
@@ -125,11 +127,10 @@ export class Drill {
     this.jobs = new Jobs();
     this.generating = null;
     this.active = false;
-    // The starter library, read once: the deep choices come from its deep sets, and a theme's
-    // first puzzle from the others (fromLibrary).
-    const sets = JSON.parse(librarySets());
-    this.deep = deepChoices(sets);
-    this.library = sets.filter((set) => !(set.generator?.min_moves > 0)).flatMap((set) => set.puzzles);
+    // The starter library: the deep choices come from its deep sets, and a theme's first
+    // puzzle from the others (fromLibrary); their puzzles are loaded when Drill first fills.
+    this.deep = deepChoices(library());
+    this.library = null;
     this.themes = [...JSON.parse(themes()), ...this.deep];
     this.board = new BoardView($('drill-board'), {
       log: $('drill-log'),
@@ -262,7 +263,7 @@ export class Drill {
    * theme starts at once while the worker makes the next ones. */
   fromLibrary(theme, rule, lo, hi) {
     const had = this.had();
-    const fresh = this.library.filter((p) => p.theme === theme && p.rule === rule && !had.has(p.id));
+    const fresh = (this.library ?? []).filter((p) => p.theme === theme && p.rule === rule && !had.has(p.id));
     if (!fresh.length) return null;
     const off = (p) => Math.max(0, lo - p.rating, p.rating - hi);
     const best = Math.min(...fresh.map(off));
@@ -289,7 +290,27 @@ export class Drill {
     return true;
   }
 
+  /** Loads the library's puzzles once (the plain sets' for fromLibrary, the deep sets' for
+   * the deep choices). Without them (offline before the app was ever cached) Drill makes
+   * every puzzle, and tries loading again next time. */
+  async loadLibrary() {
+    if (this.library) return;
+    let sets;
+    try {
+      sets = await allLibrarySets();
+    } catch {
+      return;
+    }
+    if (this.library) return;
+    this.library = sets.filter((set) => !(set.entry.generator?.min_moves > 0)).flatMap((set) => set.puzzles);
+    for (const c of this.deep) {
+      c.puzzles = sets.filter((set) => c.files.includes(set.entry.file)).flatMap((set) => set.puzzles);
+    }
+  }
+
   async fill() {
+    if (this.generating || this.data.queue.length >= AHEAD) return;
+    await this.loadLibrary();
     if (this.generating || this.data.queue.length >= AHEAD) return;
     const { theme, rule } = this.data;
     const deep = this.deep.find((t) => t.name === theme);

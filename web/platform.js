@@ -22,6 +22,13 @@ export function loadWorkshop() {
   return workshop;
 }
 
+/** The set-file text of the starter library's set `file` (dist/library/<file>.json). */
+export async function loadLibraryFile(file) {
+  const r = await fetch(new URL(`./library/${encodeURIComponent(file)}.json`, import.meta.url));
+  if (!r.ok) throw new Error(`${r.status} ${r.statusText}`);
+  return r.text();
+}
+
 /** A new worker running web/worker.js. */
 export function makeWorker() {
   return new Worker(new URL('./worker.js', import.meta.url), { type: 'module', name: 'fivefold' });

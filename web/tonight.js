@@ -1,9 +1,10 @@
 // Tonight: the sets a student has been given (from a link, a file or the starter library),
 // played puzzle by puzzle with progress, and a summary with a result code at the end.
 
-import { attemptWords, librarySets, parseSet, recordedAttempt, setKey, shareDecode } from './pkg/fivefold_web.js';
+import { attemptWords, parseSet, recordedAttempt, setKey, shareDecode } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
+import { isLibraryKey, library, librarySet } from './library.js';
 import { loadWorkshop } from './platform.js';
 import { save } from './store.js';
 import { $, POINT_NAME, announce, banner, el, fill, isInt, own, paintQr, put, keepFocus } from './ui.js';
@@ -122,7 +123,6 @@ export class Tonight {
     this.sets = { list: [] };
     this.data = emptyTonight();
     this.parsed = new Map();
-    this.library = null;
     // The worker that proves the answer keys of sets from outside (files and links).
     this.checker = new Jobs();
     this.checking = null;
@@ -411,28 +411,35 @@ export class Tonight {
 
   renderLibrary() {
     if (!$('library').open) return;
-    this.library ??= JSON.parse(librarySets());
-    fill($('library-sets'), this.library.map((set, i) => {
-      const json = JSON.stringify(set);
-      let key = set.__key;
-      if (!key) {
-        key = setKey(json);
-        Object.defineProperty(set, '__key', { value: key });
-      }
-      const have = !!this.set(key);
+    fill($('library-sets'), library().map((entry, i) => {
+      const have = !!this.set(entry.key);
       return el('li', { class: 'card compact', 'data-library': String(i) },
         el('div', {},
-          el('h3', { class: 'set-title', text: set.title }),
-          el('p', { class: 'meta', text: `${set.puzzles.length} puzzles · ${ruleWords(set.puzzles)}` })),
+          el('h3', { class: 'set-title', text: entry.title }),
+          el('p', { class: 'meta', text: `${entry.count} puzzles · ${entry.rules.join(', ')}` })),
         el('button', {
           type: 'button',
           class: have ? 'secondary' : 'primary',
-          onclick: () => {
-            const r = this.addSet(json, 'library');
-            this.openSet(r.key);
-          },
+          onclick: (e) => this.addFromLibrary(entry, e.currentTarget),
         }, have ? 'Open' : 'Add'));
     }));
+  }
+
+  /** Adds a starter-library set (its file is fetched on first use) and opens it; a set that is
+   * here already under the library's title just opens. */
+  async addFromLibrary(entry, button) {
+    if (this.set(entry.key)?.title === entry.title) return this.openSet(entry.key);
+    button.disabled = true;
+    let r;
+    try {
+      r = this.addSet(await librarySet(entry.file), 'library');
+    } catch (e) {
+      banner(`${e?.message ?? e}.`, { kind: 'error', id: 'library' });
+      return;
+    } finally {
+      button.disabled = false;
+    }
+    this.openSet(r.key);
   }
 
   openSet(key, index) {
@@ -454,9 +461,7 @@ export class Tonight {
   /** Whether the set is one of the built-in library's (however it arrived): their answer keys
    * are proved by the tests, so grading may rely on them. */
   fromLibrary(key) {
-    if (this.set(key)?.source === 'library') return true;
-    this.libraryKeys ??= new Set(JSON.parse(librarySets()).map((set) => setKey(JSON.stringify(set))));
-    return this.libraryKeys.has(key);
+    return this.set(key)?.source === 'library' || isLibraryKey(key);
   }
 
   loadCurrent() {
@@ -671,17 +676,22 @@ export class Tonight {
   async share(key = this.data.open) {
     const s = this.set(key);
     if (!s) return;
+    if (this.data.view !== 'play' || this.data.open !== key) this.openSet(key);
+    const input = $('tonight-share-link');
+    input.value = '';
+    $('tonight-share-note').textContent = 'Making the link…';
+    $('tonight-share-box').hidden = false;
     let code;
     try {
       code = (await loadWorkshop()).shareEncode(s.json);
     } catch (e) {
+      $('tonight-share-box').hidden = true;
       banner(`This set cannot be shared as a link: ${e?.message ?? e}`, { kind: 'error', id: 'share' });
       return;
     }
+    // The player may have moved on while the code writer loaded.
+    if (this.data.open !== key || $('tonight-share-box').hidden) return;
     const link = `${location.href.split('#')[0]}#set=${code}`;
-    if (this.data.view !== 'play' || this.data.open !== key) this.openSet(key);
-    $('tonight-share-box').hidden = false;
-    const input = $('tonight-share-link');
     input.value = link;
     input.select();
     $('tonight-share-note').textContent = link.startsWith('file:')

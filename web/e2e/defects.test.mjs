@@ -152,6 +152,7 @@ test('sharing: the note says what the link does and the copy is confirmed on scr
   await addFromLibrary(page, CLUB.title);
   await page.click('#tonight-share');
   await page.waitForSelector('#tonight-share-box:not([hidden])');
+  await page.waitForFunction(() => document.getElementById('tonight-share-link').value !== '');
   // Defect: the note said "2151 characters." and the copy was confirmed only to screen readers.
   const note = await page.textContent('#tonight-share-note');
   assert.doesNotMatch(note, /characters/);

@@ -38,6 +38,8 @@ test('a share link round-trips: Share makes it, opening it adds the set to Tonig
   const a = await open(env.browser, env.server.url);
   await addFromLibrary(a.page, CLUB.title);
   await a.page.click('#tonight-share');
+  // The link is written by the workshop module, loaded on the first Share.
+  await a.page.waitForFunction(() => document.getElementById('tonight-share-link').value !== '');
   const link = await a.page.inputValue('#tonight-share-link');
   assert.ok(link.startsWith(`${env.server.url}#set=`), link);
   const code = link.slice(link.indexOf('#set=') + 5);

@@ -32,7 +32,16 @@ pub fn parse_set(text: &str) -> Result<String, JsValue> {
     Ok(setfile::to_json(&set))
 }
 
-/// The built-in starter library: a JSON array of set-file objects.
+/// The starter library's index: a JSON array with, per set, `{file, title, count, rules, key,
+/// generator}` (`generator` null or `{theme, rule, min_moves}`). The page fetches a set's file,
+/// `library/<file>.json`, when it needs the puzzles.
+#[wasm_bindgen(js_name = libraryIndex)]
+pub fn library_index() -> String {
+    library::INDEX.to_string()
+}
+
+/// The built-in starter library: a JSON array of set-file objects (workshop module).
+#[cfg(feature = "workshop")]
 #[wasm_bindgen(js_name = librarySets)]
 pub fn library_sets() -> String {
     let parts: Vec<&str> = library::SETS.iter().map(|s| s.1).collect();

@@ -1,47 +1,31 @@
-//! The starter library, built into the app: every set of `puzzles/`, minified, in file-name
-//! order (made by `build.rs`).
+//! The starter library, built into the app from every set of `puzzles/` (by `build.rs`): the
+//! page's index of the sets and the ratings of their puzzles; the sets themselves are files the
+//! page fetches when it opens one, and only the workshop module holds them all ([`SETS`]).
 
-use std::cell::OnceCell;
-
-use engine::formats::setfile;
 use engine::puzzle::Theme;
 use engine::Rule;
 
-// (file stem, set-file JSON) for every shipped set.
+// INDEX, RATINGS, and SETS in the workshop module.
 include!(concat!(env!("OUT_DIR"), "/library.rs"));
 
-thread_local! {
-    /// (theme, rule, rating) of every library puzzle, read once.
-    static RATINGS: OnceCell<Vec<(Theme, Rule, u32)>> = const { OnceCell::new() };
-}
-
 /// The ratings of the library's puzzles of `theme` under `rule` (under any rule if the library
-/// has none under that one), deep sets left out.
+/// has none under that one), deep sets left out: deep sets are made with a minimum line
+/// length, which plain generation (what these ratings steer) does not ask for.
 pub fn ratings(theme: Theme, rule: Rule) -> Vec<u32> {
-    RATINGS.with(|cell| {
-        let all = cell.get_or_init(|| {
-            SETS.iter()
-                .filter_map(|(_, json)| setfile::parse(json).ok())
-                // Deep sets are made with a minimum line length, which plain generation (what
-                // these ratings steer) does not ask for.
-                .filter(|set| set.generator.as_ref().is_none_or(|g| g.min_moves == 0))
-                .flat_map(|set| set.puzzles)
-                .map(|p| (p.theme, p.rule, p.rating))
-                .collect()
-        });
-        let of = |same_rule: bool| -> Vec<u32> {
-            all.iter()
-                .filter(|(t, r, _)| *t == theme && (!same_rule || *r == rule))
-                .map(|x| x.2)
-                .collect()
-        };
-        let v = of(true);
-        if v.is_empty() {
-            of(false)
-        } else {
-            v
-        }
-    })
+    let (theme, rule) = (theme.to_string(), rule.to_string());
+    let of = |same_rule: bool| -> Vec<u32> {
+        RATINGS
+            .iter()
+            .filter(|(t, r, _)| *t == theme && (!same_rule || *r == rule))
+            .map(|x| x.2)
+            .collect()
+    };
+    let v = of(true);
+    if v.is_empty() {
+        of(false)
+    } else {
+        v
+    }
 }
 
 #[cfg(test)]
@@ -61,6 +45,55 @@ mod tests {
             })
             .sum();
         assert!(total >= 300);
+    }
+
+    /// The index and the ratings agree with the sets they are made from, read as the page
+    /// reads them (`setKey` for the keys).
+    #[test]
+    fn the_index_and_the_ratings_are_the_sets() {
+        let index: Vec<serde_json::Value> = serde_json::from_str(INDEX).unwrap();
+        assert_eq!(index.len(), SETS.len());
+        let mut want: Vec<(String, String, u32)> = Vec::new();
+        for (entry, (stem, json)) in index.iter().zip(SETS) {
+            let set = engine::formats::setfile::parse(json).unwrap();
+            assert_eq!(entry["file"], *stem);
+            assert_eq!(entry["title"], set.title.as_str());
+            assert_eq!(entry["count"], set.puzzles.len());
+            assert_eq!(entry["key"], crate::api::set_key(json).unwrap());
+            let mut rules: Vec<String> = set.puzzles.iter().map(|p| p.rule.to_string()).collect();
+            rules.dedup();
+            let listed: Vec<String> = serde_json::from_value(entry["rules"].clone()).unwrap();
+            assert_eq!(
+                listed.len(),
+                listed
+                    .iter()
+                    .collect::<std::collections::HashSet<_>>()
+                    .len()
+            );
+            assert!(
+                rules.iter().all(|r| listed.contains(r))
+                    && listed.iter().all(|r| rules.contains(r))
+            );
+            let g = set
+                .generator
+                .as_ref()
+                .unwrap_or_else(|| panic!("{stem}: no generator"));
+            assert_eq!(entry["generator"]["theme"], g.theme.to_string());
+            assert_eq!(entry["generator"]["rule"], g.rule.to_string());
+            assert_eq!(entry["generator"]["min_moves"], g.min_moves);
+            if g.min_moves == 0 {
+                want.extend(
+                    set.puzzles
+                        .iter()
+                        .map(|p| (p.theme.to_string(), p.rule.to_string(), p.rating)),
+                );
+            }
+        }
+        let got: Vec<(String, String, u32)> = RATINGS
+            .iter()
+            .map(|&(t, r, x)| (t.to_string(), r.to_string(), x))
+            .collect();
+        assert_eq!(got, want);
     }
 
     #[test]

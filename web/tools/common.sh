@@ -117,7 +117,7 @@ target_dir() {
 
 # The app's static files, copied as they are into $DIST.
 APP_FILES=(index.html style.css icon.svg manifest.webmanifest sw.js
-    app.js board.js drill.js jobs.js platform.js practice.js progress.js revisit.js scan.js sounds.js store.js study.js tonight.js ui.js worker.js coach.js games.js)
+    app.js board.js drill.js jobs.js library.js platform.js practice.js progress.js revisit.js scan.js sounds.js store.js study.js tonight.js ui.js worker.js coach.js games.js)
 
 need_node() {
     command -v node >/dev/null || die "node (Node.js 18 or later) is needed to build the app"
@@ -158,6 +158,13 @@ build_app() {
     for f in "${APP_FILES[@]}"; do
         cp "$WEB_DIR/$f" "$DIST/$f" || die "copying $f failed"
     done
+    # The starter library's sets, minified, one file each (the page fetches a set when it opens it).
+    mkdir -p "$DIST/library"
+    node -e 'const fs = require("fs"), path = require("path");
+        const [from, to] = process.argv.slice(1);
+        for (const f of fs.readdirSync(from).filter((f) => f.endsWith(".json")))
+          fs.writeFileSync(path.join(to, f), JSON.stringify(JSON.parse(fs.readFileSync(path.join(from, f), "utf8"))));' \
+        "$ROOT/puzzles" "$DIST/library" || die "copying the starter library failed"
     node "$WEB_DIR/tools/stamp.mjs" "$DIST" || die "stamping the service worker failed"
     step "Building the single-file app ($DIST/fivefold.html)"
     node "$WEB_DIR/tools/single.mjs" "$DIST" || die "the single-file build failed"

@@ -163,7 +163,7 @@ try {
     const plays = [];
     const wrongs = [];
     const hintTimes = [];
-    const sets = JSON.parse(m.librarySets());
+    const sets = JSON.parse(w.librarySets());
     for (const set of sets) {
       for (const p of set.puzzles) {
         json = JSON.stringify(p);

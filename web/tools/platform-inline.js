@@ -42,6 +42,18 @@ export function makeWorker() {
 
 export const SERVED = false;
 
+// The library's sets are in the file's one module (the workshop's), not files of their own.
+let inlineLibrary = null;
+export async function loadLibraryFile(file) {
+  if (!inlineLibrary) {
+    const files = JSON.parse(WORKSHOP.libraryIndex()).map((e) => e.file);
+    inlineLibrary = new Map(JSON.parse(WORKSHOP.librarySets()).map((set, i) => [files[i], JSON.stringify(set)]));
+  }
+  const text = inlineLibrary.get(file);
+  if (text === undefined) throw new Error('no such set in the library');
+  return text;
+}
+
 // The single file cannot load the scanner's separate files from file://; it says so instead.
 export async function loadScanner() {
   throw new Error('Scanning codes with the camera needs Fivefold opened from its web address, ' +
