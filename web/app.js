@@ -3,7 +3,7 @@
 // The rules, the grading, the drawing and every sentence about the game come from Rust; these
 // scripts pass events in and write the returned text out, always as text, never as markup.
 
-import { SERVED, startEngine } from './platform.js';
+import { SERVED, loadScreens, startEngine } from './platform.js';
 import { hasSaved, keepAside, load, makeBackup, onStorageEvents, readBackup, save } from './store.js';
 import { Tonight, checkSets, checkTonight } from './tonight.js';
 import { Drill, checkDrill } from './drill.js';
@@ -11,8 +11,8 @@ import { Study, checkStudy } from './study.js';
 import { PracticeStore, checkPractice } from './practice.js';
 import { Revisit } from './revisit.js';
 import { Progress } from './progress.js';
-import { Coach, checkCoach } from './coach.js';
-import { Games, checkGames } from './games.js';
+import { checkCoach, emptyCoach } from './coach-data.js';
+import { checkGames, emptyGames } from './games-data.js';
 import { $, banner, clearBanner, download, shown } from './ui.js';
 import { setSounds } from './sounds.js';
 
@@ -57,6 +57,47 @@ const WHAT = {
   games: 'games checked in My games',
 };
 
+/** Coach or My games until its script is loaded, on first opening (platform.js,
+ * loadScreens): it holds the screen's saved document, checked at start like every other, and
+ * hands it over with the settings when the screen is made. */
+class Later {
+  constructor(app, kind, empty) {
+    this.app = app;
+    this.kind = kind;
+    this.empty = empty;
+    this.stored = empty();
+    this.screen = null;
+    this.making = null;
+  }
+
+  get data() {
+    return this.screen ? this.screen.data : this.stored;
+  }
+
+  init(data) {
+    if (this.screen) this.screen.init(data);
+    else this.stored = data ?? this.empty();
+  }
+
+  applySettings(s) {
+    this.screen?.applySettings(s);
+  }
+
+  /** The screen, made on first use; a failed load is tried again on the next call. */
+  get() {
+    this.making ??= loadScreens().then((classes) => {
+      this.screen = new classes[this.kind](this.app);
+      this.screen.applySettings(this.app.settings);
+      this.screen.init(this.stored);
+      return this.screen;
+    }, (e) => {
+      this.making = null;
+      throw e;
+    });
+    return this.making;
+  }
+}
+
 class App {
   constructor() {
     this.settings = { ...DEFAULT_SETTINGS };
@@ -98,8 +139,8 @@ class App {
     this.study = new Study(this);
     this.revisit = new Revisit(this);
     this.progress = new Progress(this);
-    this.coach = new Coach(this);
-    this.games = new Games(this);
+    this.coach = new Later(this, 'Coach', emptyCoach);
+    this.games = new Later(this, 'Games', emptyGames);
     this.loadAll();
     for (const b of document.querySelectorAll('[data-go]')) {
       b.addEventListener('click', () => {
@@ -199,7 +240,20 @@ class App {
     if (name === 'drill') this.drill.activate();
     if (name === 'revisit') this.revisit.activate();
     if (name === 'progress') this.progress.activate();
-    if (name === 'coach') this.coach.activate();
+    const later = { coach: this.coach, games: this.games }[name];
+    if (later && !later.screen) {
+      // Shown once its script is there.
+      $(name).hidden = true;
+      later.get().then(() => {
+        if (this.settings.screen !== name) return;
+        $(name).hidden = false;
+        later.screen.activate?.();
+      }, (e) => {
+        banner(`This screen could not be opened (${e?.message ?? e}). Check the connection and try again.`, { kind: 'error', id: 'screen' });
+      });
+    } else if (later) {
+      later.screen.activate?.();
+    }
   }
 
   // The skip link goes to the board of the screen on show (else to the screen itself), and

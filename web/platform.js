@@ -37,6 +37,12 @@ export function makeWorker() {
 /** Whether this build can work offline through a service worker (not from file://). */
 export const SERVED = true;
 
+/** The screens a student's first visit does not need, loaded when first opened: Coach
+ * (web/coach.js) and My games (web/games.js). */
+export function loadScreens() {
+  return Promise.all([import('./coach.js'), import('./games.js')]).then(([c, g]) => ({ Coach: c.Coach, Games: g.Games }));
+}
+
 /** The camera scanner (web/scan.js), loaded on first use so that the page does not grow:
  * `const { openScanner } = await loadScanner()`. */
 export function loadScanner() {

@@ -81,7 +81,10 @@ export class Study {
       this.board.say(['Only a game played out from an empty board can be checked: play the moves in turn with the Play tool, black first, or paste a move list.'], 'refused');
       return;
     }
-    this.app.games.takeGame({ size: s.size, rule: s.rule, moves: s.moves }, 'the Study board');
+    const game = { size: s.size, rule: s.rule, moves: s.moves };
+    this.app.games.get().then((g) => g.takeGame(game, 'the Study board'), (e) => {
+      this.board.say([`My games could not be opened (${e?.message ?? e}).`], 'refused');
+    });
   }
 
   init(data) {

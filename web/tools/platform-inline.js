@@ -54,6 +54,11 @@ export async function loadLibraryFile(file) {
   return text;
 }
 
+// Coach and My games are pasted into the file like every other module.
+export async function loadScreens() {
+  return { Coach, Games };
+}
+
 // The single file cannot load the scanner's separate files from file://; it says so instead.
 export async function loadScanner() {
   throw new Error('Scanning codes with the camera needs Fivefold opened from its web address, ' +
