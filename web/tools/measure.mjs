@@ -1,8 +1,9 @@
 // Measures the built app (web/dist) here, in headless Chromium:
 //   1. page weight: each file gzip -9 compressed (HTML, JS, CSS, WASM), and the single-file
 //      build apart; what is loaded on first use (the camera scanner, scan.js and scan/; the
-//      workshop module, workshop/, with the worker that runs on it) is listed apart and not
-//      counted in the page's total (web/tools/weight.mjs weighs what a first visit fetches);
+//      workshop module, workshop/, with the worker that runs on it; coach.js and games.js) is
+//      listed apart and not counted in the page's total, nor are the library's set files
+//      (web/tools/weight.mjs weighs what a first visit fetches);
 //   2. first board on screen: from navigation to the first puzzle board drawn (the page's
 //      performance mark "fivefold:first-board"), for a returning student (a set open, the
 //      service worker installed) and for a first visit from a share link;
@@ -63,9 +64,11 @@ for (const p of walk(DIST).sort()) {
   if (kind === 'other') continue; // icons and the manifest are fetched by the installer, not the page
   const raw = statSync(p).size;
   const gz = gz9(p);
-  if (name === 'scan.js' || name.startsWith('scan/') || name.startsWith('workshop/') || name === 'worker.js') {
+  if (name === 'scan.js' || name.startsWith('scan/') || name.startsWith('workshop/') || name === 'worker.js' ||
+    name === 'coach.js' || name === 'games.js') {
     // Loaded on first use: the camera scanner when scanning starts, the workshop module by
-    // the worker (Drill, the Study board's searches) and by Coach.
+    // the worker (Drill, the Study board's searches), by Coach, My games and a code written
+    // (Share, a set's summary), and Coach's and My games' scripts when first opened.
     weight.scanner.files.push({ name, raw, gz });
     weight.scanner.raw += raw;
     weight.scanner.gz += gz;
@@ -246,7 +249,7 @@ for (const f of weight.files) say(`  ${f.name.padEnd(28)} ${String(f.raw).padSta
 say(`  total                        ${String(weight.total.raw).padStart(9)} B  ->  ${String(weight.total.gz).padStart(8)} B (${kb(weight.total.gz)})`);
 say(`  by kind: ${Object.entries(weight.byKind).map(([k, v]) => `${k} ${kb(v)}`).join(', ')}`);
 say(`  single file fivefold.html    ${String(weight.single.raw).padStart(9)} B  ->  ${String(weight.single.gz).padStart(8)} B (${kb(weight.single.gz)})`);
-say('  loaded on first use (not in the total): the camera scanner, the workshop module and the worker:');
+say('  loaded on first use (not in the total): the camera scanner, the workshop module and the worker, Coach and My games:');
 for (const f of weight.scanner.files) say(`    ${f.name.padEnd(26)} ${String(f.raw).padStart(9)} B  ->  ${String(f.gz).padStart(8)} B`);
 say(`    first-use total              ${String(weight.scanner.raw).padStart(9)} B  ->  ${String(weight.scanner.gz).padStart(8)} B (${kb(weight.scanner.gz)})`);
 say();
