@@ -632,6 +632,7 @@ export class Tonight {
     this.code = null;
     $('copy-code').disabled = true;
     $('share-code').hidden = true;
+    if (!this.codeWriter) $('result-code').textContent = 'Writing the result code…';
     let ws;
     try {
       ws = await loadWorkshop();
@@ -640,6 +641,7 @@ export class Tonight {
       $('result-qr-box').hidden = true;
       return;
     }
+    this.codeWriter = ws;
     // The player may have left the summary while the module loaded.
     if (this.data.open !== key || this.data.view !== 'summary') return;
     const { qrMatrix, resultCode } = ws;
