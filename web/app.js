@@ -85,15 +85,20 @@ class Later {
 
   /** The screen, made on first use; a failed load is tried again on the next call. */
   get() {
-    this.making ??= loadScreens().then((classes) => {
-      this.screen = new classes[this.kind](this.app);
-      this.screen.applySettings(this.app.settings);
-      this.screen.init(this.stored);
-      return this.screen;
-    }, (e) => {
-      this.making = null;
-      throw e;
-    });
+    this.making ??= loadScreens()
+      .then((classes) => {
+        // The screen is kept only once it is whole: a failure here leaves the stored data in
+        // charge and the next call tries again.
+        const screen = new classes[this.kind](this.app);
+        screen.applySettings(this.app.settings);
+        screen.init(this.stored);
+        this.screen = screen;
+        return screen;
+      })
+      .catch((e) => {
+        this.making = null;
+        throw e;
+      });
     return this.making;
   }
 }
@@ -245,6 +250,7 @@ class App {
       // Shown once its script is there.
       $(name).hidden = true;
       later.get().then(() => {
+        clearBanner('screen');
         if (this.settings.screen !== name) return;
         $(name).hidden = false;
         later.screen.activate?.();

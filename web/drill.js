@@ -28,6 +28,11 @@ const DEEP_LABELS = {
 };
 const DEEP_BAND = [1900, 2600];
 
+// How long Drill waits for the starter library's puzzles before it makes its own (ms), and how
+// long after a failed load it tries again.
+const LIBRARY_WAIT = 4000;
+const LIBRARY_RETRY = 30000;
+
 /** The deep choices: `{name, label, rules, theme, minMoves, files, puzzles}` from the library's
  * index (`puzzles` filled when the library's sets are loaded). */
 function deepChoices(index) {
@@ -281,7 +286,9 @@ export class Drill {
       .sort((a, b) => Math.abs(a.rating - r) - Math.abs(b.rating - r) || (a.id < b.id ? -1 : 1));
     $('drill-band').textContent = left.length
       ? `${deep.label}: ${left.length} from the library not yet played, rated ${DEEP_BAND[0]} and up.`
-      : `${deep.label}: every library puzzle played; new ones are made here (up to a minute each).`;
+      : this.library
+        ? `${deep.label}: every library puzzle played; new ones are made here (up to a minute each).`
+        : `${deep.label}: the library could not be loaded just now, so puzzles are made here (up to a minute each).`;
     if (!left.length) return false;
     d.queue.push(...left.slice(0, AHEAD - d.queue.length));
     this.save();
@@ -291,21 +298,30 @@ export class Drill {
   }
 
   /** Loads the library's puzzles once (the plain sets' for fromLibrary, the deep sets' for
-   * the deep choices). Without them (offline before the app was ever cached) Drill makes
-   * every puzzle, and tries loading again next time. */
+   * the deep choices). Waits at most LIBRARY_WAIT ms, so that a stalled network does not hold
+   * Drill up: without the library Drill makes every puzzle, and a load that arrives later is
+   * used from then on. A failed load is tried again after LIBRARY_RETRY ms, not on every fill. */
   async loadLibrary() {
     if (this.library) return;
-    let sets;
-    try {
-      sets = await allLibrarySets();
-    } catch {
-      return;
+    if (!this.libraryLoad && Date.now() - (this.libraryFailed ?? -Infinity) >= LIBRARY_RETRY) {
+      this.libraryLoad = allLibrarySets().then(
+        (sets) => {
+          this.library = sets.filter((set) => !(set.entry.generator?.min_moves > 0)).flatMap((set) => set.puzzles);
+          for (const c of this.deep) {
+            c.puzzles = sets.filter((set) => c.files.includes(set.entry.file)).flatMap((set) => set.puzzles);
+          }
+        },
+        () => {
+          this.libraryFailed = Date.now();
+        },
+      ).finally(() => {
+        this.libraryLoad = null;
+      });
     }
-    if (this.library) return;
-    this.library = sets.filter((set) => !(set.entry.generator?.min_moves > 0)).flatMap((set) => set.puzzles);
-    for (const c of this.deep) {
-      c.puzzles = sets.filter((set) => c.files.includes(set.entry.file)).flatMap((set) => set.puzzles);
-    }
+    if (!this.libraryLoad) return;
+    let timer;
+    await Promise.race([this.libraryLoad, new Promise((done) => { timer = setTimeout(done, LIBRARY_WAIT); })]);
+    clearTimeout(timer);
   }
 
   async fill() {

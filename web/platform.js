@@ -14,12 +14,26 @@ export async function startEngine() {
  * Coach's sheet and class table), started on first use: the worker runs on it, and the page
  * loads it only for the screens that need it, so that a student's first visit does not. */
 let workshop = null;
+let workshopModule = null;
 export function loadWorkshop() {
-  workshop ??= import('./workshop/fivefold_web.js').then(async (m) => {
-    await m.default();
-    return m;
-  });
+  workshop ??= import('./workshop/fivefold_web.js')
+    .then(async (m) => {
+      await m.default();
+      workshopModule = m;
+      return m;
+    })
+    .catch((e) => {
+      // A failed load (no signal, say) is tried again on the next use, not remembered.
+      workshop = null;
+      throw e;
+    });
   return workshop;
+}
+
+/** The workshop module if it is already started, else null: lets a click use it at once (a
+ * browser lets a page copy to the clipboard only within the click itself). */
+export function workshopNow() {
+  return workshopModule;
 }
 
 /** The set-file text of the starter library's set `file` (dist/library/<file>.json). */

@@ -5,9 +5,9 @@ import { attemptWords, parseSet, recordedAttempt, setKey, shareDecode } from './
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
 import { isLibraryKey, library, librarySet } from './library.js';
-import { loadWorkshop } from './platform.js';
+import { loadWorkshop, workshopNow } from './platform.js';
 import { save } from './store.js';
-import { $, POINT_NAME, announce, banner, el, fill, isInt, own, paintQr, put, keepFocus } from './ui.js';
+import { $, POINT_NAME, announce, banner, clearBanner, el, fill, isInt, own, paintQr, put, keepFocus } from './ui.js';
 
 // Attempt names and their words, from the engine (read once the engine has started).
 let outcomeWords = null;
@@ -138,6 +138,7 @@ export class Tonight {
     $('tonight-back').addEventListener('click', () => this.showList());
     $('tonight-check-stop').addEventListener('click', () => this.stopChecking(true));
     $('tonight-share').addEventListener('click', () => this.share());
+    for (const on of ['pointerdown', 'focus']) $('tonight-share').addEventListener(on, () => loadWorkshop().catch(() => {}));
     $('set-file').addEventListener('change', (e) => this.pickFile(e.target));
     $('summary-back').addEventListener('click', () => this.openSet(this.data.open));
     $('summary-sets').addEventListener('click', () => this.showList());
@@ -401,7 +402,14 @@ export class Tonight {
         el('p', { class: 'meta', text: `${puzzles.length} puzzles · ${ruleWords(puzzles)} · ${done} solved` }),
         el('div', { class: 'row' },
           el('button', { type: 'button', class: 'primary', onclick: () => this.openSet(s.key) }, 'Open'),
-          el('button', { type: 'button', class: 'secondary', onclick: () => this.share(s.key) }, 'Share'),
+          el('button', {
+            type: 'button',
+            class: 'secondary',
+            onclick: () => this.share(s.key),
+            // The code writer starts loading as the finger or the focus reaches the button.
+            onpointerdown: () => loadWorkshop().catch(() => {}),
+            onfocus: () => loadWorkshop().catch(() => {}),
+          }, 'Share'),
           el('button', { type: 'button', class: 'quiet', onclick: () => this.remove(s.key) }, 'Remove')));
     }));
     $('library').open ||= this.sets.list.length === 0;
@@ -432,14 +440,21 @@ export class Tonight {
     button.disabled = true;
     let r;
     try {
-      r = this.addSet(await librarySet(entry.file), 'library');
+      const text = await librarySet(entry.file);
+      // Only the very set the index names is taken as the library's (its answers are trusted).
+      if (setKey(parseSet(text)) !== entry.key) {
+        throw new Error(`The copy of "${entry.title}" here is not the library's; reload the page to fetch it again`);
+      }
+      r = this.addSet(text, 'library');
     } catch (e) {
       banner(`${e?.message ?? e}.`, { kind: 'error', id: 'library' });
       return;
     } finally {
       button.disabled = false;
     }
-    this.openSet(r.key);
+    // The player may have opened something else while the set was fetched.
+    if (this.data.view === 'list') this.openSet(r.key);
+    else banner(`Added "${r.title}" to Tonight.`, { kind: 'info', id: 'library' });
   }
 
   openSet(key, index) {
@@ -683,14 +698,28 @@ export class Tonight {
     input.value = '';
     $('tonight-share-note').textContent = 'Making the link…';
     $('tonight-share-box').hidden = false;
+    // With the code writer already here nothing is awaited before the copy, which browsers
+    // allow only within the click itself; on a first share the copy may be refused, and the
+    // link is left selected to copy by hand.
+    let writer = workshopNow();
+    if (!writer) {
+      try {
+        writer = await loadWorkshop();
+      } catch (e) {
+        $('tonight-share-box').hidden = true;
+        banner(`The link writer could not be loaded (${e?.message ?? e}). Check the connection and press Share again.`, { kind: 'error', id: 'share' });
+        return;
+      }
+    }
     let code;
     try {
-      code = (await loadWorkshop()).shareEncode(s.json);
+      code = writer.shareEncode(s.json);
     } catch (e) {
       $('tonight-share-box').hidden = true;
       banner(`This set cannot be shared as a link: ${e?.message ?? e}`, { kind: 'error', id: 'share' });
       return;
     }
+    clearBanner('share');
     // The player may have moved on while the code writer loaded.
     if (this.data.open !== key || $('tonight-share-box').hidden) return;
     const link = `${location.href.split('#')[0]}#set=${code}`;

@@ -5,6 +5,7 @@ import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import {
   boardState,
+  context as newContext,
   librarySet,
   open,
   ready,
@@ -143,6 +144,30 @@ test('the deep choices serve the library\'s deep puzzles at once, nearest the pl
   const lowest = Math.min(...deep.puzzles.map((p) => p.rating));
   assert.equal(d.current.puzzle.rating, lowest);
   await page.waitForSelector(`#${BOARD}[data-mode="puzzle"][data-rule="freestyle"]`);
+  assert.deepEqual(errors, []);
+  await context.close();
+});
+
+test('with the library\'s files stalled, Drill makes its own puzzles and says so for the deep choices', async () => {
+  const { page, context, errors } = await newContext(env.browser);
+  // The set files never answer (a network that hangs): Drill must not wait on them for ever.
+  await context.route('**/library/*.json', () => {});
+  await page.goto(env.server.url);
+  await ready(page);
+  await page.click('[data-go="drill"]');
+  await page.selectOption('#drill-rule', 'freestyle');
+  await page.selectOption('#drill-theme', 'vcf');
+  await page.waitForFunction(() => {
+    const d = JSON.parse(localStorage.getItem('fivefold.drill'))?.data;
+    return d?.current?.puzzle.theme === 'vcf' && document.getElementById('drill').dataset.waiting === 'false';
+  }, null, { timeout: 60000 });
+  await page.waitForSelector(`#${BOARD}[data-mode="puzzle"][data-rule="freestyle"]`);
+  // Not from the library: the worker made it.
+  const library = librarySet('fours-freestyle-club').puzzles.map((p) => p.id);
+  assert.ok(!library.includes((await stored(page)).current.puzzle.id));
+  await page.selectOption('#drill-theme', 'deep-vcf');
+  await page.waitForFunction(() => /could not be loaded/.test(document.getElementById('drill-band').textContent), null, { timeout: 15000 });
+  assert.match(await page.textContent('#drill-band'), /^Deep fours \(10 to 20 fours\): the library could not be loaded just now, so puzzles are made here/);
   assert.deepEqual(errors, []);
   await context.close();
 });

@@ -4,11 +4,12 @@
 
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
-import { readFileSync } from 'node:fs';
+import { readFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import {
   DIST,
+  PUZZLES,
   addFromLibrary,
   boardState,
   context,
@@ -23,6 +24,20 @@ const CLUB = librarySet('fours-freestyle-club');
 const BOARD = 'tonight-board';
 
 const env = useBrowser();
+
+test('the served copies of the library sets are the sets, every number with all its digits', () => {
+  const files = readdirSync(PUZZLES).filter((f) => f.endsWith('.json'));
+  assert.ok(files.length >= 10, `only ${files.length} sets in puzzles/`);
+  for (const f of files) {
+    const source = readFileSync(join(PUZZLES, f), 'utf8');
+    const served = readFileSync(join(DIST, 'library', f), 'utf8');
+    assert.deepEqual(JSON.parse(served), JSON.parse(source), f);
+    assert.ok(served.length < source.length, `${f} is not smaller served`);
+    // A parse and re-print would round an integer past 2^53; the numbers' digits must be kept.
+    const numbers = (t) => t.replace(/"(?:[^"\\]|\\.)*"/g, '""').match(/-?\d+(?:\.\d+)?(?:[eE][+-]?\d+)?/g) ?? [];
+    assert.deepEqual(numbers(served), numbers(source), f);
+  }
+});
 
 test('after a first visit, the app works with the network off', async () => {
   const { page, context: ctx, errors } = await open(env.browser, env.server.url);

@@ -8,6 +8,7 @@ import {
   addFromLibrary,
   banners,
   boardState,
+  context as newContext,
   librarySet,
   open,
   ready,
@@ -69,6 +70,24 @@ test('a share link round-trips: Share makes it, opening it adds the set to Tonig
     `${CLUB.puzzles.length} puzzles · freestyle · 1 solved`);
   assert.deepEqual(b.errors, []);
   await b.context.close();
+});
+
+test('a Share that cannot load the link writer says so; the next Share, with the network back, writes the link', async () => {
+  const { page, context } = await newContext(env.browser, { serviceWorkers: 'block' });
+  await page.goto(env.server.url);
+  await ready(page);
+  await addFromLibrary(page, CLUB.title);
+  await context.route('**/workshop/**', (r) => r.abort());
+  await page.click('#tonight-share');
+  await page.waitForFunction(() => document.querySelectorAll('#banners .banner').length > 0);
+  assert.match((await banners(page)).join(' '), /^The link writer could not be loaded \(.*\)\. Check the connection and press Share again\.$/);
+  assert.ok(await page.isHidden('#tonight-share-box'));
+  await context.unroute('**/workshop/**');
+  await page.click('#tonight-share');
+  await page.waitForFunction(() => document.getElementById('tonight-share-link').value !== '');
+  assert.match(await page.inputValue('#tonight-share-link'), /#set=[0-9A-Z$./:-]+$/);
+  assert.ok(!(await banners(page)).some((b) => /could not be loaded/.test(b)), 'the failure banner goes once the link is written');
+  await context.close();
 });
 
 test('a damaged or truncated link is refused with a message and loads nothing', async () => {

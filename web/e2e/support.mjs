@@ -104,8 +104,9 @@ export const PHONE = { width: 390, height: 844, dpr: 3, touch: true };
 export const DESKTOP = { width: 1280, height: 800, dpr: 1, touch: false };
 
 /** A fresh context and page, with uncaught errors and console errors collected. */
-export async function context(browser, { dpr = 1, width = 1280, height = 800, touch = false } = {}) {
+export async function context(browser, { dpr = 1, width = 1280, height = 800, touch = false, serviceWorkers = 'allow' } = {}) {
   const ctx = await browser.newContext({
+    serviceWorkers,
     deviceScaleFactor: dpr,
     viewport: { width, height },
     hasTouch: touch,

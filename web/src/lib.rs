@@ -10,8 +10,9 @@
 //! band, [`games`] the player's own games (read, and checked move by move in the worker),
 //! [`layout`] places the grid and [`render`] draws it, [`qr`] gives the modules of a QR
 //! code; [`bench`] times the solver's benchmark suite in the browser. [`worker`],
-//! [`classroom`], [`games`] and [`bench`] are in the workshop module only (the `workshop`
-//! feature), which the worker and the instructor's screens load; the page starts without them.
+//! [`classroom`], [`coach`], [`games`], [`qr`] and [`bench`] are in the workshop module only
+//! (the `workshop` feature), which the worker, the instructor's screens and the code writers
+//! load; the page starts without them.
 #![deny(missing_docs)]
 
 pub mod api;

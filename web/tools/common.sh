@@ -159,11 +159,22 @@ build_app() {
         cp "$WEB_DIR/$f" "$DIST/$f" || die "copying $f failed"
     done
     # The starter library's sets, minified, one file each (the page fetches a set when it opens it).
+    # Whitespace outside strings is dropped and nothing else, so every number keeps its digits
+    # (a parse and re-print would round integers past 2^53); the result must parse to the same value.
     mkdir -p "$DIST/library"
-    node -e 'const fs = require("fs"), path = require("path");
+    node -e 'const fs = require("fs"), path = require("path"), { isDeepStrictEqual } = require("util");
         const [from, to] = process.argv.slice(1);
-        for (const f of fs.readdirSync(from).filter((f) => f.endsWith(".json")))
-          fs.writeFileSync(path.join(to, f), JSON.stringify(JSON.parse(fs.readFileSync(path.join(from, f), "utf8"))));' \
+        for (const f of fs.readdirSync(from).filter((f) => f.endsWith(".json"))) {
+          const text = fs.readFileSync(path.join(from, f), "utf8");
+          let out = "", inString = false, escaped = false;
+          for (const c of text) {
+            if (inString) { out += c; if (escaped) escaped = false; else if (c === "\\") escaped = true; else if (c === "\"") inString = false; }
+            else if (c === "\"") { inString = true; out += c; }
+            else if (!" \t\r\n".includes(c)) out += c;
+          }
+          if (!isDeepStrictEqual(JSON.parse(out), JSON.parse(text))) throw new Error(`${f}: minified set differs`);
+          fs.writeFileSync(path.join(to, f), out);
+        }' \
         "$ROOT/puzzles" "$DIST/library" || die "copying the starter library failed"
     node "$WEB_DIR/tools/stamp.mjs" "$DIST" || die "stamping the service worker failed"
     step "Building the single-file app ($DIST/fivefold.html)"

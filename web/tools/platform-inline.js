@@ -30,6 +30,10 @@ export async function loadWorkshop() {
   return WORKSHOP;
 }
 
+export function workshopNow() {
+  return WORKSHOP;
+}
+
 export function makeWorker() {
   if (!inlineWorkerUrl) {
     const source = document.getElementById('fivefold-worker').textContent;
