@@ -96,12 +96,12 @@ need_chromium() {
 # web/package-lock.json: installed when any of them is missing or at another version.
 need_node_modules() {
     local pkg want have
-    for pkg in playwright-core axe-core; do
+    for pkg in playwright-core axe-core esbuild; do
         want="$(node -p "require('$WEB_DIR/package-lock.json').packages['node_modules/$pkg'].version")" ||
             die "cannot read web/package-lock.json"
         have="$(node -p "require('$WEB_DIR/node_modules/$pkg/package.json').version" 2>/dev/null || true)"
         if [ "$want" != "$have" ]; then
-            step "Installing the e2e test packages (npm ci in web/: $pkg $want is missing)"
+            step "Installing the build and test packages (npm ci in web/: $pkg $want is missing)"
             (cd "$WEB_DIR" && PLAYWRIGHT_SKIP_BROWSER_DOWNLOAD=1 npm ci --no-audit --no-fund) ||
                 die "npm ci in web/ failed"
             return 0
@@ -135,6 +135,7 @@ build_app() {
     need_wasm_target
     need_wasm_bindgen
     need_node
+    need_node_modules
     local target out f
     target="$(target_dir)" || die "cargo metadata failed"
     out="$target/$WASM_TARGET/release"
@@ -176,8 +177,11 @@ build_app() {
           fs.writeFileSync(path.join(to, f), out);
         }' \
         "$ROOT/puzzles" "$DIST/library" || die "copying the starter library failed"
-    node "$WEB_DIR/tools/stamp.mjs" "$DIST" || die "stamping the service worker failed"
+    # The single file is pasted from the readable modules (and minified whole), then the
+    # served files are minified one by one, then the service worker's list is stamped.
     step "Building the single-file app ($DIST/fivefold.html)"
     node "$WEB_DIR/tools/single.mjs" "$DIST" || die "the single-file build failed"
+    node "$WEB_DIR/tools/minify.mjs" "$DIST" || die "minifying the scripts failed"
+    node "$WEB_DIR/tools/stamp.mjs" "$DIST" || die "stamping the service worker failed"
     note "built $(du -sb "$DIST" | cut -f1) bytes in $DIST"
 }

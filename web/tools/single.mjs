@@ -15,7 +15,7 @@
 //   - the style sheet and the icon are inline, and the Content-Security-Policy allows exactly
 //     the inline script and style by their SHA-256 hashes, WebAssembly, and blob: workers.
 // Top-level names of all the pasted modules share one scope; the result is checked with
-// `node --check`, which refuses a name declared twice.
+// `node --check`, which refuses a name declared twice, and then minified with esbuild.
 
 import { createHash } from 'node:crypto';
 import { spawnSync } from 'node:child_process';
@@ -24,6 +24,7 @@ import { gzipSync } from 'node:zlib';
 import { tmpdir } from 'node:os';
 import { dirname, join, normalize } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { transformSync } from 'esbuild';
 
 const DIST = process.argv[2] ?? fileURLToPath(new URL('../dist/', import.meta.url));
 const INLINE_PLATFORM = fileURLToPath(new URL('./platform-inline.js', import.meta.url));
@@ -101,20 +102,22 @@ const sha256 = (text) => `'sha256-${createHash('sha256').update(text, 'utf8').di
 
 const glue = glueText();
 const modules = appModules();
-const page = safeInScript(
-  `${glue}\n${modules.map((m) => `// ---- ${m.name} ----\n${unmodule(m.source, m.name)}`).join('\n')}`,
-  'the page script',
-);
-check(page, 'mjs');
+// Checked as pasted (a name declared twice is refused here), then minified whole with esbuild
+// (the page as a module, the worker wrapped in a function so that its names are its own).
+const minify = (text, options) => (process.env.FIVEFOLD_NO_MINIFY === '1'
+  ? text
+  : transformSync(text, { minify: true, legalComments: 'none', ...options }).code);
+
+const pasted = `${glue}\n${modules.map((m) => `// ---- ${m.name} ----\n${unmodule(m.source, m.name)}`).join('\n')}`;
+check(pasted, 'mjs');
+const page = safeInScript(minify(pasted, { loader: 'js', format: 'esm' }), 'the page script');
 
 const workerSource = read(join(DIST, 'worker.js'));
-const worker = safeInScript(
-  `${glue.replaceAll('import.meta.url', 'self.location.href')}\nconst init = __wbg_init;\n${unmodule(workerSource, 'worker.js')}`,
-  'the worker',
-);
-check(worker, 'cjs');
+const pastedWorker = `${glue.replaceAll('import.meta.url', 'self.location.href')}\nconst init = __wbg_init;\n${unmodule(workerSource, 'worker.js')}`;
+check(pastedWorker, 'cjs');
+const worker = safeInScript(minify(pastedWorker, { loader: 'js', format: 'iife' }), 'the worker');
 
-const style = safeInScript(read(join(DIST, 'style.css')), 'style.css');
+const style = safeInScript(minify(read(join(DIST, 'style.css')), { loader: 'css' }), 'style.css');
 // Gzipped, then base64: the file is a third smaller than with base64 alone, compressed or not;
 // the page unpacks it with DecompressionStream.
 const wasm = gzipSync(readFileSync(join(DIST, WASM)), { level: 9 }).toString('base64');
