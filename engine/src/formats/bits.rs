@@ -4,7 +4,15 @@
 //!
 //! Bits are written most significant first within each byte; the last byte is padded with
 //! zero bits, and [`BitReader::finish`] checks that the padding is zero and that nothing
-//! follows it, so every bit of a code is either meaningful or checked.
+//! follows it, so every bit of a code is either meaningful or checked. [`crc32`] is the codes'
+//! checksum.
+
+/// CRC-32/ISO-HDLC of `bytes` (the checksum of zlib, gzip and PNG), from the `crc` crate with
+/// its one-table variant: the codes are short, and larger tables would weigh on the page.
+pub(crate) fn crc32(bytes: &[u8]) -> u32 {
+    const CRC: crc::Crc<u32> = crc::Crc::<u32>::new(&crc::CRC_32_ISO_HDLC);
+    CRC.checksum(bytes)
+}
 
 /// Writes bits into bytes.
 #[derive(Default)]
@@ -171,6 +179,23 @@ pub(crate) fn unzigzag(u: u64) -> i64 {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn crc32_is_the_catalogued_crc_32_iso_hdlc() {
+        // The check value of CRC-32/ISO-HDLC over the nine bytes "123456789" (the RevEng CRC
+        // catalogue's `check=0xcbf43926`, from memory), and the empty input.
+        assert_eq!(crc32(b"123456789"), 0xCBF4_3926);
+        assert_eq!(crc32(b""), 0);
+    }
+
+    proptest::proptest! {
+        /// The same checksum as crc32fast (what the codes used before), so that every code
+        /// written earlier still reads.
+        #[test]
+        fn crc32_agrees_with_crc32fast(bytes in proptest::collection::vec(proptest::num::u8::ANY, 0..2000)) {
+            proptest::prop_assert_eq!(crc32(&bytes), crc32fast::hash(&bytes));
+        }
+    }
 
     #[test]
     fn golomb_codes_are_the_published_ones() {

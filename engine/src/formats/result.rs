@@ -261,7 +261,7 @@ pub fn fingerprint(set: &PuzzleSet) -> u32 {
         puzzles: set.puzzles.clone(),
         generator: None,
     };
-    crc32fast::hash(super::setfile::to_json(&bare).as_bytes())
+    super::bits::crc32(super::setfile::to_json(&bare).as_bytes())
 }
 
 fn to_base32(bytes: &[u8]) -> String {
@@ -384,7 +384,7 @@ pub fn encode(set: u32, name: &str, puzzles: &[PuzzleResult]) -> Result<String, 
         w.put(3, p.time as u64);
     }
     raw.extend_from_slice(&w.into_bytes());
-    let crc = crc32fast::hash(&raw);
+    let crc = super::bits::crc32(&raw);
     raw.extend_from_slice(&crc.to_le_bytes());
     let text = to_base32(&raw);
     Ok(text
@@ -422,7 +422,7 @@ pub fn decode(code: &str) -> Result<Results, ResultError> {
         return Err(ResultError::Damaged);
     }
     let (body, crc) = raw.split_at(raw.len() - 4);
-    if crc32fast::hash(body).to_le_bytes() != crc {
+    if super::bits::crc32(body).to_le_bytes() != crc {
         return Err(ResultError::Damaged);
     }
     let version = body[0];

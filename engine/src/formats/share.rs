@@ -193,7 +193,7 @@ fn deflate(body: &[u8]) -> Vec<u8> {
 fn seal(body: &[u8], compressed: bool) -> String {
     let mut bytes = vec![VERSION << 4 | (compressed as u8) << 3];
     bytes.extend_from_slice(body);
-    let crc = crc32fast::hash(&bytes);
+    let crc = super::bits::crc32(&bytes);
     bytes.extend_from_slice(&crc.to_be_bytes());
     let mut code = String::with_capacity(1 + bytes.len().div_ceil(2) * 3);
     code.push(MARK);
@@ -446,7 +446,7 @@ fn decode_v2(text: &str) -> Result<PuzzleSet, ShareError> {
         return Err(ShareError::Damaged);
     }
     let (signed, crc) = bytes.split_at(bytes.len() - 4);
-    if crc32fast::hash(signed).to_be_bytes() != crc {
+    if super::bits::crc32(signed).to_be_bytes() != crc {
         return Err(ShareError::Damaged);
     }
     let header = signed[0];
@@ -828,7 +828,7 @@ fn decode_v1(code: &str) -> Result<PuzzleSet, ShareError> {
         return Err(ShareError::Damaged);
     }
     let (packed, crc) = bytes.split_at(bytes.len() - 4);
-    if crc32fast::hash(packed).to_le_bytes() != crc {
+    if super::bits::crc32(packed).to_le_bytes() != crc {
         return Err(ShareError::Damaged);
     }
     let mut raw = Vec::new();
