@@ -16,7 +16,7 @@ use crate::bitset::CellSet;
 use crate::geometry::{Direction, Point, Symmetry, MAX_SIDE};
 use crate::patterns::{self, LineInfo, LineShape, ShapeTable, BLOCKED, OWN};
 use crate::types::{Rule, Stone};
-use crate::zobrist::STONE_KEYS;
+use crate::zobrist::stone_key;
 
 /// Wall cells on each side of the board.
 pub(crate) const MARGIN: usize = 5;
@@ -419,17 +419,16 @@ impl Board {
     /// The hash the position would have after a stone of `c` on the empty cell `idx`.
     #[inline]
     pub fn hash_after(&self, idx: usize, c: Stone) -> u64 {
-        self.hashes[0] ^ STONE_KEYS[c.index()][self.images[idx][0] as usize]
+        self.hashes[0] ^ stone_key(c.index(), self.images[idx][0] as usize)
     }
 
     /// The canonical hash ([`Board::canonical_hash`]) the position would have after a stone of
     /// `c` on the empty cell `idx`.
     pub fn canonical_hash_after(&self, idx: usize, c: Stone) -> u64 {
-        let z = &STONE_KEYS[c.index()];
         let hashes = self.all_hashes();
         (0..8)
             .filter(|i| self.symmetries >> i & 1 == 1)
-            .map(|i| hashes[i] ^ z[self.images[idx][i] as usize])
+            .map(|i| hashes[i] ^ stone_key(c.index(), self.images[idx][i] as usize))
             .min()
             .unwrap_or(0)
     }
@@ -548,14 +547,13 @@ impl Board {
     #[inline]
     fn toggle_hash(&mut self, idx: usize, c: Stone) {
         let img = &self.images[idx];
-        let z = &STONE_KEYS[c.index()];
         if !self.track_symmetries {
-            self.hashes[0] ^= z[img[0] as usize];
+            self.hashes[0] ^= stone_key(c.index(), img[0] as usize);
             return;
         }
-        for i in 0..8 {
+        for (i, (h, &at)) in self.hashes.iter_mut().zip(img).enumerate() {
             if self.symmetries >> i & 1 == 1 {
-                self.hashes[i] ^= z[img[i] as usize];
+                *h ^= stone_key(c.index(), at as usize);
             }
         }
     }
@@ -570,10 +568,9 @@ impl Board {
         let mut h = [0u64; 8];
         for idx in self.indices() {
             if let Some(c) = self.stone_at(idx) {
-                let z = &STONE_KEYS[c.index()];
                 for (i, hv) in h.iter_mut().enumerate() {
                     if self.symmetries >> i & 1 == 1 {
-                        *hv ^= z[self.images[idx][i] as usize];
+                        *hv ^= stone_key(c.index(), self.images[idx][i] as usize);
                     }
                 }
             }

@@ -23,23 +23,17 @@ pub const fn splitmix64(mut z: u64) -> u64 {
 /// Points of the largest grid (19x19) that keys are made for.
 pub const POINTS: usize = 361;
 
-/// One key per (colour, point of a 19x19 grid): the stream of splitmix64 from a fixed state,
-/// black's keys first.
-pub const STONE_KEYS: [[u64; POINTS]; 2] = {
-    let mut keys = [[0u64; POINTS]; 2];
-    let mut state: u64 = 0x5EED_F1FE_F01D_0001;
-    let mut c = 0;
-    while c < 2 {
-        let mut i = 0;
-        while i < POINTS {
-            keys[c][i] = splitmix64(state);
-            state = state.wrapping_add(GAMMA);
-            i += 1;
-        }
-        c += 1;
-    }
-    keys
-};
+/// The state the stream of stone keys starts from.
+const STONE_SEED: u64 = 0x5EED_F1FE_F01D_0001;
+
+/// The key of a stone of colour `c` (0 black, 1 white) on point `point` of a 19x19 grid: item
+/// `c * POINTS + point` of the stream of splitmix64 from a fixed state, black's keys first.
+/// Computed when asked (a few multiplications) rather than read from a table: a table of the
+/// 722 keys would be 5.8 KB of incompressible data in every wasm module.
+#[inline]
+pub const fn stone_key(c: usize, point: usize) -> u64 {
+    splitmix64(STONE_SEED.wrapping_add(((c * POINTS + point) as u64).wrapping_mul(GAMMA)))
+}
 
 #[cfg(test)]
 mod tests {
@@ -62,8 +56,26 @@ mod tests {
     }
 
     #[test]
+    fn stone_keys_are_the_stream_in_order() {
+        // Stepping the generator's state as the reference code does gives the keys in order.
+        let mut state = STONE_SEED;
+        for c in 0..2 {
+            for point in 0..POINTS {
+                assert_eq!(
+                    stone_key(c, point),
+                    splitmix64(state),
+                    "colour {c}, point {point}"
+                );
+                state = state.wrapping_add(GAMMA);
+            }
+        }
+    }
+
+    #[test]
     fn keys_are_distinct() {
-        let mut all: Vec<u64> = STONE_KEYS.iter().flatten().copied().collect();
+        let mut all: Vec<u64> = (0..2)
+            .flat_map(|c| (0..POINTS).map(move |p| stone_key(c, p)))
+            .collect();
         all.sort_unstable();
         all.dedup();
         assert_eq!(all.len(), 2 * POINTS);
