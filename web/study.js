@@ -82,8 +82,15 @@ export class Study {
       return;
     }
     const game = { size: s.size, rule: s.rule, moves: s.moves };
+    // My games' script loads on its first opening: the button waits with it.
+    const button = $('study-to-games');
+    button.disabled = true;
+    button.setAttribute('aria-busy', 'true');
     this.app.games.get().then((g) => g.takeGame(game, 'the Study board'), (e) => {
       this.board.say([`My games could not be opened (${e?.message ?? e}).`], 'refused');
+    }).finally(() => {
+      button.disabled = false;
+      button.removeAttribute('aria-busy');
     });
   }
 
