@@ -577,8 +577,12 @@ fn ms_bounds_every_search() {
         let wall = started.elapsed();
         let spent = v["ms"].as_u64().unwrap();
         assert!(spent <= ms + SLACK_MS, "{q:?}: {spent} ms: {v}");
-        // The clock, not the nodes, ended it: it ran to the deadline.
-        assert!(spent >= ms, "{q:?}: {spent} ms: {v}");
+        // Either the search settled the question within the time, or the clock (not the
+        // nodes) ended it at the deadline: a faster machine may settle a question here.
+        assert!(
+            v["result"] != "unknown" || spent >= ms,
+            "{q:?}: {spent} ms: {v}"
+        );
         assert!(
             wall < Duration::from_millis(ms + SLACK_MS + 2_000),
             "{q:?}: {wall:?}"
