@@ -9,6 +9,12 @@ import { loadWorkshop, workshopNow } from './platform.js';
 import { save } from './store.js';
 import { $, POINT_NAME, announce, banner, clearBanner, el, fill, isInt, own, paintQr, put, keepFocus } from './ui.js';
 
+/** Starts loading the code writer as a finger or the focus reaches a Share button, so that the
+ * click finds it ready; a failure here is reported by the click itself. */
+function warmWorkshop() {
+  loadWorkshop().catch(() => {});
+}
+
 // Attempt names and their words, from the engine (read once the engine has started).
 let outcomeWords = null;
 const OUTCOME_WORDS = () => (outcomeWords ??= JSON.parse(attemptWords()));
@@ -138,7 +144,7 @@ export class Tonight {
     $('tonight-back').addEventListener('click', () => this.showList());
     $('tonight-check-stop').addEventListener('click', () => this.stopChecking(true));
     $('tonight-share').addEventListener('click', () => this.share());
-    for (const on of ['pointerdown', 'focus']) $('tonight-share').addEventListener(on, () => loadWorkshop().catch(() => {}));
+    for (const on of ['pointerdown', 'focus']) $('tonight-share').addEventListener(on, warmWorkshop);
     $('set-file').addEventListener('change', (e) => this.pickFile(e.target));
     $('summary-back').addEventListener('click', () => this.openSet(this.data.open));
     $('summary-sets').addEventListener('click', () => this.showList());
@@ -406,9 +412,8 @@ export class Tonight {
             type: 'button',
             class: 'secondary',
             onclick: () => this.share(s.key),
-            // The code writer starts loading as the finger or the focus reaches the button.
-            onpointerdown: () => loadWorkshop().catch(() => {}),
-            onfocus: () => loadWorkshop().catch(() => {}),
+            onpointerdown: warmWorkshop,
+            onfocus: warmWorkshop,
           }, 'Share'),
           el('button', { type: 'button', class: 'quiet', onclick: () => this.remove(s.key) }, 'Remove')));
     }));
