@@ -3,14 +3,12 @@
 // The rules, the grading, the drawing and every sentence about the game come from Rust; these
 // scripts pass events in and write the returned text out, always as text, never as markup.
 
-import { SERVED, loadScreens, startEngine } from './platform.js';
+import { SERVED, loadScreen, startEngine } from './platform.js';
 import { hasSaved, keepAside, load, makeBackup, onStorageEvents, readBackup, save } from './store.js';
 import { Tonight, checkSets, checkTonight } from './tonight.js';
 import { Drill, checkDrill } from './drill.js';
 import { Study, checkStudy } from './study.js';
 import { PracticeStore, checkPractice } from './practice.js';
-import { Revisit } from './revisit.js';
-import { Progress } from './progress.js';
 import { checkCoach, emptyCoach } from './coach-data.js';
 import { checkGames, emptyGames } from './games-data.js';
 import { $, banner, clearBanner, download, shown } from './ui.js';
@@ -57,8 +55,9 @@ const WHAT = {
   games: 'games checked in My games',
 };
 
-/** Coach or My games until its script is loaded, on first opening (platform.js,
- * loadScreens): it holds the screen's saved document, checked at start like every other, and
+/** Coach, My games, Revisit or Progress until its script is loaded, on first opening
+ * (platform.js, loadScreen): it holds the screen's saved document (Revisit and Progress have
+ * none of their own; they read the practice store), checked at start like every other, and
  * hands it over with the settings when the screen is made. */
 class Later {
   constructor(app, kind, empty) {
@@ -85,13 +84,13 @@ class Later {
 
   /** The screen, made on first use; a failed load is tried again on the next call. */
   get() {
-    this.making ??= loadScreens()
-      .then((classes) => {
+    this.making ??= loadScreen(this.kind)
+      .then((Screen) => {
         // The screen is kept only once it is whole: a failure here leaves the stored data in
         // charge and the next call tries again.
-        const screen = new classes[this.kind](this.app);
-        screen.applySettings(this.app.settings);
-        screen.init(this.stored);
+        const screen = new Screen(this.app);
+        screen.applySettings?.(this.app.settings);
+        screen.init?.(this.stored);
         this.screen = screen;
         return screen;
       })
@@ -142,10 +141,10 @@ class App {
     this.tonight = new Tonight(this);
     this.drill = new Drill(this);
     this.study = new Study(this);
-    this.revisit = new Revisit(this);
-    this.progress = new Progress(this);
     this.coach = new Later(this, 'Coach', emptyCoach);
     this.games = new Later(this, 'Games', emptyGames);
+    this.revisit = new Later(this, 'Revisit', () => null);
+    this.progress = new Later(this, 'Progress', () => null);
     this.loadAll();
     for (const b of document.querySelectorAll('[data-go]')) {
       b.addEventListener('click', () => {
@@ -243,9 +242,7 @@ class App {
       save('settings', this.settings);
     }
     if (name === 'drill') this.drill.activate();
-    if (name === 'revisit') this.revisit.activate();
-    if (name === 'progress') this.progress.activate();
-    const later = { coach: this.coach, games: this.games }[name];
+    const later = { coach: this.coach, games: this.games, revisit: this.revisit, progress: this.progress }[name];
     if (later && !later.screen) {
       // Shown once its script is there.
       $(name).hidden = true;
@@ -308,7 +305,7 @@ class App {
       this.settings.theme = THEMES.includes(e.target.value) ? e.target.value : 'auto';
       this.applySettings();
       save('settings', this.settings);
-      if (!$('progress').hidden) this.progress.activate();
+      if (!$('progress').hidden) this.progress.screen?.activate();
     });
     const settingBoxes = [['opt-confirm', 'confirm'], ['opt-forbidden', 'forbidden'], ['opt-numbers', 'numbers'],
       ['opt-coach', 'coachBar'], ['opt-sounds', 'sounds']];

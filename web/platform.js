@@ -51,10 +51,17 @@ export function makeWorker() {
 /** Whether this build can work offline through a service worker (not from file://). */
 export const SERVED = true;
 
-/** The screens a student's first visit does not need, loaded when first opened: Coach
- * (web/coach.js) and My games (web/games.js). */
-export function loadScreens() {
-  return Promise.all([import('./coach.js'), import('./games.js')]).then(([c, g]) => ({ Coach: c.Coach, Games: g.Games }));
+/** The screens a student's first visit does not need, each loaded when first opened:
+ * `await loadScreen('Coach')` gives the class of Coach (web/coach.js), My games (web/games.js),
+ * Revisit (web/revisit.js) or Progress (web/progress.js). */
+const LATER_SCREENS = {
+  Revisit: () => import('./revisit.js'),
+  Coach: () => import('./coach.js'),
+  Games: () => import('./games.js'),
+  Progress: () => import('./progress.js'),
+};
+export function loadScreen(kind) {
+  return LATER_SCREENS[kind]().then((m) => m[kind]);
 }
 
 /** The camera scanner (web/scan.js), loaded on first use so that the page does not grow:

@@ -130,7 +130,7 @@ need_node() {
 # removed); the camera scanner's QR reader (web/scan, its own small wasm module in $DIST/scan,
 # loaded only when scanning starts); the page's files, the PNG icons and the stamped service
 # worker (tools/stamp.mjs), and the single-file build $DIST/fivefold.html (tools/single.mjs).
-# The two builds share the engine's compiled code; only the web crate is built twice.
+# The page's module is built for size (Cargo.toml, profile.page), the workshop for speed.
 build_app() {
     need_wasm_target
     need_wasm_bindgen
@@ -141,11 +141,11 @@ build_app() {
     out="$target/$WASM_TARGET/release"
     rm -rf "$DIST"
     mkdir -p "$DIST/pkg" "$DIST/workshop" "$DIST/scan"
-    step "Building the page's wasm module (cargo build --release --target $WASM_TARGET -p fivefold-web --no-default-features)"
-    (cd "$ROOT" && cargo build --release --target "$WASM_TARGET" -p fivefold-web --no-default-features) ||
+    step "Building the page's wasm module (cargo build --profile page --target $WASM_TARGET -p fivefold-web --no-default-features)"
+    (cd "$ROOT" && cargo build --profile page --target "$WASM_TARGET" -p fivefold-web --no-default-features) ||
         die "the wasm build of the page's module failed"
-    [ -f "$out/fivefold_web.wasm" ] || die "no $out/fivefold_web.wasm after the build"
-    wasm-bindgen --target web --no-typescript --remove-name-section --out-dir "$DIST/pkg" "$out/fivefold_web.wasm" ||
+    [ -f "$target/$WASM_TARGET/page/fivefold_web.wasm" ] || die "no $target/$WASM_TARGET/page/fivefold_web.wasm after the build"
+    wasm-bindgen --target web --no-typescript --remove-name-section --out-dir "$DIST/pkg" "$target/$WASM_TARGET/page/fivefold_web.wasm" ||
         die "wasm-bindgen failed on the page's module"
     step "Building the workshop and scanner modules (cargo build --release --target $WASM_TARGET -p fivefold-web -p fivefold-scan)"
     (cd "$ROOT" && cargo build --release --target "$WASM_TARGET" -p fivefold-web -p fivefold-scan) ||

@@ -58,9 +58,9 @@ export async function loadLibraryFile(file) {
   return text;
 }
 
-// Coach and My games are pasted into the file like every other module.
-export async function loadScreens() {
-  return { Coach, Games };
+// Coach, My games, Revisit and Progress are pasted into the file like every other module.
+export async function loadScreen(kind) {
+  return { Coach, Games, Revisit, Progress }[kind];
 }
 
 // The single file cannot load the scanner's separate files from file://; it says so instead.

@@ -79,8 +79,8 @@ function appModules() {
     order.push({ name: rel, source });
   };
   visit('./app.js', join(DIST, 'index.html'));
-  // The screens the served page imports on first use (platform.js, loadScreens).
-  for (const later of ['./coach.js', './games.js']) visit(later, join(DIST, 'index.html'));
+  // The screens the served page imports on first use (platform.js, loadScreen).
+  for (const later of ['./coach.js', './games.js', './revisit.js', './progress.js']) visit(later, join(DIST, 'index.html'));
   return order;
 }
 
