@@ -16,6 +16,7 @@ import {
   addFromLibrary,
   artefact,
   context,
+  goTo,
   librarySet,
   open,
   openSettings,
@@ -39,16 +40,6 @@ const LANDSCAPE = { width: 844, height: 390, dpr: 2, touch: true };
 const AXE_SKIPPED = {};
 
 /** Goes to a screen: from the bar or the rail when it is there, else through More. */
-async function goTo(page, screen) {
-  const direct = page.locator(`.rail [data-go="${screen}"]`);
-  if (await direct.isVisible()) await direct.click();
-  else {
-    await page.click('#nav-more');
-    await page.click(`#more [data-go="${screen}"]`);
-  }
-  await page.waitForSelector(`#${screen}:not([hidden])`);
-}
-
 /** A tap, twice on a touch screen (the first shows where the stone would go). */
 async function play(page, board, point, touch) {
   await tap(page, board, point, { touch });

@@ -17,6 +17,7 @@ import {
   artefact,
   banners,
   context,
+  goTo,
   launch,
   ready,
   librarySet,
@@ -35,14 +36,7 @@ const SMALL_PHONE = { width: 360, height: 740, dpr: 2, touch: true };
 const env = useBrowser();
 
 /** Opens Coach (from the rail, or through More on a phone). */
-async function goCoach(page) {
-  if (await page.isVisible('.rail [data-go="coach"]')) await page.click('.rail [data-go="coach"]');
-  else {
-    await page.click('#nav-more');
-    await page.click('#more [data-go="coach"]');
-  }
-  await page.waitForSelector('#coach:not([hidden])');
-}
+const goCoach = (page) => goTo(page, 'coach');
 
 /** Makes a new set in Coach: one theme, `count` puzzles, a fixed seed; returns its puzzles. */
 async function makeSet(page, { title, theme, count, seed, keep = false }) {

@@ -13,7 +13,7 @@ import assert from 'node:assert/strict';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
-import { artefact, boardState, context, ready, tap, useBrowser, wrongMove, DIST, PHONE, DESKTOP } from './support.mjs';
+import { artefact, boardState, context, goTo, ready, tap, useBrowser, wrongMove, DIST, PHONE, DESKTOP } from './support.mjs';
 
 const env = useBrowser();
 const GAME = 'h8 g8 i8 i9 j8 h7 i7 j6 h6 g5 k10 c3 m3 k8';
@@ -29,14 +29,7 @@ async function openAt(when, options) {
   return c;
 }
 
-async function goGames(page) {
-  if (await page.isVisible('.rail [data-go="games"]')) await page.click('.rail [data-go="games"]');
-  else {
-    await page.click('#nav-more');
-    await page.click('#more [data-go="games"]');
-  }
-  await page.waitForSelector('#games:not([hidden])');
-}
+const goGames = (page) => goTo(page, 'games');
 
 /** Pastes a game, reads it, and checks it; resolves once the game is on show. */
 async function pasteAndCheck(page, text, { player = 'black' } = {}) {
@@ -136,7 +129,7 @@ test('a pasted game is checked, its missed win is shown and played as a puzzle, 
   await page.clock.setFixedTime(new Date(START.getTime() + DAY));
   await page.reload();
   await ready(page);
-  await page.click('[data-go="revisit"]');
+  await goTo(page, 'revisit');
   assert.equal(await page.$eval('#revisit', (s) => Number(s.dataset.due ?? '0')), 1);
   await page.click('#revisit-start');
   await page.waitForSelector('#revisit-board[data-mode="puzzle"]');

@@ -13,6 +13,7 @@ import {
   addFromLibrary,
   boardState,
   context,
+  goTo,
   librarySet,
   open,
   ready,
@@ -84,11 +85,7 @@ test('a first visit plays a puzzle on the page module alone; Coach and the worke
   assert.ok(paths.includes('/pkg/fivefold_web_bg.wasm'), 'the page module was loaded');
   assert.ok(!paths.some((p) => p.startsWith('/workshop/') || p.startsWith('/scan/')),
     `nothing but the page module was loaded: ${paths.join(' ')}`);
-  if (await page.isVisible('.rail [data-go="coach"]')) await page.click('.rail [data-go="coach"]');
-  else {
-    await page.click('#nav-more');
-    await page.click('#more [data-go="coach"]');
-  }
+  await goTo(page, 'coach');
   await page.waitForSelector('#coach-list:not([hidden])');
   assert.ok(paths.includes('/workshop/fivefold_web_bg.wasm'), 'Coach loaded the workshop module');
   await ctx.close();
@@ -113,6 +110,12 @@ test('the single-file build plays a puzzle from a file:// URL', async () => {
   await page.reload();
   await ready(page);
   assert.equal((await boardState(page, BOARD)).state, 'solved');
+  // The screens the served page loads on first opening are in the file: Revisit lists the
+  // missed puzzles (none), Progress counts the day just played.
+  await goTo(page, 'revisit');
+  assert.match(await page.textContent('#revisit-lead'), /Nothing to revisit/);
+  await goTo(page, 'progress');
+  assert.match(await page.textContent('#progress'), /Current streak: 1 day/);
   // The worker runs from a blob: URL.
   await page.click('[data-go="drill"]');
   await page.waitForSelector('#drill-board[data-mode="puzzle"]', { timeout: 60000 });

@@ -11,6 +11,7 @@ import {
   addFromLibrary,
   artefact,
   boardState,
+  goTo,
   librarySet,
   open,
   context,
@@ -78,12 +79,12 @@ test('a failed puzzle comes back on the schedule, and its solution can be shown'
   assert.equal(Object.values(stored.progress)[0].puzzles[FIRST.id].outcome, 'failed');
 
   // Not due today (a failure comes back tomorrow); due tomorrow, with the badge.
-  await page.click('[data-go="revisit"]');
+  await goTo(page, 'revisit');
   assert.equal(await dueCount(page), 0);
   assert.match(await page.textContent('#revisit-lead'), /Nothing due today; 1 in all/);
   await at(page, new Date(START.getTime() + DAY));
   assert.equal(await page.textContent('#revisit-badge'), '1');
-  await page.click('[data-go="revisit"]');
+  await goTo(page, 'revisit');
   assert.equal(await dueCount(page), 1);
   await artefact(page, 'revisit-desktop');
   await page.click('#revisit-start');
@@ -99,15 +100,14 @@ test('a failed puzzle comes back on the schedule, and its solution can be shown'
   assert.equal(await page.isHidden('#revisit-badge'), true);
   // The day before it is due: nothing; on the day: due again.
   await at(page, new Date(START.getTime() + (days) * DAY));
-  await page.click('[data-go="revisit"]');
+  await goTo(page, 'revisit');
   assert.equal(await dueCount(page), 0);
   await at(page, new Date(START.getTime() + (1 + days) * DAY));
-  await page.click('[data-go="revisit"]');
+  await goTo(page, 'revisit');
   assert.equal(await dueCount(page), 1);
 
   // Progress: the charts draw and the tables hold the history (two days played).
-  await page.click('[data-go="progress"]');
-  await page.waitForSelector('#progress-chart');
+  await goTo(page, 'progress');
   const inked = await page.$eval('#progress-calendar', (c) => {
     const d = c.getContext('2d').getImageData(0, 0, c.width, c.height).data;
     let dark = 0;
@@ -137,13 +137,11 @@ test('a failed puzzle comes back on the schedule, and its solution can be shown'
 
 test('Revisit and Progress on a phone', async () => {
   const { page, context: ctx, errors } = await openAt(START, PHONE);
-  await page.click('#nav-more');
-  await page.click('#more [data-go="progress"]');
-  await page.waitForSelector('#progress:not([hidden])');
+  await goTo(page, 'progress');
   const width = await page.evaluate(() => document.documentElement.scrollWidth);
   assert.ok(width <= PHONE.width, `no overflow: ${width}`);
   await artefact(page, 'progress-phone');
-  await page.click('[data-go="revisit"]');
+  await goTo(page, 'revisit');
   await artefact(page, 'revisit-phone');
   assert.deepEqual(errors, []);
   await ctx.close();
@@ -174,7 +172,7 @@ test('a backup of the previous format restores into this one', async () => {
   assert.match(await page.textContent('#drill-rating'), /41 played, 30 solved clean/);
   await page.click('[data-go="study"]');
   assert.equal(await page.$eval('#study-board', (c) => c.dataset.toMove), 'white');
-  await page.click('[data-go="revisit"]');
+  await goTo(page, 'revisit');
   assert.match(await page.textContent('#revisit-lead'), /Nothing to revisit/);
   assert.deepEqual(errors, []);
   await ctx.close();

@@ -274,6 +274,19 @@ export async function artefact(page, name, options = {}) {
   await page.screenshot({ path: join(ARTEFACTS, `${name}.png`), ...options });
 }
 
+/** Opens a screen: from the rail on a wide screen, through More on a phone where the bar does
+ * not hold it; waits until it is shown (Coach, My games, Revisit and Progress are shown once
+ * their script has loaded, on first opening). */
+export async function goTo(page, screen) {
+  const direct = page.locator(`.rail [data-go="${screen}"]`);
+  if (await direct.isVisible()) await direct.click();
+  else {
+    await page.click('#nav-more');
+    await page.click(`#more [data-go="${screen}"]`);
+  }
+  await page.waitForSelector(`#${screen}:not([hidden])`);
+}
+
 /** Opens the settings: from the rail on a wide screen, through More on a phone. */
 export async function openSettings(page) {
   if (await page.isVisible('#open-settings')) await page.click('#open-settings');
