@@ -79,7 +79,7 @@ class Later {
   }
 
   applySettings(s) {
-    this.screen?.applySettings(s);
+    this.screen?.applySettings?.(s);
   }
 
   /** The screen, made on first use; a failed load is tried again on the next call. */

@@ -39,7 +39,6 @@ const LANDSCAPE = { width: 844, height: 390, dpr: 2, touch: true };
 // axe-core rules that are not checked, each with its reason. Empty: every rule of the tags runs.
 const AXE_SKIPPED = {};
 
-/** Goes to a screen: from the bar or the rail when it is there, else through More. */
 /** A tap, twice on a touch screen (the first shows where the stone would go). */
 async function play(page, board, point, touch) {
   await tap(page, board, point, { touch });
