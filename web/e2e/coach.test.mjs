@@ -35,13 +35,10 @@ const BOARD = 'tonight-board';
 const SMALL_PHONE = { width: 360, height: 740, dpr: 2, touch: true };
 const env = useBrowser();
 
-/** Opens Coach (from the rail, or through More on a phone). */
-const goCoach = (page) => goTo(page, 'coach');
-
 /** Makes a new set in Coach: one theme, `count` puzzles, a fixed seed; returns its puzzles. */
 async function makeSet(page, { title, theme, count, seed, keep = false }) {
   if (!keep) {
-    await goCoach(page);
+    await goTo(page, 'coach');
     if (await page.isVisible('#coach-back')) await page.click('#coach-back');
     await page.click('#coach-new');
   }
@@ -246,7 +243,7 @@ test('the class round trip: make, hand out, three students, read the codes back'
     }, await saved(page));
     await cam.page.goto(env.server.url);
     await ready(cam.page);
-    await goCoach(cam.page);
+    await goTo(cam.page, 'coach');
     await cam.page.waitForSelector('#coach-codes:visible');
     await cam.page.click('#coach-scan');
     await cam.page.waitForSelector('#coach-scanner:not([hidden])');
@@ -425,7 +422,7 @@ test('measure: a 12-puzzle set of each theme in the worker', { skip: !process.en
   const rows = [];
   for (const [theme, rule] of [['four-three', 'freestyle'], ['vcf', 'freestyle'], ['vct', 'freestyle'], ['defend', 'freestyle'],
     ['forbidden-trap', 'renju'], ['forbidden-win', 'renju']]) {
-    await goCoach(page);
+    await goTo(page, 'coach');
     if (await page.isVisible('#coach-back')) await page.click('#coach-back');
     await page.click('#coach-new');
     await page.selectOption('#coach-rule', rule);

@@ -29,8 +29,6 @@ async function openAt(when, options) {
   return c;
 }
 
-const goGames = (page) => goTo(page, 'games');
-
 /** Pastes a game, reads it, and checks it; resolves once the game is on show. */
 async function pasteAndCheck(page, text, { player = 'black' } = {}) {
   await page.fill('#games-text', text);
@@ -48,7 +46,7 @@ const storedGames = (page) => page.evaluate(() => {
 
 test('a pasted game is checked, its missed win is shown and played as a puzzle, and a miss comes back in Revisit', async () => {
   const { page, context: ctx, errors } = await openAt(START, DESKTOP);
-  await goGames(page);
+  await goTo(page, 'games');
   await page.fill('#games-text', `# Harbour Street Circle, round 3\n${GAME}`);
   await page.click('#games-read');
   await page.waitForSelector('#games-setup:not([hidden])');
@@ -141,7 +139,7 @@ test('a pasted game is checked, its missed win is shown and played as a puzzle, 
 
 test('a bad SGF record is refused and nothing is loaded; a checked game is kept, reopened and deleted (phone)', async () => {
   const { page, context: ctx, errors } = await openAt(START, PHONE);
-  await goGames(page);
+  await goTo(page, 'games');
   await page.fill('#games-text', '(;FF[4]GM[1]SZ[15];B[hh];W[hi])');
   await page.click('#games-read');
   // The reader is in the workshop module, loaded on this first read: wait for its answer.
@@ -188,7 +186,7 @@ test('a bad SGF record is refused and nothing is loaded; a checked game is kept,
 
 test('a stopped check keeps the moves it checked, the rest marked not checked (phone)', async () => {
   const { page, context: ctx, errors } = await openAt(START, PHONE);
-  await goGames(page);
+  await goTo(page, 'games');
   await page.fill('#games-text', SIXTY);
   await page.click('#games-read');
   await page.waitForSelector('#games-setup:not([hidden])');
@@ -257,7 +255,7 @@ test('the single-file build checks a pasted game from a file:// URL', async () =
   const { page, context: ctx, errors } = await context(env.browser, PHONE);
   await page.goto(pathToFileURL(join(DIST, 'fivefold.html')).href);
   await ready(page);
-  await goGames(page);
+  await goTo(page, 'games');
   await pasteAndCheck(page, GAME, { player: 'black' });
   const marks = await page.$$eval('#games-timeline .mark[data-verdict="finding"]', (bs) => bs.map((b) => b.dataset.move));
   assert.deepEqual(marks, ['12', '13']);
