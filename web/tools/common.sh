@@ -96,7 +96,7 @@ need_chromium() {
 # web/package-lock.json: installed when any of them is missing or at another version.
 need_node_modules() {
     local pkg want have
-    for pkg in playwright-core axe-core esbuild; do
+    for pkg in playwright-core axe-core esbuild @gfx/zopfli; do
         want="$(node -p "require('$WEB_DIR/package-lock.json').packages['node_modules/$pkg'].version")" ||
             die "cannot read web/package-lock.json"
         have="$(node -p "require('$WEB_DIR/node_modules/$pkg/package.json').version" 2>/dev/null || true)"
@@ -156,6 +156,15 @@ build_app() {
         die "wasm-bindgen failed on the workshop module"
     wasm-bindgen --target web --no-typescript --remove-name-section --out-dir "$DIST/scan" "$out/fivefold_scan.wasm" ||
         die "wasm-bindgen failed on the scanner"
+    # The single file's one module: the workshop's code built for size like the page's module
+    # (the single file must stay small enough to pass from phone to phone; its searches run
+    # about half as fast as the served workshop's). Kept outside $DIST: only single.mjs reads it.
+    step "Building the single file's module (cargo build --profile page --target $WASM_TARGET -p fivefold-web)"
+    (cd "$ROOT" && cargo build --profile page --target "$WASM_TARGET" -p fivefold-web) ||
+        die "the wasm build of the single file's module failed"
+    rm -rf "$target/single-module"
+    wasm-bindgen --target web --no-typescript --remove-name-section --out-dir "$target/single-module" "$target/$WASM_TARGET/page/fivefold_web.wasm" ||
+        die "wasm-bindgen failed on the single file's module"
     for f in "${APP_FILES[@]}"; do
         cp "$WEB_DIR/$f" "$DIST/$f" || die "copying $f failed"
     done
@@ -180,7 +189,7 @@ build_app() {
     # The single file is pasted from the readable modules (and minified whole), then the
     # served files are minified one by one, then the service worker's list is stamped.
     step "Building the single-file app ($DIST/fivefold.html)"
-    node "$WEB_DIR/tools/single.mjs" "$DIST" || die "the single-file build failed"
+    node "$WEB_DIR/tools/single.mjs" "$DIST" "$target/single-module" || die "the single-file build failed"
     node "$WEB_DIR/tools/minify.mjs" "$DIST" || die "minifying the scripts failed"
     node "$WEB_DIR/tools/stamp.mjs" "$DIST" || die "stamping the service worker failed"
     note "built $(du -sb "$DIST" | cut -f1) bytes in $DIST"

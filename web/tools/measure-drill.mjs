@@ -11,14 +11,17 @@
 //   4. deep lines (--only deep, not part of the default run): one deep puzzle of each kind
 //      under freestyle as Coach's Expert band asks for it (min moves 10, 6 and 5, unique,
 //      1900-2600), `runs` seeds each, in a fresh worker.
+// With --single, part 1 runs on the single-file build (web/dist/fivefold.html from a file://
+// URL, whose one module is the workshop built for size) instead of the served app.
 // Run after a build:
-//   node web/tools/measure-drill.mjs [--runs 10] [--only first|made|deep]
+//   node web/tools/measure-drill.mjs [--runs 10] [--only first|made|deep] [--single]
 // It prints a table (median, 95th percentile, worst, in ms) and writes
-// web/artefacts/measure-drill.json.
+// web/artefacts/measure-drill.json (measure-drill-single.json with --single).
 
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { ARTEFACTS, launch, open, serve } from '../e2e/support.mjs';
+import { pathToFileURL } from 'node:url';
+import { ARTEFACTS, DIST, launch, open, serve } from '../e2e/support.mjs';
 
 const arg = (name, fallback) => {
   const i = process.argv.indexOf(name);
@@ -26,6 +29,7 @@ const arg = (name, fallback) => {
 };
 const RUNS = Number(arg('--runs', 10));
 const ONLY = arg('--only', 'all');
+const SINGLE = process.argv.includes('--single');
 const THEMES = {
   freestyle: ['four-three', 'vcf', 'vct', 'defend'],
   standard: ['four-three', 'vcf', 'vct', 'defend'],
@@ -109,12 +113,13 @@ try {
     await context.close();
   }
   if (ONLY === 'all' || ONLY === 'first') {
-    console.log('Time to a playable first puzzle (ms, from picking the theme):');
+    const url = SINGLE ? pathToFileURL(join(DIST, 'fivefold.html')).href : server.url;
+    console.log(`Time to a playable first puzzle (ms, from picking the theme${SINGLE ? '; the single-file build' : ''}):`);
     for (const [rule, themes] of Object.entries(THEMES)) {
       for (const theme of themes) {
         const times = [];
         for (let i = 0; i < RUNS; i++) {
-          const { page, context } = await open(browser, server.url);
+          const { page, context } = await open(browser, url);
           await page.click('[data-go="drill"]');
           await page.selectOption('#drill-rule', rule);
           // Start from another theme's puzzle on the board, so that picking this one changes it.
@@ -162,4 +167,4 @@ try {
   await server.close();
 }
 mkdirSync(ARTEFACTS, { recursive: true });
-writeFileSync(join(ARTEFACTS, 'measure-drill.json'), JSON.stringify(out, null, 1));
+writeFileSync(join(ARTEFACTS, SINGLE ? 'measure-drill-single.json' : 'measure-drill.json'), JSON.stringify(out, null, 1));
