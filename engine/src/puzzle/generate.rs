@@ -209,6 +209,19 @@ impl GamePuzzle {
 /// makes a puzzle of the options (one puzzle per game, so that a set does not repeat one
 /// fight). The solver's tables are cleared first.
 pub fn play_game(options: &Options, number: u64, solver: &mut Solver) -> Option<GamePuzzle> {
+    play_game_while(options, number, solver, &|| true)
+}
+
+/// [`play_game`], given up (as `None`) as soon as `go_on` says no; it is asked before each
+/// position is analysed. A game that is given up has no result, so only a game whose result
+/// will not be taken may be given up: the threads of [`generate_on`] give up the games they
+/// are playing past the last one the set needs.
+fn play_game_while(
+    options: &Options,
+    number: u64,
+    solver: &mut Solver,
+    go_on: &dyn Fn() -> bool,
+) -> Option<GamePuzzle> {
     solver.clear();
     let mut rng = play::rng(game_seed(options.seed, number));
     let extra = 2 + play::below(&mut rng, 4) as usize;
@@ -221,10 +234,13 @@ pub fn play_game(options: &Options, number: u64, solver: &mut Solver) -> Option<
     let mut player = Player::new(play::next_seed(&mut rng), config);
     let max_stones = 40 + play::below(&mut rng, 50) as usize;
     if options.min_moves > 0 {
-        return play_deep_game(options, solver, game, &mut player, max_stones + 60);
+        return play_deep_game(options, solver, game, &mut player, max_stones + 60, go_on);
     }
     while !game.is_over() && game.board().stones() < max_stones {
         if game.board().stones() >= 8 {
+            if !go_on() {
+                return None;
+            }
             let aim = Some(options.rating);
             if let Some(p) = analyse_in(solver, game.board(), game.to_move(), options.theme, aim) {
                 let (lo, hi) = options.rating;
@@ -317,7 +333,9 @@ pub fn generate(
 /// thread). The set is the same for any number of jobs, byte for byte: games are numbered,
 /// each depends only on its number (see [`game_seed`]), and their results are taken in
 /// game order. `progress` is called after every game taken, on the caller's thread. Each
-/// thread has its own solver (its tables: 32 MB).
+/// thread has its own solver (its tables: 32 MB). Once the set is complete (or the game limit
+/// is reached), the threads give up the games they are playing, whose results would not be
+/// taken.
 pub fn generate_on(
     options: &Options,
     jobs: usize,
@@ -343,12 +361,13 @@ pub fn generate_on(
             let (next, stop) = (&next, &stop);
             let work = move || {
                 let mut solver = Solver::default();
-                while !stop.load(Ordering::Relaxed) {
+                let go_on = || !stop.load(Ordering::Relaxed);
+                while go_on() {
                     let game = next.fetch_add(1, Ordering::Relaxed);
                     if game >= max_games {
                         break;
                     }
-                    let found = play_game(options, game, &mut solver);
+                    let found = play_game_while(options, game, &mut solver, &go_on);
                     if tx.send((game, found)).is_err() {
                         break;
                     }
@@ -386,7 +405,7 @@ pub fn generate_on(
                 }
             }
         };
-        // The threads finish the game they are playing and stop.
+        // Nothing more is taken: the threads give up the games they are playing and stop.
         stop.store(true, Ordering::Relaxed);
         drop(rx);
         result
@@ -403,6 +422,7 @@ fn play_deep_game(
     mut game: crate::rules::Game,
     player: &mut Player,
     max_stones: usize,
+    go_on: &dyn Fn() -> bool,
 ) -> Option<GamePuzzle> {
     let mut positions = Vec::new();
     while !game.is_over() && game.board().stones() < max_stones {
@@ -416,6 +436,9 @@ fn play_deep_game(
     }
     let mut tries = DEEP_TRIES;
     for (board, to_move) in positions.iter().rev() {
+        if !go_on() {
+            return None;
+        }
         if let Some(p) = try_deep(options, solver, board, *to_move, &mut tries) {
             let key = (board.canonical_hash(), p.to_move, p.rule);
             let key = (p.board().canonical_hash(), key.1, key.2);
@@ -867,6 +890,34 @@ mod tests {
         // A game's puzzle depends on its number only: a shorter set is the start of a longer.
         let three = generate_on(&options(3), 2, |_| {}).unwrap();
         assert_eq!(ids(&three), ids(&one)[..3]);
+    }
+
+    #[test]
+    fn a_game_given_up_has_no_result() {
+        let o = options(1);
+        let mut solver = Solver::default();
+        let number = (0..50)
+            .find(|&g| play_game(&o, g, &mut solver).is_some())
+            .expect("a game with a puzzle");
+        // Asked before the first position is analysed: no analysis, no puzzle.
+        let asked = std::cell::Cell::new(0);
+        let give_up = || {
+            asked.set(asked.get() + 1);
+            false
+        };
+        assert!(play_game_while(&o, number, &mut solver, &give_up).is_none());
+        assert_eq!(asked.get(), 1);
+        // Going on, the same game gives its puzzle, having been asked once per position.
+        let go_on = || {
+            asked.set(asked.get() + 1);
+            true
+        };
+        let kept = play_game_while(&o, number, &mut solver, &go_on).expect("the game's puzzle");
+        assert_eq!(
+            kept.puzzle,
+            play_game(&o, number, &mut solver).unwrap().puzzle
+        );
+        assert!(asked.get() > 2, "asked {} times", asked.get());
     }
 
     #[test]
