@@ -20,7 +20,7 @@ use super::{Goal, Puzzle, Theme};
 use crate::board::{threat, Board};
 use crate::geometry::Point;
 use crate::play::{self, Player, PlayerConfig};
-use crate::search::{Asking, Budget, Mode, Solver, Verdict};
+use crate::search::{Asking, Budget, Mode, Solver, StopCheck, Verdict};
 use crate::types::Rule;
 use crate::types::Stone;
 use crate::zobrist::splitmix64;
@@ -213,7 +213,7 @@ pub fn play_game(options: &Options, number: u64, solver: &mut Solver) -> Option<
 }
 
 /// [`play_game`], given up (as `None`) as soon as `go_on` says no; it is asked before each
-/// position is analysed. A game that is given up has no result, so only a game whose result
+/// position is analysed and every 8 nodes of the analysis's searches. A game that is given up has no result, so only a game whose result
 /// will not be taken may be given up: the threads of [`generate_on`] give up the games they
 /// are playing past the last one the set needs.
 fn play_game_while(
@@ -236,13 +236,19 @@ fn play_game_while(
     if options.min_moves > 0 {
         return play_deep_game(options, solver, game, &mut player, max_stones + 60, go_on);
     }
+    let halt = |_: u64| !go_on();
     while !game.is_over() && game.board().stones() < max_stones {
         if game.board().stones() >= 8 {
             if !go_on() {
                 return None;
             }
-            let aim = Some(options.rating);
-            if let Some(p) = analyse_in(solver, game.board(), game.to_move(), options.theme, aim) {
+            let (board, to_move, aim) = (game.board(), game.to_move(), Some(options.rating));
+            let found = analyse_in(solver, board, to_move, options.theme, aim, Some(&halt));
+            // A search that was stopped may have left the analysis short: no result.
+            if !go_on() {
+                return None;
+            }
+            if let Some(p) = found {
                 let (lo, hi) = options.rating;
                 // Several correct answers are allowed, but less often.
                 let n = p.first_moves.len() as u32;
@@ -532,19 +538,22 @@ const WORKER_STACK: usize = 16 << 20;
 /// makes it (with its proved answers, main line and rating). Every search is asked with
 /// [`Budget::GENERATION`]: a puzzle whose proof needs more is not kept.
 pub fn analyse(solver: &mut Solver, board: &Board, to_move: Stone, theme: Theme) -> Option<Puzzle> {
-    analyse_in(solver, board, to_move, theme, None)
+    analyse_in(solver, board, to_move, theme, None, None)
 }
 
 /// [`analyse`] aimed at a rating band: a win puzzle whose rating cannot fall in `band`,
 /// whatever its answers turn out to be ([`difficulty::may_rate_within`]), is refused before
 /// its answers are proved. `None`, or a band that holds every rating, asks exactly what
 /// [`analyse`] asks (the library's sets of the whole range are made so, byte for byte).
+/// `halt` is polled during every search (see [`Asking::watch`]); once it says stop, the
+/// answer means nothing.
 fn analyse_in(
     solver: &mut Solver,
     board: &Board,
     to_move: Stone,
     theme: Theme,
     band: Option<(u32, u32)>,
+    halt: Option<StopCheck>,
 ) -> Option<Puzzle> {
     if !theme.allowed(board.rule()) || board.find_winner().is_some() {
         return None;
@@ -573,6 +582,9 @@ fn analyse_in(
         return None;
     }
     let mut ask = solver.ask(Budget::GENERATION);
+    if let Some(halt) = halt {
+        ask = ask.watch(halt);
+    }
     let band = band.filter(|&(lo, hi)| lo > difficulty::FLOOR || hi < difficulty::CEILING);
     match theme.goal() {
         Goal::Win => analyse_win(&mut ask, board, to_move, theme, band),
@@ -918,6 +930,20 @@ mod tests {
             play_game(&o, number, &mut solver).unwrap().puzzle
         );
         assert!(asked.get() > 2, "asked {} times", asked.get());
+        // The analysis's searches poll the halt too: one that says stop at once leaves no
+        // puzzle of the same position.
+        let (p, theme) = (&kept.puzzle, o.theme);
+        let stop_now = |_: u64| true;
+        let halted = analyse_in(
+            &mut solver,
+            &p.board(),
+            p.to_move,
+            theme,
+            None,
+            Some(&stop_now),
+        );
+        assert!(halted.is_none());
+        assert!(analyse_in(&mut solver, &p.board(), p.to_move, theme, None, None).is_some());
     }
 
     #[test]
