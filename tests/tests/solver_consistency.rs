@@ -376,3 +376,45 @@ fn an_exhausted_vcf_budget_never_becomes_a_verdict() {
          run out and sometimes still prove a win"
     );
 }
+
+/// The shortest VCF a solution reports is the least depth with a win: on every VCF win of the
+/// solver suite (`engine/benches/suite.txt`, whose lengths were recorded when it was made), the
+/// solution's depth is the recorded one, a win within that many fours is proved on its own,
+/// and no win within one fewer exists. (The solver benchmark checks the recorded lengths too,
+/// but it does not run with the tests.)
+#[test]
+fn the_shortest_vcf_is_the_least_depth_with_a_win() {
+    let cases = engine::suite::parse(include_str!("../../engine/benches/suite.txt"))
+        .expect("the suite reads");
+    let mut s = Solver::default();
+    let mut checked = 0;
+    for case in cases
+        .iter()
+        .filter(|c| c.mode == Mode::Vcf && c.verdict == Verdict::Win)
+    {
+        let (b, c) = (case.board(), case.to_move);
+        let sol = solve_within(&mut s, Budget::VERIFICATION, &b, c, Mode::Vcf);
+        assert_eq!(
+            (sol.verdict, sol.depth),
+            (Verdict::Win, case.fours),
+            "{case}"
+        );
+        let within = |s: &mut Solver, d: u16| {
+            s.clear();
+            s.ask(Budget::VERIFICATION).wins_within(&b, c, Mode::Vcf, d)
+        };
+        assert_eq!(within(&mut s, sol.depth), Verdict::Win, "{case}");
+        if sol.depth > 0 {
+            assert_eq!(within(&mut s, sol.depth - 1), Verdict::NoWin, "{case}");
+        }
+        // The line has that many fours before the five (attacker and defender alternate).
+        assert_eq!(
+            sol.line.len(),
+            2 * sol.depth as usize + 1,
+            "{case}: {:?}",
+            sol.line
+        );
+        checked += 1;
+    }
+    assert!(checked >= 100, "only {checked} VCF wins in the suite");
+}
