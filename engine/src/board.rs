@@ -332,6 +332,40 @@ impl Board {
         (idx as isize + n * self.dirs[d]) as usize
     }
 
+    /// The empty points within `r` points (king moves) of a stone of either colour, as padded
+    /// cell indices, row by row from `a1` (the points [`Board::indices`] lists that are empty
+    /// and have a stone in the square of side `2r + 1` around them). Read from one bit mask of
+    /// stones per row, widened by `r` along the row and then across `r` rows either way.
+    pub(crate) fn empties_near(&self, r: usize) -> Vec<usize> {
+        debug_assert!(r < 8);
+        let (w, h) = (self.width as usize, self.height as usize);
+        let all = (1u32 << w) - 1;
+        let mut stones = [0u32; MAX_SIDE as usize];
+        let mut wide = [0u32; MAX_SIDE as usize];
+        for y in 0..h {
+            let row = (y + MARGIN) * self.stride + MARGIN;
+            let m = self.cells[row..row + w]
+                .iter()
+                .enumerate()
+                .fold(0u32, |m, (x, &c)| m | ((c != EMPTY) as u32) << x);
+            stones[y] = m;
+            wide[y] = (0..=r).fold(m, |acc, k| acc | m << k | m >> k) & all;
+        }
+        let mut out = Vec::new();
+        for y in 0..h {
+            let near = wide[y.saturating_sub(r)..=(y + r).min(h - 1)]
+                .iter()
+                .fold(0u32, |acc, &m| acc | m);
+            let mut free = near & !stones[y];
+            let row = (y + MARGIN) * self.stride + MARGIN;
+            while free != 0 {
+                out.push(row + free.trailing_zeros() as usize);
+                free &= free - 1;
+            }
+        }
+        out
+    }
+
     /// Every on-board point, row by row from `a1`.
     pub fn points(&self) -> impl Iterator<Item = Point> + '_ {
         (0..self.height).flat_map(move |y| (0..self.width).map(move |x| Point::new(x, y)))
@@ -959,6 +993,55 @@ mod tests {
 
     fn p(s: &str) -> Point {
         s.parse().unwrap()
+    }
+
+    /// The row masks give what a plain look around every point gives: the empty points with
+    /// a stone within `r` king moves, on random boards of several shapes (square and not,
+    /// stones at the edges), for `r` from 0 to 3.
+    #[test]
+    fn the_empty_points_near_stones_are_read_from_the_row_masks() {
+        let mut state = 0x5EED_0002u64;
+        let mut next = |n: u64| {
+            state = state.wrapping_add(1);
+            crate::zobrist::splitmix64(state) % n
+        };
+        let mut found = 0;
+        for round in 0..40 {
+            let mut b = match round % 4 {
+                0 => Board::new(15, Rule::Freestyle).unwrap(),
+                1 => Board::new(19, Rule::Renju).unwrap(),
+                2 => Board::mnk(7, 4, 3).unwrap(),
+                _ => Board::mnk(19, 5, 5).unwrap(),
+            };
+            let (w, h) = (b.width() as u64, b.height() as u64);
+            for _ in 0..next(w * h / 3 + 1) {
+                let q = Point::new(next(w) as u8, next(h) as u8);
+                if b.get(q).is_none() {
+                    b.place(q, Stone::ALL[next(2) as usize]);
+                }
+            }
+            for r in 0..=3i32 {
+                let plain: Vec<usize> = b
+                    .points()
+                    .filter(|&q| {
+                        b.get(q).is_none()
+                            && b.points().any(|s| {
+                                b.get(s).is_some()
+                                    && (s.x as i32 - q.x as i32).abs() <= r
+                                    && (s.y as i32 - q.y as i32).abs() <= r
+                            })
+                    })
+                    .map(|q| b.index(q))
+                    .collect();
+                assert_eq!(b.empties_near(r as usize), plain, "round {round}, r {r}");
+                found += plain.len();
+            }
+        }
+        assert!(found > 1000, "{found} points found");
+        assert!(Board::new(15, Rule::Freestyle)
+            .unwrap()
+            .empties_near(2)
+            .is_empty());
     }
 
     /// Reading the shape tables as they would be after a stone gives what placing it and

@@ -221,20 +221,10 @@ fn candidates(board: &mut Board, me: Stone, n: usize) -> Vec<(usize, i32)> {
     let mut out: Vec<(usize, i32)> = Vec::new();
     let empty_board = board.stones() == 0;
     let centre = board.index(Point::new(board.width() / 2, board.height() / 2));
-    let idx: Vec<usize> = board.indices().collect();
-    for i in idx {
-        if !board.is_empty_at(i) {
-            continue;
-        }
-        if empty_board {
-            if i == centre {
-                out.push((i, 1));
-            }
-            continue;
-        }
-        if !near(board, i, 2) {
-            continue;
-        }
+    if empty_board {
+        out.push((centre, 1));
+    }
+    for i in board.empties_near(2) {
         let s = quick_score(board, i, me) * 5 + quick_score(board, i, opp) * 4;
         out.push((i, s));
     }
@@ -287,23 +277,6 @@ fn quick_score(board: &Board, i: usize, c: Stone) -> i32 {
         };
     }
     s
-}
-
-/// Whether a stone stands within `r` points (king moves) of `i`.
-fn near(board: &Board, i: usize, r: i32) -> bool {
-    let p = board.point(i);
-    for dy in -r..=r {
-        for dx in -r..=r {
-            let (x, y) = (p.x as i32 + dx, p.y as i32 + dy);
-            if x < 0 || y < 0 || x >= board.width() as i32 || y >= board.height() as i32 {
-                continue;
-            }
-            if board.get(Point::new(x as u8, y as u8)).is_some() {
-                return true;
-            }
-        }
-    }
-    false
 }
 
 /// Plays a seeded game from the given opening moves until someone wins, the board fills or
