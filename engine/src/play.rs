@@ -267,7 +267,7 @@ fn quick_score(board: &Board, i: usize, c: Stone) -> i32 {
         s += 15;
     }
     for d in 0..4 {
-        let shape = board.line_at(i, c, d).shape();
+        let shape = board.shape_at(i, c, d);
         s += match shape {
             crate::patterns::LineShape::Two => 6,
             crate::patterns::LineShape::ClosedThree => 10,
