@@ -213,9 +213,10 @@ pub fn play_game(options: &Options, number: u64, solver: &mut Solver) -> Option<
 }
 
 /// [`play_game`], given up (as `None`) as soon as `go_on` says no; it is asked before each
-/// position is analysed and every 8 nodes of the analysis's searches. A game that is given up has no result, so only a game whose result
-/// will not be taken may be given up: the threads of [`generate_on`] give up the games they
-/// are playing past the last one the set needs.
+/// position is analysed and every 8 nodes of the analysis's searches. A game that is given
+/// up has no result, so only a game whose result will not be taken may be given up: the
+/// threads of [`generate_on`] give up the games they are playing past the last one the set
+/// needs.
 fn play_game_while(
     options: &Options,
     number: u64,
