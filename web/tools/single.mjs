@@ -29,7 +29,7 @@ import { tmpdir } from 'node:os';
 import { dirname, join, normalize } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { transformSync } from 'esbuild';
-import { gzipAsync } from '@gfx/zopfli';
+import zopfli from '@gfx/zopfli';
 
 const DIST = process.argv[2] ?? fileURLToPath(new URL('../dist/', import.meta.url));
 const INLINE_PLATFORM = fileURLToPath(new URL('./platform-inline.js', import.meta.url));
@@ -128,7 +128,7 @@ const style = safeInScript(minify(read(join(DIST, 'style.css')), { loader: 'css'
 // the page unpacks it with DecompressionStream. Five zopfli iterations: fifteen (its default)
 // save another 30 bytes for 2 s more.
 const wasmBytes = readFileSync(WASM);
-const packed = Buffer.from(await gzipAsync(wasmBytes, { numiterations: 5 }));
+const packed = Buffer.from(await zopfli.gzipAsync(wasmBytes, { numiterations: 5 }));
 if (!gunzipSync(packed).equals(wasmBytes)) fail('the gzipped wasm module does not unpack to itself');
 const wasm = packed.toString('base64');
 const icon = `data:image/svg+xml;base64,${readFileSync(join(DIST, 'icon.svg')).toString('base64')}`;
