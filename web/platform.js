@@ -55,9 +55,9 @@ export const SERVED = true;
  * `await loadScreen('Coach')` gives the class of Coach (web/coach.js), My games (web/games.js),
  * Revisit (web/revisit.js) or Progress (web/progress.js). */
 const LATER_SCREENS = {
-  Revisit: () => import('./revisit.js'),
   Coach: () => import('./coach.js'),
   Games: () => import('./games.js'),
+  Revisit: () => import('./revisit.js'),
   Progress: () => import('./progress.js'),
 };
 export function loadScreen(kind) {

@@ -995,16 +995,20 @@ mod tests {
         s.parse().unwrap()
     }
 
+    /// Seeded numbers below `n`, one per call (splitmix64 of a counter from `seed`).
+    fn numbers(mut seed: u64) -> impl FnMut(u64) -> u64 {
+        move |n| {
+            seed = seed.wrapping_add(1);
+            crate::zobrist::splitmix64(seed) % n
+        }
+    }
+
     /// The row masks give what a plain look around every point gives: the empty points with
     /// a stone within `r` king moves, on random boards of several shapes (square and not,
     /// stones at the edges), for `r` from 0 to 3.
     #[test]
     fn the_empty_points_near_stones_are_read_from_the_row_masks() {
-        let mut state = 0x5EED_0002u64;
-        let mut next = |n: u64| {
-            state = state.wrapping_add(1);
-            crate::zobrist::splitmix64(state) % n
-        };
+        let mut next = numbers(0x5EED_0002);
         let mut found = 0;
         for round in 0..40 {
             let mut b = match round % 4 {
@@ -1049,11 +1053,7 @@ mod tests {
     /// forbidden points), at every empty point, with the points that qualify already.
     #[test]
     fn a_double_threat_after_a_stone_is_read_as_placing_it_shows() {
-        let mut state = 0x5EED_0001u64;
-        let mut next = |n: u64| {
-            state = state.wrapping_add(1);
-            crate::zobrist::splitmix64(state) % n
-        };
+        let mut next = numbers(0x5EED_0001);
         let mut yes = 0;
         let mut checked = 0;
         for round in 0..60 {

@@ -219,10 +219,11 @@ pub fn evaluate(board: &Board, me: Stone) -> i32 {
 fn candidates(board: &mut Board, me: Stone, n: usize) -> Vec<(usize, i32)> {
     let opp = me.opponent();
     let mut out: Vec<(usize, i32)> = Vec::new();
-    let empty_board = board.stones() == 0;
-    let centre = board.index(Point::new(board.width() / 2, board.height() / 2));
-    if empty_board {
-        out.push((centre, 1));
+    if board.stones() == 0 {
+        out.push((
+            board.index(Point::new(board.width() / 2, board.height() / 2)),
+            1,
+        ));
     }
     for i in board.empties_near(2) {
         let s = quick_score(board, i, me) * 5 + quick_score(board, i, opp) * 4;

@@ -136,16 +136,17 @@ build_app() {
     need_wasm_bindgen
     need_node
     need_node_modules
-    local target out f
+    local target out page f
     target="$(target_dir)" || die "cargo metadata failed"
     out="$target/$WASM_TARGET/release"
+    page="$target/$WASM_TARGET/page"
     rm -rf "$DIST"
     mkdir -p "$DIST/pkg" "$DIST/workshop" "$DIST/scan"
     step "Building the page's wasm module (cargo build --profile page --target $WASM_TARGET -p fivefold-web --no-default-features)"
     (cd "$ROOT" && cargo build --profile page --target "$WASM_TARGET" -p fivefold-web --no-default-features) ||
         die "the wasm build of the page's module failed"
-    [ -f "$target/$WASM_TARGET/page/fivefold_web.wasm" ] || die "no $target/$WASM_TARGET/page/fivefold_web.wasm after the build"
-    wasm-bindgen --target web --no-typescript --remove-name-section --out-dir "$DIST/pkg" "$target/$WASM_TARGET/page/fivefold_web.wasm" ||
+    [ -f "$page/fivefold_web.wasm" ] || die "no $page/fivefold_web.wasm after the build"
+    wasm-bindgen --target web --no-typescript --remove-name-section --out-dir "$DIST/pkg" "$page/fivefold_web.wasm" ||
         die "wasm-bindgen failed on the page's module"
     step "Building the workshop and scanner modules (cargo build --release --target $WASM_TARGET -p fivefold-web -p fivefold-scan)"
     (cd "$ROOT" && cargo build --release --target "$WASM_TARGET" -p fivefold-web -p fivefold-scan) ||
@@ -163,7 +164,7 @@ build_app() {
     (cd "$ROOT" && cargo build --profile page --target "$WASM_TARGET" -p fivefold-web) ||
         die "the wasm build of the single file's module failed"
     rm -rf "$target/single-module"
-    wasm-bindgen --target web --no-typescript --remove-name-section --out-dir "$target/single-module" "$target/$WASM_TARGET/page/fivefold_web.wasm" ||
+    wasm-bindgen --target web --no-typescript --remove-name-section --out-dir "$target/single-module" "$page/fivefold_web.wasm" ||
         die "wasm-bindgen failed on the single file's module"
     for f in "${APP_FILES[@]}"; do
         cp "$WEB_DIR/$f" "$DIST/$f" || die "copying $f failed"

@@ -920,7 +920,8 @@ mod tests {
         };
         assert!(play_game_while(&o, number, &mut solver, &give_up).is_none());
         assert_eq!(asked.get(), 1);
-        // Going on, the same game gives its puzzle, having been asked once per position.
+        // Going on, the same game gives its puzzle, having been asked before each position
+        // and during the searches.
         let go_on = || {
             asked.set(asked.get() + 1);
             true
