@@ -19,6 +19,9 @@ export const COACH_BANDS = [
 // puzzle takes the worker up to a minute.
 export const COACH_DEEP_MOVES = { vcf: 10, vct: 6, defend: 5 };
 export const COACH_MAX_PUZZLES = 40;
+// A set's puzzles are made on one worker per core, at most this many: each worker holds the
+// solver's tables (about 33 MB), so four already hold about 130 MB of a phone's memory.
+export const COACH_MOST_WORKERS = 4;
 export const COACH_MAX_SETS = 100;
 export const COACH_MAX_CODES = 2000;
 export const COACH_TABS = ['make', 'handout', 'results'];

@@ -8,10 +8,11 @@
 import { setKey, themes } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
+import { inOrder } from './lanes.js';
 import { loadScanner, loadWorkshop } from './platform.js';
 import { save } from './store.js';
 import {
-  COACH_BANDS, COACH_DEEP_MOVES, COACH_MAX_CODES, COACH_MAX_PUZZLES, COACH_MAX_SETS, COACH_TABS, coachSetFile, emptyCoach,
+  COACH_BANDS, COACH_DEEP_MOVES, COACH_MAX_CODES, COACH_MAX_PUZZLES, COACH_MOST_WORKERS, COACH_MAX_SETS, COACH_TABS, coachSetFile, emptyCoach,
 } from './coach-data.js';
 import { $, announce, banner, download, el, fill, isInt, keepFocus, paintQr, randomSeed } from './ui.js';
 
@@ -48,6 +49,8 @@ export class Coach {
     this.app = app;
     this.data = emptyCoach();
     this.jobs = new Jobs();
+    // The workers beside this.jobs that make a set's puzzles (see workers()).
+    this.extra = [];
     this.making = null;
     this.sel = 0;
     this.scanner = null;
@@ -368,17 +371,25 @@ export class Coach {
     $('coach-more').disabled = locked || n >= COACH_MAX_PUZZLES;
   }
 
-  /** Makes one puzzle of `kind` ({theme, rule, size}) from the set's seed plus `index`, in the
-   * worker; resolves to the puzzle. */
-  async makeOne(s, kind, index, onGames) {
+  /** Makes one puzzle of `kind` ({theme, rule, size}) from the set's seed plus `index`, on
+   * `jobs` (a worker); resolves to the puzzle. */
+  async makeOne(s, kind, index, jobs) {
     const band = COACH_BANDS.find((b) => b.name === s.band) ?? COACH_BANDS[0];
     const deep = band.name === 'expert' && COACH_DEEP_MOVES[kind.theme];
     const options = {
       ...kind, ratingLo: band.lo, ratingHi: band.hi, seed: s.seed + index, count: 1,
       ...(deep ? { minMoves: deep, unique: true } : {}),
     };
-    const json = await this.jobs.run('generate', { options }, (p) => onGames?.(p.games));
+    const json = await jobs.run('generate', { options });
     return JSON.parse(json).puzzles[0];
+  }
+
+  /** The workers a set's puzzles are made on: one per core the device reports, at most
+   * COACH_MOST_WORKERS (each holds the solver's tables, about 33 MB); the first is this.jobs. */
+  workers() {
+    const cores = Math.max(1, Math.min(COACH_MOST_WORKERS, navigator.hardwareConcurrency || 1));
+    while (this.extra.length < cores - 1) this.extra.push(new Jobs());
+    return [this.jobs, ...this.extra.slice(0, cores - 1)];
   }
 
   /** Makes the set's puzzles afresh from its recipe: puzzle i from seed + i, the themes taken
@@ -402,9 +413,13 @@ export class Coach {
   }
 
   /** Adds `count` generated puzzles to the set; `kindAt(i)` gives the theme, rule and size of
-   * the set's puzzle number i (from 0): by default the recipe's, its themes taken in turn. */
+   * the set's puzzle number i (from 0): by default the recipe's, its themes taken in turn.
+   * Seeds are tried in order, s.next on, one puzzle per seed; the workers make the next few
+   * at once and their puzzles are taken in seed order (web/lanes.js), so the set is the same
+   * whatever the number of workers. */
   async generate(s, count, done, kindAt = (i) => ({ theme: s.themes[i % s.themes.length], rule: s.rule, size: s.size })) {
-    const making = { set: s.id, started: performance.now(), made: 0, count, games: 0 };
+    const lanes = this.workers();
+    const making = { set: s.id, started: performance.now(), made: 0, count, workers: lanes.length };
     this.making = making;
     this.render();
     const tick = setInterval(() => this.renderBusy(), 1000);
@@ -412,45 +427,52 @@ export class Coach {
     let misses = 0;
     let problem = null;
     try {
-      while (making.made < count && s.puzzles.length < COACH_MAX_PUZZLES) {
-        const index = s.next;
-        let p;
-        try {
-          p = await this.makeOne(s, kindAt(s.puzzles.length), index, (games) => {
-            making.games = games;
-            this.renderBusy();
-          });
-        } catch (e) {
-          if (e instanceof Cancelled) break;
-          problem = e.message;
-          break;
-        }
-        s.next = index + 1;
-        // The same position from another seed is made once only.
-        if (s.puzzles.some((q) => q.id === p.id)) {
-          if (++misses > 20) {
-            problem = 'the same puzzles keep coming back; try another band or seed';
-            break;
+      await inOrder({
+        lanes: lanes.length,
+        first: s.next,
+        // A puzzle made ahead of its turn is given the kind of the place it would take if
+        // every puzzle before it were kept (it is made again if one was not).
+        input: (index, ahead) => kindAt(s.puzzles.length + ahead),
+        work: (lane, index, kind) => this.makeOne(s, kind, index, lanes[lane]),
+        take: (index, kind, outcome) => {
+          if (outcome.error) {
+            if (!(outcome.error instanceof Cancelled)) problem = outcome.error.message;
+            return false;
           }
-          continue;
-        }
-        s.puzzles.push(p);
-        making.made++;
-        this.save();
-        if (this.data.open === s.id && this.data.tab === 'make') this.renderPuzzles();
-        this.renderHead();
-        this.renderBusy();
-      }
+          const p = outcome.value;
+          s.next = index + 1;
+          // The same position from another seed is made once only.
+          if (s.puzzles.some((q) => q.id === p.id)) {
+            if (++misses > 20) {
+              problem = 'the same puzzles keep coming back; try another band or seed';
+              return false;
+            }
+            return true;
+          }
+          s.puzzles.push(p);
+          making.made++;
+          this.save();
+          if (this.data.open === s.id && this.data.tab === 'make') this.renderPuzzles();
+          this.renderHead();
+          this.renderBusy();
+          return making.made < count && s.puzzles.length < COACH_MAX_PUZZLES;
+        },
+        wanted: () => Math.min(count - making.made, COACH_MAX_PUZZLES - s.puzzles.length),
+      });
     } finally {
       clearInterval(tick);
       if (this.making === making) this.making = null;
+      // Puzzles started ahead that are no longer needed are stopped, and the extra workers'
+      // memory is given back (the next set starts them again).
+      if (this.jobs.busy) this.jobs.cancel();
+      for (const jobs of this.extra) jobs.cancel();
     }
     this.save();
     const secs = Math.round((performance.now() - making.started) / 1000);
     $('coach').dataset.made = String(s.puzzles.length);
     const said = problem
       ? `Made ${making.made} of ${count} puzzles; then it stopped: ${problem}.`
-      : making.made < count ? `Stopped: made ${making.made} of ${count} puzzles; they are kept.` : `Made ${count} puzzles in ${secs} s.`;
+      : making.made < count ? `Stopped: made ${making.made} of ${count} puzzles; they are kept.` : `Made ${count} puzzles in ${secs ? `${secs} s` : 'under a second'}.`;
     banner(said, { kind: problem ? 'warn' : 'info', id: 'coach' });
     announce(said);
     this.render();
@@ -466,7 +488,9 @@ export class Coach {
     }
     const secs = Math.floor((performance.now() - m.started) / 1000);
     const time = `${Math.floor(secs / 60)}:${String(secs % 60).padStart(2, '0')}`;
-    $('coach-busy-text').textContent = `Made ${m.made} of ${m.count} · ${time}`;
+    const cores = m.workers > 1 ? ` · using ${m.workers} cores` : '';
+    $('coach-busy-text').textContent = `Made ${m.made} of ${m.count} · ${time}${cores}`;
+    $('coach').dataset.workers = String(m.workers);
     $('coach-progress').max = m.count;
     $('coach-progress').value = m.made;
     $('coach').dataset.making = `${m.made}/${m.count}`;
@@ -474,7 +498,7 @@ export class Coach {
 
   cancelMaking(quiet = false) {
     if (!this.making) return;
-    this.jobs.cancel();
+    for (const jobs of [this.jobs, ...this.extra]) jobs.cancel();
     if (!quiet) announce('Stopping; the puzzles made so far are kept.');
   }
 

@@ -287,6 +287,36 @@ export async function goTo(page, screen) {
   await page.waitForSelector(`#${screen}:not([hidden])`);
 }
 
+/** Makes a new set in Coach: one theme, `count` puzzles, a fixed seed (and `rule`, if given);
+ * returns the set as Coach keeps it and the milliseconds from Make to the last puzzle. With
+ * `keep`, the set open now is remade instead. */
+export async function makeCoachSet(page, { title, theme, count, seed, rule, keep = false, timeout = 120000 }) {
+  if (!keep) {
+    await goTo(page, 'coach');
+    if (await page.isVisible('#coach-back')) await page.click('#coach-back');
+    await page.click('#coach-new');
+  }
+  await page.fill('#coach-name', title);
+  if (rule) await page.selectOption('#coach-rule', rule);
+  await page.fill('#coach-count', String(count));
+  await page.press('#coach-count', 'Tab');
+  await page.fill('#coach-seed', String(seed));
+  await page.press('#coach-seed', 'Tab');
+  await page.check(`#coach-theme-list input[value="${theme}"]`);
+  for (const other of await page.$$eval('#coach-theme-list input:checked', (l) => l.map((i) => i.value))) {
+    if (other !== theme) await page.uncheck(`#coach-theme-list input[value="${other}"]`);
+  }
+  const started = Date.now();
+  await page.click('#coach-make-go');
+  await page.waitForSelector(`#coach[data-made="${count}"]:not([data-making])`, { timeout });
+  const ms = Date.now() - started;
+  const set = await page.evaluate(() => {
+    const d = JSON.parse(localStorage.getItem('fivefold.coach')).data;
+    return d.sets.find((s) => s.id === d.open);
+  });
+  return { set, ms };
+}
+
 /** Opens the settings: from the rail on a wide screen, through More on a phone. */
 export async function openSettings(page) {
   if (await page.isVisible('#open-settings')) await page.click('#open-settings');

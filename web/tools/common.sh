@@ -117,7 +117,7 @@ target_dir() {
 
 # The app's static files, copied as they are into $DIST.
 APP_FILES=(index.html style.css icon.svg manifest.webmanifest sw.js
-    app.js board.js drill.js jobs.js library.js platform.js practice.js progress.js revisit.js scan.js sounds.js store.js study.js tonight.js ui.js worker.js coach.js coach-data.js games.js games-data.js)
+    app.js board.js drill.js jobs.js library.js platform.js practice.js progress.js revisit.js scan.js sounds.js store.js study.js tonight.js ui.js worker.js coach.js coach-data.js lanes.js games.js games-data.js)
 
 need_node() {
     command -v node >/dev/null || die "node (Node.js 18 or later) is needed to build the app"

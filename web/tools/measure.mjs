@@ -65,10 +65,11 @@ for (const p of walk(DIST).sort()) {
   const raw = statSync(p).size;
   const gz = gz9(p);
   if (name === 'scan.js' || name.startsWith('scan/') || name.startsWith('workshop/') || name === 'worker.js' ||
-    name === 'coach.js' || name === 'games.js') {
+    name === 'coach.js' || name === 'lanes.js' || name === 'games.js') {
     // Loaded on first use: the camera scanner when scanning starts, the workshop module by
     // the worker (Drill, the Study board's searches), by Coach, My games and a code written
-    // (Share, a set's summary), and Coach's and My games' scripts when first opened.
+    // (Share, a set's summary), and Coach's (with lanes.js) and My games' scripts when first
+    // opened.
     weight.scanner.files.push({ name, raw, gz });
     weight.scanner.raw += raw;
     weight.scanner.gz += gz;

@@ -1,8 +1,9 @@
 #!/usr/bin/env bash
 # Runs every test of the project, in order, and stops at the first failure:
 #   formatting, clippy, the native tests of the whole workspace, the engine's wasm build,
-#   the browser tests of web/ (wasm-bindgen-test in headless Chromium), then builds the app
-#   and runs the end-to-end tests (node:test + playwright-core) against it.
+#   the browser tests of web/ (wasm-bindgen-test in headless Chromium), then builds the app,
+#   checks its weight against the budgets and runs the end-to-end tests (node:test +
+#   playwright-core) against it.
 # Tools that are missing (wasm target, wasm-bindgen-cli, chromium, npm packages) are installed
 # first. Respects CARGO_TARGET_DIR.
 set -uo pipefail
@@ -99,6 +100,7 @@ run "Engine for wasm: cargo check -p fivefold-engine --target $WASM_TARGET" \
     cargo check -p fivefold-engine --target "$WASM_TARGET"
 run "Browser tests of web/ (wasm-bindgen-test, headless Chromium)" browser_tests
 run "Building the app into web/dist" build_app
+run "Page weight within its budgets (web/tools/weight.mjs --check)" node "$WEB_DIR/tools/weight.mjs" --check
 run "End-to-end tests (node --test, playwright-core, web/e2e)" e2e_tests
 
 summary

@@ -1,0 +1,137 @@
+// The in-order runner behind Coach's making on several workers (web/lanes.js), under node: the
+// results taken must be those of running the tasks one after another, for any number of lanes
+// and any order in which the lanes finish. No browser is needed.
+
+import { test } from 'node:test';
+import assert from 'node:assert/strict';
+import { inOrder } from '../lanes.js';
+
+/** A made-up recipe in the manner of Coach's: task n makes "item n" of the theme the input
+ * names, except that every fourth task makes item 10 of the first theme again (a repeat of
+ * the first item kept, which takes no place); themes are taken in turn by place. A task's
+ * result depends on its number and input only, as a puzzle does on its seed and kind.
+ * Returns what was taken, in order. */
+async function make({ lanes, count, themes, delays, failAt = -1 }) {
+  const kept = [];
+  const log = [];
+  const started = new Set();
+  const runs = new Map();
+  let running = 0;
+  let most = 0;
+  const themeAt = (place) => themes[place % themes.length];
+  await inOrder({
+    lanes,
+    first: 10,
+    input: (n, ahead) => themeAt(kept.length + ahead),
+    work: async (lane, n, theme) => {
+      running++;
+      most = Math.max(most, running);
+      started.add(n);
+      runs.set(n, (runs.get(n) ?? 0) + 1);
+      await new Promise((ok) => setTimeout(ok, delays(n, lane)));
+      running--;
+      if (n === failAt) throw new Error(`task ${n} failed`);
+      return item(n, theme, themes);
+    },
+    take: (n, theme, outcome) => {
+      if (outcome.error) {
+        log.push(`error ${n}`);
+        return false;
+      }
+      log.push(`${n} ${outcome.value}`);
+      if (!kept.includes(outcome.value)) kept.push(outcome.value);
+      return kept.length < count;
+    },
+    wanted: () => count - kept.length,
+  });
+  return { kept, log, most, left: running, started, runs };
+}
+
+function item(n, theme, themes) {
+  return n % 4 === 3 ? `${themes[0]}:10` : `${theme}:${n}`;
+}
+
+// The same recipe run one task at a time, by hand: what the runner must reproduce.
+function oneByOne(count, themes) {
+  const kept = [];
+  for (let n = 10; kept.length < count; n++) {
+    const theme = themes[kept.length % themes.length];
+    const value = item(n, theme, themes);
+    if (!kept.includes(value)) kept.push(value);
+  }
+  return kept;
+}
+
+// Lanes finishing in every kind of order: later tasks first, by lane, by a fixed scramble.
+const ORDERS = {
+  even: () => 1,
+  'later first': (n) => 40 - n,
+  'lane 0 slow': (n, lane) => (lane === 0 ? 12 : 1),
+  scrambled: (n) => (n * 7919) % 13,
+};
+
+for (const [name, delays] of Object.entries(ORDERS)) {
+  test(`the same items for 1 to 4 lanes, finishing ${name}`, async () => {
+    for (const themes of [['a'], ['a', 'b', 'c']]) {
+      const want = oneByOne(9, themes);
+      for (const lanes of [1, 2, 3, 4]) {
+        const { kept, most } = await make({ lanes, count: 9, themes, delays });
+        assert.deepEqual(kept, want, `${lanes} lanes, themes ${themes}`);
+        assert.ok(most <= lanes, `at most ${lanes} tasks at once, saw ${most}`);
+      }
+    }
+  });
+}
+
+test('a task run ahead with a theme that turned out wrong is run again with the right one', async () => {
+  // Task 11 repeats item 10 (11 % 4 === 3), so task 12 guessed the wrong place's theme.
+  const { kept, log, runs } = await make({ lanes: 3, count: 3, themes: ['a', 'b'], delays: () => 1 });
+  assert.deepEqual(kept, ['a:10', 'b:12', 'a:13']);
+  assert.deepEqual(log, ['10 a:10', '11 a:10', '12 b:12', '13 a:13']);
+  assert.equal(runs.get(12), 2, 'task 12 ran with theme a ahead of its turn, then with b');
+  assert.equal(runs.get(13), 1);
+});
+
+test('uses every lane while enough is wanted, and starts no more tasks than are wanted', async () => {
+  const { most, started } = await make({ lanes: 4, count: 2, themes: ['a'], delays: () => 5 });
+  assert.equal(most, 2, 'two wanted: two at once');
+  assert.deepEqual([...started].sort(), [10, 11, 12], 'task 11 repeats an item, so 12 is needed');
+  const many = await make({ lanes: 4, count: 12, themes: ['a'], delays: () => 5 });
+  assert.equal(many.most, 4);
+});
+
+test('an error is taken in its turn; the results after it are not, and busy lanes are handed back', async () => {
+  const { kept, log, left } = await make({
+    lanes: 2,
+    count: 9,
+    themes: ['a'],
+    delays: (n) => (n === 14 ? 5 : n === 15 ? 30 : 1),
+    failAt: 14,
+  });
+  assert.deepEqual(kept, ['a:10', 'a:12', 'a:13']);
+  assert.deepEqual(log.at(-1), 'error 14');
+  assert.equal(left, 1, 'the lane running task 15 is still busy when the run ends');
+});
+
+test('nothing wanted: resolves at once without starting a task', async () => {
+  const { kept, started } = await make({ lanes: 2, count: 0, themes: ['a'], delays: () => 1 });
+  assert.deepEqual(kept, []);
+  assert.equal(started.size, 0);
+});
+
+test('a throw from take ends the run with that error', async () => {
+  await assert.rejects(
+    inOrder({
+      lanes: 2,
+      first: 0,
+      input: () => 'a',
+      work: async (lane, n) => n,
+      take: (n) => {
+        if (n === 1) throw new Error('storage full');
+        return true;
+      },
+      wanted: () => 5,
+    }),
+    /storage full/,
+  );
+});

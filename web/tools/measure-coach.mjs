@@ -1,0 +1,65 @@
+// Measures Coach making a set in the browser (the built app in web/dist, headless Chromium),
+// as an instructor meets it: a fresh page opens Coach, starts a new set of one theme, and
+// presses Make; the clock runs from the press to the last puzzle kept. Each theme is made
+// with one worker and with `--workers` workers (the device's core count is pretended through
+// navigator.hardwareConcurrency; Coach uses one worker per core, at most four), and the two
+// sets must be the same puzzles in the same order.
+// Run after a build:
+//   node web/tools/measure-coach.mjs [--workers 2] [--count 12] [--themes vct,defend,four-three]
+//     [--rule freestyle] [--seed 20261]
+// It prints one line per theme and writes web/artefacts/measure-coach.json.
+
+import assert from 'node:assert/strict';
+import { mkdirSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { ARTEFACTS, context, launch, makeCoachSet, ready, serve } from '../e2e/support.mjs';
+
+const arg = (name, fallback) => {
+  const i = process.argv.indexOf(name);
+  return i > 0 ? process.argv[i + 1] : fallback;
+};
+const WORKERS = Number(arg('--workers', 2));
+const COUNT = Number(arg('--count', 12));
+const THEMES = arg('--themes', 'vct,defend,four-three').split(',');
+const RULE = arg('--rule', 'freestyle');
+const SEED = Number(arg('--seed', 20261));
+
+/** Makes a set of COUNT puzzles of `theme` in Coach on a device of `cores` cores; returns
+ * the milliseconds from Make to the last puzzle, the workers Coach used and the puzzles. */
+async function make(browser, url, theme, cores) {
+  const c = await context(browser);
+  await c.context.addInitScript((n) => {
+    Object.defineProperty(Navigator.prototype, 'hardwareConcurrency', { get: () => n });
+  }, cores);
+  const { page } = c;
+  await page.goto(url);
+  await ready(page);
+  const { set, ms } = await makeCoachSet(page, {
+    title: `Harbour Street: ${theme}`, theme, count: COUNT, seed: SEED, rule: RULE, timeout: 60 * 60 * 1000,
+  });
+  const workers = Number(await page.getAttribute('#coach', 'data-workers'));
+  await c.context.close();
+  return { ms, workers, puzzles: set.puzzles };
+}
+
+const server = await serve();
+const browser = await launch();
+const rows = [];
+try {
+  for (const theme of THEMES) {
+    const one = await make(browser, server.url, theme, 1);
+    const many = await make(browser, server.url, theme, WORKERS);
+    assert.equal(one.workers, 1);
+    assert.equal(many.workers, Math.min(WORKERS, 4));
+    assert.deepEqual(many.puzzles, one.puzzles, `${theme}: the same set on ${many.workers} workers`);
+    const row = { theme, rule: RULE, count: COUNT, seed: SEED, oneMs: one.ms, workers: many.workers, manyMs: many.ms, speedUp: one.ms / many.ms };
+    rows.push(row);
+    console.log(`  ${theme.padEnd(14)} ${RULE.padEnd(9)} ${COUNT} puzzles: 1 worker ${(one.ms / 1000).toFixed(1)} s, ` +
+      `${many.workers} workers ${(many.ms / 1000).toFixed(1)} s (${row.speedUp.toFixed(2)}x), the same set`);
+  }
+} finally {
+  await browser.close();
+  await server.close();
+}
+mkdirSync(ARTEFACTS, { recursive: true });
+writeFileSync(join(ARTEFACTS, 'measure-coach.json'), `${JSON.stringify(rows, null, 2)}\n`);
