@@ -20,7 +20,8 @@ export const COACH_BANDS = [
 export const COACH_DEEP_MOVES = { vcf: 10, vct: 6, defend: 5 };
 export const COACH_MAX_PUZZLES = 40;
 // A set's puzzles are made on one worker per core, at most this many: each worker holds the
-// solver's tables (about 33 MB), so four already hold about 130 MB of a phone's memory.
+// solver's 32 MB of tables (its WebAssembly memory measured 33 MiB, with the compiled module
+// besides), so four already take 130 MB and more of a phone's memory.
 export const COACH_MOST_WORKERS = 4;
 export const COACH_MAX_SETS = 100;
 export const COACH_MAX_CODES = 2000;

@@ -385,9 +385,12 @@ export class Coach {
   }
 
   /** The workers a set's puzzles are made on: one per core the device reports, at most
-   * COACH_MOST_WORKERS (each holds the solver's tables, about 33 MB); the first is this.jobs. */
+   * COACH_MOST_WORKERS, and at most two on a device that says it has 2 GB of memory or less
+   * (each worker holds the solver's 32 MB of tables); the first is this.jobs. */
   workers() {
-    const cores = Math.max(1, Math.min(COACH_MOST_WORKERS, navigator.hardwareConcurrency || 1));
+    const small = navigator.deviceMemory !== undefined && navigator.deviceMemory <= 2;
+    const most = small ? Math.min(2, COACH_MOST_WORKERS) : COACH_MOST_WORKERS;
+    const cores = Math.max(1, Math.min(most, navigator.hardwareConcurrency || 1));
     while (this.extra.length < cores - 1) this.extra.push(new Jobs());
     return [this.jobs, ...this.extra.slice(0, cores - 1)];
   }
@@ -419,7 +422,9 @@ export class Coach {
    * whatever the number of workers. */
   async generate(s, count, done, kindAt = (i) => ({ theme: s.themes[i % s.themes.length], rule: s.rule, size: s.size })) {
     const lanes = this.workers();
-    const making = { set: s.id, started: performance.now(), made: 0, count, workers: lanes.length };
+    // `workers`: how many make puzzles at once; `cancelled`: set by Cancel, after which no
+    // puzzle is started (not even one made again for its right theme).
+    const making = { set: s.id, started: performance.now(), made: 0, count, workers: Math.min(lanes.length, count), cancelled: false };
     this.making = making;
     this.render();
     const tick = setInterval(() => this.renderBusy(), 1000);
@@ -433,7 +438,7 @@ export class Coach {
         // A puzzle made ahead of its turn is given the kind of the place it would take if
         // every puzzle before it were kept (it is made again if one was not).
         input: (index, ahead) => kindAt(s.puzzles.length + ahead),
-        work: (lane, index, kind) => this.makeOne(s, kind, index, lanes[lane]),
+        work: (lane, index, kind) => (making.cancelled ? Promise.reject(new Cancelled()) : this.makeOne(s, kind, index, lanes[lane])),
         take: (index, kind, outcome) => {
           if (outcome.error) {
             if (!(outcome.error instanceof Cancelled)) problem = outcome.error.message;
@@ -457,7 +462,7 @@ export class Coach {
           this.renderBusy();
           return making.made < count && s.puzzles.length < COACH_MAX_PUZZLES;
         },
-        wanted: () => Math.min(count - making.made, COACH_MAX_PUZZLES - s.puzzles.length),
+        wanted: () => (making.cancelled ? 0 : Math.min(count - making.made, COACH_MAX_PUZZLES - s.puzzles.length)),
       });
     } finally {
       clearInterval(tick);
@@ -472,7 +477,7 @@ export class Coach {
     $('coach').dataset.made = String(s.puzzles.length);
     const said = problem
       ? `Made ${making.made} of ${count} puzzles; then it stopped: ${problem}.`
-      : making.made < count ? `Stopped: made ${making.made} of ${count} puzzles; they are kept.` : `Made ${count} puzzles in ${secs ? `${secs} s` : 'under a second'}.`;
+      : making.made < count ? `Stopped: made ${making.made} of ${count} puzzles; they are kept.` : `Made ${count} ${count === 1 ? 'puzzle' : 'puzzles'} in ${secs ? `${secs} s` : 'under a second'}.`;
     banner(said, { kind: problem ? 'warn' : 'info', id: 'coach' });
     announce(said);
     this.render();
@@ -488,8 +493,8 @@ export class Coach {
     }
     const secs = Math.floor((performance.now() - m.started) / 1000);
     const time = `${Math.floor(secs / 60)}:${String(secs % 60).padStart(2, '0')}`;
-    const cores = m.workers > 1 ? ` · using ${m.workers} cores` : '';
-    $('coach-busy-text').textContent = `Made ${m.made} of ${m.count} · ${time}${cores}`;
+    const together = m.workers > 1 ? ` · ${m.workers} at a time` : '';
+    $('coach-busy-text').textContent = `Made ${m.made} of ${m.count} · ${time}${together}`;
     $('coach').dataset.workers = String(m.workers);
     $('coach-progress').max = m.count;
     $('coach-progress').value = m.made;
@@ -498,6 +503,7 @@ export class Coach {
 
   cancelMaking(quiet = false) {
     if (!this.making) return;
+    this.making.cancelled = true;
     for (const jobs of [this.jobs, ...this.extra]) jobs.cancel();
     if (!quiet) announce('Stopping; the puzzles made so far are kept.');
   }

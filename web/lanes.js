@@ -21,7 +21,9 @@
  *   no more tasks are started ahead than that.
  * Resolves once `take` has said no (or nothing more is wanted), rejects if `input`, `take` or
  * `wanted` throws. Lanes may still be running tasks started ahead then: their results will
- * never be taken, and the caller stops them.
+ * never be taken, and the caller stops them. To cancel a run, make `wanted()` say 0 and
+ * `work` reject at once, then stop the running tasks: a task whose input turns out wrong is
+ * run again before its outcome is taken, and that run must not start real work.
  */
 export function inOrder({ lanes, first, input, same = sameJson, work, take, wanted }) {
   return new Promise((resolve, reject) => {

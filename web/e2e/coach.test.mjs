@@ -36,6 +36,37 @@ const BOARD = 'tonight-board';
 const SMALL_PHONE = { width: 360, height: 740, dpr: 2, touch: true };
 const env = useBrowser();
 
+/** A Coach set's puzzles as a single worker makes them: the seeds taken in turn from the
+ * set's, one puzzle each, the set's themes in turn by place, a repeated puzzle skipped. Made
+ * here straight from the workshop module, without Coach's workers (not for the Expert band,
+ * whose deep-line options this leaves out). */
+function oneByOne(page, set) {
+  return page.evaluate(async (s) => {
+    const m = await import('./workshop/fivefold_web.js');
+    await m.default();
+    const { COACH_BANDS } = await import('./coach-data.js');
+    const band = COACH_BANDS.find((b) => b.name === s.band);
+    const out = [];
+    for (let seed = s.seed; out.length < s.count; seed++) {
+      const options = { theme: s.themes[out.length % s.themes.length], rule: s.rule, size: s.size, ratingLo: band.lo, ratingHi: band.hi, seed, count: 1 };
+      const p = JSON.parse(m.generateSet(options)).puzzles[0];
+      if (!out.some((q) => q.id === p.id)) out.push(p);
+    }
+    return out;
+  }, set);
+}
+
+/** A page of the app on a device that says it has `cores` cores. */
+async function onCores(cores) {
+  const c = await context(env.browser);
+  await c.context.addInitScript((n) => {
+    Object.defineProperty(Navigator.prototype, 'hardwareConcurrency', { get: () => n });
+  }, cores);
+  await c.page.goto(env.server.url);
+  await ready(c.page);
+  return c;
+}
+
 /**
  * A student opens the link and works through the set: `plan[i]` is "clean" (solve it),
  * "hint" (one hint, then solve), "wrong" (a wrong four first, then retry and solve) or
@@ -118,13 +149,8 @@ const CELL = { clean: 'clean|clean|clean', hint: 'helped|helped, 1 hint|helped',
 test('the class round trip: make, hand out, three students, read the codes back', async () => {
   // The instructor's device has three cores, whatever this machine has: Coach makes the set
   // on three workers.
-  const coach = await context(env.browser);
-  await coach.context.addInitScript(() => {
-    Object.defineProperty(Navigator.prototype, 'hardwareConcurrency', { get: () => 3 });
-  });
+  const coach = await onCores(3);
   const { page, errors } = coach;
-  await page.goto(env.server.url);
-  await ready(page);
   const { set, ms } = await makeSet(page, { title: 'Harbour Street: Tuesday', theme: 'four-three', count: 6, seed: 20261 });
   console.log(`    made a set of 6 four-threes on three workers in ${ms} ms`);
   assert.equal(set.puzzles.length, 6);
@@ -141,24 +167,9 @@ test('the class round trip: make, hand out, three students, read the codes back'
   // The same seed makes the same set again (in a second set).
   const again = await makeSet(page, { title: 'Again', theme: 'four-three', count: 6, seed: 20261 });
   assert.deepEqual(again.set.puzzles, set.puzzles, 'the seed makes the same puzzles');
-  // Coach made them on one worker per core; the set is the one a single worker makes by
-  // taking the seeds in turn, one puzzle each, a repeated puzzle skipped. Made here straight
-  // from the workshop module, without Coach's workers.
+  // Coach made them on one worker per core; the set is the one a single worker makes.
   assert.equal(await page.getAttribute('#coach', 'data-workers'), '3');
-  const oneByOne = await page.evaluate(async (s) => {
-    const m = await import('./workshop/fivefold_web.js');
-    await m.default();
-    const { COACH_BANDS } = await import('./coach-data.js');
-    const band = COACH_BANDS.find((b) => b.name === s.band);
-    const out = [];
-    for (let seed = s.seed; out.length < s.count; seed++) {
-      const options = { theme: s.themes[out.length % s.themes.length], rule: s.rule, size: s.size, ratingLo: band.lo, ratingHi: band.hi, seed, count: 1 };
-      const p = JSON.parse(m.generateSet(options)).puzzles[0];
-      if (!out.some((q) => q.id === p.id)) out.push(p);
-    }
-    return out;
-  }, set);
-  assert.deepEqual(set.puzzles, oneByOne, 'the workers make the set one worker makes');
+  assert.deepEqual(set.puzzles, await oneByOne(page, set), 'the workers make the set one worker makes');
   // ...which is then deleted, and brought back by Undo, and deleted again.
   await page.click('#coach-back');
   assert.equal(await page.$$eval('#coach-sets li', (l) => l.length), 2);
@@ -325,6 +336,8 @@ test('the class round trip: make, hand out, three students, read the codes back'
   // The table is kept with the set: after a reload it is all there.
   await page.reload();
   await page.waitForSelector('html[data-ready="true"]');
+  // Coach's script loads after the app is ready (on first opening): wait for its table.
+  await page.waitForSelector('#coach-table tbody tr');
   shown = await shownTable(page);
   assert.deepEqual(shown.rows.map((r) => r[0]), ['Mira Okafor', 'Tomas Reyne', '=Ines Varga']);
 
@@ -332,6 +345,33 @@ test('the class round trip: make, hand out, three students, read the codes back'
   await coach.context.close();
 });
 
+
+test('a set of two themes made on four workers is the set one worker makes, and Cancel stops it', async () => {
+  const { page, context: ctx, errors } = await onCores(4);
+  // Themes in turn: each puzzle started ahead of its turn is given its place's theme.
+  const { set } = await makeSet(page, { title: 'Harbour Street: mixed', themes: ['four-three', 'vcf'], count: 7, seed: 31 });
+  assert.equal(await page.getAttribute('#coach', 'data-workers'), '4');
+  assert.deepEqual(set.puzzles.map((p) => p.theme), ['four-three', 'vcf', 'four-three', 'vcf', 'four-three', 'vcf', 'four-three']);
+  assert.deepEqual(set.puzzles, await oneByOne(page, set), 'the four workers make the set one worker makes');
+  // Cancel while defence puzzles are being made: the busy line goes, the puzzles made so far
+  // stay, and no more come afterwards.
+  await makeSet(page, { title: 'Harbour Street: stopped', theme: 'defend', count: 12, seed: 5, wait: false });
+  await page.waitForFunction(() => Number((document.getElementById('coach').dataset.making ?? '0/0').split('/')[0]) >= 1, null, { timeout: 120000 });
+  await page.click('#coach-cancel');
+  await page.waitForSelector('#coach:not([data-making])');
+  const kept = Number(await page.getAttribute('#coach', 'data-made'));
+  assert.ok(kept >= 1 && kept < 12, `kept ${kept}`);
+  await page.waitForTimeout(1500);
+  assert.equal(Number(await page.getAttribute('#coach', 'data-made')), kept, 'nothing more after Cancel');
+  const stored = await page.evaluate(() => {
+    const d = JSON.parse(localStorage.getItem('fivefold.coach')).data;
+    return d.sets.find((s) => s.id === d.open).puzzles.length;
+  });
+  assert.equal(stored, kept);
+  assert.match(await page.textContent('#banners'), new RegExp(`Stopped: made ${kept} of 12 puzzles; they are kept\\.`));
+  assert.deepEqual(errors, []);
+  await ctx.close();
+});
 test('the printed sheet: diagrams, goals and answer boxes, the answer key on a page of its own', async () => {
   const { page, context, errors } = await open(env.browser, env.server.url);
   const { set } = await makeSet(page, { title: 'Harbour Street: <b>sheet</b>', theme: 'vcf', count: 5, seed: 7 });

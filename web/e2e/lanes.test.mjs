@@ -135,3 +135,47 @@ test('a throw from take ends the run with that error', async () => {
     /storage full/,
   );
 });
+
+test('cancelled as Coach cancels: no task starts afterwards, not even one to be made again', async () => {
+  // Task 11 repeats item 10, so task 12, started ahead with theme a, must be made again with
+  // b; it is still running when Cancel comes. Cancel as Coach does: wanted() says 0, work
+  // rejects at once, and the running tasks are stopped (rejected).
+  const themes = ['a', 'b'];
+  const kept = [];
+  const running = new Map(); // task -> its reject
+  let cancelled = false;
+  let startedAfter = 0;
+  const run = inOrder({
+    lanes: 4,
+    first: 10,
+    input: (n, ahead) => themes[(kept.length + ahead) % themes.length],
+    work: (lane, n, theme) => {
+      if (cancelled) return Promise.reject(new Error('cancelled'));
+      return new Promise((ok, fail) => {
+        const timer = setTimeout(() => {
+          running.delete(n);
+          ok(item(n, theme, themes));
+        }, n === 10 ? 1 : n === 11 ? 5 : 60);
+        running.set(n, (e) => {
+          clearTimeout(timer);
+          fail(e);
+        });
+      });
+    },
+    take: (n, theme, outcome) => {
+      if (outcome.error) return false;
+      if (!kept.includes(outcome.value)) kept.push(outcome.value);
+      return kept.length < 9;
+    },
+    wanted: () => (cancelled ? 0 : 9 - kept.length),
+  });
+  await new Promise((ok) => setTimeout(ok, 25));
+  cancelled = true;
+  const before = new Set(running.keys());
+  for (const fail of running.values()) fail(new Error('cancelled'));
+  await run;
+  for (const n of running.keys()) if (!before.has(n)) startedAfter++;
+  assert.ok(before.has(12), 'task 12 was running when Cancel came');
+  assert.deepEqual(kept, ['a:10'], 'nothing kept after the cancel');
+  assert.equal(startedAfter, 0, 'no task started after the cancel');
+});

@@ -287,10 +287,11 @@ export async function goTo(page, screen) {
   await page.waitForSelector(`#${screen}:not([hidden])`);
 }
 
-/** Makes a new set in Coach: one theme, `count` puzzles, a fixed seed (and `rule`, if given);
- * returns the set as Coach keeps it and the milliseconds from Make to the last puzzle. With
- * `keep`, the set open now is remade instead. */
-export async function makeCoachSet(page, { title, theme, count, seed, rule, keep = false, timeout = 120000 }) {
+/** Makes a new set in Coach: one theme (or `themes`, taken in turn), `count` puzzles, a fixed
+ * seed (and `rule`, if given); returns the set as Coach keeps it and the milliseconds from
+ * Make to the last puzzle. With `keep`, the set open now is remade instead; with `wait` false,
+ * returns as soon as Make is pressed. */
+export async function makeCoachSet(page, { title, theme, themes = [theme], count, seed, rule, keep = false, wait = true, timeout = 120000 }) {
   if (!keep) {
     await goTo(page, 'coach');
     if (await page.isVisible('#coach-back')) await page.click('#coach-back');
@@ -302,12 +303,13 @@ export async function makeCoachSet(page, { title, theme, count, seed, rule, keep
   await page.press('#coach-count', 'Tab');
   await page.fill('#coach-seed', String(seed));
   await page.press('#coach-seed', 'Tab');
-  await page.check(`#coach-theme-list input[value="${theme}"]`);
+  for (const t of themes) await page.check(`#coach-theme-list input[value="${t}"]`);
   for (const other of await page.$$eval('#coach-theme-list input:checked', (l) => l.map((i) => i.value))) {
-    if (other !== theme) await page.uncheck(`#coach-theme-list input[value="${other}"]`);
+    if (!themes.includes(other)) await page.uncheck(`#coach-theme-list input[value="${other}"]`);
   }
   const started = Date.now();
   await page.click('#coach-make-go');
+  if (!wait) return null;
   await page.waitForSelector(`#coach[data-made="${count}"]:not([data-making])`, { timeout });
   const ms = Date.now() - started;
   const set = await page.evaluate(() => {
