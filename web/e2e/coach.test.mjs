@@ -453,21 +453,3 @@ test('Coach on a phone: make, preview, hand out and results fit 360 px', async (
   assert.deepEqual(errors, []);
   await context.close();
 });
-
-// Not a timed test: how long the app's worker takes to make a 12-puzzle set of each theme
-// (for engine/benches/README.md). Run with COACH_MEASURE=1.
-test('measure: a 12-puzzle set of each theme in the worker', { skip: !process.env.COACH_MEASURE }, async () => {
-  const { page, context } = await open(env.browser, env.server.url);
-  const rows = [];
-  for (const [theme, rule] of [['four-three', 'freestyle'], ['vcf', 'freestyle'], ['vct', 'freestyle'], ['defend', 'freestyle'],
-    ['forbidden-trap', 'renju'], ['forbidden-win', 'renju']]) {
-    await goTo(page, 'coach');
-    if (await page.isVisible('#coach-back')) await page.click('#coach-back');
-    await page.click('#coach-new');
-    await page.selectOption('#coach-rule', rule);
-    const { ms } = await makeSet(page, { title: `${theme} timing`, theme, count: 12, seed: 1, keep: true });
-    rows.push(`| ${theme} | ${rule} | ${(ms / 1000).toFixed(1)} s |`);
-    console.log(rows.at(-1));
-  }
-  await context.close();
-});

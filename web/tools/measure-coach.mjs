@@ -5,9 +5,10 @@
 // navigator.hardwareConcurrency; Coach uses one worker per core, at most four), and the two
 // sets must be the same puzzles in the same order.
 // Run after a build:
-//   node web/tools/measure-coach.mjs [--workers 2] [--count 12] [--themes vct,defend,four-three]
-//     [--rule freestyle] [--seed 20261]
-// It prints one line per theme and writes web/artefacts/measure-coach.json.
+//   node web/tools/measure-coach.mjs [--workers 2] [--count 12] [--seed 20261]
+//     [--themes four-three,vcf,vct,defend,forbidden-trap/renju,forbidden-win/renju] [--rule freestyle]
+// A theme may name its rule after a slash; `--rule` is the rule of the others. Difficulty
+// "Any level", 15x15. It prints one line per theme and writes web/artefacts/measure-coach.json.
 
 import assert from 'node:assert/strict';
 import { mkdirSync, writeFileSync } from 'node:fs';
@@ -20,13 +21,15 @@ const arg = (name, fallback) => {
 };
 const WORKERS = Number(arg('--workers', 2));
 const COUNT = Number(arg('--count', 12));
-const THEMES = arg('--themes', 'vct,defend,four-three').split(',');
 const RULE = arg('--rule', 'freestyle');
+const THEMES = arg('--themes', 'four-three,vcf,vct,defend,forbidden-trap/renju,forbidden-win/renju')
+  .split(',')
+  .map((t) => (t.includes('/') ? t.split('/') : [t, RULE]));
 const SEED = Number(arg('--seed', 20261));
 
 /** Makes a set of COUNT puzzles of `theme` in Coach on a device of `cores` cores; returns
  * the milliseconds from Make to the last puzzle, the workers Coach used and the puzzles. */
-async function make(browser, url, theme, cores) {
+async function make(browser, url, [theme, rule], cores) {
   const c = await context(browser);
   await c.context.addInitScript((n) => {
     Object.defineProperty(Navigator.prototype, 'hardwareConcurrency', { get: () => n });
@@ -35,7 +38,7 @@ async function make(browser, url, theme, cores) {
   await page.goto(url);
   await ready(page);
   const { set, ms } = await makeCoachSet(page, {
-    title: `Harbour Street: ${theme}`, theme, count: COUNT, seed: SEED, rule: RULE, timeout: 60 * 60 * 1000,
+    title: `Harbour Street: ${theme}`, theme, count: COUNT, seed: SEED, rule, timeout: 60 * 60 * 1000,
   });
   const workers = Number(await page.getAttribute('#coach', 'data-workers'));
   await c.context.close();
@@ -46,15 +49,15 @@ const server = await serve();
 const browser = await launch();
 const rows = [];
 try {
-  for (const theme of THEMES) {
-    const one = await make(browser, server.url, theme, 1);
-    const many = await make(browser, server.url, theme, WORKERS);
+  for (const [theme, rule] of THEMES) {
+    const one = await make(browser, server.url, [theme, rule], 1);
+    const many = await make(browser, server.url, [theme, rule], WORKERS);
     assert.equal(one.workers, 1);
     assert.equal(many.workers, Math.min(WORKERS, 4));
     assert.deepEqual(many.puzzles, one.puzzles, `${theme}: the same set on ${many.workers} workers`);
-    const row = { theme, rule: RULE, count: COUNT, seed: SEED, oneMs: one.ms, workers: many.workers, manyMs: many.ms, speedUp: one.ms / many.ms };
+    const row = { theme, rule, count: COUNT, seed: SEED, oneMs: one.ms, workers: many.workers, manyMs: many.ms, speedUp: one.ms / many.ms };
     rows.push(row);
-    console.log(`  ${theme.padEnd(14)} ${RULE.padEnd(9)} ${COUNT} puzzles: 1 worker ${(one.ms / 1000).toFixed(1)} s, ` +
+    console.log(`  ${theme.padEnd(14)} ${rule.padEnd(9)} ${COUNT} puzzles: 1 worker ${(one.ms / 1000).toFixed(1)} s, ` +
       `${many.workers} workers ${(many.ms / 1000).toFixed(1)} s (${row.speedUp.toFixed(2)}x), the same set`);
   }
 } finally {
