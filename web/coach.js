@@ -371,17 +371,65 @@ export class Coach {
     $('coach-more').disabled = locked || n >= COACH_MAX_PUZZLES;
   }
 
-  /** Makes one puzzle of `kind` ({theme, rule, size}) from the set's seed plus `index`, on
-   * `jobs` (a worker); resolves to the puzzle. */
-  async makeOne(s, kind, index, jobs) {
+  /** The generation options of one puzzle of `kind` ({theme, rule, size}) from the set's seed
+   * plus `index`. */
+  optionsFor(s, kind, index) {
     const band = COACH_BANDS.find((b) => b.name === s.band) ?? COACH_BANDS[0];
     const deep = band.name === 'expert' && COACH_DEEP_MOVES[kind.theme];
-    const options = {
+    return {
       ...kind, ratingLo: band.lo, ratingHi: band.hi, seed: s.seed + index, count: 1,
       ...(deep ? { minMoves: deep, unique: true } : {}),
     };
-    const json = await jobs.run('generate', { options });
+  }
+
+  /** Makes one puzzle of `kind` from the set's seed plus `index`, on `jobs` (a worker);
+   * resolves to the puzzle. */
+  async makeOne(s, kind, index, jobs) {
+    const json = await jobs.run('generate', { options: this.optionsFor(s, kind, index) });
     return JSON.parse(json).puzzles[0];
+  }
+
+  /** The same puzzle as makeOne, its games spread over `lanes` (workers): the seed's games are
+   * played on the free workers and taken in number order (web/lanes.js) until one gives a
+   * puzzle, so it is the puzzle makeOne makes; the games still running then are stopped.
+   * `cancelled()` says when to start no more. */
+  async makeSpread(s, kind, index, lanes, cancelled) {
+    const options = this.optionsFor(s, kind, index);
+    let limit = Infinity;
+    let taken = 0;
+    let found = null;
+    let failed = null;
+    try {
+      await inOrder({
+        lanes: lanes.length,
+        first: 0,
+        input: () => null,
+        work: (lane, game) => lanes[lane].run('game', { options, number: game }),
+        take: (game, _, outcome) => {
+          taken = game + 1;
+          if (outcome.error) {
+            failed = outcome.error;
+            return false;
+          }
+          const { puzzle, limit: most, exhausted } = outcome.value;
+          limit = most;
+          if (puzzle) {
+            found = JSON.parse(puzzle);
+            return false;
+          }
+          if (taken >= limit) {
+            failed = new Error(exhausted);
+            return false;
+          }
+          return true;
+        },
+        wanted: () => (found || failed || cancelled() ? 0 : limit - taken),
+      });
+    } finally {
+      for (const jobs of lanes) if (jobs.busy) jobs.cancel();
+    }
+    if (failed) throw failed;
+    return found;
   }
 
   /** The workers a set's puzzles are made on: one per core the device reports, at most
@@ -424,7 +472,7 @@ export class Coach {
     const lanes = this.workers();
     // `workers`: how many make puzzles at once; `cancelled`: set by Cancel, after which no
     // puzzle is started (not even one made again for its right theme).
-    const making = { set: s.id, started: performance.now(), made: 0, count, workers: Math.min(lanes.length, count), cancelled: false };
+    const making = { set: s.id, started: performance.now(), made: 0, count, workers: count === 1 ? lanes.length : Math.min(lanes.length, count), cancelled: false };
     this.making = making;
     this.render();
     const tick = setInterval(() => this.renderBusy(), 1000);
@@ -438,7 +486,13 @@ export class Coach {
         // A puzzle made ahead of its turn is given the kind of the place it would take if
         // every puzzle before it were kept (it is made again if one was not).
         input: (index, ahead) => kindAt(s.puzzles.length + ahead),
-        work: (lane, index, kind) => (making.cancelled ? Promise.reject(new Cancelled()) : this.makeOne(s, kind, index, lanes[lane])),
+        // One puzzle wanted (One more like it, a set of one): its games are spread over the
+        // workers instead.
+        work: (lane, index, kind) => {
+          if (making.cancelled) return Promise.reject(new Cancelled());
+          if (count === 1 && lanes.length > 1) return this.makeSpread(s, kind, index, lanes, () => making.cancelled);
+          return this.makeOne(s, kind, index, lanes[lane]);
+        },
         take: (index, kind, outcome) => {
           if (outcome.error) {
             if (!(outcome.error instanceof Cancelled)) problem = outcome.error.message;

@@ -1,15 +1,19 @@
 // The app's worker, on the workshop module: generates Drill puzzles and runs Study board
-// searches off the page's thread, so the page stays responsive. Messages in: {type: "init",
-// module} (optional: a compiled wasm module, used by the single-file build), {id, type:
-// "generate", options},
-// {id, type: "solve", query}, {id, type: "prove", puzzle}, {id, type: "grade", puzzle, trusted,
-// moves, move} (a move the page could not settle within a frame: the grade as JSON), {id, type: "review", query} (a
-// game's task: checked move by move, with progress {checked, total, move}; or its puzzles or
-// a finding's defences, query.task) and {id, type: "memory"} (the engine's linear memory in
-// bytes, for web/tools/measure-drill.mjs). Messages out: {id, progress}, {id, result} or
-// {id, error, fatal}.
+// searches off the page's thread, so the page stays responsive. Messages in:
+// - {type: "init", module} (optional: a compiled wasm module, used by the single-file build);
+// - {id, type: "generate", options};
+// - {id, type: "game", options, number}: one game of a one-puzzle generation, answered with
+//   {puzzle, limit, exhausted} (see playGame; Coach spreads one puzzle's games over workers);
+// - {id, type: "solve", query};
+// - {id, type: "prove", puzzle};
+// - {id, type: "grade", puzzle, trusted, moves, move}: a move the page could not settle within
+//   a frame, answered with the grade as JSON;
+// - {id, type: "review", query}: a game's task, checked move by move with progress {checked,
+//   total, move}, or its puzzles, or a finding's defences (query.task);
+// - {id, type: "memory"}: the engine's linear memory in bytes, for web/tools/measure-drill.mjs.
+// Messages out: {id, progress}, {id, result} or {id, error, fatal}.
 
-import init, { checkGame, generateSet, gradeMove, provePuzzle, solvePosition } from './workshop/fivefold_web.js';
+import init, { checkGame, generateSet, gradeMove, playGame, provePuzzle, solvePosition } from './workshop/fivefold_web.js';
 
 let ready = null;
 
@@ -31,6 +35,8 @@ self.onmessage = async (event) => {
         self.postMessage({ id: m.id, progress: { kept, games } });
       });
       self.postMessage({ id: m.id, result });
+    } else if (m.type === 'game') {
+      self.postMessage({ id: m.id, result: playGame(m.options, m.number) });
     } else if (m.type === 'solve') {
       const result = solvePosition(m.query, (nodes) => {
         self.postMessage({ id: m.id, progress: { nodes } });

@@ -353,6 +353,27 @@ test('a set of two themes made on four workers is the set one worker makes, and 
   assert.equal(await page.getAttribute('#coach', 'data-workers'), '4');
   assert.deepEqual(set.puzzles.map((p) => p.theme), ['four-three', 'vcf', 'four-three', 'vcf', 'four-three', 'vcf', 'four-three']);
   assert.deepEqual(set.puzzles, await oneByOne(page, set), 'the four workers make the set one worker makes');
+  // One more like puzzle 1: a single puzzle, its games spread over the four workers; it is the
+  // puzzle one worker makes from the next seed (the one after, if that repeats a puzzle).
+  await page.click('#coach-more');
+  await page.waitForSelector('#coach[data-made="8"]:not([data-making])', { timeout: 120000 });
+  assert.equal(await page.getAttribute('#coach', 'data-workers'), '4');
+  const more = await page.evaluate(() => {
+    const d = JSON.parse(localStorage.getItem('fivefold.coach')).data;
+    return d.sets.find((s) => s.id === d.open).puzzles.at(-1);
+  });
+  const expected = await page.evaluate(async (s) => {
+    const m = await import('./workshop/fivefold_web.js');
+    await m.default();
+    const { COACH_BANDS } = await import('./coach-data.js');
+    const band = COACH_BANDS.find((b) => b.name === s.band);
+    for (let seed = s.seed + s.next; ; seed++) {
+      const options = { theme: s.puzzles[0].theme, rule: s.rule, size: s.size, ratingLo: band.lo, ratingHi: band.hi, seed, count: 1 };
+      const p = JSON.parse(m.generateSet(options)).puzzles[0];
+      if (!s.puzzles.some((q) => q.id === p.id)) return p;
+    }
+  }, set);
+  assert.deepEqual(more, expected, 'one more like it, on four workers, is the puzzle one worker makes');
   // Cancel while defence puzzles are being made: the busy line goes, the puzzles made so far
   // stay, and no more come afterwards.
   await makeSet(page, { title: 'Harbour Street: stopped', theme: 'defend', count: 12, seed: 5, wait: false });

@@ -288,10 +288,10 @@ export async function goTo(page, screen) {
 }
 
 /** Makes a new set in Coach: one theme (or `themes`, taken in turn), `count` puzzles, a fixed
- * seed (and `rule`, if given); returns the set as Coach keeps it and the milliseconds from
+ * seed (and `rule` and `band`, if given); returns the set as Coach keeps it and the milliseconds from
  * Make to the last puzzle. With `keep`, the set open now is remade instead; with `wait` false,
  * returns as soon as Make is pressed. */
-export async function makeCoachSet(page, { title, theme, themes = [theme], count, seed, rule, keep = false, wait = true, timeout = 120000 }) {
+export async function makeCoachSet(page, { title, theme, themes = [theme], count, seed, rule, band, keep = false, wait = true, timeout = 120000 }) {
   if (!keep) {
     await goTo(page, 'coach');
     if (await page.isVisible('#coach-back')) await page.click('#coach-back');
@@ -299,6 +299,7 @@ export async function makeCoachSet(page, { title, theme, themes = [theme], count
   }
   await page.fill('#coach-name', title);
   if (rule) await page.selectOption('#coach-rule', rule);
+  if (band) await page.selectOption('#coach-band', band);
   await page.fill('#coach-count', String(count));
   await page.press('#coach-count', 'Tab');
   await page.fill('#coach-seed', String(seed));
@@ -310,8 +311,13 @@ export async function makeCoachSet(page, { title, theme, themes = [theme], count
   const started = Date.now();
   await page.click('#coach-make-go');
   if (!wait) return null;
-  await page.waitForSelector(`#coach[data-made="${count}"]:not([data-making])`, { timeout });
+  // Making ends with the set made, or with a banner saying why not.
+  await page.waitForSelector('#coach:not([data-making])', { timeout });
   const ms = Date.now() - started;
+  const made = await page.getAttribute('#coach', 'data-made');
+  if (made !== String(count)) {
+    throw new Error(`Coach made ${made} of ${count} puzzles: ${await page.textContent('#banners')}`);
+  }
   const set = await page.evaluate(() => {
     const d = JSON.parse(localStorage.getItem('fivefold.coach')).data;
     return d.sets.find((s) => s.id === d.open);

@@ -6,8 +6,8 @@ use engine::formats::setfile;
 use engine::notation;
 use engine::puzzle::generate::{self, Options};
 use engine::puzzle::grade::Session;
-use engine::puzzle::{verify, Theme};
-use engine::search::Budget;
+use engine::puzzle::verify;
+use engine::search::{Budget, Solver};
 use engine::study::{study, StudyAnswer, StudySearch};
 use engine::words;
 use engine::{Point, Rule, Stone};
@@ -128,19 +128,8 @@ pub fn generate_set(
     options: JsValue,
     progress: Option<js_sys::Function>,
 ) -> Result<String, JsValue> {
-    let o: GenerateJs = serde_wasm_bindgen::from_value(options).map_err(err)?;
-    let theme: Theme = o.theme.parse().map_err(err)?;
-    let rule: Rule = o.rule.parse().map_err(err)?;
-    let options = Options {
-        theme,
-        rule,
-        size: o.size,
-        count: o.count,
-        rating: (o.rating_lo, o.rating_hi),
-        seed: o.seed,
-        min_moves: o.min_moves,
-        unique: o.unique,
-    };
+    let options = generate_options(options)?;
+    let theme = options.theme;
     let puzzles = generate::generate(&options, |p| {
         if let Some(f) = &progress {
             let _ = f.call2(
@@ -157,6 +146,82 @@ pub fn generate_set(
         puzzles,
         generator: None,
     }))
+}
+
+/// The options of `generateSet` and `playGame`, checked.
+fn generate_options(options: JsValue) -> Result<Options, JsValue> {
+    let o: GenerateJs = serde_wasm_bindgen::from_value(options).map_err(err)?;
+    let options = Options {
+        theme: o.theme.parse().map_err(err)?,
+        rule: o.rule.parse().map_err(err)?,
+        size: o.size,
+        count: o.count,
+        rating: (o.rating_lo, o.rating_hi),
+        seed: o.seed,
+        min_moves: o.min_moves,
+        unique: o.unique,
+    };
+    options.check().map_err(err)?;
+    Ok(options)
+}
+
+thread_local! {
+    /// The solver `playGame` plays its games with: the same settings as `generateSet`'s, so
+    /// that a game gives the same puzzle in both (each game clears its tables first).
+    static GAME_SOLVER: std::cell::RefCell<Option<Solver>> = const { std::cell::RefCell::new(None) };
+}
+
+/// Plays game `number` (counted from 0) of the generation `generateSet` would run with
+/// `options` and count 1 (in a worker: Coach spreads one puzzle's games over its workers).
+/// Returns `{puzzle, limit, exhausted}`: the puzzle that game gives, as set-file puzzle JSON
+/// text, or null; the most games the generation plays; and what `generateSet` says when none
+/// of them gives a puzzle. The first game, in number order, that gives a puzzle gives the
+/// puzzle `generateSet` makes.
+#[wasm_bindgen(js_name = playGame)]
+pub fn play_game(options: JsValue, number: f64) -> Result<JsValue, JsValue> {
+    let mut options = generate_options(options)?;
+    options.count = 1;
+    if !(number >= 0.0 && number.fract() == 0.0) {
+        return Err(err("the game number is not a whole number"));
+    }
+    let found = GAME_SOLVER.with(|s| {
+        let mut s = s.borrow_mut();
+        let solver = s.get_or_insert_with(Solver::default);
+        generate::play_game(&options, number as u64, solver)
+    });
+    let puzzle = match found {
+        Some(f) => {
+            let one = setfile::PuzzleSet {
+                title: String::new(),
+                created: today(),
+                puzzles: vec![f.puzzle().clone()],
+                generator: None,
+            };
+            let v: serde_json::Value =
+                serde_json::from_str(&setfile::to_json(&one)).map_err(err)?;
+            Some(v["puzzles"][0].to_string())
+        }
+        None => None,
+    };
+    let limit = generate::game_limit(&options);
+    let exhausted = generate::GenerateError::NotEnough {
+        found: 0,
+        wanted: 1,
+        games: limit,
+    }
+    .to_string();
+    crate::boards::to_js(&GameJs {
+        puzzle,
+        limit: limit as f64,
+        exhausted,
+    })
+}
+
+#[derive(Serialize)]
+struct GameJs {
+    puzzle: Option<String>,
+    limit: f64,
+    exhausted: String,
 }
 
 /// Today's date, `YYYY-MM-DD`, from the browser's clock (UTC).

@@ -5,10 +5,11 @@
 // navigator.hardwareConcurrency; Coach uses one worker per core, at most four), and the two
 // sets must be the same puzzles in the same order.
 // Run after a build:
-//   node web/tools/measure-coach.mjs [--workers 2] [--count 12] [--seed 20261]
+//   node web/tools/measure-coach.mjs [--workers 2] [--count 12] [--seed 20261] [--band expert]
 //     [--themes four-three,vcf,vct,defend,forbidden-trap/renju,forbidden-win/renju] [--rule freestyle]
 // A theme may name its rule after a slash; `--rule` is the rule of the others. Difficulty
-// "Any level", 15x15. It prints one line per theme and writes web/artefacts/measure-coach.json.
+// "Any level" unless `--band` names another (Coach's band names), 15x15. With `--count 1`
+// it times a single puzzle, whose games Coach spreads over its workers. It prints one line per theme and writes web/artefacts/measure-coach.json.
 
 import assert from 'node:assert/strict';
 import { mkdirSync, writeFileSync } from 'node:fs';
@@ -26,6 +27,7 @@ const THEMES = arg('--themes', 'four-three,vcf,vct,defend,forbidden-trap/renju,f
   .split(',')
   .map((t) => (t.includes('/') ? t.split('/') : [t, RULE]));
 const SEED = Number(arg('--seed', 20261));
+const BAND = arg('--band', undefined);
 
 /** Makes a set of COUNT puzzles of `theme` in Coach on a device of `cores` cores; returns
  * the milliseconds from Make to the last puzzle, the workers Coach used and the puzzles. */
@@ -38,7 +40,7 @@ async function make(browser, url, [theme, rule], cores) {
   await page.goto(url);
   await ready(page);
   const { set, ms } = await makeCoachSet(page, {
-    title: `Harbour Street: ${theme}`, theme, count: COUNT, seed: SEED, rule, timeout: 60 * 60 * 1000,
+    title: `Harbour Street: ${theme}`, theme, count: COUNT, seed: SEED, rule, band: BAND, timeout: 60 * 60 * 1000,
   });
   const workers = Number(await page.getAttribute('#coach', 'data-workers'));
   await c.context.close();
@@ -55,7 +57,7 @@ try {
     assert.equal(one.workers, 1);
     assert.equal(many.workers, Math.min(WORKERS, 4));
     assert.deepEqual(many.puzzles, one.puzzles, `${theme}: the same set on ${many.workers} workers`);
-    const row = { theme, rule, count: COUNT, seed: SEED, oneMs: one.ms, workers: many.workers, manyMs: many.ms, speedUp: one.ms / many.ms };
+    const row = { theme, rule, band: BAND ?? 'any', count: COUNT, seed: SEED, oneMs: one.ms, workers: many.workers, manyMs: many.ms, speedUp: one.ms / many.ms };
     rows.push(row);
     console.log(`  ${theme.padEnd(14)} ${rule.padEnd(9)} ${COUNT} puzzles: 1 worker ${(one.ms / 1000).toFixed(1)} s, ` +
       `${many.workers} workers ${(many.ms / 1000).toFixed(1)} s (${row.speedUp.toFixed(2)}x), the same set`);
