@@ -414,7 +414,7 @@ export class Coach {
           const { puzzle, limit: most, exhausted } = outcome.value;
           limit = most;
           if (puzzle) {
-            found = JSON.parse(puzzle);
+            found = puzzle;
             return false;
           }
           if (taken >= limit) {

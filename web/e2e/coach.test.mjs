@@ -23,6 +23,7 @@ import {
   librarySet,
   makeCoachSet as makeSet,
   open,
+  openOnCores,
   settled,
   solve,
   tap,
@@ -36,35 +37,25 @@ const BOARD = 'tonight-board';
 const SMALL_PHONE = { width: 360, height: 740, dpr: 2, touch: true };
 const env = useBrowser();
 
-/** A Coach set's puzzles as a single worker makes them: the seeds taken in turn from the
- * set's, one puzzle each, the set's themes in turn by place, a repeated puzzle skipped. Made
- * here straight from the workshop module, without Coach's workers (not for the Expert band,
- * whose deep-line options this leaves out). */
-function oneByOne(page, set) {
-  return page.evaluate(async (s) => {
+/** A Coach set's puzzles as a single worker makes them: the seeds taken in turn from `from`
+ * (the set's seed), one puzzle each, `themes` (the set's) in turn by place, a puzzle already
+ * made or among `taken` skipped, until there are `count` (the set's). Made here straight from
+ * the workshop module, without Coach's workers (not for the Expert band, whose deep-line
+ * options this leaves out). */
+function oneByOne(page, set, { from = set.seed, count = set.count, themes = set.themes, taken = [] } = {}) {
+  return page.evaluate(async ([s, from, count, themes, taken]) => {
     const m = await import('./workshop/fivefold_web.js');
     await m.default();
     const { COACH_BANDS } = await import('./coach-data.js');
     const band = COACH_BANDS.find((b) => b.name === s.band);
     const out = [];
-    for (let seed = s.seed; out.length < s.count; seed++) {
-      const options = { theme: s.themes[out.length % s.themes.length], rule: s.rule, size: s.size, ratingLo: band.lo, ratingHi: band.hi, seed, count: 1 };
+    for (let seed = from; out.length < count; seed++) {
+      const options = { theme: themes[out.length % themes.length], rule: s.rule, size: s.size, ratingLo: band.lo, ratingHi: band.hi, seed, count: 1 };
       const p = JSON.parse(m.generateSet(options)).puzzles[0];
-      if (!out.some((q) => q.id === p.id)) out.push(p);
+      if (![...taken, ...out].some((q) => q.id === p.id)) out.push(p);
     }
     return out;
-  }, set);
-}
-
-/** A page of the app on a device that says it has `cores` cores. */
-async function onCores(cores) {
-  const c = await context(env.browser);
-  await c.context.addInitScript((n) => {
-    Object.defineProperty(Navigator.prototype, 'hardwareConcurrency', { get: () => n });
-  }, cores);
-  await c.page.goto(env.server.url);
-  await ready(c.page);
-  return c;
+  }, [set, from, count, themes, taken]);
 }
 
 /**
@@ -149,7 +140,7 @@ const CELL = { clean: 'clean|clean|clean', hint: 'helped|helped, 1 hint|helped',
 test('the class round trip: make, hand out, three students, read the codes back', async () => {
   // The instructor's device has three cores, whatever this machine has: Coach makes the set
   // on three workers.
-  const coach = await onCores(3);
+  const coach = await openOnCores(env.browser, env.server.url, 3);
   const { page, errors } = coach;
   const { set, ms } = await makeSet(page, { title: 'Harbour Street: Tuesday', theme: 'four-three', count: 6, seed: 20261 });
   console.log(`    made a set of 6 four-threes on three workers in ${ms} ms`);
@@ -345,9 +336,8 @@ test('the class round trip: make, hand out, three students, read the codes back'
   await coach.context.close();
 });
 
-
 test('a set of two themes made on four workers is the set one worker makes, and Cancel stops it', async () => {
-  const { page, context: ctx, errors } = await onCores(4);
+  const { page, context: ctx, errors } = await openOnCores(env.browser, env.server.url, 4);
   // Themes in turn: each puzzle started ahead of its turn is given its place's theme.
   const { set } = await makeSet(page, { title: 'Harbour Street: mixed', themes: ['four-three', 'vcf'], count: 7, seed: 31 });
   assert.equal(await page.getAttribute('#coach', 'data-workers'), '4');
@@ -362,17 +352,7 @@ test('a set of two themes made on four workers is the set one worker makes, and 
     const d = JSON.parse(localStorage.getItem('fivefold.coach')).data;
     return d.sets.find((s) => s.id === d.open).puzzles.at(-1);
   });
-  const expected = await page.evaluate(async (s) => {
-    const m = await import('./workshop/fivefold_web.js');
-    await m.default();
-    const { COACH_BANDS } = await import('./coach-data.js');
-    const band = COACH_BANDS.find((b) => b.name === s.band);
-    for (let seed = s.seed + s.next; ; seed++) {
-      const options = { theme: s.puzzles[0].theme, rule: s.rule, size: s.size, ratingLo: band.lo, ratingHi: band.hi, seed, count: 1 };
-      const p = JSON.parse(m.generateSet(options)).puzzles[0];
-      if (!s.puzzles.some((q) => q.id === p.id)) return p;
-    }
-  }, set);
+  const [expected] = await oneByOne(page, set, { from: set.seed + set.next, count: 1, themes: [set.puzzles[0].theme], taken: set.puzzles });
   assert.deepEqual(more, expected, 'one more like it, on four workers, is the puzzle one worker makes');
   // Cancel while defence puzzles are being made: the busy line goes, the puzzles made so far
   // stay, and no more come afterwards.
@@ -393,6 +373,7 @@ test('a set of two themes made on four workers is the set one worker makes, and 
   assert.deepEqual(errors, []);
   await ctx.close();
 });
+
 test('the printed sheet: diagrams, goals and answer boxes, the answer key on a page of its own', async () => {
   const { page, context, errors } = await open(env.browser, env.server.url);
   const { set } = await makeSet(page, { title: 'Harbour Street: <b>sheet</b>', theme: 'vcf', count: 5, seed: 7 });

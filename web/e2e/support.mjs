@@ -287,6 +287,18 @@ export async function goTo(page, screen) {
   await page.waitForSelector(`#${screen}:not([hidden])`);
 }
 
+/** Opens the app in a fresh context on a device that says it has `cores` cores (Coach makes
+ * its puzzles on one worker per core). Returns { page, context, errors }. */
+export async function openOnCores(browser, url, cores) {
+  const c = await context(browser);
+  await c.context.addInitScript((n) => {
+    Object.defineProperty(Navigator.prototype, 'hardwareConcurrency', { get: () => n });
+  }, cores);
+  await c.page.goto(url);
+  await ready(c.page);
+  return c;
+}
+
 /** Makes a new set in Coach: one theme (or `themes`, taken in turn), `count` puzzles, a fixed
  * seed (and `rule` and `band`, if given); returns the set as Coach keeps it and the milliseconds from
  * Make to the last puzzle. With `keep`, the set open now is remade instead; with `wait` false,

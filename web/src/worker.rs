@@ -43,21 +43,11 @@ pub fn prove_puzzle(puzzle_json: &str) -> Result<JsValue, JsValue> {
             puzzle: None,
             problems: Vec::new(),
         },
-        Ok(proved) => {
-            let one = setfile::PuzzleSet {
-                title: String::new(),
-                created: "2026-12-01".into(),
-                puzzles: vec![proved.puzzle],
-                generator: None,
-            };
-            let v: serde_json::Value =
-                serde_json::from_str(&setfile::to_json(&one)).map_err(err)?;
-            ProvedJs {
-                state: "corrected",
-                puzzle: v["puzzles"].get(0).cloned(),
-                problems: proved.problems,
-            }
-        }
+        Ok(proved) => ProvedJs {
+            state: "corrected",
+            puzzle: Some(puzzle_value(proved.puzzle)?),
+            problems: proved.problems,
+        },
         Err(why) => ProvedJs {
             state: "unproved",
             puzzle: None,
@@ -65,6 +55,18 @@ pub fn prove_puzzle(puzzle_json: &str) -> Result<JsValue, JsValue> {
         },
     };
     crate::boards::to_js(&out)
+}
+
+/// A puzzle as the set file writes it, as a JSON value (one set-file puzzle object).
+fn puzzle_value(puzzle: engine::puzzle::Puzzle) -> Result<serde_json::Value, JsValue> {
+    let one = setfile::PuzzleSet {
+        title: String::new(),
+        created: "2026-12-01".into(),
+        puzzles: vec![puzzle],
+        generator: None,
+    };
+    let v: serde_json::Value = serde_json::from_str(&setfile::to_json(&one)).map_err(err)?;
+    Ok(v["puzzles"][0].clone())
 }
 
 /// Settles a move the page could not within its frame's allowance (in the worker): the
@@ -173,8 +175,8 @@ thread_local! {
 
 /// Plays game `number` (counted from 0) of the generation `generateSet` would run with
 /// `options` and count 1 (in a worker: Coach spreads one puzzle's games over its workers).
-/// Returns `{puzzle, limit, exhausted}`: the puzzle that game gives, as set-file puzzle JSON
-/// text, or null; the most games the generation plays; and what `generateSet` says when none
+/// Returns `{puzzle, limit, exhausted}`: the puzzle that game gives, as a set-file puzzle
+/// object, or null; the most games the generation plays; and what `generateSet` says when none
 /// of them gives a puzzle. The first game, in number order, that gives a puzzle gives the
 /// puzzle `generateSet` makes.
 #[wasm_bindgen(js_name = playGame)]
@@ -190,17 +192,7 @@ pub fn play_game(options: JsValue, number: f64) -> Result<JsValue, JsValue> {
         generate::play_game(&options, number as u64, solver)
     });
     let puzzle = match found {
-        Some(f) => {
-            let one = setfile::PuzzleSet {
-                title: String::new(),
-                created: today(),
-                puzzles: vec![f.puzzle().clone()],
-                generator: None,
-            };
-            let v: serde_json::Value =
-                serde_json::from_str(&setfile::to_json(&one)).map_err(err)?;
-            Some(v["puzzles"][0].to_string())
-        }
+        Some(f) => Some(puzzle_value(f.puzzle().clone())?),
         None => None,
     };
     let limit = generate::game_limit(&options);
@@ -219,7 +211,7 @@ pub fn play_game(options: JsValue, number: f64) -> Result<JsValue, JsValue> {
 
 #[derive(Serialize)]
 struct GameJs {
-    puzzle: Option<String>,
+    puzzle: Option<serde_json::Value>,
     limit: f64,
     exhausted: String,
 }

@@ -9,12 +9,13 @@
 //     [--themes four-three,vcf,vct,defend,forbidden-trap/renju,forbidden-win/renju] [--rule freestyle]
 // A theme may name its rule after a slash; `--rule` is the rule of the others. Difficulty
 // "Any level" unless `--band` names another (Coach's band names), 15x15. With `--count 1`
-// it times a single puzzle, whose games Coach spreads over its workers. It prints one line per theme and writes web/artefacts/measure-coach.json.
+// it times a single puzzle, whose games Coach spreads over its workers. It prints one line
+// per theme and writes web/artefacts/measure-coach.json.
 
 import assert from 'node:assert/strict';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { ARTEFACTS, context, launch, makeCoachSet, ready, serve } from '../e2e/support.mjs';
+import { ARTEFACTS, launch, makeCoachSet, openOnCores, serve } from '../e2e/support.mjs';
 
 const arg = (name, fallback) => {
   const i = process.argv.indexOf(name);
@@ -32,13 +33,8 @@ const BAND = arg('--band', undefined);
 /** Makes a set of COUNT puzzles of `theme` in Coach on a device of `cores` cores; returns
  * the milliseconds from Make to the last puzzle, the workers Coach used and the puzzles. */
 async function make(browser, url, [theme, rule], cores) {
-  const c = await context(browser);
-  await c.context.addInitScript((n) => {
-    Object.defineProperty(Navigator.prototype, 'hardwareConcurrency', { get: () => n });
-  }, cores);
+  const c = await openOnCores(browser, url, cores);
   const { page } = c;
-  await page.goto(url);
-  await ready(page);
   const { set, ms } = await makeCoachSet(page, {
     title: `Harbour Street: ${theme}`, theme, count: COUNT, seed: SEED, rule, band: BAND, timeout: 60 * 60 * 1000,
   });
