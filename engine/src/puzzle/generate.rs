@@ -152,6 +152,12 @@ impl Options {
     }
 }
 
+/// The highest band top at which a VCT's search is asked with [`Budget::AIMED_VCT`]: the
+/// VCTs of club-band candidates need a few thousand nodes at most, while at a top of 2100 a
+/// candidate in the band needed more (`a_vct_analysis_aimed_at_a_band_keeps_what_the_band_would`
+/// found it).
+const AIMED_TOP: u32 = 1600;
+
 /// Games to play per puzzle asked for before giving up (the forbidden-point themes are rare,
 /// and so are unique answers and deep lines).
 fn games_per_puzzle(options: &Options) -> u64 {
@@ -628,7 +634,14 @@ fn analyse_win(
             if vcf.verdict != Verdict::NoWin {
                 return None;
             }
-            let vct = ask.solve(board, me, Mode::Vct);
+            // Aimed at a club-level band, the search gets the smaller budget such a band's
+            // lines need.
+            let vct = match band {
+                Some((_, hi)) if hi <= AIMED_TOP => {
+                    ask.with_budget(Budget::AIMED_VCT, |ask| ask.solve(board, me, Mode::Vct))
+                }
+                _ => ask.solve(board, me, Mode::Vct),
+            };
             if vct.verdict != Verdict::Win || vct.depth < 1 {
                 return None;
             }
@@ -974,6 +987,50 @@ mod tests {
         );
         assert!(halted.is_none());
         assert!(analyse_in(&mut solver, &p.board(), p.to_move, theme, None, None).is_some());
+    }
+
+    /// Aimed at a club-level band, a VCT analysis keeps what the plain analysis keeps within
+    /// the band, the same puzzle: the early refusal refuses only what the band would, and the
+    /// smaller budget of the VCT search ([`Budget::AIMED_VCT`]) is enough for the lines such a
+    /// band takes. Every position of ten self-play games, each analysis from cleared tables.
+    /// (With that budget at every top below the ceiling, it failed at a top of 2100: a
+    /// candidate in the band needed more; with 30 nodes, it fails at 1600.)
+    #[test]
+    fn a_vct_analysis_aimed_at_a_band_keeps_what_the_band_would() {
+        let band = (600, 1600);
+        let within =
+            |p: &Option<Puzzle>| p.clone().filter(|p| (band.0..=band.1).contains(&p.rating));
+        let mut solver = Solver::default();
+        let (mut inside, mut above) = (0, 0);
+        for seed in 0..10 {
+            let mut rng = play::rng(seed);
+            let mut game = play::opening(15, Rule::Freestyle, &mut rng, 5, 50);
+            let config = PlayerConfig {
+                depth: 2,
+                width: 8,
+                noise: 80,
+            };
+            let mut player = Player::new(play::next_seed(&mut rng), config);
+            while !game.is_over() && game.board().stones() < 50 {
+                let (b, c) = (game.board().clone(), game.to_move());
+                solver.clear();
+                let plain = analyse_in(&mut solver, &b, c, Theme::Vct, None, None);
+                solver.clear();
+                let aimed = analyse_in(&mut solver, &b, c, Theme::Vct, Some(band), None);
+                assert_eq!(within(&aimed), within(&plain), "{b:?}");
+                match plain {
+                    Some(p) if p.rating > band.1 => above += 1,
+                    Some(_) => inside += 1,
+                    None => {}
+                }
+                let Some(m) = player.choose(&game) else { break };
+                if game.play(m).is_err() {
+                    break;
+                }
+            }
+        }
+        eprintln!("{inside} VCT puzzles within the band, {above} above it");
+        assert!(inside >= 2 && above >= 2, "{inside} {above}");
     }
 
     #[test]

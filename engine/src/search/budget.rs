@@ -44,6 +44,19 @@ impl Budget {
         total: 5_000_000,
     };
 
+    /// The VCT search of a generation aimed at a club-level band (a top of at most 1600): a
+    /// line that rates that low is short and its proof small, while the searches that run out
+    /// of the generation budget are half of such a generation's time (engine/benches/README.md,
+    /// 2026-12-03: the VCTs of club-band candidates took at most 1,607 nodes, the searches
+    /// that ran out a median of 92,098). A puzzle whose proof needs more is not kept in such
+    /// a set.
+    pub const AIMED_VCT: Budget = Budget {
+        nodes: 10_000,
+        vcf_question: 100_000,
+        vcf_spend: Some(10_000),
+        total: 200_000,
+    };
+
     /// Re-proving a puzzle (`fivefold verify`, the library tests) and settling a listed answer
     /// that the grading budget could not decide: larger than the generator's, because a fresh
     /// table may need more nodes than the generator's warm one did for the same answer.

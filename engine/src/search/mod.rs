@@ -338,6 +338,14 @@ impl<'s, 'w> Asking<'s, 'w> {
         self.budget
     }
 
+    /// Asks `f`'s questions with another budget, then goes back to this one.
+    pub fn with_budget<T>(&mut self, budget: Budget, f: impl FnOnce(&mut Self) -> T) -> T {
+        let saved = std::mem::replace(&mut self.budget, budget);
+        let out = f(self);
+        self.budget = saved;
+        out
+    }
+
     /// The tables and class of the solver asked.
     pub fn config(&self) -> &SolverConfig {
         &self.solver.config
