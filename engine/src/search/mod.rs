@@ -338,7 +338,10 @@ impl<'s, 'w> Asking<'s, 'w> {
         self.budget
     }
 
-    /// Asks `f`'s questions with another budget, then goes back to this one.
+    /// Asks `f`'s questions with another budget, then goes back to this one. Each question
+    /// asked in `f` takes the other budget's limits, but for the node limit of one VCF
+    /// question inside a VCT, which stays the one the solver was asked with
+    /// ([`Solver::ask`]); called inside a question, the question's total stays too.
     pub fn with_budget<T>(&mut self, budget: Budget, f: impl FnOnce(&mut Self) -> T) -> T {
         let saved = std::mem::replace(&mut self.budget, budget);
         let out = f(self);
