@@ -636,12 +636,11 @@ fn analyse_win(
             }
             // Aimed at a club-level band, the search gets the smaller budget such a band's
             // lines need.
-            let vct = match band {
-                Some((_, hi)) if hi <= AIMED_TOP => {
-                    ask.with_budget(Budget::AIMED_VCT, |ask| ask.solve(board, me, Mode::Vct))
-                }
-                _ => ask.solve(board, me, Mode::Vct),
+            let budget = match band {
+                Some((_, hi)) if hi <= AIMED_TOP => Budget::AIMED_VCT,
+                _ => ask.budget(),
             };
+            let vct = ask.with_budget(budget, |ask| ask.solve(board, me, Mode::Vct));
             if vct.verdict != Verdict::Win || vct.depth < 1 {
                 return None;
             }
