@@ -108,14 +108,24 @@ pub fn may_rate_within(theme: Theme, known: &Features, tried: u32, band: (u32, u
     })
 }
 
+/// [`may_rate_within`] before the number of first moves to try is known: whether some number
+/// of them could still give a rating within `band`. Past 15 tried moves nothing changes (at
+/// most three answers, and the tempting moves count up to 12). A defence puzzle knows its
+/// threat's line before its candidate defences, and the line's own chances and the
+/// defences are the dear part.
+pub fn may_rate_within_some(theme: Theme, known: &Features, band: (u32, u32)) -> bool {
+    (1..=15).any(|tried| may_rate_within(theme, known, tried, band))
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
 
     /// The early refusal of a banded generation never refuses a puzzle the band would take:
     /// for every kept puzzle (one to three answers, the other tried moves tempting) whose
-    /// rating is in the band, the features known before the proofs say it may be. And it does
-    /// refuse: a long threat line cannot make a club-level puzzle.
+    /// rating is in the band, the features known before the proofs say it may be, and so do
+    /// they before the number of tried moves is known. And both refuse, the first more: a
+    /// long threat line cannot make a club-level puzzle.
     #[test]
     fn the_early_band_check_refuses_only_what_the_band_would() {
         let bands = [
@@ -124,8 +134,9 @@ mod tests {
             (1250, 1750),
             (600, 1450),
             (1451, 2600),
+            (1800, 2400),
         ];
-        let mut refused = 0;
+        let (mut refused, mut refused_early) = (0, 0);
         for theme in Theme::ALL {
             for length in 1..=20 {
                 for branching in [0, 3, 10] {
@@ -141,7 +152,10 @@ mod tests {
                             for tried in 1..=16 {
                                 for band in bands {
                                     let may = may_rate_within(theme, &known, tried, band);
+                                    let some = may_rate_within_some(theme, &known, band);
+                                    assert!(some || !may, "{theme:?} {known:?} {tried} {band:?}");
                                     refused += usize::from(!may);
+                                    refused_early += usize::from(!some);
                                     for answers in 1..=tried.min(3) {
                                         let full = Features {
                                             answers,
@@ -161,7 +175,7 @@ mod tests {
                 }
             }
         }
-        assert!(refused > 0);
+        assert!(refused > refused_early && refused_early > 0);
         let long = Features {
             length: 12,
             branching: 6,

@@ -263,14 +263,17 @@ fn play_game_while(
             }
             if let Some(p) = found {
                 let (lo, hi) = options.rating;
-                // Several correct answers are allowed, but less often.
+                // Several correct answers are allowed, but less often. Drawn only for a
+                // puzzle in the band, so that an analysis that refuses early a candidate the
+                // band would refuse leaves the draws, and so the set, as they were.
                 let n = p.first_moves.len() as u32;
-                let keep_shared = if options.unique {
-                    n == 1
-                } else {
-                    play::below(&mut rng, n * n) == 0
-                };
-                if (lo..=hi).contains(&p.rating) && keep_shared {
+                let keep = (lo..=hi).contains(&p.rating)
+                    && if options.unique {
+                        n == 1
+                    } else {
+                        play::below(&mut rng, n * n) == 0
+                    };
+                if keep {
                     let key = (
                         game.board().canonical_hash(),
                         game.to_move(),
@@ -601,7 +604,7 @@ fn analyse_in(
     let band = band.filter(|&(lo, hi)| lo > difficulty::FLOOR || hi < difficulty::CEILING);
     match theme.goal() {
         Goal::Win => analyse_win(&mut ask, board, to_move, theme, band),
-        Goal::Defend => analyse_defence(&mut ask, board, to_move),
+        Goal::Defend => analyse_defence(&mut ask, board, to_move, band),
     }
 }
 
@@ -738,7 +741,12 @@ fn line_features(
     }
 }
 
-fn analyse_defence(ask: &mut Asking, board: &Board, me: Stone) -> Option<Puzzle> {
+fn analyse_defence(
+    ask: &mut Asking,
+    board: &Board,
+    me: Stone,
+    band: Option<(u32, u32)>,
+) -> Option<Puzzle> {
     // First the threat (cheap when it is a VCF), then the player's own chances, then the
     // defences, which cost one search per candidate.
     let threat = match ask.threat(board, me, Mode::Vcf) {
@@ -757,6 +765,16 @@ fn analyse_defence(ask: &mut Asking, board: &Board, me: Stone) -> Option<Puzzle>
         }
         _ => return None,
     };
+    let known = Features {
+        length: super::deep::moves_before_win(&threat.line) as u32 + 1,
+        spread: spread(&threat.line),
+        ..Features::default()
+    };
+    // Aimed at a band: the threat bounds the rating, the count of candidate defences bounds
+    // it more (before any is tried), and the searches after the threat are the dear part.
+    if band.is_some_and(|band| !difficulty::may_rate_within_some(Theme::Defend, &known, band)) {
+        return None;
+    }
     // The player must not have a win of its own: then the puzzle would not be about defending.
     for mode in [Mode::Vcf, Mode::Vct] {
         if ask.solve(board, me, mode).verdict != Verdict::NoWin {
@@ -764,7 +782,12 @@ fn analyse_defence(ask: &mut Asking, board: &Board, me: Stone) -> Option<Puzzle>
         }
     }
     // At most three defences, all proved: stop trying as soon as that fails.
-    let d = ask.defences_up_to(board, me, Mode::Vct, 3);
+    let within = |tried: usize| {
+        band.is_none_or(|band| {
+            difficulty::may_rate_within(Theme::Defend, &known, tried as u32, band)
+        })
+    };
+    let d = ask.defences_up_to(board, me, Mode::Vct, 3, within);
     if d.threat != Verdict::Win || !d.moves.unknown.is_empty() {
         return None;
     }
@@ -775,12 +798,9 @@ fn analyse_defence(ask: &mut Asking, board: &Board, me: Stone) -> Option<Puzzle>
     let mut first_moves = d.moves.proved.clone();
     Point::sort_by_rows(&mut first_moves);
     let features = Features {
-        length: super::deep::moves_before_win(&threat.line) as u32 + 1,
         tempting: d.moves.tried.saturating_sub(n) as u32,
-        branching: 0,
-        counter_fours: 0,
-        spread: spread(&threat.line),
         answers: n as u32,
+        ..known
     };
     Some(make(
         board,
@@ -988,20 +1008,18 @@ mod tests {
         assert!(analyse_in(&mut solver, &p.board(), p.to_move, theme, None, None).is_some());
     }
 
-    /// Aimed at a club-level band, a VCT analysis keeps what the plain analysis keeps within
-    /// the band, the same puzzle: the early refusal refuses only what the band would, and the
-    /// smaller budget of the VCT search ([`Budget::AIMED_VCT`]) is enough for the lines such a
-    /// band takes. Every position of ten self-play games, each analysis from cleared tables.
-    /// (With that budget at every top below the ceiling, it failed at a top of 2100: a
-    /// candidate in the band needed more; with 30 nodes, it fails at 1600.)
-    #[test]
-    fn a_vct_analysis_aimed_at_a_band_keeps_what_the_band_would() {
-        let band = (600, 1600);
-        let within =
-            |p: &Option<Puzzle>| p.clone().filter(|p| (band.0..=band.1).contains(&p.rating));
+    /// The analyses aimed at each of `bands` and the plain one of every position of the
+    /// self-play games of the seeds `games`, each from cleared tables: an aimed one must keep
+    /// what the plain one keeps within its band, the same puzzle. Returns how many plain
+    /// puzzles fell inside a band and how many outside it, summed over the bands.
+    fn aimed_keeps_what_the_band_would(
+        theme: Theme,
+        bands: &[(u32, u32)],
+        games: impl IntoIterator<Item = u64>,
+    ) -> (u32, u32) {
         let mut solver = Solver::default();
-        let (mut inside, mut above) = (0, 0);
-        for seed in 0..10 {
+        let (mut inside, mut outside) = (0, 0);
+        for seed in games {
             let mut rng = play::rng(seed);
             let mut game = play::opening(15, Rule::Freestyle, &mut rng, 5, 50);
             let config = PlayerConfig {
@@ -1013,14 +1031,18 @@ mod tests {
             while !game.is_over() && game.board().stones() < 50 {
                 let (b, c) = (game.board().clone(), game.to_move());
                 solver.clear();
-                let plain = analyse_in(&mut solver, &b, c, Theme::Vct, None, None);
-                solver.clear();
-                let aimed = analyse_in(&mut solver, &b, c, Theme::Vct, Some(band), None);
-                assert_eq!(within(&aimed), within(&plain), "{b:?}");
-                match plain {
-                    Some(p) if p.rating > band.1 => above += 1,
-                    Some(_) => inside += 1,
-                    None => {}
+                let plain = analyse_in(&mut solver, &b, c, theme, None, None);
+                for &band in bands {
+                    let within = |p: &Option<Puzzle>| {
+                        p.clone().filter(|p| (band.0..=band.1).contains(&p.rating))
+                    };
+                    solver.clear();
+                    let aimed = analyse_in(&mut solver, &b, c, theme, Some(band), None);
+                    assert_eq!(within(&aimed), within(&plain), "{band:?} {b:?}");
+                    match within(&plain) {
+                        Some(_) => inside += 1,
+                        None => outside += u32::from(plain.is_some()),
+                    }
                 }
                 let Some(m) = player.choose(&game) else { break };
                 if game.play(m).is_err() {
@@ -1028,8 +1050,32 @@ mod tests {
                 }
             }
         }
-        eprintln!("{inside} VCT puzzles within the band, {above} above it");
+        eprintln!("{theme:?}: {inside} puzzles within {bands:?}, {outside} outside");
+        (inside, outside)
+    }
+
+    /// Aimed at a club-level band, a VCT analysis keeps what the plain analysis keeps within
+    /// the band: the early refusal refuses only what the band would, and the smaller budget
+    /// of the VCT search ([`Budget::AIMED_VCT`]) is enough for the lines such a band takes.
+    /// (With that budget at every top below the ceiling, it failed at a top of 2100: a
+    /// candidate in the band needed more; with 30 nodes, it fails at 1600.)
+    #[test]
+    fn a_vct_analysis_aimed_at_a_band_keeps_what_the_band_would() {
+        let (inside, above) = aimed_keeps_what_the_band_would(Theme::Vct, &[(600, 1600)], 0..10);
         assert!(inside >= 2 && above >= 2, "{inside} {above}");
+    }
+
+    /// Aimed at a band, a defence analysis keeps what the plain one keeps within it: the
+    /// refusals after the threat and once the candidate defences are counted refuse only
+    /// what the band would. The games hold defence puzzles rated 1536, 1630 and 2145 (and
+    /// many at 1420 to 1450), so each band's edges are met exactly. (It failed when the
+    /// refusal after the threat counted at most two tried moves, and when the count of
+    /// candidates was capped at two.)
+    #[test]
+    fn a_defence_analysis_aimed_at_a_band_keeps_what_the_band_would() {
+        let bands = [(1536, 2600), (1460, 1630)];
+        let (inside, outside) = aimed_keeps_what_the_band_would(Theme::Defend, &bands, 7..10);
+        assert!(inside >= 3 && outside >= 3, "{inside} {outside}");
     }
 
     #[test]
