@@ -265,7 +265,7 @@ fn play_game_while(
                 let (lo, hi) = options.rating;
                 // Several correct answers are allowed, but less often. Drawn only for a
                 // puzzle in the band, so that an analysis that refuses early a candidate the
-                // band would refuse leaves the draws, and so the set, as they were.
+                // band would refuse leaves the draws as they were.
                 let n = p.first_moves.len() as u32;
                 let keep = (lo..=hi).contains(&p.rating)
                     && if options.unique {
