@@ -49,12 +49,13 @@ impl Budget {
     /// of the generation budget are half of such a generation's time (engine/benches/README.md,
     /// 2026-12-03: the VCTs of club-band candidates took at most 1,607 nodes, the searches
     /// that ran out a median of 92,098). A puzzle whose proof needs more is not kept in such
-    /// a set.
+    /// a set. Its one VCF question inside a VCT keeps the generation's limit (asked through
+    /// [`super::Asking::with_budget`], it could not change it anyway).
     pub const AIMED_VCT: Budget = Budget {
         nodes: 10_000,
-        vcf_question: 100_000,
         vcf_spend: Some(10_000),
         total: 200_000,
+        ..Budget::GENERATION
     };
 
     /// Re-proving a puzzle (`fivefold verify`, the library tests) and settling a listed answer
