@@ -126,6 +126,10 @@ const FLAG_OF: [u8; 16] = {
     t
 };
 
+/// Per colour, per [`threat`] kind (its bit number): a count of empty cells (see
+/// [`Board::flag_counts`]).
+pub type FlagCounts = [[i32; threat::KINDS]; 2];
+
 #[derive(Clone)]
 struct Shapes {
     tables: [&'static ShapeTable; 2],
@@ -736,6 +740,66 @@ impl Board {
         before.iter().any(|&q| q != idx && !seen[..n].contains(&q))
     }
 
+    /// How many empty cells carry each [`threat`] flag, per colour (`[colour][kind]`, the
+    /// kind being the flag's bit number): the lengths of the [`Board::cells_with`] sets.
+    pub fn flag_counts(&self) -> FlagCounts {
+        let s = self.shapes();
+        let mut out = [[0; threat::KINDS]; 2];
+        for (ci, sets) in s.sets.iter().enumerate() {
+            for (kind, set) in sets.iter().enumerate() {
+                out[ci][kind] = set.len() as i32;
+            }
+        }
+        out
+    }
+
+    /// [`Board::flag_counts`] as it would be after a stone of `c` on the empty cell `idx`,
+    /// read from the shape tables without placing it (the cells whose keys the stone would
+    /// change are the 40 that [`Board::place_at`] updates, each on one line through `idx`).
+    /// `counts` is [`Board::flag_counts`] of the board as it is.
+    pub fn flag_counts_after(&self, idx: usize, c: Stone, counts: &FlagCounts) -> FlagCounts {
+        let s = self.shapes();
+        let mut out = *counts;
+        let mut change = |ci: usize, old: u8, new: u8| {
+            let mut changed = old ^ new;
+            while changed != 0 {
+                let kind = changed.trailing_zeros() as usize;
+                out[ci][kind] += if new >> kind & 1 == 1 { 1 } else { -1 };
+                changed &= changed - 1;
+            }
+        };
+        for ci in 0..2 {
+            change(ci, s.cells[idx].flags[ci], 0);
+        }
+        let deltas = s.deltas[c.index()];
+        let reach = reach(&deltas);
+        for d in 0..4 {
+            for k in 1..=reach {
+                for (q, slot) in self.window_cells(idx, d, k) {
+                    // Walls have no flags, and stones have none before or after.
+                    if self.cells[q] != EMPTY {
+                        continue;
+                    }
+                    let cs = &s.cells[q];
+                    let keys = cs.keys[d] + deltas[slot];
+                    for (ci, table) in s.tables.iter().enumerate() {
+                        let shape = table.shape_of((keys >> (16 * ci)) as u16);
+                        let lines = &cs.lines[ci];
+                        // The flags change only if this direction's flag does.
+                        if FLAG_OF[shape as usize] == FLAG_OF[lines[d] as usize] {
+                            continue;
+                        }
+                        let f = (0..4).fold(0, |f, dd| {
+                            f | FLAG_OF[if dd == d { shape } else { lines[dd] } as usize]
+                        });
+                        change(ci, cs.flags[ci], f);
+                    }
+                }
+            }
+        }
+        out
+    }
+
     fn shapes(&self) -> &Shapes {
         self.shapes
             .as_deref()
@@ -760,6 +824,13 @@ impl Board {
     #[inline]
     pub fn shape_at(&self, idx: usize, c: Stone, d: usize) -> LineShape {
         LineShape::from_u8(self.shapes().cells[idx].lines[c.index()][d])
+    }
+
+    /// The shape numbers ([`LineShape`] as `u8`) of [`Board::shape_at`] in the four
+    /// directions at once.
+    #[inline]
+    pub(crate) fn shape_numbers_at(&self, idx: usize, c: Stone) -> [u8; 4] {
+        self.shapes().cells[idx].lines[c.index()]
     }
 
     /// The [`threat`] flags of a stone of `c` on the empty cell `idx` (zero on occupied cells).
@@ -1003,6 +1074,26 @@ mod tests {
         }
     }
 
+    /// A `size` board of `rule` with `stones` stones at random points, black and white in
+    /// turn.
+    fn random_board(
+        next: &mut impl FnMut(u64) -> u64,
+        rule: Rule,
+        size: u8,
+        stones: usize,
+    ) -> Board {
+        let mut b = Board::new(size, rule).unwrap();
+        let mut c = Stone::Black;
+        while b.stones() < stones {
+            let q = Point::new(next(size.into()) as u8, next(size.into()) as u8);
+            if b.get(q).is_none() {
+                b.place(q, c);
+                c = c.opponent();
+            }
+        }
+        b
+    }
+
     /// The row masks give what a plain look around every point gives: the empty points with
     /// a stone within `r` king moves, on random boards of several shapes (square and not,
     /// stones at the edges), for `r` from 0 to 3.
@@ -1058,16 +1149,8 @@ mod tests {
         let mut checked = 0;
         for round in 0..60 {
             let rule = Rule::ALL[round % 3];
-            let mut b = Board::new(15, rule).unwrap();
             let stones = 10 + next(50) as usize;
-            let mut c = Stone::Black;
-            while b.stones() < stones {
-                let q = Point::new(next(15) as u8, next(15) as u8);
-                if b.get(q).is_none() {
-                    b.place(q, c);
-                    c = c.opponent();
-                }
-            }
+            let b = random_board(&mut next, rule, 15, stones);
             for a in Stone::ALL {
                 if rule.has_forbidden(a) {
                     continue;
@@ -1097,6 +1180,56 @@ mod tests {
         assert!(
             checked > 5_000 && yes > 100 && yes < checked,
             "{yes} of {checked}"
+        );
+    }
+
+    /// The flag counts after a stone, read without placing it, are the counts that placing
+    /// it gives, for every empty point and both colours on random boards of every rule and
+    /// three sizes (so that the windows meet the edges); and the counts themselves are what
+    /// a look at every point's flags gives.
+    #[test]
+    fn the_flag_counts_after_a_stone_are_read_as_placing_it_shows() {
+        let mut next = numbers(0x5EED_0003);
+        let look = |b: &Board| {
+            let mut out = [[0; threat::KINDS]; 2];
+            for idx in b.indices().filter(|&i| b.is_empty_at(i)) {
+                for c in Stone::ALL {
+                    for (kind, n) in out[c.index()].iter_mut().enumerate() {
+                        *n += i32::from(b.flags_at(idx, c) >> kind & 1);
+                    }
+                }
+            }
+            out
+        };
+        let (mut checked, mut changed) = (0, [0; threat::KINDS]);
+        for round in 0..45 {
+            let rule = Rule::ALL[round % 3];
+            let size = [9, 15, 19][round / 3 % 3];
+            let stones = 6 + next(u64::from(size) * 3) as usize;
+            let b = random_board(&mut next, rule, size, stones);
+            let counts = b.flag_counts();
+            assert_eq!(counts, look(&b), "{rule:?} {size}");
+            for a in Stone::ALL {
+                for idx in b.indices().filter(|&i| b.is_empty_at(i)) {
+                    let mut placed = b.clone();
+                    placed.place_at(idx, a);
+                    let want = placed.flag_counts();
+                    assert_eq!(
+                        b.flag_counts_after(idx, a, &counts),
+                        want,
+                        "{rule:?} {size} {a:?} at {}",
+                        b.point(idx)
+                    );
+                    checked += 1;
+                    for (kind, n) in changed.iter_mut().enumerate() {
+                        *n += usize::from((0..2).any(|ci| want[ci][kind] != counts[ci][kind]));
+                    }
+                }
+            }
+        }
+        assert!(
+            checked > 10_000 && changed.iter().all(|&n| n > 100),
+            "{checked} checked, changed per kind {changed:?}"
         );
     }
 

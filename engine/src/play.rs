@@ -10,8 +10,9 @@
 use rand_chacha::rand_core::{RngCore, SeedableRng};
 use rand_chacha::ChaCha8Rng;
 
-use crate::board::{threat, Board};
-use crate::geometry::{best_first_key, best_first_parts, sort_keys, Point};
+use crate::board::{threat, Board, FlagCounts};
+use crate::geometry::{best_first_key, best_first_parts, Point};
+use crate::patterns::LineShape;
 use crate::rules::Game;
 use crate::types::Rule;
 use crate::types::Stone;
@@ -148,6 +149,9 @@ impl Player {
         mut alpha: i32,
         beta: i32,
     ) -> i32 {
+        if depth == 0 {
+            return leaf(&board.flag_counts(), me);
+        }
         let opp = me.opponent();
         if !board.cells_with(me, threat::FIVE).is_empty() {
             return WIN;
@@ -156,7 +160,7 @@ impl Player {
         if opp_fives >= 2 {
             return -WIN;
         }
-        if depth == 0 || board.is_full() {
+        if board.is_full() {
             return evaluate(board, me);
         }
         let moves: Vec<usize> = if opp_fives == 1 {
@@ -167,14 +171,23 @@ impl Player {
                 .map(|c| c.0)
                 .collect()
         };
+        // One ply from the leaves, a move's value is read from the flag counts it would
+        // leave, without placing it (the same value as placing it and searching on).
+        let counts = (depth == 1).then(|| board.flag_counts());
         let mut best = -WIN * 2;
         for m in moves {
             if !board.legal_at(m, me) {
                 continue;
             }
-            board.place_at(m, me);
-            let s = -self.search(board, opp, depth - 1, -beta, -alpha);
-            board.remove_at(m);
+            let s = match &counts {
+                Some(counts) => -leaf(&board.flag_counts_after(m, me, counts), opp),
+                None => {
+                    board.place_at(m, me);
+                    let s = -self.search(board, opp, depth - 1, -beta, -alpha);
+                    board.remove_at(m);
+                    s
+                }
+            };
             if s > best {
                 best = s;
             }
@@ -193,13 +206,31 @@ impl Player {
     }
 }
 
+/// What [`Player::search`] returns at depth 0 for `me`, to move, given the board's
+/// [`Board::flag_counts`]: a won or lost position, or else its [`evaluate`] value.
+fn leaf(counts: &FlagCounts, me: Stone) -> i32 {
+    let five = threat::FIVE.trailing_zeros() as usize;
+    if counts[me.index()][five] > 0 {
+        WIN
+    } else if counts[me.opponent().index()][five] >= 2 {
+        -WIN
+    } else {
+        evaluate_counts(counts, me)
+    }
+}
+
 /// The value of a position for `me`, to move, from the threat shapes of both sides.
 pub fn evaluate(board: &Board, me: Stone) -> i32 {
+    evaluate_counts(&board.flag_counts(), me)
+}
+
+/// [`evaluate`] from the board's [`Board::flag_counts`].
+fn evaluate_counts(counts: &FlagCounts, me: Stone) -> i32 {
     let opp = me.opponent();
-    if !board.cells_with(me, threat::FIVE).is_empty() {
+    let count = |c: Stone, k: u8| counts[c.index()][k.trailing_zeros() as usize];
+    if count(me, threat::FIVE) > 0 {
         return WIN / 2;
     }
-    let count = |c: Stone, k: u8| board.cells_with(c, k).len() as i32;
     let side = |c: Stone| -> i32 {
         count(c, threat::FOUR) * 60
             + count(c, threat::THREE) * 40
@@ -218,27 +249,29 @@ pub fn evaluate(board: &Board, me: Stone) -> i32 {
 /// Legal empty points near the stones, best by a quick score first (at most `n`).
 fn candidates(board: &mut Board, me: Stone, n: usize) -> Vec<(usize, i32)> {
     let opp = me.opponent();
-    let mut out: Vec<(usize, i32)> = Vec::new();
+    let near = board.empties_near(2);
+    let mut keys: Vec<u64> = Vec::with_capacity(near.len() + 1);
     if board.stones() == 0 {
-        out.push((
-            board.index(Point::new(board.width() / 2, board.height() / 2)),
-            1,
-        ));
+        let centre = board.index(Point::new(board.width() / 2, board.height() / 2));
+        keys.push(best_first_key(1, centre as u16));
     }
-    for i in board.empties_near(2) {
+    for i in near {
         let s = quick_score(board, i, me) * 5 + quick_score(board, i, opp) * 4;
-        out.push((i, s));
+        keys.push(best_first_key(s, i as u16));
     }
-    sort_keys(
-        &mut out,
-        |&(i, s)| best_first_key(s, i as u16),
-        |k| {
-            let (s, i) = best_first_parts(k);
-            (i as usize, s)
-        },
-    );
+    let unpack = |k: u64| {
+        let (s, i) = best_first_parts(k);
+        (i as usize, s)
+    };
+    // The `n` best, found without sorting the rest, are the answer when all are legal (as
+    // they are except for renju's black); otherwise the first `n` legal ones of them all.
+    let best = smallest(&keys, n);
+    if best.iter().all(|&k| board.legal_at(unpack(k).0, me)) {
+        return best.into_iter().map(unpack).collect();
+    }
+    keys.sort_unstable();
     let mut kept = Vec::with_capacity(n);
-    for c in out {
+    for c in keys.into_iter().map(unpack) {
         if kept.len() >= n {
             break;
         }
@@ -249,35 +282,53 @@ fn candidates(board: &mut Board, me: Stone, n: usize) -> Vec<(usize, i32)> {
     kept
 }
 
+/// The `n` smallest of `keys` (all of them if there are fewer), in ascending order.
+fn smallest(keys: &[u64], n: usize) -> Vec<u64> {
+    let mut out: Vec<u64> = Vec::with_capacity(n + 1);
+    for &k in keys {
+        if out.len() == n && out.last().is_none_or(|&last| k >= last) {
+            continue;
+        }
+        let at = out.partition_point(|&x| x < k);
+        out.insert(at, k);
+        out.truncate(n);
+    }
+    out
+}
+
+/// What a point's [`threat`] flags add to its quick score, by the flags.
+const FLAG_SCORE: [i32; 32] = {
+    const fn has(f: usize, k: u8) -> i32 {
+        (f as u8 & k != 0) as i32
+    }
+    let mut t = [0; 32];
+    let mut f = 0;
+    while f < 32 {
+        t[f] = has(f, threat::FIVE) * 10_000
+            + has(f, threat::FOUR) * 300
+            + has(f, threat::THREE) * 200
+            + has(f, threat::CLOSED_THREE) * 40
+            + has(f, threat::TWO) * 15;
+        f += 1;
+    }
+    t
+};
+
+/// What each direction's shape adds to a point's quick score, by shape number.
+const SHAPE_SCORE: [i32; 16] = {
+    let mut t = [0; 16];
+    t[LineShape::Two as usize] = 6;
+    t[LineShape::ClosedThree as usize] = 10;
+    t[LineShape::BrokenThree as usize] = 30;
+    t[LineShape::Three as usize] = 30;
+    t[LineShape::Four as usize] = 50;
+    t
+};
+
 fn quick_score(board: &Board, i: usize, c: Stone) -> i32 {
-    let f = board.flags_at(i, c);
-    let mut s = 0;
-    if f & threat::FIVE != 0 {
-        s += 10_000;
-    }
-    if f & threat::FOUR != 0 {
-        s += 300;
-    }
-    if f & threat::THREE != 0 {
-        s += 200;
-    }
-    if f & threat::CLOSED_THREE != 0 {
-        s += 40;
-    }
-    if f & threat::TWO != 0 {
-        s += 15;
-    }
-    for d in 0..4 {
-        let shape = board.shape_at(i, c, d);
-        s += match shape {
-            crate::patterns::LineShape::Two => 6,
-            crate::patterns::LineShape::ClosedThree => 10,
-            crate::patterns::LineShape::BrokenThree | crate::patterns::LineShape::Three => 30,
-            crate::patterns::LineShape::Four => 50,
-            _ => 0,
-        };
-    }
-    s
+    let lines = board.shape_numbers_at(i, c);
+    FLAG_SCORE[board.flags_at(i, c) as usize]
+        + lines.iter().map(|&l| SHAPE_SCORE[l as usize]).sum::<i32>()
 }
 
 /// Plays a seeded game from the given opening moves until someone wins, the board fills or
@@ -325,5 +376,119 @@ mod tests {
         }
         let m = p.choose(&g).unwrap().to_string();
         assert!(m == "g8" || m == "l8", "{m}");
+    }
+
+    /// The search without its reading of the last ply from flag counts: every move placed,
+    /// searched on and taken back, and a depth-0 node valued from the board.
+    fn placing_search(
+        p: &mut Player,
+        board: &mut Board,
+        me: Stone,
+        depth: u8,
+        mut alpha: i32,
+        beta: i32,
+    ) -> i32 {
+        let opp = me.opponent();
+        if !board.cells_with(me, threat::FIVE).is_empty() {
+            return WIN;
+        }
+        let opp_fives = board.cells_with(opp, threat::FIVE).len();
+        if opp_fives >= 2 {
+            return -WIN;
+        }
+        if depth == 0 || board.is_full() {
+            return evaluate(board, me);
+        }
+        let moves: Vec<usize> = if opp_fives == 1 {
+            board.cells_with(opp, threat::FIVE).iter().collect()
+        } else {
+            candidates(board, me, p.config.width)
+                .into_iter()
+                .map(|c| c.0)
+                .collect()
+        };
+        let mut best = -WIN * 2;
+        for m in moves {
+            if !board.legal_at(m, me) {
+                continue;
+            }
+            board.place_at(m, me);
+            let s = -placing_search(p, board, opp, depth - 1, -beta, -alpha);
+            board.remove_at(m);
+            best = best.max(s);
+            alpha = alpha.max(s);
+            if alpha >= beta {
+                break;
+            }
+        }
+        if best == -WIN * 2 {
+            evaluate(board, me)
+        } else {
+            best
+        }
+    }
+
+    /// The player's search values every position of self-play games (every rule, both
+    /// sides, depths 1 to 3, full and narrow windows) as placing every move would, and its
+    /// candidates are the first legal points of a full sort by the quick score.
+    #[test]
+    fn the_search_values_positions_as_placing_every_move_would() {
+        let (mut checked, mut values) = (0, std::collections::BTreeSet::new());
+        for (g, rule) in Rule::ALL.into_iter().enumerate() {
+            let mut game = Game::new(Board::new(15, rule).unwrap());
+            self_play(&mut game, 40 + g as u64, &PlayerConfig::default(), 60);
+            let moves = game.moves().to_vec();
+            let mut replay = Game::new(Board::new(15, rule).unwrap());
+            let mut p = Player::new(1, PlayerConfig::default());
+            for m in moves {
+                let mut board = replay.board().clone();
+                for me in Stone::ALL {
+                    let mut full: Vec<u64> = board
+                        .empties_near(2)
+                        .into_iter()
+                        .map(|i| {
+                            let s = quick_score(&board, i, me) * 5
+                                + quick_score(&board, i, me.opponent()) * 4;
+                            best_first_key(s, i as u16)
+                        })
+                        .collect();
+                    full.sort_unstable();
+                    let legal: Vec<usize> = full
+                        .iter()
+                        .map(|&k| best_first_parts(k).1 as usize)
+                        .filter(|&i| board.legal_at(i, me))
+                        .take(10)
+                        .collect();
+                    let got: Vec<usize> = candidates(&mut board, me, 10)
+                        .into_iter()
+                        .map(|c| c.0)
+                        .collect();
+                    // (An empty board's one candidate is its centre.)
+                    if board.stones() > 0 {
+                        assert_eq!(got, legal, "{rule:?} {me:?} after {}", replay.moves().len());
+                    }
+                    for depth in 1..=3 {
+                        for (alpha, beta) in [(-WIN * 2, WIN * 2), (-50, 50)] {
+                            let want = placing_search(&mut p, &mut board, me, depth, alpha, beta);
+                            let got = p.search(&mut board, me, depth, alpha, beta);
+                            assert_eq!(
+                                got, want,
+                                "{rule:?} {me:?} depth {depth} ({alpha}, {beta})"
+                            );
+                            checked += 1;
+                            values.insert(got);
+                        }
+                    }
+                }
+                if replay.play(m).is_err() || replay.is_over() {
+                    break;
+                }
+            }
+        }
+        assert!(
+            checked > 500 && values.len() > 50,
+            "{checked} checked, {} values",
+            values.len()
+        );
     }
 }
