@@ -10,6 +10,7 @@
 use rand_chacha::rand_core::{RngCore, SeedableRng};
 use rand_chacha::ChaCha8Rng;
 
+use crate::bitset::CellSet;
 use crate::board::{threat, Board, FlagCounts};
 use crate::geometry::{best_first_key, best_first_parts, Point};
 use crate::patterns::LineShape;
@@ -100,37 +101,38 @@ impl Player {
     }
 
     fn choose_at(&mut self, board: &mut Board, me: Stone) -> Option<usize> {
-        let cands = candidates(board, me, self.config.width.max(1) * 2);
+        let (cands, root) = candidates(board, me, self.config.width.max(1) * 2);
         if cands.is_empty() {
             return None;
         }
-        // Forced moves first: a five, then a block of the opponent's five.
-        if let Some(f) = board.cells_with(me, threat::FIVE).first() {
+        if let Some(f) = forced(board, me) {
             return Some(f);
         }
         let opp = me.opponent();
-        if let Some(b) = board.cells_with(opp, threat::FIVE).first() {
-            if board.legal_at(b, me) {
-                return Some(b);
-            }
-        }
         let mut best = None;
         let mut best_score = i32::MIN;
         for &(m, _) in cands.iter().take(self.config.width) {
-            board.place_at(m, me);
-            let s = -self.search(
-                board,
-                opp,
-                self.config.depth.saturating_sub(1),
-                -WIN * 2,
-                WIN * 2,
-            );
-            board.remove_at(m);
             let noise = if self.config.noise > 0 {
                 below(&mut self.rng, self.config.noise as u32 * 2 + 1) as i32 - self.config.noise
             } else {
                 0
             };
+            // Only a value above `best_score - noise` changes the choice, so the search is
+            // told that as its alpha: it stops once it shows the value is not above it, and
+            // gives the value exactly when it is.
+            let alpha = match best {
+                None => -WIN * 2,
+                Some(_) => best_score - noise,
+            };
+            board.place_at(m, me);
+            let s = -self.search(
+                board,
+                opp,
+                self.config.depth.saturating_sub(1),
+                (-WIN * 2, -alpha),
+                Some((&root, m)),
+            );
+            board.remove_at(m);
             let s = s.saturating_add(noise);
             if s > best_score {
                 best_score = s;
@@ -140,14 +142,16 @@ impl Player {
         best
     }
 
-    /// Negamax alpha-beta from the view of `me`, to move.
+    /// Negamax alpha-beta from the view of `me`, to move, within `(alpha, beta)`. `parent`
+    /// is the scored points of the position before the last stone and where it went (so
+    /// that only what the stone changed is scored again), when the caller has them.
     fn search(
         &mut self,
         board: &mut Board,
         me: Stone,
         depth: u8,
-        mut alpha: i32,
-        beta: i32,
+        (mut alpha, beta): (i32, i32),
+        parent: Option<(&Scored, usize)>,
     ) -> i32 {
         if depth == 0 {
             return leaf(&board.flag_counts(), me);
@@ -163,13 +167,18 @@ impl Player {
         if board.is_full() {
             return evaluate(board, me);
         }
-        let moves: Vec<usize> = if opp_fives == 1 {
-            board.cells_with(opp, threat::FIVE).iter().collect()
+        let (moves, here): (Vec<usize>, Option<Scored>) = if opp_fives == 1 {
+            (board.cells_with(opp, threat::FIVE).iter().collect(), None)
         } else {
-            candidates(board, me, self.config.width)
-                .into_iter()
-                .map(|c| c.0)
-                .collect()
+            let width = self.config.width;
+            let (list, here) = match parent {
+                Some((scored, r)) => {
+                    let here = scored_after(board, scored, r);
+                    (ranked(board, &here, me, width), here)
+                }
+                None => candidates(board, me, width),
+            };
+            (list.into_iter().map(|c| c.0).collect(), Some(here))
         };
         // One ply from the leaves, a move's value is read from the flag counts it would
         // leave, without placing it (the same value as placing it and searching on).
@@ -183,7 +192,8 @@ impl Player {
                 Some(counts) => -leaf(&board.flag_counts_after(m, me, counts), opp),
                 None => {
                     board.place_at(m, me);
-                    let s = -self.search(board, opp, depth - 1, -beta, -alpha);
+                    let after = here.as_ref().map(|h| (h, m));
+                    let s = -self.search(board, opp, depth - 1, (-beta, -alpha), after);
                     board.remove_at(m);
                     s
                 }
@@ -204,6 +214,15 @@ impl Player {
             best
         }
     }
+}
+
+/// The move `me` must play, if any: its five, or else a legal block of the opponent's five.
+fn forced(board: &mut Board, me: Stone) -> Option<usize> {
+    if let Some(f) = board.cells_with(me, threat::FIVE).first() {
+        return Some(f);
+    }
+    let b = board.cells_with(me.opponent(), threat::FIVE).first()?;
+    board.legal_at(b, me).then_some(b)
 }
 
 /// What [`Player::search`] returns at depth 0 for `me`, to move, given the board's
@@ -246,19 +265,83 @@ fn evaluate_counts(counts: &FlagCounts, me: Stone) -> i32 {
     v
 }
 
-/// Legal empty points near the stones, best by a quick score first (at most `n`).
-fn candidates(board: &mut Board, me: Stone, n: usize) -> Vec<(usize, i32)> {
-    let opp = me.opponent();
-    let near = board.empties_near(2);
-    let mut keys: Vec<u64> = Vec::with_capacity(near.len() + 1);
+/// The empty points near the stones, each with its quick score for black and for white (by
+/// [`Stone::index`]): what the candidates are ranked from.
+type Scored = Vec<(usize, [i32; 2])>;
+
+/// A point's quick scores for both colours.
+fn both_scores(board: &Board, i: usize) -> [i32; 2] {
+    let mut s = [0; 2];
+    for c in Stone::ALL {
+        s[c.index()] = quick_score(board, i, c);
+    }
+    s
+}
+
+/// Legal empty points near the stones, best by a quick score first (at most `n`), and the
+/// scored points they were ranked from.
+fn candidates(board: &mut Board, me: Stone, n: usize) -> (Vec<(usize, i32)>, Scored) {
+    let scored: Scored = board
+        .empties_near(2)
+        .into_iter()
+        .map(|i| (i, both_scores(board, i)))
+        .collect();
     if board.stones() == 0 {
         let centre = board.index(Point::new(board.width() / 2, board.height() / 2));
-        keys.push(best_first_key(1, centre as u16));
+        let first = (n > 0 && board.legal_at(centre, me)).then_some((centre, 1));
+        return (first.into_iter().collect(), scored);
     }
-    for i in near {
-        let s = quick_score(board, i, me) * 5 + quick_score(board, i, opp) * 4;
-        keys.push(best_first_key(s, i as u16));
+    (ranked(board, &scored, me, n), scored)
+}
+
+/// The scored points of the board as it is, from `parent`, those of the board before its
+/// last stone, on `r`: `r` leaves, the empty points within two of it join, the points on a
+/// line through it within a stone's reach are scored afresh, and the rest keep their scores
+/// (a point's quick score reads only its own lines, which only those points' change).
+fn scored_after(board: &Board, parent: &Scored, r: usize) -> Scored {
+    let mut on_line = CellSet::new();
+    for d in 0..4 {
+        for n in 1..=5 {
+            on_line.insert(board.offset(r, d, n));
+            on_line.insert(board.offset(r, d, -n));
+        }
     }
+    let mut seen = CellSet::new();
+    let mut out = Vec::with_capacity(parent.len() + 16);
+    for &(q, s) in parent {
+        seen.insert(q);
+        if q != r {
+            out.push((
+                q,
+                if on_line.contains(q) {
+                    both_scores(board, q)
+                } else {
+                    s
+                },
+            ));
+        }
+    }
+    let (w, h) = (i32::from(board.width()), i32::from(board.height()));
+    let rp = board.point(r);
+    for y in (i32::from(rp.y) - 2).max(0)..=(i32::from(rp.y) + 2).min(h - 1) {
+        for x in (i32::from(rp.x) - 2).max(0)..=(i32::from(rp.x) + 2).min(w - 1) {
+            let q = board.index(Point::new(x as u8, y as u8));
+            if board.is_empty_at(q) && !seen.contains(q) {
+                out.push((q, both_scores(board, q)));
+            }
+        }
+    }
+    out
+}
+
+/// The legal points of `scored` best for `me` to move (its quick score counted five times,
+/// the opponent's four), best first (at most `n`).
+fn ranked(board: &mut Board, scored: &Scored, me: Stone, n: usize) -> Vec<(usize, i32)> {
+    let (mine, theirs) = (me.index(), me.opponent().index());
+    let mut keys: Vec<u64> = scored
+        .iter()
+        .map(|&(i, s)| best_first_key(s[mine] * 5 + s[theirs] * 4, i as u16))
+        .collect();
     let unpack = |k: u64| {
         let (s, i) = best_first_parts(k);
         (i as usize, s)
@@ -284,14 +367,22 @@ fn candidates(board: &mut Board, me: Stone, n: usize) -> Vec<(usize, i32)> {
 
 /// The `n` smallest of `keys` (all of them if there are fewer), in ascending order.
 fn smallest(keys: &[u64], n: usize) -> Vec<u64> {
-    let mut out: Vec<u64> = Vec::with_capacity(n + 1);
+    let mut out: Vec<u64> = Vec::with_capacity(n);
     for &k in keys {
-        if out.len() == n && out.last().is_none_or(|&last| k >= last) {
-            continue;
+        if out.len() == n {
+            match out.last_mut() {
+                Some(last) if k < *last => *last = k,
+                _ => continue,
+            }
+        } else {
+            out.push(k);
         }
-        let at = out.partition_point(|&x| x < k);
-        out.insert(at, k);
-        out.truncate(n);
+        // Sink the new key to its place.
+        let mut i = out.len() - 1;
+        while i > 0 && out[i - 1] > out[i] {
+            out.swap(i - 1, i);
+            i -= 1;
+        }
     }
     out
 }
@@ -403,6 +494,7 @@ mod tests {
             board.cells_with(opp, threat::FIVE).iter().collect()
         } else {
             candidates(board, me, p.config.width)
+                .0
                 .into_iter()
                 .map(|c| c.0)
                 .collect()
@@ -426,6 +518,72 @@ mod tests {
         } else {
             best
         }
+    }
+
+    /// The root without its window: every candidate searched in full, then its noise drawn.
+    fn plain_choose(p: &mut Player, board: &mut Board, me: Stone) -> Option<usize> {
+        let (cands, _) = candidates(board, me, p.config.width.max(1) * 2);
+        if cands.is_empty() {
+            return None;
+        }
+        if let Some(f) = forced(board, me) {
+            return Some(f);
+        }
+        let opp = me.opponent();
+        let (mut best, mut best_score) = (None, i32::MIN);
+        for &(m, _) in cands.iter().take(p.config.width) {
+            board.place_at(m, me);
+            let depth = p.config.depth.saturating_sub(1);
+            let s = -placing_search(p, board, opp, depth, -WIN * 2, WIN * 2);
+            board.remove_at(m);
+            let noise = below(&mut p.rng, p.config.noise as u32 * 2 + 1) as i32 - p.config.noise;
+            if s.saturating_add(noise) > best_score {
+                best_score = s.saturating_add(noise);
+                best = Some(m);
+            }
+        }
+        best
+    }
+
+    /// The player chooses what the plain root would, on every position of self-play games
+    /// of every rule, for both sides, at depths 1 to 3 and several amounts of noise.
+    #[test]
+    fn the_player_chooses_what_searching_every_candidate_in_full_would() {
+        let mut checked = 0;
+        for (g, rule) in Rule::ALL.into_iter().enumerate() {
+            let mut game = Game::new(Board::new(15, rule).unwrap());
+            self_play(&mut game, 50 + g as u64, &PlayerConfig::default(), 70);
+            for (k, (depth, noise)) in [(1, 40), (2, 1), (2, 50), (2, 110), (3, 40)]
+                .into_iter()
+                .enumerate()
+            {
+                let config = PlayerConfig {
+                    depth,
+                    width: 8,
+                    noise,
+                };
+                let seed = 7 + k as u64;
+                let (mut fast, mut plain) =
+                    (Player::new(seed, config.clone()), Player::new(seed, config));
+                let mut replay = Game::new(Board::new(15, rule).unwrap());
+                for &m in game.moves() {
+                    let mut board = replay.board().clone();
+                    for me in Stone::ALL {
+                        let want = plain_choose(&mut plain, &mut board, me);
+                        assert_eq!(
+                            fast.choose_at(&mut board, me),
+                            want,
+                            "{rule:?} {me:?} {depth} {noise}"
+                        );
+                        checked += 1;
+                    }
+                    if replay.play(m).is_err() || replay.is_over() {
+                        break;
+                    }
+                }
+            }
+        }
+        assert!(checked > 1_000, "{checked}");
     }
 
     /// The player's search values every position of self-play games (every rule, both
@@ -460,6 +618,7 @@ mod tests {
                         .take(10)
                         .collect();
                     let got: Vec<usize> = candidates(&mut board, me, 10)
+                        .0
                         .into_iter()
                         .map(|c| c.0)
                         .collect();
@@ -470,7 +629,7 @@ mod tests {
                     for depth in 1..=3 {
                         for (alpha, beta) in [(-WIN * 2, WIN * 2), (-50, 50)] {
                             let want = placing_search(&mut p, &mut board, me, depth, alpha, beta);
-                            let got = p.search(&mut board, me, depth, alpha, beta);
+                            let got = p.search(&mut board, me, depth, (alpha, beta), None);
                             assert_eq!(
                                 got, want,
                                 "{rule:?} {me:?} depth {depth} ({alpha}, {beta})"
