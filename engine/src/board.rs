@@ -1267,6 +1267,56 @@ mod tests {
         }
     }
 
+    /// Shapes stay what a rebuild gives through random placements and removals: mostly the
+    /// last stone taken back (as a search does), sometimes any stone, sometimes a copy of the
+    /// board carried on, under every rule and on three sizes, with boards filled up.
+    #[test]
+    fn shapes_survive_any_order_of_placing_and_taking_back() {
+        let mut next = numbers(0x5EED_0004);
+        let (mut in_order, mut any, mut fullest) = (0, 0, 0);
+        for round in 0..18 {
+            let rule = Rule::ALL[round % 3];
+            let size = [9, 15, 19][round / 3 % 3];
+            let mut b = Board::new(size, rule).unwrap();
+            let mut placed: Vec<usize> = Vec::new();
+            let mut c = Stone::Black;
+            // Every other round places more than it takes back, and only last in, first out.
+            let (place, last_only) = if round % 2 == 0 { (55, 90) } else { (70, 100) };
+            for step in 0..400 {
+                let roll = next(100);
+                let empties = b.indices().filter(|&i| b.is_empty_at(i)).count();
+                fullest = fullest.max(placed.len());
+                if roll < place && empties > 0 || placed.is_empty() {
+                    let free: Vec<usize> = b.indices().filter(|&i| b.is_empty_at(i)).collect();
+                    let idx = free[next(free.len() as u64) as usize];
+                    b.place_at(idx, c);
+                    placed.push(idx);
+                    c = c.opponent();
+                } else if roll < last_only {
+                    let last = placed.pop().unwrap();
+                    in_order += 1;
+                    b.remove_at(last);
+                } else if roll < 97 {
+                    let k = next(placed.len() as u64) as usize;
+                    let idx = placed.remove(k);
+                    any += 1;
+                    b.remove_at(idx);
+                } else {
+                    b = b.clone();
+                }
+                if step % 7 == 0 || roll >= 90 {
+                    b.check_invariants()
+                        .unwrap_or_else(|e| panic!("{rule:?} {size} step {step}: {e}"));
+                }
+            }
+            b.check_invariants().unwrap();
+        }
+        assert!(
+            in_order > 1_000 && any > 100 && fullest > 150,
+            "{in_order} taken back last in first out, {any} in any order, {fullest} at most"
+        );
+    }
+
     #[test]
     fn centre_is_h8() {
         let b = Board::new(15, Rule::Freestyle).unwrap();
