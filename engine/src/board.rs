@@ -112,9 +112,10 @@ fn reach(deltas: &[u32; patterns::SLOTS]) -> isize {
     }
 }
 
-/// The [`threat`] flag of each [`LineShape`], by its number.
-const FLAG_OF: [u8; 16] = {
-    let mut t = [0u8; 16];
+/// The [`threat`] flag of each [`LineShape`], by its number (a whole byte's worth of entries,
+/// so that a lookup by a shape byte needs no bounds check).
+const FLAG_OF: [u8; 256] = {
+    let mut t = [0u8; 256];
     t[LineShape::Two as usize] = threat::TWO;
     t[LineShape::ClosedThree as usize] = threat::CLOSED_THREE;
     t[LineShape::BrokenThree as usize] = threat::THREE;

@@ -387,14 +387,15 @@ fn smallest(keys: &[u64], n: usize) -> Vec<u64> {
     out
 }
 
-/// What a point's [`threat`] flags add to its quick score, by the flags.
-const FLAG_SCORE: [i32; 32] = {
+/// What a point's [`threat`] flags add to its quick score, by the flags (a whole byte's worth
+/// of entries, so that a lookup needs no bounds check).
+const FLAG_SCORE: [i32; 256] = {
     const fn has(f: usize, k: u8) -> i32 {
         (f as u8 & k != 0) as i32
     }
-    let mut t = [0; 32];
+    let mut t = [0; 256];
     let mut f = 0;
-    while f < 32 {
+    while f < 256 {
         t[f] = has(f, threat::FIVE) * 10_000
             + has(f, threat::FOUR) * 300
             + has(f, threat::THREE) * 200
@@ -405,9 +406,9 @@ const FLAG_SCORE: [i32; 32] = {
     t
 };
 
-/// What each direction's shape adds to a point's quick score, by shape number.
-const SHAPE_SCORE: [i32; 16] = {
-    let mut t = [0; 16];
+/// What each direction's shape adds to a point's quick score, by shape number (a byte's worth).
+const SHAPE_SCORE: [i32; 256] = {
+    let mut t = [0; 256];
     t[LineShape::Two as usize] = 6;
     t[LineShape::ClosedThree as usize] = 10;
     t[LineShape::BrokenThree as usize] = 30;
