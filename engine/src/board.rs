@@ -756,9 +756,12 @@ impl Board {
 
     /// [`Board::flag_counts`] as it would be after a stone of `c` on the empty cell `idx`,
     /// read from the shape tables without placing it (the cells whose keys the stone would
-    /// change are the 40 that [`Board::place_at`] updates, each on one line through `idx`).
+    /// change are the (up to) 40 that [`Board::place_at`] updates, each on one line through
+    /// `idx`).
     /// `counts` is [`Board::flag_counts`] of the board as it is.
     pub fn flag_counts_after(&self, idx: usize, c: Stone, counts: &FlagCounts) -> FlagCounts {
+        debug_assert!(self.is_empty_at(idx));
+        debug_assert_eq!(*counts, self.flag_counts());
         let s = self.shapes();
         let mut out = *counts;
         let mut change = |ci: usize, old: u8, new: u8| {
@@ -1060,7 +1063,7 @@ impl Board {
 }
 
 #[cfg(test)]
-mod tests {
+pub(crate) mod tests {
     use super::*;
 
     fn p(s: &str) -> Point {
@@ -1068,7 +1071,7 @@ mod tests {
     }
 
     /// Seeded numbers below `n`, one per call (splitmix64 of a counter from `seed`).
-    fn numbers(mut seed: u64) -> impl FnMut(u64) -> u64 {
+    pub(crate) fn numbers(mut seed: u64) -> impl FnMut(u64) -> u64 {
         move |n| {
             seed = seed.wrapping_add(1);
             crate::zobrist::splitmix64(seed) % n
@@ -1077,7 +1080,7 @@ mod tests {
 
     /// A `size` board of `rule` with `stones` stones at random points, black and white in
     /// turn.
-    fn random_board(
+    pub(crate) fn random_board(
         next: &mut impl FnMut(u64) -> u64,
         rule: Rule,
         size: u8,

@@ -122,7 +122,9 @@ impl Player {
             // gives the value exactly when it is.
             let alpha = match best {
                 None => -WIN * 2,
-                Some(_) => best_score - noise,
+                // Clamped to the window of every value (a narrower clamp would only be
+                // looser), so that no noise can overflow it.
+                Some(_) => best_score.saturating_sub(noise).clamp(-WIN * 2, WIN * 2),
             };
             board.place_at(m, me);
             let s = -self.search(
@@ -296,8 +298,9 @@ fn candidates(board: &mut Board, me: Stone, n: usize) -> (Vec<(usize, i32)>, Sco
 
 /// The scored points of the board as it is, from `parent`, those of the board before its
 /// last stone, on `r`: `r` leaves, the empty points within two of it join, the points on a
-/// line through it within a stone's reach are scored afresh, and the rest keep their scores
-/// (a point's quick score reads only its own lines, which only those points' change).
+/// line through it within five cells (the farthest a stone's digits reach) are scored afresh,
+/// and the rest keep their scores (a point's quick score reads only its own lines, and no
+/// other point's lines change).
 fn scored_after(board: &Board, parent: &Scored, r: usize) -> Scored {
     let mut on_line = CellSet::new();
     for d in 0..4 {
@@ -438,6 +441,7 @@ pub fn self_play(game: &mut Game, seed: u64, config: &PlayerConfig, max_moves: u
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::board::tests::{numbers, random_board};
     use crate::types::Rule;
 
     #[test]
@@ -537,7 +541,11 @@ mod tests {
             let depth = p.config.depth.saturating_sub(1);
             let s = -placing_search(p, board, opp, depth, -WIN * 2, WIN * 2);
             board.remove_at(m);
-            let noise = below(&mut p.rng, p.config.noise as u32 * 2 + 1) as i32 - p.config.noise;
+            let noise = if p.config.noise > 0 {
+                below(&mut p.rng, p.config.noise as u32 * 2 + 1) as i32 - p.config.noise
+            } else {
+                0
+            };
             if s.saturating_add(noise) > best_score {
                 best_score = s.saturating_add(noise);
                 best = Some(m);
@@ -554,7 +562,7 @@ mod tests {
         for (g, rule) in Rule::ALL.into_iter().enumerate() {
             let mut game = Game::new(Board::new(15, rule).unwrap());
             self_play(&mut game, 50 + g as u64, &PlayerConfig::default(), 70);
-            for (k, (depth, noise)) in [(1, 40), (2, 1), (2, 50), (2, 110), (3, 40)]
+            for (k, (depth, noise)) in [(1, 40), (2, 0), (2, 1), (2, 50), (2, 110), (3, 40)]
                 .into_iter()
                 .enumerate()
             {
@@ -649,6 +657,72 @@ mod tests {
             checked > 500 && values.len() > 50,
             "{checked} checked, {} values",
             values.len()
+        );
+    }
+
+    /// The quick score's tables give what its terms say: per flag 10,000 for a five, 300 for
+    /// a four, 200 for a three, 40 for a closed three and 15 for a two; per direction 6 for a
+    /// two, 10 for a closed three, 30 for a three of either kind and 50 for a four.
+    #[test]
+    fn the_quick_score_tables_hold_its_terms() {
+        for f in 0..=255u8 {
+            let mut want = 0;
+            for (k, w) in [
+                (threat::FIVE, 10_000),
+                (threat::FOUR, 300),
+                (threat::THREE, 200),
+                (threat::CLOSED_THREE, 40),
+                (threat::TWO, 15),
+            ] {
+                if f & k != 0 {
+                    want += w;
+                }
+            }
+            assert_eq!(FLAG_SCORE[f as usize], want, "flags {f:#b}");
+        }
+        for shape in LineShape::ALL {
+            let want = match shape {
+                LineShape::Two => 6,
+                LineShape::ClosedThree => 10,
+                LineShape::BrokenThree | LineShape::Three => 30,
+                LineShape::Four => 50,
+                _ => 0,
+            };
+            assert_eq!(SHAPE_SCORE[shape as usize], want, "{shape:?}");
+        }
+    }
+
+    /// The scored points after a stone, worked out from those before it, are the points and
+    /// scores a fresh look gives, on random boards of every rule and three sizes, for stones
+    /// of both colours on every empty point (edges included).
+    #[test]
+    fn the_scored_points_after_a_stone_are_those_a_fresh_look_gives() {
+        let mut next = numbers(0x5EED_0005);
+        let (mut checked, mut rescored) = (0, 0);
+        for round in 0..18 {
+            let rule = Rule::ALL[round % 3];
+            let size = [9u8, 15, 19][round / 3 % 3];
+            let stones = 1 + next(u64::from(size) * 2) as usize;
+            let mut b = random_board(&mut next, rule, size, stones);
+            let (_, parent) = candidates(&mut b, Stone::Black, 0);
+            let empties: Vec<usize> = b.indices().filter(|&i| b.is_empty_at(i)).collect();
+            for &r in &empties {
+                for a in Stone::ALL {
+                    b.place_at(r, a);
+                    let mut got = scored_after(&b, &parent, r);
+                    let (_, mut want) = candidates(&mut b, a, 0);
+                    b.remove_at(r);
+                    got.sort_unstable();
+                    want.sort_unstable();
+                    assert_eq!(got, want, "{rule:?} {size} {a:?} at {}", b.point(r));
+                    checked += 1;
+                    rescored += usize::from(got.iter().any(|p| !parent.contains(p)));
+                }
+            }
+        }
+        assert!(
+            checked > 5_000 && rescored > checked / 2,
+            "{checked} checked, {rescored} rescored"
         );
     }
 }
