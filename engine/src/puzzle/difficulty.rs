@@ -87,6 +87,24 @@ pub fn rating(theme: Theme, f: &Features) -> u32 {
     r.round().clamp(f64::from(FLOOR), f64::from(CEILING)) as u32
 }
 
+/// The fewest of a puzzle's correct answers with which it would still rate at most `top`,
+/// the others then counting as tempting moves that fail (fewer answers rate higher): 1 when
+/// it rates at most `top` with one answer, [`Features::answers`] at most (the puzzle's own
+/// rating, if that is at most `top`).
+pub fn fewest_answers(theme: Theme, f: &Features, top: u32) -> u32 {
+    let n = f.answers.max(1);
+    (1..n)
+        .find(|&k| {
+            let fewer = Features {
+                answers: k,
+                tempting: f.tempting + (n - k),
+                ..*f
+            };
+            rating(theme, &fewer) <= top
+        })
+        .unwrap_or(n)
+}
+
 /// Whether a win puzzle with these features could still rate within `band` once its answers
 /// are proved: `tried` first moves will be tried, and a kept puzzle has one to three correct
 /// ones (the generator keeps no more), each of which is a tried move that is not tempting.
@@ -183,6 +201,62 @@ mod tests {
         };
         assert!(!may_rate_within(Theme::Vct, &long, 10, (1200, 1600)));
         assert!(may_rate_within(Theme::Vct, &long, 10, (FLOOR, CEILING)));
+    }
+
+    /// The fewest answers a band needs, worked by hand from the formula in the module
+    /// comment: a VCT of two attacker moves with three answers and no tempting move rates
+    /// 1250 + 110 - 160 log2(3) = 1106; with two answers (one tempting move) 1250 + 110 + 25
+    /// - 160 = 1225; with one (two tempting moves) 1250 + 110 + 50 = 1410.
+    #[test]
+    fn the_fewest_answers_a_band_needs_follow_the_formula() {
+        let three = Features {
+            length: 2,
+            answers: 3,
+            ..Default::default()
+        };
+        let with = |answers, tempting| {
+            rating(
+                Theme::Vct,
+                &Features {
+                    answers,
+                    tempting,
+                    ..three
+                },
+            )
+        };
+        assert_eq!((with(3, 0), with(2, 1), with(1, 2)), (1106, 1225, 1410));
+        let fewest = |top| fewest_answers(Theme::Vct, &three, top);
+        assert_eq!(fewest(1500), 1);
+        assert_eq!(fewest(1410), 1);
+        assert_eq!(fewest(1409), 2);
+        assert_eq!(fewest(1250), 2);
+        assert_eq!(fewest(1224), 3);
+        assert_eq!(fewest(1106), 3);
+        // Over every theme and feature: one answer needs one; the whole range needs one for
+        // any count (so a generation of the whole range keeps a puzzle with n answers one
+        // time in n², as it always did); a lower top never needs fewer.
+        for theme in Theme::ALL {
+            for length in 1..=12 {
+                for answers in 1..=3 {
+                    for tempting in [0, 2, 11] {
+                        let f = Features {
+                            length,
+                            answers,
+                            tempting,
+                            spread: 2.5,
+                            ..Default::default()
+                        };
+                        assert_eq!(fewest_answers(theme, &f, CEILING), 1);
+                        let one = Features { answers: 1, ..f };
+                        assert_eq!(fewest_answers(theme, &one, FLOOR), 1);
+                        let tops = (FLOOR..=CEILING).step_by(50);
+                        let needs: Vec<u32> = tops.map(|t| fewest_answers(theme, &f, t)).collect();
+                        assert!(needs.iter().all(|&m| (1..=answers).contains(&m)));
+                        assert!(needs.windows(2).all(|w| w[0] >= w[1]), "{f:?} {needs:?}");
+                    }
+                }
+            }
+        }
     }
 
     #[test]

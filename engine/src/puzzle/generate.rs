@@ -261,17 +261,25 @@ fn play_game_while(
             if !go_on() {
                 return None;
             }
-            if let Some(p) = found {
+            if let Some(Found {
+                puzzle: p,
+                features,
+            }) = found
+            {
                 let (lo, hi) = options.rating;
-                // Several correct answers are allowed, but less often. Drawn only for a
-                // puzzle in the band, so that an analysis that refuses early a candidate the
-                // band would refuse leaves the draws as they were.
+                // Several correct answers are allowed, but less often: a puzzle with n is
+                // kept with a chance of (m / n)², m being the fewest answers with which it
+                // would still be in the band (1 in a band that reaches its rating with one
+                // answer; more in a band whose puzzles need several). Drawn only for a
+                // puzzle in the band, so that an analysis that refuses early a candidate
+                // the band would refuse leaves the draws as they were.
                 let n = p.first_moves.len() as u32;
                 let keep = (lo..=hi).contains(&p.rating)
                     && if options.unique {
                         n == 1
                     } else {
-                        play::below(&mut rng, n * n) == 0
+                        let m = difficulty::fewest_answers(options.theme, &features, hi);
+                        play::below(&mut rng, n * n) < m * m
                     };
                 if keep {
                     let key = (
@@ -554,7 +562,13 @@ const WORKER_STACK: usize = 16 << 20;
 /// makes it (with its proved answers, main line and rating). Every search is asked with
 /// [`Budget::GENERATION`]: a puzzle whose proof needs more is not kept.
 pub fn analyse(solver: &mut Solver, board: &Board, to_move: Stone, theme: Theme) -> Option<Puzzle> {
-    analyse_in(solver, board, to_move, theme, None, None)
+    analyse_in(solver, board, to_move, theme, None, None).map(|f| f.puzzle)
+}
+
+/// A puzzle an analysis made, and the features its rating was estimated from.
+struct Found {
+    puzzle: Puzzle,
+    features: Features,
 }
 
 /// [`analyse`] aimed at a rating band: a win puzzle whose rating cannot fall in `band`,
@@ -570,7 +584,7 @@ fn analyse_in(
     theme: Theme,
     band: Option<(u32, u32)>,
     halt: Option<StopCheck>,
-) -> Option<Puzzle> {
+) -> Option<Found> {
     if !theme.allowed(board.rule()) || board.find_winner().is_some() {
         return None;
     }
@@ -630,7 +644,7 @@ fn analyse_win(
     me: Stone,
     theme: Theme,
     band: Option<(u32, u32)>,
-) -> Option<Puzzle> {
+) -> Option<Found> {
     let vcf = ask.solve(board, me, Mode::Vcf);
     let sol = match theme {
         Theme::Vct => {
@@ -712,15 +726,10 @@ fn analyse_win(
         answers: first_moves.len() as u32,
         ..known
     };
-    Some(make(
-        board,
-        me,
-        theme,
-        first_moves,
-        sol.line,
-        depth,
-        &features,
-    ))
+    Some(Found {
+        puzzle: make(board, me, theme, first_moves, sol.line, depth, &features),
+        features,
+    })
 }
 
 /// What a win puzzle's rating needs besides its answers: the line's length and spread, the
@@ -746,7 +755,7 @@ fn analyse_defence(
     board: &Board,
     me: Stone,
     band: Option<(u32, u32)>,
-) -> Option<Puzzle> {
+) -> Option<Found> {
     // First the threat (cheap when it is a VCF), then the player's own chances, then the
     // defences, which cost one search per candidate.
     let threat = match ask.threat(board, me, Mode::Vcf) {
@@ -802,15 +811,18 @@ fn analyse_defence(
         answers: n as u32,
         ..known
     };
-    Some(make(
-        board,
-        me,
-        Theme::Defend,
-        first_moves,
-        threat.line,
-        threat.depth,
-        &features,
-    ))
+    Some(Found {
+        puzzle: make(
+            board,
+            me,
+            Theme::Defend,
+            first_moves,
+            threat.line,
+            threat.depth,
+            &features,
+        ),
+        features,
+    })
 }
 
 fn make(
@@ -1031,13 +1043,14 @@ mod tests {
             while !game.is_over() && game.board().stones() < 50 {
                 let (b, c) = (game.board().clone(), game.to_move());
                 solver.clear();
-                let plain = analyse_in(&mut solver, &b, c, theme, None, None);
+                let plain = analyse_in(&mut solver, &b, c, theme, None, None).map(|f| f.puzzle);
                 for &band in bands {
                     let within = |p: &Option<Puzzle>| {
                         p.clone().filter(|p| (band.0..=band.1).contains(&p.rating))
                     };
                     solver.clear();
-                    let aimed = analyse_in(&mut solver, &b, c, theme, Some(band), None);
+                    let aimed =
+                        analyse_in(&mut solver, &b, c, theme, Some(band), None).map(|f| f.puzzle);
                     assert_eq!(within(&aimed), within(&plain), "{band:?} {b:?}");
                     match within(&plain) {
                         Some(_) => inside += 1,
