@@ -5,6 +5,8 @@
 //! the wording can be read, tidied and tested in one file, natively. Error types keep their own
 //! `Display` (they say what is wrong with an input); here they only get the frame the app shows
 //! them in ("Not played: ...").
+//!
+//! [`Grade`]: crate::puzzle::grade::Grade
 
 use crate::geometry::Point;
 use crate::puzzle::attempt::Attempt;

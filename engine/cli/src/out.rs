@@ -10,7 +10,7 @@
 //!   ends at once, quietly, with exit status 0. We chose 0 over the status a process killed
 //!   by SIGPIPE would have (141 in a shell) so that a pipeline under `set -o pipefail` does
 //!   not fail because its last stage stopped reading early. The Rust runtime ignores SIGPIPE,
-//!   so the closed pipe arrives as an error from `write`, which [`print`] records (see
+//!   so the closed pipe arrives as an error from `write`, which [`print()`] records (see
 //!   [`stdout_closed`]); `main` then exits with 0 whatever the command returned.
 //! - **Any other write error** (a full disk, `> /dev/full`, an I/O error) means the output
 //!   is incomplete: one line on standard error naming what could not be written, exit 1.

@@ -11,9 +11,10 @@
 //! **VCT.** The attacker also plays threes, broken threes and closed threes (moves that create a
 //! new four) after which it would win by VCF if the defender passed; a defender four must be
 //! blocked (by any move). At the defender's turn, after a non-four threat, the attacker's VCF
-//! (found by the [`VcfOracle`] as if the defender passed) is the threat to stop; a defender with
-//! a VCF of its own wins at once; the replies searched are the [`defence_candidates`], whose
-//! module argues why no other reply needs trying.
+//! (found by the VCF oracle, `vcf::VcfOracle`, as if the defender passed) is the threat to
+//! stop; a defender with a VCF of its own wins at once; the replies searched are the defence
+//! candidates of `defence::defence_candidates`, whose module argues why no other reply needs
+//! trying.
 
 use super::defence::defence_candidates;
 use super::dfpn::{Node, Space, Watch};
