@@ -24,6 +24,7 @@ use crate::search::{Asking, Budget, Mode, Solver, StopCheck, Verdict};
 use crate::types::Rule;
 use crate::types::Stone;
 use crate::zobrist::splitmix64;
+use rand_chacha::ChaCha8Rng;
 
 /// What to generate.
 #[derive(Clone, Debug, PartialEq, Eq)]
@@ -49,7 +50,8 @@ pub struct Options {
 }
 
 impl Options {
-    /// Plain options: any length, several answers allowed now and then.
+    /// Plain options: any length, several answers allowed, but less often unless the band
+    /// needs them (see `keeps`).
     pub fn new(theme: Theme, rule: Rule, count: usize, rating: (u32, u32), seed: u64) -> Options {
         Options {
             theme,
@@ -266,21 +268,8 @@ fn play_game_while(
                 features,
             }) = found
             {
-                let (lo, hi) = options.rating;
-                // Several correct answers are allowed, but less often: a puzzle with n is
-                // kept with a chance of (m / n)², m being the fewest answers with which it
-                // would still be in the band (1 in a band that reaches its rating with one
-                // answer; more in a band whose puzzles need several). Drawn only for a
-                // puzzle in the band, so that an analysis that refuses early a candidate
-                // the band would refuse leaves the draws as they were.
                 let n = p.first_moves.len() as u32;
-                let keep = (lo..=hi).contains(&p.rating)
-                    && if options.unique {
-                        n == 1
-                    } else {
-                        let m = difficulty::fewest_answers(options.theme, &features, hi);
-                        play::below(&mut rng, n * n) < m * m
-                    };
+                let keep = keeps(options, n, p.rating, &features, &mut rng);
                 if keep {
                     let key = (
                         game.board().canonical_hash(),
@@ -297,6 +286,32 @@ fn play_game_while(
         }
     }
     None
+}
+
+/// Whether a game keeps a puzzle its analysis found: one in the band, with one answer for a
+/// unique-only generation; otherwise with several correct answers allowed, but less often: a
+/// puzzle with n is kept with a chance of (m / n)², m being the fewest answers with which it
+/// would still be in the band (1 when it would rate at most the band's top with one answer,
+/// as every puzzle does in the whole range; more when the band takes it only for its several
+/// answers). One draw for each puzzle in the band, none for the others, so that an analysis
+/// that refuses early a candidate the band would refuse leaves the draws as they were.
+/// `n` is the puzzle's answers, `rating` its rating, and `features` what it was estimated from.
+fn keeps(
+    options: &Options,
+    n: u32,
+    rating: u32,
+    features: &Features,
+    rng: &mut ChaCha8Rng,
+) -> bool {
+    let (lo, hi) = options.rating;
+    if !(lo..=hi).contains(&rating) {
+        return false;
+    }
+    if options.unique {
+        return n == 1;
+    }
+    let m = difficulty::fewest_answers(options.theme, features, hi);
+    play::below(rng, n * n) < m * m
 }
 
 /// The games' results taken in game order: the puzzles kept, without repeats, until the
@@ -933,6 +948,62 @@ mod tests {
 
     fn options(count: usize) -> Options {
         Options::new(Theme::FourThree, Rule::Freestyle, count, (600, 2600), 11)
+    }
+
+    /// The keep rule, on a VCT of two attacker moves with three answers and no tempting move
+    /// (1106; 1225 with two answers, 1410 with one, by the formula in difficulty's module
+    /// comment). The whole range keeps it when one draw below 9 is 0, as the generator always
+    /// did; a band it reaches only with all three answers keeps it every time; one it reaches
+    /// with two keeps it when the draw is below 4 (a chance of (2 / 3)²). Each draws once. A
+    /// unique-only generation refuses it, and a band that does not hold it too, without a draw.
+    #[test]
+    fn the_keep_rule_thins_only_the_answers_a_band_does_not_need() {
+        let f = Features {
+            length: 2,
+            answers: 3,
+            ..Features::default()
+        };
+        assert_eq!(difficulty::rating(Theme::Vct, &f), 1106);
+        let band = |rating| Options {
+            rating,
+            ..Options::new(Theme::Vct, Rule::Freestyle, 12, (600, 2600), 1)
+        };
+        let unique = Options {
+            unique: true,
+            ..band((600, 2600))
+        };
+        // The options, whether the draw keeps the puzzle, and the draws made.
+        type Case = (Options, fn(u32) -> bool, u32);
+        let cases: [Case; 5] = [
+            (band((600, 2600)), |d| d == 0, 1),
+            (band((1100, 1200)), |_| true, 1),
+            (band((1100, 1300)), |d| d < 4, 1),
+            (unique, |_| false, 0),
+            (band((1200, 1500)), |_| false, 0),
+        ];
+        let mut kept = [0; 5];
+        for seed in 0..300 {
+            for (i, (options, want, draws)) in cases.iter().enumerate() {
+                let (mut rng, mut copy) = (play::rng(seed), play::rng(seed));
+                let keep = keeps(options, 3, 1106, &f, &mut rng);
+                let draw = play::below(&mut copy, 9);
+                assert_eq!(keep, want(draw), "case {i}, seed {seed}");
+                kept[i] += usize::from(keep);
+                // The stream goes on from the same place as after `draws` draws.
+                let mut again = play::rng(seed);
+                for _ in 0..*draws {
+                    play::below(&mut again, 9);
+                }
+                assert_eq!(
+                    play::below(&mut rng, 1 << 30),
+                    play::below(&mut again, 1 << 30)
+                );
+            }
+        }
+        assert!(
+            kept[0] > 10 && kept[0] < kept[2] && kept[2] < kept[1],
+            "{kept:?}"
+        );
     }
 
     fn ids(set: &[Puzzle]) -> Vec<String> {
