@@ -93,16 +93,20 @@ pub fn rating(theme: Theme, f: &Features) -> u32 {
 /// rating, if that is at most `top`).
 pub fn fewest_answers(theme: Theme, f: &Features, top: u32) -> u32 {
     let n = f.answers.max(1);
+    let tried = f.tempting + n;
     (1..n)
-        .find(|&k| {
-            let fewer = Features {
-                answers: k,
-                tempting: f.tempting + (n - k),
-                ..*f
-            };
-            rating(theme, &fewer) <= top
-        })
+        .find(|&k| rating(theme, &answering(f, tried, k)) <= top)
         .unwrap_or(n)
+}
+
+/// `known` as the features of a puzzle whose `tried` first moves hold `answers` correct
+/// ones, the others being tempting moves that fail.
+fn answering(known: &Features, tried: u32, answers: u32) -> Features {
+    Features {
+        answers,
+        tempting: tried.saturating_sub(answers),
+        ..*known
+    }
 }
 
 /// Whether a win puzzle with these features could still rate within `band` once its answers
@@ -117,12 +121,7 @@ pub fn may_rate_within(theme: Theme, known: &Features, tried: u32, band: (u32, u
         return true;
     }
     (1..=tried.min(3)).any(|answers| {
-        let f = Features {
-            answers,
-            tempting: tried.saturating_sub(answers),
-            ..*known
-        };
-        (band.0..=band.1).contains(&rating(theme, &f))
+        (band.0..=band.1).contains(&rating(theme, &answering(known, tried, answers)))
     })
 }
 
