@@ -252,12 +252,15 @@ fn play_game_while(
         return play_deep_game(options, solver, game, &mut player, max_stones + 60, go_on);
     }
     let halt = |_: u64| !go_on();
+    let drawn_first = !options.unique && aimed(options.rating).is_some();
     while !game.is_over() && game.board().stones() < max_stones {
         if game.board().stones() >= 8 {
             if !go_on() {
                 return None;
             }
             let (board, to_move, aim) = (game.board(), game.to_move(), Some(options.rating));
+            let draw = drawn_first.then(|| play::below(&mut rng, KEEP_DRAWS));
+            let aim = Aim { band: aim, draw };
             let found = analyse_in(solver, board, to_move, options.theme, aim, Some(&halt));
             // A search that was stopped may have left the analysis short: no result.
             if !go_on() {
@@ -269,7 +272,7 @@ fn play_game_while(
             }) = found
             {
                 let n = p.first_moves.len() as u32;
-                let keep = keeps(options, n, p.rating, &features, &mut rng);
+                let keep = keeps(options, n, p.rating, &features, draw, &mut rng);
                 if keep {
                     let key = (
                         game.board().canonical_hash(),
@@ -293,14 +296,21 @@ fn play_game_while(
 /// puzzle with n is kept with a chance of (m / n)², m being the fewest answers with which it
 /// would still be in the band (1 when it would rate at most the band's top with one answer,
 /// as every puzzle does in the whole range; more when the band takes it only for its several
-/// answers). One draw for each puzzle in the band, none for the others, so that an analysis
-/// that refuses early a candidate the band would refuse leaves the draws as they were.
-/// `n` is the puzzle's answers, `rating` its rating, and `features` what it was estimated from.
+/// answers). `n` is the puzzle's answers, `rating` its rating, and `features` what it was
+/// estimated from.
+///
+/// The chance is drawn in one of two ways. For the whole range, one draw below n² for each
+/// puzzle in the band, none for the others (`draw` is `None`), so that the library's sets
+/// stay as they were made. For a narrower band (and several answers allowed), the game
+/// draws below [`KEEP_DRAWS`] before each position's analysis (`draw`): the analysis can
+/// then stop proving answers once it has more than the draw would keep ([`most_kept`]),
+/// which saves the dearest part of a banded generation.
 fn keeps(
     options: &Options,
     n: u32,
     rating: u32,
     features: &Features,
+    draw: Option<u32>,
     rng: &mut ChaCha8Rng,
 ) -> bool {
     let (lo, hi) = options.rating;
@@ -311,7 +321,39 @@ fn keeps(
         return n == 1;
     }
     let m = difficulty::fewest_answers(options.theme, features, hi);
-    play::below(rng, n * n) < m * m
+    match draw {
+        Some(draw) => kept_with(draw, n, m),
+        None => play::below(rng, n * n) < m * m,
+    }
+}
+
+/// The draws a game makes before analysing a position for a band: 36 is the least common
+/// multiple of 1, 4 and 9, so a draw below it gives every chance (m / n)² of [`keeps`]
+/// exactly.
+pub const KEEP_DRAWS: u32 = 36;
+
+/// Whether a puzzle with `n` answers, in the band with `m`, is kept with the draw `draw`
+/// (below [`KEEP_DRAWS`]): with a chance of (m / n)².
+fn kept_with(draw: u32, n: u32, m: u32) -> bool {
+    draw * n * n < KEEP_DRAWS * m * m
+}
+
+/// The most answers a puzzle can have and still be kept with the draw `draw`, when `known`
+/// are its features other than its answers, `tried` first moves are tried and `top` is the
+/// band's top: 1 to 3 (a puzzle with one answer is always kept; [`kept_with`] keeps fewer
+/// answers more readily, so every count up to this one is kept too).
+fn most_kept(theme: Theme, known: &Features, tried: u32, top: u32, draw: u32) -> usize {
+    (1..=3u32)
+        .rev()
+        .find(|&n| {
+            let f = Features {
+                answers: n,
+                tempting: tried.saturating_sub(n),
+                ..*known
+            };
+            kept_with(draw, n, difficulty::fewest_answers(theme, &f, top))
+        })
+        .unwrap_or(1) as usize
 }
 
 /// The games' results taken in game order: the puzzles kept, without repeats, until the
@@ -577,7 +619,21 @@ const WORKER_STACK: usize = 16 << 20;
 /// makes it (with its proved answers, main line and rating). Every search is asked with
 /// [`Budget::GENERATION`]: a puzzle whose proof needs more is not kept.
 pub fn analyse(solver: &mut Solver, board: &Board, to_move: Stone, theme: Theme) -> Option<Puzzle> {
-    analyse_in(solver, board, to_move, theme, None, None).map(|f| f.puzzle)
+    analyse_in(solver, board, to_move, theme, Aim::default(), None).map(|f| f.puzzle)
+}
+
+/// What an analysis is aimed at: a rating band (`None`: any rating), and the keep draw a
+/// game made before it (see [`keeps`]; `None`: answers are proved up to three).
+#[derive(Clone, Copy, Debug, Default)]
+struct Aim {
+    band: Option<(u32, u32)>,
+    draw: Option<u32>,
+}
+
+/// `band` if it is narrower than every rating the estimate gives.
+fn aimed(band: (u32, u32)) -> Option<(u32, u32)> {
+    let (lo, hi) = band;
+    (lo > difficulty::FLOOR || hi < difficulty::CEILING).then_some(band)
 }
 
 /// A puzzle an analysis made, and the features its rating was estimated from.
@@ -586,18 +642,19 @@ struct Found {
     features: Features,
 }
 
-/// [`analyse`] aimed at a rating band: a win puzzle whose rating cannot fall in `band`,
+/// [`analyse`] aimed at a rating band: a win puzzle whose rating cannot fall in the band,
 /// whatever its answers turn out to be ([`difficulty::may_rate_within`]), is refused before
-/// its answers are proved. `None`, or a band that holds every rating, asks exactly what
+/// its answers are proved. No band, or a band that holds every rating, asks exactly what
 /// [`analyse`] asks (the library's sets of the whole range are made so, byte for byte).
-/// `halt` is polled during every search (see [`Asking::watch`]); once it says stop, the
-/// answer means nothing.
+/// With a keep draw as well, answers are proved only up to the most that draw keeps
+/// ([`most_kept`]): a puzzle with more comes out as none. `halt` is polled during every
+/// search (see [`Asking::watch`]); once it says stop, the answer means nothing.
 fn analyse_in(
     solver: &mut Solver,
     board: &Board,
     to_move: Stone,
     theme: Theme,
-    band: Option<(u32, u32)>,
+    aim: Aim,
     halt: Option<StopCheck>,
 ) -> Option<Found> {
     if !theme.allowed(board.rule()) || board.find_winner().is_some() {
@@ -630,10 +687,13 @@ fn analyse_in(
     if let Some(halt) = halt {
         ask = ask.watch(halt);
     }
-    let band = band.filter(|&(lo, hi)| lo > difficulty::FLOOR || hi < difficulty::CEILING);
+    let aim = Aim {
+        band: aim.band.and_then(aimed),
+        ..aim
+    };
     match theme.goal() {
-        Goal::Win => analyse_win(&mut ask, board, to_move, theme, band),
-        Goal::Defend => analyse_defence(&mut ask, board, to_move, band),
+        Goal::Win => analyse_win(&mut ask, board, to_move, theme, aim),
+        Goal::Defend => analyse_defence(&mut ask, board, to_move, aim),
     }
 }
 
@@ -658,8 +718,9 @@ fn analyse_win(
     board: &Board,
     me: Stone,
     theme: Theme,
-    band: Option<(u32, u32)>,
+    aim: Aim,
 ) -> Option<Found> {
+    let band = aim.band;
     let vcf = ask.solve(board, me, Mode::Vcf);
     let sol = match theme {
         Theme::Vct => {
@@ -713,21 +774,24 @@ fn analyse_win(
         Theme::Vct | Theme::Defend => {}
     }
     // Aimed at a band: what is known before the answers are proved bounds the rating, and
-    // proving them is the dear part.
-    let early = match band {
+    // proving them is the dear part. More than three correct answers make a poor puzzle:
+    // stop counting there, or where the keep draw stops keeping.
+    let (early, most) = match band {
         Some(band) => {
             let known = line_features(ask, board, me, mode, &sol.line);
             let tried = ask.first_move_count(board, me, mode) as u32;
             if !difficulty::may_rate_within(theme, &known, tried, band) {
                 return None;
             }
-            Some(known)
+            let most = aim
+                .draw
+                .map_or(3, |d| most_kept(theme, &known, tried, band.1, d));
+            (Some(known), most)
         }
-        None => None,
+        None => (None, 3),
     };
-    // More than three correct answers make a poor puzzle: stop counting there.
-    let wins = ask.winning_moves_up_to(board, me, mode, 3);
-    if !wins.unknown.is_empty() || wins.proved.is_empty() || wins.proved.len() > 3 {
+    let wins = ask.winning_moves_up_to(board, me, mode, most);
+    if !wins.unknown.is_empty() || wins.proved.is_empty() || wins.proved.len() > most {
         return None;
     }
     let mut first_moves = wins.proved.clone();
@@ -765,12 +829,8 @@ fn line_features(
     }
 }
 
-fn analyse_defence(
-    ask: &mut Asking,
-    board: &Board,
-    me: Stone,
-    band: Option<(u32, u32)>,
-) -> Option<Found> {
+fn analyse_defence(ask: &mut Asking, board: &Board, me: Stone, aim: Aim) -> Option<Found> {
+    let band = aim.band;
     // First the threat (cheap when it is a VCF), then the player's own chances, then the
     // defences, which cost one search per candidate.
     let threat = match ask.threat(board, me, Mode::Vcf) {
@@ -805,18 +865,29 @@ fn analyse_defence(
             return None;
         }
     }
-    // At most three defences, all proved: stop trying as soon as that fails.
-    let within = |tried: usize| {
-        band.is_none_or(|band| {
-            difficulty::may_rate_within(Theme::Defend, &known, tried as u32, band)
-        })
+    // At most three defences (or as many as the keep draw keeps), all proved: stop trying as
+    // soon as that fails.
+    let most = |tried: usize| match band {
+        None => Some(3),
+        Some(band) => {
+            let tried = tried as u32;
+            difficulty::may_rate_within(Theme::Defend, &known, tried, band).then(|| {
+                aim.draw
+                    .map_or(3, |d| most_kept(Theme::Defend, &known, tried, band.1, d))
+            })
+        }
     };
-    let d = ask.defences_up_to(board, me, Mode::Vct, 3, within);
+    let mut limit = 3;
+    let d = ask.defences_up_to(board, me, Mode::Vct, |tried| {
+        let most = most(tried)?;
+        limit = most;
+        Some(most)
+    });
     if d.threat != Verdict::Win || !d.moves.unknown.is_empty() {
         return None;
     }
     let n = d.moves.proved.len();
-    if !(1..=3).contains(&n) {
+    if !(1..=limit).contains(&n) {
         return None;
     }
     let mut first_moves = d.moves.proved.clone();
@@ -985,7 +1056,7 @@ mod tests {
         for seed in 0..300 {
             for (i, (options, want, draws)) in cases.iter().enumerate() {
                 let (mut rng, mut copy) = (play::rng(seed), play::rng(seed));
-                let keep = keeps(options, 3, 1106, &f, &mut rng);
+                let keep = keeps(options, 3, 1106, &f, None, &mut rng);
                 let draw = play::below(&mut copy, 9);
                 assert_eq!(keep, want(draw), "case {i}, seed {seed}");
                 kept[i] += usize::from(keep);
@@ -1004,6 +1075,68 @@ mod tests {
             kept[0] > 10 && kept[0] < kept[2] && kept[2] < kept[1],
             "{kept:?}"
         );
+        // Drawn before the analysis, below 36: the same chances, 4 / 36 = 1 / 9 and
+        // 16 / 36 = (2 / 3)², and the stream is not touched.
+        type Drawn = (Options, fn(u32) -> bool);
+        let drawn: [Drawn; 4] = [
+            (band((600, 2600)), |d| d < 4),
+            (band((1100, 1200)), |_| true),
+            (band((1100, 1300)), |d| d < 16),
+            (band((1200, 1500)), |_| false),
+        ];
+        for (i, (options, want)) in drawn.iter().enumerate() {
+            for draw in 0..KEEP_DRAWS {
+                let (mut rng, mut copy) = (play::rng(7), play::rng(7));
+                let keep = keeps(options, 3, 1106, &f, Some(draw), &mut rng);
+                assert_eq!(keep, want(draw), "drawn case {i}, draw {draw}");
+                assert_eq!(
+                    play::below(&mut rng, 1 << 30),
+                    play::below(&mut copy, 1 << 30)
+                );
+            }
+        }
+    }
+
+    /// The most answers the analysis proves for a draw ([`most_kept`]) is the most
+    /// [`keeps`] would keep: every puzzle with more is refused, and one with that many is
+    /// kept. On the VCT of the keep rule's test (1106 with three answers, 1225 with two, 1410
+    /// with one) and draws either side of each threshold.
+    #[test]
+    fn the_answers_proved_for_a_draw_are_the_most_it_keeps() {
+        let known = Features {
+            length: 2,
+            ..Features::default()
+        };
+        // (band's top, draw, the most kept)
+        let cases = [
+            (1500, 3, 3),
+            (1500, 4, 2),
+            (1500, 8, 2),
+            (1500, 9, 1),
+            (1300, 15, 3),
+            (1300, 16, 2),
+            (1300, 35, 2),
+            (1200, 35, 3),
+        ];
+        for (top, draw, most) in cases {
+            assert_eq!(
+                most_kept(Theme::Vct, &known, 3, top, draw),
+                most,
+                "{top} {draw}"
+            );
+            let options = Options::new(Theme::Vct, Rule::Freestyle, 12, (600, top), 1);
+            for n in 1..=3u32 {
+                let f = Features {
+                    answers: n,
+                    tempting: 3 - n,
+                    ..known
+                };
+                let rating = difficulty::rating(Theme::Vct, &f);
+                let keep = keeps(&options, n, rating, &f, Some(draw), &mut play::rng(1));
+                let want = n as usize <= most && rating <= top;
+                assert_eq!(keep, want, "{top} {draw} {n}");
+            }
+        }
     }
 
     fn ids(set: &[Puzzle]) -> Vec<String> {
@@ -1084,17 +1217,27 @@ mod tests {
             &p.board(),
             p.to_move,
             theme,
-            None,
+            Aim::default(),
             Some(&stop_now),
         );
         assert!(halted.is_none());
-        assert!(analyse_in(&mut solver, &p.board(), p.to_move, theme, None, None).is_some());
+        let again = analyse_in(
+            &mut solver,
+            &p.board(),
+            p.to_move,
+            theme,
+            Aim::default(),
+            None,
+        );
+        assert!(again.is_some());
     }
 
     /// The analyses aimed at each of `bands` and the plain one of every position of the
     /// self-play games of the seeds `games`, each from cleared tables: an aimed one must keep
-    /// what the plain one keeps within its band, the same puzzle. Returns how many plain
-    /// puzzles fell inside a band and how many outside it, summed over the bands.
+    /// what the plain one keeps within its band, the same puzzle; and so must one aimed with
+    /// a keep draw, which proves answers only up to the most the draw keeps ([`most_kept`]).
+    /// Returns how many plain puzzles fell inside a band and how many outside it, summed over
+    /// the bands.
     fn aimed_keeps_what_the_band_would(
         theme: Theme,
         bands: &[(u32, u32)],
@@ -1114,16 +1257,44 @@ mod tests {
             while !game.is_over() && game.board().stones() < 50 {
                 let (b, c) = (game.board().clone(), game.to_move());
                 solver.clear();
-                let plain = analyse_in(&mut solver, &b, c, theme, None, None).map(|f| f.puzzle);
+                let plain = analyse_in(&mut solver, &b, c, theme, Aim::default(), None);
                 for &band in bands {
-                    let within = |p: &Option<Puzzle>| {
-                        p.clone().filter(|p| (band.0..=band.1).contains(&p.rating))
+                    let options = Options::new(theme, Rule::Freestyle, 1, band, 1);
+                    // What the game keeps of an analysis with the draw (none: in the band).
+                    let kept = |found: &Option<Found>, draw: Option<u32>| -> Option<Puzzle> {
+                        let f = found.as_ref()?;
+                        let (p, n) = (&f.puzzle, f.puzzle.first_moves.len() as u32);
+                        let keep = match draw {
+                            None => (band.0..=band.1).contains(&p.rating),
+                            Some(_) => {
+                                keeps(&options, n, p.rating, &f.features, draw, &mut play::rng(1))
+                            }
+                        };
+                        keep.then(|| p.clone())
                     };
-                    solver.clear();
-                    let aimed =
-                        analyse_in(&mut solver, &b, c, theme, Some(band), None).map(|f| f.puzzle);
-                    assert_eq!(within(&aimed), within(&plain), "{band:?} {b:?}");
-                    match within(&plain) {
+                    // A draw changes only how many answers are proved, so it is tried where
+                    // the band holds a puzzle with several: draws that prove up to two
+                    // answers (4, with one needed; 35, with two) and up to one (35).
+                    let several = kept(&plain, None).is_some_and(|p| p.first_moves.len() > 1);
+                    let draws: &[Option<u32>] = if several {
+                        &[None, Some(4), Some(35)]
+                    } else {
+                        &[None]
+                    };
+                    for &draw in draws {
+                        solver.clear();
+                        let aim = Aim {
+                            band: Some(band),
+                            draw,
+                        };
+                        let aimed = analyse_in(&mut solver, &b, c, theme, aim, None);
+                        assert_eq!(
+                            kept(&aimed, draw),
+                            kept(&plain, draw),
+                            "{band:?} {draw:?} {b:?}"
+                        );
+                    }
+                    match kept(&plain, None) {
                         Some(_) => inside += 1,
                         None => outside += u32::from(plain.is_some()),
                     }

@@ -457,7 +457,7 @@ impl<'s, 'w> Asking<'s, 'w> {
     /// first defence proved (`moves.proved` then holds it alone, and `every` says whether the
     /// candidates ran out there); a move whose status is unknown is passed over.
     pub fn first_defence(&mut self, board: &Board, defender: Stone, mode: Mode) -> Defences {
-        self.question(|q| q.defences_impl(board, defender, mode, 0, false, |_| true))
+        self.question(|q| q.defences_impl(board, defender, mode, false, |_| Some(0)))
     }
 
     /// The opponent's forced win if `defender` (to move) passed, as a main line; empty if the
@@ -473,20 +473,20 @@ impl<'s, 'w> Asking<'s, 'w> {
     }
 
     /// [`Asking::defences`] for a caller that only wants positions with few defences, all
-    /// proved: stops as soon as more than `limit` defences are proved or one move's status is
-    /// unknown (then the lists are partial and `moves.tried` counts the moves tried so far).
-    /// Once the candidates are known, and before any is tried, `admit` is told how many there
-    /// are (how many `moves.tried` will count if every one is tried); if it says no, none is
-    /// tried: the lists are empty and `every` is false.
+    /// proved. Once the candidates are known, and before any is tried, `admit` is told how
+    /// many there are (how many `moves.tried` will count if every one is tried) and gives the
+    /// limit: the search stops as soon as more than that many defences are proved or one
+    /// move's status is unknown (then the lists are partial and `moves.tried` counts the moves
+    /// tried so far). If `admit` gives none, no move is tried: the lists are empty and `every`
+    /// is false.
     pub fn defences_up_to(
         &mut self,
         board: &Board,
         defender: Stone,
         mode: Mode,
-        limit: usize,
-        admit: impl FnOnce(usize) -> bool,
+        admit: impl FnOnce(usize) -> Option<usize>,
     ) -> Defences {
-        self.question(|q| q.defences_impl(board, defender, mode, limit, true, admit))
+        self.question(|q| q.defences_impl(board, defender, mode, true, admit))
     }
 
     /// The replies the search considers for the defender (to move) against `attacker`'s
@@ -877,7 +877,7 @@ impl<'s, 'w> Asking<'s, 'w> {
     }
 
     fn defences_q(&mut self, board: &Board, defender: Stone, mode: Mode) -> Defences {
-        self.defences_impl(board, defender, mode, usize::MAX, false, |_| true)
+        self.defences_impl(board, defender, mode, false, |_| Some(usize::MAX))
     }
 
     fn defences_impl(
@@ -885,9 +885,8 @@ impl<'s, 'w> Asking<'s, 'w> {
         board: &Board,
         defender: Stone,
         mode: Mode,
-        limit: usize,
         stop_on_unknown: bool,
-        admit: impl FnOnce(usize) -> bool,
+        admit: impl FnOnce(usize) -> Option<usize>,
     ) -> Defences {
         let attacker = defender.opponent();
         let mut b = board.clone();
@@ -943,10 +942,10 @@ impl<'s, 'w> Asking<'s, 'w> {
                 b.is_empty_at(m as usize) && !std::mem::replace(&mut seen[m as usize], true)
             })
             .count();
-        if !admit(distinct) {
+        let Some(limit) = admit(distinct) else {
             out.every = false;
             return out;
-        }
+        };
         seen.fill(false);
         let depth = self.depth_for(mode);
         let count = cands.len();
