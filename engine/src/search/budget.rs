@@ -58,6 +58,18 @@ impl Budget {
         ..Budget::GENERATION
     };
 
+    /// The defences of a generation aimed at a band with several answers allowed (sets the
+    /// library never holds): a fifth of the generation's total and two fifths of its nodes per
+    /// search. Defences that need more are the dearest questions of such a generation, and
+    /// most of them end undecided, which refuses the position anyway (engine/benches/README.md,
+    /// 2026-12-04: Strong club defence spent 25 of its 62 s on 38 such positions). A puzzle
+    /// whose defences need more is not kept in such a set.
+    pub const AIMED_DEFENCE: Budget = Budget {
+        nodes: 20_000,
+        total: 1_000_000,
+        ..Budget::GENERATION
+    };
+
     /// Re-proving a puzzle (`fivefold verify`, the library tests) and settling a listed answer
     /// that the grading budget could not decide: larger than the generator's, because a fresh
     /// table may need more nodes than the generator's warm one did for the same answer.

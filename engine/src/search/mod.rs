@@ -466,6 +466,17 @@ impl<'s, 'w> Asking<'s, 'w> {
         self.question(|q| q.threat_q(board, defender, mode))
     }
 
+    /// [`Asking::threat`] for a VCT of at most `depth` threats that are not fours: a longer
+    /// one comes out as no win (the deepening stops there, which saves the dearest depths).
+    /// Up to that depth it searches exactly as [`Asking::threat`] does, so a threat it finds
+    /// is the same, with the same line.
+    pub fn threat_within(&mut self, board: &Board, defender: Stone, depth: u16) -> Solution {
+        self.question(|q| {
+            let depth = depth.min(q.depth_for(Mode::Vct));
+            q.solve_within_q(board, defender.opponent(), Mode::Vct, depth)
+        })
+    }
+
     /// Every move for `defender` (to move) after which the opponent has no forced win by
     /// `mode`, counter-fours included when they work.
     pub fn defences(&mut self, board: &Board, defender: Stone, mode: Mode) -> Defences {
@@ -616,8 +627,18 @@ impl<'s, 'w> Asking<'s, 'w> {
     }
 
     fn solve_q(&mut self, board: &Board, to_move: Stone, mode: Mode) -> Solution {
+        self.solve_within_q(board, to_move, mode, self.depth_for(mode))
+    }
+
+    /// [`Self::solve_q`] with lines of at most `depth` (the class's own measure).
+    fn solve_within_q(
+        &mut self,
+        board: &Board,
+        to_move: Stone,
+        mode: Mode,
+        depth: u16,
+    ) -> Solution {
         let mut b = board.clone();
-        let depth = self.depth_for(mode);
         let limit = self.budget.nodes;
         let mut nodes = 0;
         let found = match mode {
