@@ -1294,7 +1294,7 @@ mod tests {
         games: impl IntoIterator<Item = u64>,
     ) -> (u32, u32, u32) {
         let mut solver = Solver::default();
-        let (mut inside, mut outside, mut lost) = (0, 0, 0);
+        let (mut inside, mut outside, mut lost, mut drawn) = (0, 0, 0, 0);
         for seed in games {
             self_play(seed, 50, |b, c| {
                 solver.clear();
@@ -1317,6 +1317,7 @@ mod tests {
                     // the band holds a puzzle with several: draws that prove up to two
                     // answers (4, with one needed; 35, with two) and up to one (35).
                     let several = kept(&plain, None).is_some_and(|p| p.first_moves.len() > 1);
+                    drawn += u32::from(several);
                     let draws: &[Option<u32>] = if several {
                         &[None, Some(4), Some(35)]
                     } else {
@@ -1359,8 +1360,11 @@ mod tests {
             });
         }
         eprintln!(
-            "{theme:?}: {inside} puzzles within {bands:?}, {outside} outside, {lost} lost by sparing"
+            "{theme:?}: {inside} puzzles within {bands:?}, {outside} outside, {lost} lost by \
+             sparing, {drawn} with several answers tried with draws"
         );
+        // The draws are tried only on puzzles with several answers: the games must hold one.
+        assert!(drawn > 0, "no puzzle with several answers in the bands");
         (inside, outside, lost)
     }
 

@@ -467,7 +467,8 @@ impl<'s, 'w> Asking<'s, 'w> {
     }
 
     /// [`Asking::threat`] for a VCT of at most `depth` threats that are not fours: a longer
-    /// one comes out as no win (the deepening stops there, which saves the dearest depths).
+    /// one, or one the budget would have left undecided past that depth, comes out as no win
+    /// (the deepening stops there, which saves the dearest depths).
     /// Up to that depth it searches exactly as [`Asking::threat`] does, so a threat it finds
     /// is the same, with the same line.
     pub fn threat_within(&mut self, board: &Board, defender: Stone, depth: u16) -> Solution {
