@@ -101,7 +101,7 @@ pub fn fewest_answers(theme: Theme, f: &Features, top: u32) -> u32 {
 
 /// `known` as the features of a puzzle whose `tried` first moves hold `answers` correct
 /// ones, the others being tempting moves that fail.
-fn answering(known: &Features, tried: u32, answers: u32) -> Features {
+pub(super) fn answering(known: &Features, tried: u32, answers: u32) -> Features {
     Features {
         answers,
         tempting: tried.saturating_sub(answers),

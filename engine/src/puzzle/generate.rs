@@ -265,10 +265,10 @@ fn play_game_while(
             if !go_on() {
                 return None;
             }
-            let (board, to_move, aim) = (game.board(), game.to_move(), Some(options.rating));
+            let (board, to_move) = (game.board(), game.to_move());
             let draw = drawn_first.then(|| play::below(&mut rng, KEEP_DRAWS));
             let aim = Aim {
-                band: aim,
+                band: Some(options.rating),
                 draw,
                 spare: drawn_first,
             };
@@ -357,11 +357,7 @@ fn most_kept(theme: Theme, known: &Features, tried: u32, top: u32, draw: u32) ->
     (1..=3u32)
         .rev()
         .find(|&n| {
-            let f = Features {
-                answers: n,
-                tempting: tried.saturating_sub(n),
-                ..*known
-            };
+            let f = difficulty::answering(known, tried, n);
             kept_with(draw, n, difficulty::fewest_answers(theme, &f, top))
         })
         .unwrap_or(1) as usize
@@ -901,15 +897,15 @@ fn analyse_defence(ask: &mut Asking, board: &Board, me: Stone, aim: Aim) -> Opti
         }
     };
     let mut limit = 3;
-    let budget = match aim.spare {
-        true => Budget::AIMED_DEFENCE,
-        false => ask.budget(),
+    let budget = if aim.spare {
+        Budget::AIMED_DEFENCE
+    } else {
+        ask.budget()
     };
     let d = ask.with_budget(budget, |ask| {
         ask.defences_up_to(board, me, Mode::Vct, |tried| {
-            let most = most(tried)?;
-            limit = most;
-            Some(most)
+            limit = most(tried)?;
+            Some(limit)
         })
     });
     if d.threat != Verdict::Win || !d.moves.unknown.is_empty() {
@@ -1155,11 +1151,7 @@ mod tests {
             );
             let options = Options::new(Theme::Vct, Rule::Freestyle, 12, (600, top), 1);
             for n in 1..=3u32 {
-                let f = Features {
-                    answers: n,
-                    tempting: 3 - n,
-                    ..known
-                };
+                let f = difficulty::answering(&known, 3, n);
                 let rating = difficulty::rating(Theme::Vct, &f);
                 let keep = keeps(&options, n, rating, &f, Some(draw), &mut play::rng(1));
                 let want = n as usize <= most && rating <= top;
