@@ -24,7 +24,6 @@ use crate::search::{Asking, Budget, Mode, Solver, StopCheck, Verdict};
 use crate::types::Rule;
 use crate::types::Stone;
 use crate::zobrist::splitmix64;
-use rand_chacha::ChaCha8Rng;
 
 /// What to generate.
 #[derive(Clone, Debug, PartialEq, Eq)]
@@ -259,7 +258,10 @@ fn play_game_while(
         return play_deep_game(options, solver, game, &mut player, max_stones + 60, go_on);
     }
     let halt = |_: u64| !go_on();
-    let drawn_first = !options.unique && aimed(options.rating).is_some();
+    // A set with several answers allowed draws its keep chance before each analysis; a
+    // narrower band than the whole range spares searches too.
+    let drawn_first = !options.unique;
+    let spare = drawn_first && aimed(options.rating).is_some();
     while !game.is_over() && game.board().stones() < max_stones {
         if game.board().stones() >= 8 {
             if !go_on() {
@@ -270,7 +272,7 @@ fn play_game_while(
             let aim = Aim {
                 band: Some(options.rating),
                 draw,
-                spare: drawn_first,
+                spare,
             };
             let found = analyse_in(solver, board, to_move, options.theme, aim, Some(&halt));
             // A search that was stopped may have left the analysis short: no result.
@@ -283,7 +285,7 @@ fn play_game_while(
             }) = found
             {
                 let n = p.first_moves.len() as u32;
-                let keep = keeps(options, n, p.rating, &features, draw, &mut rng);
+                let keep = keeps(options, n, p.rating, &features, draw);
                 if keep {
                     let key = (
                         game.board().canonical_hash(),
@@ -310,31 +312,22 @@ fn play_game_while(
 /// answers). `n` is the puzzle's answers, `rating` its rating, and `features` what it was
 /// estimated from.
 ///
-/// The chance is drawn in one of two ways. For the whole range, one draw below n² for each
-/// puzzle in the band, none for the others (`draw` is `None`), so that the library's sets
-/// stay as they were made. For a narrower band (and several answers allowed), the game
-/// draws below [`KEEP_DRAWS`] before each position's analysis (`draw`): the analysis can
-/// then stop proving answers once it has more than the draw would keep ([`most_kept`]),
-/// which saves the dearest part of a banded generation.
-fn keeps(
-    options: &Options,
-    n: u32,
-    rating: u32,
-    features: &Features,
-    draw: Option<u32>,
-    rng: &mut ChaCha8Rng,
-) -> bool {
+/// With several answers allowed, the game draws below [`KEEP_DRAWS`] before each position's
+/// analysis (`draw`; `None` for a unique-only generation, which draws nothing): the analysis
+/// can then stop proving answers once it has more than the draw would keep ([`most_kept`]),
+/// which saves the dearest part of a generation.
+fn keeps(options: &Options, n: u32, rating: u32, features: &Features, draw: Option<u32>) -> bool {
     let (lo, hi) = options.rating;
     if !(lo..=hi).contains(&rating) {
         return false;
     }
-    if options.unique {
-        return n == 1;
-    }
-    let m = difficulty::fewest_answers(options.theme, features, hi);
     match draw {
-        Some(draw) => kept_with(draw, n, m),
-        None => play::below(rng, n * n) < m * m,
+        Some(draw) if !options.unique => kept_with(
+            draw,
+            n,
+            difficulty::fewest_answers(options.theme, features, hi),
+        ),
+        _ => n == 1,
     }
 }
 
@@ -360,6 +353,15 @@ fn most_kept(theme: Theme, known: &Features, tried: u32, top: u32, draw: u32) ->
             let f = difficulty::answering(known, tried, n);
             kept_with(draw, n, difficulty::fewest_answers(theme, &f, top))
         })
+        .unwrap_or(1) as usize
+}
+
+/// [`most_kept`] for a band that holds every rating, where one answer is always in it (m
+/// is 1).
+fn most_kept_anywhere(draw: u32) -> usize {
+    (1..=3u32)
+        .rev()
+        .find(|&n| kept_with(draw, n, 1))
         .unwrap_or(1) as usize
 }
 
@@ -631,12 +633,16 @@ pub fn analyse(solver: &mut Solver, board: &Board, to_move: Stone, theme: Theme)
 
 /// What an analysis is aimed at: a rating band (`None`: any rating), the keep draw a game
 /// made before it (see [`keeps`]; `None`: answers are proved up to three), and whether it may
-/// spare searches, as a banded generation with several answers allowed does (its sets are
-/// never the library's, which stay as they were made): a defence's threat with threes is
-/// then searched only as deep as a kept one may be ([`Asking::threat_within`]: the same
-/// answer, without the dearest depths), and its defences within [`Budget::AIMED_DEFENCE`];
-/// a VCT is searched within [`Budget::AIMED_VCT`] up to a top of [`SPARING_VCT_TOP`]. The
-/// smaller budgets may refuse a puzzle the larger ones keep.
+/// spare searches, as a banded generation with several answers allowed does.
+///
+/// An analysis with a draw is never the library's (its sets are unique-only and stay as
+/// they were made, see [`analyse_in`]), so it may ask less than [`analyse`] asks: a
+/// defence's threat with threes is searched only as deep as a kept one may be
+/// ([`Asking::threat_within`]: the same answer, without the dearest depths). Sparing also
+/// searches the defences within [`Budget::AIMED_DEFENCE`], and a VCT within
+/// [`Budget::AIMED_VCT`] up to a top of [`SPARING_VCT_TOP`]; those smaller budgets may
+/// refuse a puzzle the larger ones keep, which is why the whole range does not spare (its
+/// sets would lose some of their hardest defences).
 #[derive(Clone, Copy, Debug, Default)]
 struct Aim {
     band: Option<(u32, u32)>,
@@ -803,7 +809,7 @@ fn analyse_win(
                 .map_or(3, |d| most_kept(theme, &known, tried, band.1, d));
             (Some(known), most)
         }
-        None => (None, 3),
+        None => (None, aim.draw.map_or(3, most_kept_anywhere)),
     };
     let wins = ask.winning_moves_up_to(board, me, mode, most);
     if !wins.unknown.is_empty() || wins.proved.is_empty() || wins.proved.len() > most {
@@ -856,7 +862,7 @@ fn analyse_defence(ask: &mut Asking, board: &Board, me: Stone, aim: Aim) -> Opti
             if board.stones() < 14 {
                 return None;
             }
-            let t = if aim.spare {
+            let t = if aim.draw.is_some() {
                 ask.threat_within(board, me, 2)
             } else {
                 ask.threat(board, me, Mode::Vct)
@@ -887,7 +893,7 @@ fn analyse_defence(ask: &mut Asking, board: &Board, me: Stone, aim: Aim) -> Opti
     // At most three defences (or as many as the keep draw keeps), all proved: stop trying as
     // soon as that fails.
     let most = |tried: usize| match band {
-        None => Some(3),
+        None => Some(aim.draw.map_or(3, most_kept_anywhere)),
         Some(band) => {
             let tried = tried as u32;
             difficulty::may_rate_within(Theme::Defend, &known, tried, band).then(|| {
@@ -1068,58 +1074,28 @@ mod tests {
             unique: true,
             ..band((600, 2600))
         };
-        // The options, whether the draw keeps the puzzle, and the draws made.
-        type Case = (Options, fn(u32) -> bool, u32);
-        let cases: [Case; 5] = [
-            (band((600, 2600)), |d| d == 0, 1),
-            (band((1100, 1200)), |_| true, 1),
-            (band((1100, 1300)), |d| d < 4, 1),
-            (unique, |_| false, 0),
-            (band((1200, 1500)), |_| false, 0),
+        // Drawn before the analysis, below 36: a puzzle with three answers is kept for
+        // 36 (m / 3)² of the 36 draws, m being the fewest answers the band needs: 1 in the
+        // whole range (4 draws), 2 when it rates 1225 with two answers and the top is 1300
+        // (16), 3 when the top is 1200 (all 36); none when it is out of the band, and none in
+        // a unique-only set, with or without a draw.
+        let cases = [
+            (band((600, 2600)), 4),
+            (band((1100, 1200)), 36),
+            (band((1100, 1300)), 16),
+            (band((1200, 1500)), 0),
+            (unique.clone(), 0),
         ];
-        let mut kept = [0; 5];
-        for seed in 0..300 {
-            for (i, (options, want, draws)) in cases.iter().enumerate() {
-                let (mut rng, mut copy) = (play::rng(seed), play::rng(seed));
-                let keep = keeps(options, 3, 1106, &f, None, &mut rng);
-                let draw = play::below(&mut copy, 9);
-                assert_eq!(keep, want(draw), "case {i}, seed {seed}");
-                kept[i] += usize::from(keep);
-                // The stream goes on from the same place as after `draws` draws.
-                let mut again = play::rng(seed);
-                for _ in 0..*draws {
-                    play::below(&mut again, 9);
-                }
-                assert_eq!(
-                    play::below(&mut rng, 1 << 30),
-                    play::below(&mut again, 1 << 30)
-                );
-            }
+        for (i, (options, want)) in cases.iter().enumerate() {
+            let kept: Vec<u32> = (0..KEEP_DRAWS)
+                .filter(|&draw| keeps(options, 3, 1106, &f, Some(draw)))
+                .collect();
+            // The draws kept are the lowest ones: fewer answers are kept more readily.
+            assert_eq!(kept, (0..*want).collect::<Vec<_>>(), "case {i}");
         }
-        assert!(
-            kept[0] > 10 && kept[0] < kept[2] && kept[2] < kept[1],
-            "{kept:?}"
-        );
-        // Drawn before the analysis, below 36: the same chances, 4 / 36 = 1 / 9 and
-        // 16 / 36 = (2 / 3)², and the stream is not touched.
-        type Drawn = (Options, fn(u32) -> bool);
-        let drawn: [Drawn; 4] = [
-            (band((600, 2600)), |d| d < 4),
-            (band((1100, 1200)), |_| true),
-            (band((1100, 1300)), |d| d < 16),
-            (band((1200, 1500)), |_| false),
-        ];
-        for (i, (options, want)) in drawn.iter().enumerate() {
-            for draw in 0..KEEP_DRAWS {
-                let (mut rng, mut copy) = (play::rng(7), play::rng(7));
-                let keep = keeps(options, 3, 1106, &f, Some(draw), &mut rng);
-                assert_eq!(keep, want(draw), "drawn case {i}, draw {draw}");
-                assert_eq!(
-                    play::below(&mut rng, 1 << 30),
-                    play::below(&mut copy, 1 << 30)
-                );
-            }
-        }
+        assert!(!keeps(&unique, 3, 1106, &f, None));
+        assert!(keeps(&unique, 1, 1410, &f, None));
+        assert!(keeps(&unique, 1, 1410, &f, Some(35)));
     }
 
     /// The most answers the analysis proves for a draw ([`most_kept`]) is the most
@@ -1153,9 +1129,30 @@ mod tests {
             for n in 1..=3u32 {
                 let f = difficulty::answering(&known, 3, n);
                 let rating = difficulty::rating(Theme::Vct, &f);
-                let keep = keeps(&options, n, rating, &f, Some(draw), &mut play::rng(1));
+                let keep = keeps(&options, n, rating, &f, Some(draw));
                 let want = n as usize <= most && rating <= top;
                 assert_eq!(keep, want, "{top} {draw} {n}");
+            }
+        }
+        // The whole range needs one answer: up to three for draws below 4, two below 9.
+        let whole = Options::new(Theme::Vct, Rule::Freestyle, 12, (600, 2600), 1);
+        for draw in 0..KEEP_DRAWS {
+            let most = most_kept_anywhere(draw);
+            assert_eq!(
+                most,
+                [3, 2, 1][usize::from(draw >= 4) + usize::from(draw >= 9)]
+            );
+            assert_eq!(most, most_kept(Theme::Vct, &known, 3, 2600, draw), "{draw}");
+            for n in 1..=3u32 {
+                let f = difficulty::answering(&known, 3, n);
+                let keep = keeps(
+                    &whole,
+                    n,
+                    difficulty::rating(Theme::Vct, &f),
+                    &f,
+                    Some(draw),
+                );
+                assert_eq!(keep, n as usize <= most, "whole range, {draw} {n}");
             }
         }
     }
@@ -1299,9 +1296,7 @@ mod tests {
                         let (p, n) = (&f.puzzle, f.puzzle.first_moves.len() as u32);
                         let keep = match draw {
                             None => (band.0..=band.1).contains(&p.rating),
-                            Some(_) => {
-                                keeps(&options, n, p.rating, &f.features, draw, &mut play::rng(1))
-                            }
+                            Some(_) => keeps(&options, n, p.rating, &f.features, draw),
                         };
                         keep.then(|| p.clone())
                     };
