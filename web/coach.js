@@ -309,11 +309,18 @@ export class Coach {
     this.renderPuzzles();
   }
 
-  /** Says where the chosen themes' puzzles usually rate, and warns when the band misses. */
+  /** Says where the chosen themes' puzzles usually rate (the library's, which have one
+   * correct answer each), and warns when the band misses that range. A set may hold puzzles
+   * with two or three correct answers, which rate lower (difficulty.rs: 160 less for two, 254
+   * for three), so a band below the range is still reached, by those alone: rarer, so slower,
+   * and sometimes not at all (measured: Club threes-and-fours sets are made in about 10 s;
+   * Starting-out ones come out empty). Several answers never rate higher, so a band above the
+   * range finds few or none. */
   renderBandNote() {
     const s = this.current();
     const band = COACH_BANDS.find((b) => b.name === s.band);
     const notes = [];
+    let warn = false;
     for (const t of s.themes) {
       let r;
       try {
@@ -322,11 +329,18 @@ export class Coach {
         continue;
       }
       const label = this.themeList.find((x) => x.name === t)?.label ?? t;
-      const miss = r[1] < band.lo || r[0] > band.hi;
-      notes.push(`${label}: usually ${r[0]} to ${r[1]}${miss ? ' (outside this band: few or none will be found)' : ''}.`);
+      if (r[1] < band.lo) {
+        notes.push(`${label}: usually ${r[0]} to ${r[1]}, below this band: few or none will be found.`);
+      } else if (r[0] > band.hi) {
+        notes.push(`${label}: usually ${r[0]} to ${r[1]} with one correct answer. At this level only puzzles with two or three are found: making them takes longer, and the set may come out short.`);
+      } else {
+        notes.push(`${label}: usually ${r[0]} to ${r[1]}.`);
+        continue;
+      }
+      warn = true;
     }
     $('coach-band-note').textContent = notes.join(' ');
-    $('coach-band-note').dataset.kind = notes.some((n) => n.includes('outside')) ? 'warn' : '';
+    $('coach-band-note').dataset.kind = warn ? 'warn' : '';
   }
 
   renderPuzzles() {

@@ -374,6 +374,50 @@ test('a set of two themes made on four workers is the set one worker makes, and 
   await ctx.close();
 });
 
+test('the band note says where each theme rates, and what a band below that finds', async () => {
+  const { page, context: ctx, errors } = await open(env.browser, env.server.url, SMALL_PHONE);
+  await goTo(page, 'coach');
+  if (await page.isVisible('#coach-back')) await page.click('#coach-back');
+  await page.click('#coach-new');
+  await page.selectOption('#coach-rule', 'freestyle');
+  const note = async (band, theme) => {
+    await page.selectOption('#coach-band', band);
+    await page.check(`#coach-theme-list input[value="${theme}"]`);
+    for (const other of await page.$$eval('#coach-theme-list input:checked', (l) => l.map((i) => i.value))) {
+      if (other !== theme) await page.uncheck(`#coach-theme-list input[value="${other}"]`);
+    }
+    return page.$eval('#coach-band-note', (n) => ({ text: n.textContent, kind: n.dataset.kind }));
+  };
+  // The ranges are the library's (one correct answer each): threes and fours rate 1650 and up.
+  const { lo, hi } = await page.evaluate(async () => {
+    const { COACH_BANDS } = await import('./coach-data.js');
+    return COACH_BANDS.find((b) => b.name === 'club');
+  });
+  const any = await note('any', 'vct');
+  assert.match(any.text, /^Win with threes and fours: usually (\d+) to (\d+)\.$/, any.text);
+  assert.equal(any.kind, '');
+  const [, from] = any.text.match(/usually (\d+)/);
+  assert.ok(Number(from) > hi, `the library's threes and fours start above the Club band (${from})`);
+  // Below the range: only puzzles with two or three answers fit, and the note says so; a
+  // Club set is made, and each of its puzzles has two or three correct answers.
+  const club = await note('club', 'vct');
+  assert.match(club.text, /with one correct answer\. At this level only puzzles with two or three are found/);
+  assert.equal(club.kind, 'warn');
+  await page.$eval('#coach-band-note', (n) => n.scrollIntoView({ block: 'center' }));
+  await artefact(page, 'coach-band-note-phone');
+  const { set } = await makeSet(page, { title: 'Harbour Street: club threats', theme: 'vct', count: 2, seed: 11, band: 'club', keep: true, timeout: 180000 });
+  for (const p of set.puzzles) {
+    assert.ok(p.rating >= lo && p.rating <= hi, `rating ${p.rating}`);
+    assert.ok([2, 3].includes(p.solution.first_moves.length), `${p.id}: ${p.solution.first_moves}`);
+  }
+  // Above the range: several answers only rate lower, so few or none will be found.
+  const strong = await note('strong', 'four-three');
+  assert.match(strong.text, /^Four-three: usually \d+ to \d+, below this band: few or none will be found\.$/, strong.text);
+  assert.equal(strong.kind, 'warn');
+  assert.deepEqual(errors, []);
+  await ctx.close();
+});
+
 test('the printed sheet: diagrams, goals and answer boxes, the answer key on a page of its own', async () => {
   const { page, context, errors } = await open(env.browser, env.server.url);
   const { set } = await makeSet(page, { title: 'Harbour Street: <b>sheet</b>', theme: 'vcf', count: 5, seed: 7 });
