@@ -741,6 +741,10 @@ fn analyse_win(
     aim: Aim,
 ) -> Option<Found> {
     let band = aim.band;
+    // The forbidden-point themes' conditions on the board and the side before any search.
+    if !forbidden_theme_may_hold(board, me, theme) {
+        return None;
+    }
     let vcf = ask.solve(board, me, Mode::Vcf);
     let sol = match theme {
         Theme::Vct => {
@@ -783,12 +787,12 @@ fn analyse_win(
             }
         }
         Theme::ForbiddenTrap => {
-            if me != Stone::White || depth < 1 || !ends_on_forbidden_point(board, &sol.line) {
+            if depth < 1 || !ends_on_forbidden_point(board, &sol.line) {
                 return None;
             }
         }
         Theme::ForbiddenWin => {
-            if me != Stone::Black || depth < 2 || !has_forbidden_four(board) {
+            if depth < 2 {
                 return None;
             }
         }
@@ -1035,6 +1039,17 @@ fn ends_on_forbidden_point(board: &Board, line: &[Point]) -> bool {
     rest.last().is_some_and(|&last| last != five) && b.forbidden(five).is_some()
 }
 
+/// What a forbidden-point theme asks of the position before its line is known: a trap is
+/// White's, and a win past forbidden points is Black's with a four point that is forbidden.
+/// Every other theme: true.
+fn forbidden_theme_may_hold(board: &Board, me: Stone, theme: Theme) -> bool {
+    match theme {
+        Theme::ForbiddenTrap => me == Stone::White,
+        Theme::ForbiddenWin => me == Stone::Black && has_forbidden_four(board),
+        _ => true,
+    }
+}
+
 /// Whether black has a four point that is forbidden (a tempting move black may not play).
 fn has_forbidden_four(board: &Board) -> bool {
     let mut b = board.clone();
@@ -1054,10 +1069,10 @@ mod tests {
 
     /// The keep rule, on a VCT of two attacker moves with three answers and no tempting move
     /// (1106; 1225 with two answers, 1410 with one, by the formula in difficulty's module
-    /// comment). The whole range keeps it when one draw below 9 is 0, as the generator always
-    /// did; a band it reaches only with all three answers keeps it every time; one it reaches
-    /// with two keeps it when the draw is below 4 (a chance of (2 / 3)²). Each draws once. A
-    /// unique-only generation refuses it, and a band that does not hold it too, without a draw.
+    /// comment), over every draw below [`KEEP_DRAWS`]: the whole range keeps it with a chance
+    /// of (1 / 3)²; a band it reaches only with all three answers, every time; one it reaches
+    /// with two, with a chance of (2 / 3)². A unique-only generation refuses it, with a draw
+    /// or without, and so does a band that does not hold it.
     #[test]
     fn the_keep_rule_thins_only_the_answers_a_band_does_not_need() {
         let f = Features {
