@@ -313,9 +313,9 @@ export class Coach {
    * correct answer each), and warns when the band misses that range. A set may hold puzzles
    * with two or three correct answers, which rate lower (difficulty.rs: 160 less for two, 254
    * for three), so a band below the range is still reached, by those alone: rarer, so slower,
-   * and sometimes not at all (measured: Club threes-and-fours sets are made in about 10 s;
-   * Starting-out ones come out empty). Several answers never rate higher, so a band above the
-   * range finds few or none. */
+   * and sometimes not at all (benchmark notes, 2026-12-04: Club threes-and-fours sets are made
+   * in about 10 s, Starting-out ones come out empty). Several answers never rate higher, so a
+   * band above the range finds few or none. */
   renderBandNote() {
     const s = this.current();
     const band = COACH_BANDS.find((b) => b.name === s.band);
@@ -332,7 +332,7 @@ export class Coach {
       if (r[1] < band.lo) {
         notes.push(`${label}: usually ${r[0]} to ${r[1]}, below this band: few or none will be found.`);
       } else if (r[0] > band.hi) {
-        notes.push(`${label}: usually ${r[0]} to ${r[1]} with one correct answer. At this level only puzzles with two or three are found: making them takes longer, and the set may come out short.`);
+        notes.push(`${label}: usually ${r[0]} to ${r[1]} with one correct answer. At this level only puzzles with two or three are found: they are rarer, so making them takes longer, and the set may come out short or empty.`);
       } else {
         notes.push(`${label}: usually ${r[0]} to ${r[1]}.`);
         continue;

@@ -277,14 +277,21 @@ fn no_failures(failures: &[String], what: &str) {
     );
 }
 
-/// The options of the fixture that the browser test regenerates too.
+/// The options of the fixture that the browser test regenerates too. The seed is one whose
+/// first puzzle has three correct answers, so that the tests reading the fixture (answer
+/// keys in words, key checks, result codes) meet a key of several moves.
 pub fn fixture_options() -> Options {
-    Options::new(Theme::FourThree, Rule::Renju, 3, (600, 2600), 2026)
+    Options::new(Theme::FourThree, Rule::Renju, 3, (600, 2600), 2027)
 }
 
 #[test]
 fn the_fixture_set_is_what_the_generator_makes() {
     let puzzles = generate::generate(&fixture_options(), |_| {}).unwrap();
+    // Several answers are allowed (not `unique`), and the set holds such a puzzle.
+    assert!(
+        puzzles.iter().any(|p| p.first_moves.len() > 1),
+        "no puzzle with several answers"
+    );
     let json = setfile::to_json(&PuzzleSet {
         title: "Fixture: native and WebAssembly must agree".into(),
         created: "2026-12-01".into(),

@@ -760,7 +760,7 @@ fn generation_in_the_browser_matches_the_native_fixture() {
         "size": 15,
         "ratingLo": 600,
         "ratingHi": 2600,
-        "seed": 2026,
+        "seed": 2027,
         "count": 3,
     });
     let options = js_sys::JSON::parse(&options.to_string()).unwrap();
