@@ -3,8 +3,8 @@
 //!
 //!     cargo bench -p fivefold-engine --bench puzzles
 //!
-//! Generation: a fixed number of puzzles per theme from a fixed seed, timed whole (verified
-//! puzzles per second, on one core). Grading: for every puzzle of `puzzles/*.json`, a fresh
+//! Generation: a fixed number of puzzles per theme from each of four fixed seeds, at the
+//! default options, timed whole (verified puzzles per second, on one core). Grading: for every puzzle of `puzzles/*.json`, a fresh
 //! session plays the stored main line (every player move is graded and the reply chosen), then
 //! a retry plays one wrong move; every `Session::play` call is timed, with the app's grading
 //! settings (`grade::solver_config`). The grades are checked
@@ -32,28 +32,41 @@ fn pct(sorted: &[Duration], p: f64) -> f64 {
 fn main() {
     let only = std::env::var("FIVEFOLD_ONLY").unwrap_or_default();
     if only.is_empty() || only == "generate" {
-        println!("generation (puzzles per second, one core):");
+        // Four seeds per theme: the games of one seed vary too much for a few puzzles to
+        // say much.
+        let seeds = [83, 84, 85, 86];
+        println!(
+            "generation (puzzles per second, one core; seeds {seeds:?}, the whole range, \
+             several answers allowed):"
+        );
         let plan = [
-            (Theme::FourThree, Rule::Freestyle, 20),
-            (Theme::Vcf, Rule::Freestyle, 20),
-            (Theme::Vct, Rule::Freestyle, 6),
-            (Theme::Defend, Rule::Freestyle, 6),
-            (Theme::ForbiddenTrap, Rule::Renju, 6),
-            (Theme::ForbiddenWin, Rule::Renju, 6),
+            (Theme::FourThree, Rule::Freestyle, 100),
+            (Theme::Vcf, Rule::Freestyle, 100),
+            (Theme::Vct, Rule::Freestyle, 20),
+            (Theme::Defend, Rule::Freestyle, 20),
+            (Theme::ForbiddenTrap, Rule::Renju, 40),
+            (Theme::ForbiddenWin, Rule::Renju, 20),
         ];
         for (theme, rule, count) in plan {
-            let options = Options::new(theme, rule, count, (600, 2600), 77);
-            let start = Instant::now();
-            let set = generate::generate(&options, |_| {}).expect("generation succeeds");
-            let t = start.elapsed().as_secs_f64();
-            assert_eq!(set.len(), count);
+            let mut times = Vec::new();
+            for seed in seeds {
+                let options = Options::new(theme, rule, count, (600, 2600), seed);
+                let start = Instant::now();
+                let set = generate::generate(&options, |_| {}).expect("generation succeeds");
+                times.push(start.elapsed().as_secs_f64());
+                assert_eq!(set.len(), count);
+            }
+            let total: f64 = times.iter().sum();
+            let each: Vec<String> = times.iter().map(|t| format!("{t:.2}")).collect();
             println!(
-                "  {:<15} {:<9} {:>3} puzzles in {:>7.2} s: {:>7.2} per second",
+                "  {:<15} {:<9} {:>3} puzzles x {} seeds in {:>7.2} s ({} s): {:>7.2} per second",
                 theme.name(),
                 rule.name(),
                 count,
-                t,
-                count as f64 / t
+                seeds.len(),
+                total,
+                each.join(" / "),
+                (count * seeds.len()) as f64 / total
             );
         }
     }
