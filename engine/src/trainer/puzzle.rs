@@ -706,6 +706,10 @@ mod tests {
     fn after_a_failure_the_solution_is_shown_slowly_and_the_failure_stays() {
         let p = fixture().into_iter().next().unwrap();
         let line = p.line.clone();
+        let side = match p.to_move {
+            Stone::Black => "Black",
+            Stone::White => "White",
+        };
         let mut b = PuzzleBoard::new(p, true);
         let mut s = solver();
         assert_eq!(b.show_solution(), 0, "nothing to show before a failure");
@@ -718,7 +722,7 @@ mod tests {
             said.push(r.say);
         }
         assert_eq!(b.status().moves, line);
-        assert_eq!(said[0], format!("1. Black {}.", line[0]));
+        assert_eq!(said[0], format!("1. {side} {}.", line[0]));
         assert!(said.last().unwrap().ends_with("the end of the solution."));
         assert_eq!(b.play(&mut s, line[0]).kind, AnswerKind::Finished);
         assert_eq!(
