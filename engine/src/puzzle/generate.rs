@@ -353,21 +353,23 @@ fn kept_with(draw: u32, n: u32, m: u32) -> bool {
 /// band's top: 1 to 3 (a puzzle with one answer is always kept; [`kept_with`] keeps fewer
 /// answers more readily, so every count up to this one is kept too).
 fn most_kept(theme: Theme, known: &Features, tried: u32, top: u32, draw: u32) -> usize {
-    (1..=3u32)
-        .rev()
-        .find(|&n| {
-            let f = difficulty::answering(known, tried, n);
-            kept_with(draw, n, difficulty::fewest_answers(theme, &f, top))
-        })
-        .unwrap_or(1) as usize
+    most_kept_by(draw, |n| {
+        difficulty::fewest_answers(theme, &difficulty::answering(known, tried, n), top)
+    })
 }
 
 /// [`most_kept`] for a band that holds every rating, where one answer is always in it (m
 /// is 1).
 fn most_kept_anywhere(draw: u32) -> usize {
+    most_kept_by(draw, |_| 1)
+}
+
+/// The most answers, 1 to 3, that [`kept_with`] keeps with the draw, `fewest(n)` being the
+/// m of a puzzle with n answers.
+fn most_kept_by(draw: u32, fewest: impl Fn(u32) -> u32) -> usize {
     (1..=3u32)
         .rev()
-        .find(|&n| kept_with(draw, n, 1))
+        .find(|&n| kept_with(draw, n, fewest(n)))
         .unwrap_or(1) as usize
 }
 
@@ -656,6 +658,14 @@ struct Aim {
     spare: bool,
 }
 
+impl Aim {
+    /// The most answers (or defences) proved when no band narrows the analysis: three, or
+    /// as many as the draw keeps.
+    fn most_anywhere(self) -> usize {
+        self.draw.map_or(3, most_kept_anywhere)
+    }
+}
+
 /// `band` if it is narrower than every rating the estimate gives.
 fn aimed(band: (u32, u32)) -> Option<(u32, u32)> {
     let (lo, hi) = band;
@@ -702,13 +712,14 @@ fn analyse_in(
     if !counts_fit {
         return None;
     }
-    // A cheap necessary condition before any search: the side that would win must have a
-    // point to start from.
+    // Cheap necessary conditions before any search: the side that would win must have a
+    // point to start from, and a forbidden-point theme needs its side (and Black's
+    // forbidden four).
     let attacker = match theme.goal() {
         Goal::Win => to_move,
         Goal::Defend => them,
     };
-    if !can_start(board, attacker, theme) {
+    if !can_start(board, attacker, theme) || !forbidden_theme_may_hold(board, to_move, theme) {
         return None;
     }
     let mut ask = solver.ask(Budget::GENERATION);
@@ -749,10 +760,6 @@ fn analyse_win(
     aim: Aim,
 ) -> Option<Found> {
     let band = aim.band;
-    // The forbidden-point themes' conditions on the board and the side before any search.
-    if !forbidden_theme_may_hold(board, me, theme) {
-        return None;
-    }
     let vcf = ask.solve(board, me, Mode::Vcf);
     let sol = match theme {
         Theme::Vct => {
@@ -821,7 +828,7 @@ fn analyse_win(
                 .map_or(3, |d| most_kept(theme, &known, tried, band.1, d));
             (Some(known), most)
         }
-        None => (None, aim.draw.map_or(3, most_kept_anywhere)),
+        None => (None, aim.most_anywhere()),
     };
     let wins = ask.winning_moves_up_to(board, me, mode, most);
     if !wins.unknown.is_empty() || wins.proved.is_empty() || wins.proved.len() > most {
@@ -905,7 +912,7 @@ fn analyse_defence(ask: &mut Asking, board: &Board, me: Stone, aim: Aim) -> Opti
     // At most three defences (or as many as the keep draw keeps), all proved: stop trying as
     // soon as that fails.
     let most = |tried: usize| match band {
-        None => Some(aim.draw.map_or(3, most_kept_anywhere)),
+        None => Some(aim.most_anywhere()),
         Some(band) => {
             let tried = tried as u32;
             difficulty::may_rate_within(Theme::Defend, &known, tried, band).then(|| {
