@@ -329,15 +329,14 @@ export class Coach {
         continue;
       }
       const label = this.themeList.find((x) => x.name === t)?.label ?? t;
-      if (r[1] < band.lo) {
-        notes.push(`${label}: usually ${r[0]} to ${r[1]}, below this band: few or none will be found.`);
-      } else if (r[0] > band.hi) {
-        notes.push(`${label}: usually ${r[0]} to ${r[1]} with one correct answer. At this level only puzzles with two or three are found: they are rarer, so making them takes longer, and the set may come out short or empty.`);
-      } else {
-        notes.push(`${label}: usually ${r[0]} to ${r[1]}.`);
-        continue;
-      }
-      warn = true;
+      const rangeBelow = r[1] < band.lo;
+      const rangeAbove = r[0] > band.hi;
+      warn ||= rangeBelow || rangeAbove;
+      notes.push(rangeBelow
+        ? `${label}: usually ${r[0]} to ${r[1]}, below this band: few or none will be found.`
+        : rangeAbove
+          ? `${label}: usually ${r[0]} to ${r[1]} with one correct answer. At this level only puzzles with two or three are found: they are rarer, so making them takes longer, and the set may come out short or empty.`
+          : `${label}: usually ${r[0]} to ${r[1]}.`);
     }
     $('coach-band-note').textContent = notes.join(' ');
     $('coach-band-note').dataset.kind = warn ? 'warn' : '';
