@@ -314,8 +314,9 @@ export class Coach {
    * with two or three correct answers, which rate lower (difficulty.rs: 160 less for two, 254
    * for three), so a band below the range is still reached, by those alone: rarer, so slower,
    * and sometimes not at all (benchmark notes, 2026-12-04: Club threes-and-fours sets are made
-   * in about 10 s, Starting-out ones come out empty). Several answers never rate higher, so a
-   * band above the range finds few or none. */
+   * in about 10 s, Starting-out ones come out empty, and in a set of several themes such a
+   * theme is left out: see generate). Several answers never rate higher, so a band above the
+   * range finds few or none. */
   renderBandNote() {
     const s = this.current();
     const band = COACH_BANDS.find((b) => b.name === s.band);
@@ -335,7 +336,7 @@ export class Coach {
       notes.push(rangeBelow
         ? `${label}: usually ${r[0]} to ${r[1]}, below this band: few or none will be found.`
         : rangeAbove
-          ? `${label}: usually ${r[0]} to ${r[1]} with one correct answer. At this level only puzzles with two or three are found: they are rarer, so making them takes longer, and the set may come out short or empty.`
+          ? `${label}: usually ${r[0]} to ${r[1]} with one correct answer. At this level only puzzles with two or three are found: they are rarer, so making them takes longer, and ${s.themes.length > 1 ? 'a theme that gives none is left out of the set' : 'the set may come out short or empty'}.`
           : `${label}: usually ${r[0]} to ${r[1]}.`);
     }
     $('coach-band-note').textContent = notes.join(' ');
@@ -431,7 +432,7 @@ export class Coach {
             return false;
           }
           if (taken >= limit) {
-            failed = new Error(exhausted);
+            failed = Object.assign(new Error(exhausted), { code: 'not-enough' });
             return false;
           }
           return true;
@@ -480,8 +481,17 @@ export class Coach {
    * the set's puzzle number i (from 0): by default the recipe's, its themes taken in turn.
    * Seeds are tried in order, s.next on, one puzzle per seed; the workers make the next few
    * at once and their puzzles are taken in seed order (web/lanes.js), so the set is the same
-   * whatever the number of workers. */
-  async generate(s, count, done, kindAt = (i) => ({ theme: s.themes[i % s.themes.length], rule: s.rule, size: s.size })) {
+   * whatever the number of workers. A recipe theme whose seed gives no puzzle at the band (its
+   * games run out: threes and fours at Starting out) is left out for the rest of this making,
+   * while another theme remains, and the set is filled with the others. */
+  async generate(s, count, done, kindAt = null) {
+    const left = new Set();
+    const recipe = !kindAt;
+    const themes = () => s.themes.filter((t) => !left.has(t));
+    kindAt ??= (i) => {
+      const t = themes();
+      return { theme: t[i % t.length], rule: s.rule, size: s.size };
+    };
     const lanes = this.workers();
     // `workers`: how many make puzzles at once; `cancelled`: set by Cancel, after which no
     // puzzle is started (not even one made again for its right theme).
@@ -508,7 +518,13 @@ export class Coach {
         },
         take: (index, kind, outcome) => {
           if (outcome.error) {
-            if (!(outcome.error instanceof Cancelled)) problem = outcome.error.message;
+            if (outcome.error instanceof Cancelled) return false;
+            if (recipe && outcome.error.code === 'not-enough' && themes().length > 1) {
+              left.add(kind.theme);
+              s.next = index + 1;
+              return true;
+            }
+            problem = outcome.error.message;
             return false;
           }
           const p = outcome.value;
@@ -542,10 +558,14 @@ export class Coach {
     this.save();
     const secs = Math.round((performance.now() - making.started) / 1000);
     $('coach').dataset.made = String(s.puzzles.length);
-    const said = problem
+    const outcome = problem
       ? `Made ${making.made} of ${count} puzzles; then it stopped: ${problem}.`
       : making.made < count ? `Stopped: made ${making.made} of ${count} puzzles; they are kept.` : `Made ${count} ${count === 1 ? 'puzzle' : 'puzzles'} in ${secs ? `${secs} s` : 'under a second'}.`;
-    banner(said, { kind: problem ? 'warn' : 'info', id: 'coach' });
+    const labels = [...left].map((t) => this.themeList.find((x) => x.name === t)?.label ?? t);
+    const said = labels.length
+      ? `${outcome} ${labels.join(' and ')}: no puzzle at this difficulty within the games tried, so ${labels.length === 1 ? 'that theme was' : 'those themes were'} left out.`
+      : outcome;
+    banner(said, { kind: problem || labels.length ? 'warn' : 'info', id: 'coach' });
     announce(said);
     this.render();
     if (!problem && done) done();

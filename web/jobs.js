@@ -30,7 +30,7 @@ export class Jobs {
         return;
       }
       this.waiting.delete(m.id);
-      if ('error' in m) job.fail(new Error(m.error));
+      if ('error' in m) job.fail(Object.assign(new Error(m.error), { code: m.code ?? null }));
       else job.ok(m.result);
       if (m.fatal) {
         // The worker's engine is broken: the other jobs fail too, and the next starts afresh.

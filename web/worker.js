@@ -11,7 +11,8 @@
 // - {id, type: "review", query}: a game's task, checked move by move with progress {checked,
 //   total, move}, or its puzzles, or a finding's defences (query.task);
 // - {id, type: "memory"}: the engine's linear memory in bytes, for web/tools/measure-drill.mjs.
-// Messages out: {id, progress}, {id, result} or {id, error, fatal}.
+// Messages out: {id, progress}, {id, result} or {id, error, code, fatal} (code "not-enough" when a
+// generation's games ran out before enough puzzles were found, else null).
 
 import init, { checkGame, generateSet, gradeMove, playGame, provePuzzle, solvePosition } from './workshop/fivefold_web.js';
 
@@ -62,6 +63,9 @@ self.onmessage = async (event) => {
     // A trap (a panic, or memory running out) leaves the module unusable: say so, so that the
     // page starts a fresh worker for the next job.
     const fatal = e instanceof WebAssembly.RuntimeError;
-    self.postMessage({ id: m.id, error: String(e?.message ?? e), fatal });
+    // A generation whose games ran out before enough puzzles were found (generateSet's
+    // `NotEnough`) is told apart, so that Coach can leave that theme out and go on.
+    const code = e?.name === 'NotEnough' ? 'not-enough' : null;
+    self.postMessage({ id: m.id, error: String(e?.message ?? e), code, fatal });
   }
 };

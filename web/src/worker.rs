@@ -125,6 +125,9 @@ fn one() -> usize {
 /// ratingLo, ratingHi, seed, count, minMoves, unique}` (the last two optional); returns
 /// set-file JSON. The same options give the same set here and natively. `progress`, if given,
 /// is called after every self-play game with the puzzles kept and the games played so far.
+/// When the games run out before enough puzzles are found, the error thrown is an `Error`
+/// named `NotEnough` (so that Coach can tell a theme that gives nothing at a band from a
+/// failure); any other problem is thrown as its message.
 #[wasm_bindgen(js_name = generateSet)]
 pub fn generate_set(
     options: JsValue,
@@ -141,7 +144,10 @@ pub fn generate_set(
             );
         }
     })
-    .map_err(err)?;
+    .map_err(|e| match e {
+        generate::GenerateError::NotEnough { .. } => not_enough(&e.to_string()),
+        _ => err(e),
+    })?;
     Ok(setfile::to_json(&setfile::PuzzleSet {
         title: format!("Drill: {}", words::theme(theme)),
         created: today(),
@@ -149,6 +155,16 @@ pub fn generate_set(
         generator: None,
     }))
 }
+
+/// The error of a generation whose games ran out first: an `Error` named `NotEnough`.
+fn not_enough(message: &str) -> JsValue {
+    let e = js_sys::Error::new(message);
+    e.set_name(NOT_ENOUGH);
+    e.into()
+}
+
+/// The name of [`not_enough`]'s error (worker.js passes it on as the job error's `code`).
+const NOT_ENOUGH: &str = "NotEnough";
 
 /// The options of `generateSet` and `playGame`, checked.
 fn generate_options(options: JsValue) -> Result<Options, JsValue> {
