@@ -483,7 +483,10 @@ export class Coach {
    * at once and their puzzles are taken in seed order (web/lanes.js), so the set is the same
    * whatever the number of workers. A recipe theme whose seed gives no puzzle at the band (its
    * games run out: threes and fours at Starting out) is left out for the rest of this making,
-   * while another theme remains, and the set is filled with the others. */
+   * while another theme remains, and the set is filled with the others; the making stops when
+   * none remains. A task started ahead with a theme since left out runs on to its own end
+   * (up to its game limit) before it is made again with the right theme: time lost, not a
+   * different set. */
   async generate(s, count, done, kindAt = null) {
     const left = new Set();
     const recipe = !kindAt;
@@ -502,6 +505,8 @@ export class Coach {
     this.renderBusy();
     let misses = 0;
     let problem = null;
+    // Whether every theme of the recipe ran out of games at the band (the making stopped).
+    let exhausted = false;
     try {
       await inOrder({
         lanes: lanes.length,
@@ -519,10 +524,14 @@ export class Coach {
         take: (index, kind, outcome) => {
           if (outcome.error) {
             if (outcome.error instanceof Cancelled) return false;
-            if (recipe && outcome.error.code === 'not-enough' && themes().length > 1) {
+            if (recipe && outcome.error.code === 'not-enough') {
               left.add(kind.theme);
-              s.next = index + 1;
-              return true;
+              if (themes().length) {
+                s.next = index + 1;
+                return true;
+              }
+              exhausted = true;
+              return false;
             }
             problem = outcome.error.message;
             return false;
@@ -558,14 +567,15 @@ export class Coach {
     this.save();
     const secs = Math.round((performance.now() - making.started) / 1000);
     $('coach').dataset.made = String(s.puzzles.length);
+    const quoted = [...left].map((t) => `“${this.themeList.find((x) => x.name === t)?.label ?? t}”`).join(' and ');
+    if (exhausted) problem = `no puzzle of ${quoted} came at this difficulty within the games tried; choose another difficulty`;
     const outcome = problem
       ? `Made ${making.made} of ${count} puzzles; then it stopped: ${problem}.`
       : making.made < count ? `Stopped: made ${making.made} of ${count} puzzles; they are kept.` : `Made ${count} ${count === 1 ? 'puzzle' : 'puzzles'} in ${secs ? `${secs} s` : 'under a second'}.`;
-    const labels = [...left].map((t) => this.themeList.find((x) => x.name === t)?.label ?? t);
-    const said = labels.length
-      ? `${outcome} ${labels.join(' and ')}: no puzzle at this difficulty within the games tried, so ${labels.length === 1 ? 'that theme was' : 'those themes were'} left out.`
+    const said = left.size && !exhausted
+      ? `${outcome} ${quoted} gave no puzzle at this difficulty within the games tried, so ${left.size === 1 ? 'it was' : 'they were'} left out.`
       : outcome;
-    banner(said, { kind: problem || labels.length ? 'warn' : 'info', id: 'coach' });
+    banner(said, { kind: problem || left.size ? 'warn' : 'info', id: 'coach' });
     announce(said);
     this.render();
     if (!problem && done) done();
