@@ -7,7 +7,7 @@
 
 import { setKey, themes } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
-import { Cancelled, Jobs } from './jobs.js';
+import { Cancelled, Jobs, NOT_ENOUGH } from './jobs.js';
 import { inOrder } from './lanes.js';
 import { loadScanner, loadWorkshop } from './platform.js';
 import { save } from './store.js';
@@ -329,7 +329,7 @@ export class Coach {
       } catch {
         continue;
       }
-      const label = this.themeList.find((x) => x.name === t)?.label ?? t;
+      const label = this.themeLabel(t);
       const rangeBelow = r[1] < band.lo;
       const rangeAbove = r[0] > band.hi;
       warn ||= rangeBelow || rangeAbove;
@@ -341,6 +341,11 @@ export class Coach {
     }
     $('coach-band-note').textContent = notes.join(' ');
     $('coach-band-note').dataset.kind = warn ? 'warn' : '';
+  }
+
+  /** A theme's name as the theme list shows it. */
+  themeLabel(theme) {
+    return this.themeList.find((x) => x.name === theme)?.label ?? theme;
   }
 
   renderPuzzles() {
@@ -432,7 +437,7 @@ export class Coach {
             return false;
           }
           if (taken >= limit) {
-            failed = Object.assign(new Error(exhausted), { code: 'not-enough' });
+            failed = Object.assign(new Error(exhausted), { code: NOT_ENOUGH });
             return false;
           }
           return true;
@@ -505,8 +510,6 @@ export class Coach {
     this.renderBusy();
     let misses = 0;
     let problem = null;
-    // Whether every theme of the recipe ran out of games at the band (the making stopped).
-    let exhausted = false;
     try {
       await inOrder({
         lanes: lanes.length,
@@ -524,14 +527,11 @@ export class Coach {
         take: (index, kind, outcome) => {
           if (outcome.error) {
             if (outcome.error instanceof Cancelled) return false;
-            if (recipe && outcome.error.code === 'not-enough') {
+            if (recipe && outcome.error.code === NOT_ENOUGH) {
               left.add(kind.theme);
-              if (themes().length) {
-                s.next = index + 1;
-                return true;
-              }
-              exhausted = true;
-              return false;
+              if (!themes().length) return false;
+              s.next = index + 1;
+              return true;
             }
             problem = outcome.error.message;
             return false;
@@ -567,7 +567,9 @@ export class Coach {
     this.save();
     const secs = Math.round((performance.now() - making.started) / 1000);
     $('coach').dataset.made = String(s.puzzles.length);
-    const quoted = [...left].map((t) => `“${this.themeList.find((x) => x.name === t)?.label ?? t}”`).join(' and ');
+    // Every theme of the recipe ran out of games at the band: the making stopped.
+    const exhausted = left.size > 0 && !themes().length;
+    const quoted = [...left].map((t) => `“${this.themeLabel(t)}”`).join(' and ');
     if (exhausted) problem = `no puzzle of ${quoted} came at this difficulty within the games tried; choose another difficulty`;
     const outcome = problem
       ? `Made ${making.made} of ${count} puzzles; then it stopped: ${problem}.`

@@ -4,6 +4,10 @@
 
 import { makeWorker } from './platform.js';
 
+/** The `code` of a job's error when a generation's games ran out before enough puzzles were
+ * found (worker.js sets it from generateSet's `NotEnough`); other errors have none (null). */
+export const NOT_ENOUGH = 'not-enough';
+
 export class Cancelled extends Error {
   constructor() {
     super('cancelled');
