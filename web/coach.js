@@ -316,12 +316,13 @@ export class Coach {
    * and sometimes not at all (benchmark notes, 2026-12-04: Club threes-and-fours sets are made
    * in about 10 s, Starting-out ones come out empty, and in a set of several themes such a
    * theme is left out: see generate). Several answers never rate higher, so a band above the
-   * range finds few or none. */
+   * range finds few or none (and in a set of several themes, that theme is left out too). */
   renderBandNote() {
     const s = this.current();
     const band = COACH_BANDS.find((b) => b.name === s.band);
     const notes = [];
     let warn = false;
+    const noneFound = s.themes.length > 1 ? 'a theme that gives none is left out of the set' : 'the set may come out short or empty';
     for (const t of s.themes) {
       let r;
       try {
@@ -334,9 +335,9 @@ export class Coach {
       const rangeAbove = r[0] > band.hi;
       warn ||= rangeBelow || rangeAbove;
       notes.push(rangeBelow
-        ? `${label}: usually ${r[0]} to ${r[1]}, below this band: few or none will be found.`
+        ? `${label}: usually ${r[0]} to ${r[1]}, below this band: few or none will be found${s.themes.length > 1 ? `, and ${noneFound}` : ''}.`
         : rangeAbove
-          ? `${label}: usually ${r[0]} to ${r[1]} with one correct answer. At this level only puzzles with two or three are found: they are rarer, so making them takes longer, and ${s.themes.length > 1 ? 'a theme that gives none is left out of the set' : 'the set may come out short or empty'}.`
+          ? `${label}: usually ${r[0]} to ${r[1]} with one correct answer. At this level only puzzles with two or three are found: they are rarer, so making them takes longer, and ${noneFound}.`
           : `${label}: usually ${r[0]} to ${r[1]}.`);
     }
     $('coach-band-note').textContent = notes.join(' ');

@@ -380,11 +380,11 @@ test('the band note says where each theme rates, and what a band below that find
   if (await page.isVisible('#coach-back')) await page.click('#coach-back');
   await page.click('#coach-new');
   await page.selectOption('#coach-rule', 'freestyle');
-  const note = async (band, theme) => {
+  const note = async (band, ...themes) => {
     await page.selectOption('#coach-band', band);
-    await page.check(`#coach-theme-list input[value="${theme}"]`);
+    for (const theme of themes) await page.check(`#coach-theme-list input[value="${theme}"]`);
     for (const other of await page.$$eval('#coach-theme-list input:checked', (l) => l.map((i) => i.value))) {
-      if (other !== theme) await page.uncheck(`#coach-theme-list input[value="${other}"]`);
+      if (!themes.includes(other)) await page.uncheck(`#coach-theme-list input[value="${other}"]`);
     }
     return page.$eval('#coach-band-note', (n) => ({ text: n.textContent, kind: n.dataset.kind }));
   };
@@ -414,6 +414,11 @@ test('the band note says where each theme rates, and what a band below that find
   const strong = await note('strong', 'four-three');
   assert.match(strong.text, /^Four-three: usually \d+ to \d+, below this band: few or none will be found\.$/, strong.text);
   assert.equal(strong.kind, 'warn');
+  // In a set of several themes, such a theme is left out when it gives none (as one below its
+  // range is); the other theme's note is plain.
+  const mixed = await note('strong', 'four-three', 'vct');
+  assert.match(mixed.text, /^Four-three: usually \d+ to \d+, below this band: few or none will be found, and a theme that gives none is left out of the set\. Win with threes and fours: usually \d+ to \d+\.$/, mixed.text);
+  assert.equal(mixed.kind, 'warn');
   assert.deepEqual(errors, []);
   await ctx.close();
 });
