@@ -344,6 +344,31 @@ export class Coach {
     $('coach-band-note').dataset.kind = warn ? 'warn' : '';
   }
 
+  /** How many seeds in a row may give no puzzle of `theme` at the set's band before the theme
+   * is left out (or, alone, stops the making). A seed that gives none is passed over and the
+   * next is tried for the same place. Measured with the command line, five seeds each, one
+   * puzzle, Coach's options (engine/benches/README.md, 2026-12-04, 15:10):
+   * - where the library's range of the theme lies below the band, no seed gave one (four-three
+   *   at Strong club and Expert: 0 of 20), and several answers only rate lower: one try;
+   * - threes and fours, defences, and the deep lines of Expert cost 15 to 35 s a try that
+   *   gives none, and miss rarely but sometimes (fours at Expert: 1 of 5 missed; threes and
+   *   fours at Starting out: 5 of 5 missed in freestyle, 2 of 5 in renju): two tries;
+   * - the others give up within a second, and some seeds miss where most give one (a
+   *   four-three at Club: 1 of 5; a forbidden trap at Expert: 3 of 5; a forbidden win at
+   *   Starting out: 2 of 5): eight tries. */
+  triesFor(s, theme) {
+    const band = COACH_BANDS.find((b) => b.name === s.band) ?? COACH_BANDS[0];
+    let r = null;
+    try {
+      r = this.ws.themeRatings(theme, s.rule);
+    } catch {
+      // No range known: judged by the cost of a try alone.
+    }
+    if (r && r[1] < band.lo) return 1;
+    const dear = theme === 'vct' || theme === 'defend' || (band.name === 'expert' && COACH_DEEP_MOVES[theme]);
+    return dear ? 2 : 8;
+  }
+
   /** A theme's name as the theme list shows it. */
   themeLabel(theme) {
     return this.themeList.find((x) => x.name === theme)?.label ?? theme;
@@ -487,14 +512,20 @@ export class Coach {
    * the set's puzzle number i (from 0): by default the recipe's, its themes taken in turn.
    * Seeds are tried in order, s.next on, one puzzle per seed; the workers make the next few
    * at once and their puzzles are taken in seed order (web/lanes.js), so the set is the same
-   * whatever the number of workers. A recipe theme whose seed gives no puzzle at the band (its
-   * games run out: threes and fours at Starting out) is left out for the rest of this making,
-   * while another theme remains, and the set is filled with the others; the making stops when
-   * none remains. A task started ahead with a theme since left out runs on to its own end
-   * (up to its game limit) before it is made again with the right theme: time lost, not a
+   * whatever the number of workers. A seed that gives no puzzle at the band (its games run
+   * out) is passed over and the next seed is tried for the same place. A recipe theme whose
+   * seeds give none triesFor times in a row (threes and fours at Starting out, at once) is left
+   * out for the rest of this making, while another theme remains, and the set is filled with
+   * the others; the making stops when none remains (for a kind given by `kindAt`, when its tries are used up).
+   * A task started ahead with another kind than its place turns out to need runs on to its own
+   * end (up to its game limit) before it is made again with the right kind: time lost, not a
    * different set. */
   async generate(s, count, done, kindAt = null) {
     const left = new Set();
+    // Per theme: its seeds in a row that gave none (reset when one gives a puzzle).
+    const dry = new Map();
+    // Per theme: its seeds passed over in this making.
+    const skipped = new Map();
     const recipe = !kindAt;
     const themes = () => s.themes.filter((t) => !left.has(t));
     kindAt ??= (i) => {
@@ -528,17 +559,29 @@ export class Coach {
         take: (index, kind, outcome) => {
           if (outcome.error) {
             if (outcome.error instanceof Cancelled) return false;
-            if (recipe && outcome.error.code === NOT_ENOUGH) {
-              left.add(kind.theme);
-              if (!themes().length) return false;
+            if (outcome.error.code === NOT_ENOUGH) {
+              // The seed is passed over: the next one is tried for the same place, until the
+              // theme has used up its tries in a row.
               s.next = index + 1;
-              return true;
+              const n = (dry.get(kind.theme) ?? 0) + 1;
+              dry.set(kind.theme, n);
+              if (n < this.triesFor(s, kind.theme)) {
+                skipped.set(kind.theme, (skipped.get(kind.theme) ?? 0) + 1);
+                return true;
+              }
+              if (!recipe) {
+                problem = outcome.error.message;
+                return false;
+              }
+              left.add(kind.theme);
+              return themes().length > 0;
             }
             problem = outcome.error.message;
             return false;
           }
           const p = outcome.value;
           s.next = index + 1;
+          dry.delete(kind.theme);
           // The same position from another seed is made once only.
           if (s.puzzles.some((q) => q.id === p.id)) {
             if (++misses > 20) {
@@ -575,9 +618,14 @@ export class Coach {
     const outcome = problem
       ? `Made ${making.made} of ${count} puzzles; then it stopped: ${problem}.`
       : making.made < count ? `Stopped: made ${making.made} of ${count} puzzles; they are kept.` : `Made ${count} ${count === 1 ? 'puzzle' : 'puzzles'} in ${secs ? `${secs} s` : 'under a second'}.`;
+    // The tries passed over for the themes that stayed (a theme left out is said so instead).
+    const over = [...skipped].reduce((sum, [t, n]) => sum + (left.has(t) ? 0 : n), 0);
+    const passed = over && !exhausted
+      ? ` ${over} ${over === 1 ? 'try' : 'tries'} gave no puzzle at this difficulty and ${over === 1 ? 'was' : 'were'} passed over.`
+      : '';
     const said = left.size && !exhausted
-      ? `${outcome} ${quoted} gave no puzzle at this difficulty within the games tried, so ${left.size === 1 ? 'it was' : 'they were'} left out.`
-      : outcome;
+      ? `${outcome}${passed} ${quoted} gave no puzzle at this difficulty within the games tried, so ${left.size === 1 ? 'it was' : 'they were'} left out.`
+      : `${outcome}${passed}`;
     banner(said, { kind: problem || left.size ? 'warn' : 'info', id: 'coach' });
     announce(said);
     this.render();
