@@ -21,6 +21,8 @@ const newCoachSeed = () => 100000 + (randomSeed() % 900000);
 const coachToday = () => new Date().toISOString().slice(0, 10);
 
 const bandWords = (b) => `${b.words}, ${b.lo} to ${b.hi}`;
+// How many seeds in a row gave no puzzle, in words.
+const fromSeeds = (n) => (n === 1 ? 'from its seed' : `from ${n} seeds in a row`);
 
 /** The address a link is built on: the one set in Coach, else the page's own when it is
  * served over http(s); null from a file with none set. */
@@ -322,7 +324,7 @@ export class Coach {
     const band = COACH_BANDS.find((b) => b.name === s.band);
     const notes = [];
     let warn = false;
-    const noneFound = s.themes.length > 1 ? 'a theme that gives none is left out of the set' : 'the set may come out short or empty';
+    const noneFound = s.themes.length > 1 ? 'a theme that keeps giving none is left out of the rest of the set' : 'the set may come out short or empty';
     for (const t of s.themes) {
       let r;
       try {
@@ -344,29 +346,32 @@ export class Coach {
     $('coach-band-note').dataset.kind = warn ? 'warn' : '';
   }
 
-  /** How many seeds in a row may give no puzzle of `theme` at the set's band before the theme
-   * is left out (or, alone, stops the making). A seed that gives none is passed over and the
-   * next is tried for the same place. Measured with the command line, five seeds each, one
-   * puzzle, Coach's options (engine/benches/README.md, 2026-12-04, 15:10):
+  /** How many seeds in a row may give no puzzle of a kind's theme (under its rule) at the set's
+   * band before the theme is left out (or, alone, stops the making). A seed that gives none
+   * is passed over and the next is tried for the same place. Measured with the command line,
+   * five seeds each, one puzzle, Coach's options (engine/benches/README.md, 2026-12-04, 15:05
+   * to 15:35):
    * - where the library's range of the theme lies below the band, no seed gave one (four-three
    *   at Strong club and Expert: 0 of 20), and several answers only rate lower: one try;
-   * - threes and fours, defences, and the deep lines of Expert cost 15 to 35 s a try that
-   *   gives none, and miss rarely but sometimes (fours at Expert: 1 of 5 missed; threes and
-   *   fours at Starting out: 5 of 5 missed in freestyle, 2 of 5 in renju): two tries;
-   * - the others give up within a second, and some seeds miss where most give one (a
-   *   four-three at Club: 1 of 5; a forbidden trap at Expert: 3 of 5; a forbidden win at
-   *   Starting out: 2 of 5): eight tries. */
-  triesFor(s, theme) {
+   * - threes and fours and defences take 15 to 25 s to give none, and Expert's deep lines up
+   *   to 35 s (Expert fours: 1 of 5 missed; threes and fours at Starting out: 5 of 5 missed in
+   *   freestyle, 2 of 5 in renju; defences missed none of 40): two tries;
+   * - the others give none within a second, and some seeds miss where others give one (a
+   *   four-three at Club: 1 of 5; a forbidden trap at Expert: 11 of 15; a forbidden win at
+   *   Starting out: 5 of 15): sixteen tries, after which a forbidden trap at Expert is still
+   *   left out 0.7 % of the times, at a cost of about 11 s here where a theme gives none at
+   *   all (a forbidden win at Expert: 0 of 15). */
+  triesFor(s, { theme, rule }) {
     const band = COACH_BANDS.find((b) => b.name === s.band) ?? COACH_BANDS[0];
     let r = null;
     try {
-      r = this.ws.themeRatings(theme, s.rule);
+      r = this.ws.themeRatings(theme, rule);
     } catch {
       // No range known: judged by the cost of a try alone.
     }
     if (r && r[1] < band.lo) return 1;
     const dear = theme === 'vct' || theme === 'defend' || (band.name === 'expert' && COACH_DEEP_MOVES[theme]);
-    return dear ? 2 : 8;
+    return dear ? 2 : 16;
   }
 
   /** A theme's name as the theme list shows it. */
@@ -514,15 +519,15 @@ export class Coach {
    * at once and their puzzles are taken in seed order (web/lanes.js), so the set is the same
    * whatever the number of workers. A seed that gives no puzzle at the band (its games run
    * out) is passed over and the next seed is tried for the same place. A recipe theme whose
-   * seeds give none triesFor times in a row (threes and fours at Starting out, at once) is left
+   * seeds give none triesFor times in a row (threes and fours at Starting out: two) is left
    * out for the rest of this making, while another theme remains, and the set is filled with
-   * the others; the making stops when none remains (for a kind given by `kindAt`, when its tries are used up).
-   * A task started ahead with another kind than its place turns out to need runs on to its own
-   * end (up to its game limit) before it is made again with the right kind: time lost, not a
-   * different set. */
+   * the others; the making stops when none remains (for a kind given by `kindAt`, when its
+   * tries are used up). A puzzle started ahead with another kind than its place turns out to
+   * need is stopped and made again with the right kind (lanes.js `abandon`). */
   async generate(s, count, done, kindAt = null) {
-    const left = new Set();
-    // Per theme: its seeds in a row that gave none (reset when one gives a puzzle).
+    // The themes left out, each with the seeds in a row that gave none.
+    const left = new Map();
+    // Per theme: its seeds in a row that gave none (reset when one gives a puzzle kept).
     const dry = new Map();
     // Per theme: its seeds passed over in this making.
     const skipped = new Map();
@@ -565,15 +570,17 @@ export class Coach {
               s.next = index + 1;
               const n = (dry.get(kind.theme) ?? 0) + 1;
               dry.set(kind.theme, n);
-              if (n < this.triesFor(s, kind.theme)) {
+              if (n < this.triesFor(s, kind)) {
                 skipped.set(kind.theme, (skipped.get(kind.theme) ?? 0) + 1);
                 return true;
               }
+              // This run of seeds is said as a whole, not as seeds passed over.
+              skipped.set(kind.theme, (skipped.get(kind.theme) ?? 0) - (n - 1));
               if (!recipe) {
-                problem = outcome.error.message;
+                problem = `no puzzle like it came at this difficulty ${fromSeeds(n)}`;
                 return false;
               }
-              left.add(kind.theme);
+              left.set(kind.theme, n);
               return themes().length > 0;
             }
             problem = outcome.error.message;
@@ -581,8 +588,8 @@ export class Coach {
           }
           const p = outcome.value;
           s.next = index + 1;
-          dry.delete(kind.theme);
-          // The same position from another seed is made once only.
+          // The same position from another seed is made once only (and does not end a run of
+          // seeds that gave none).
           if (s.puzzles.some((q) => q.id === p.id)) {
             if (++misses > 20) {
               problem = 'the same puzzles keep coming back; try another band or seed';
@@ -590,6 +597,7 @@ export class Coach {
             }
             return true;
           }
+          dry.delete(kind.theme);
           s.puzzles.push(p);
           making.made++;
           this.save();
@@ -599,6 +607,10 @@ export class Coach {
           return making.made < count && s.puzzles.length < COACH_MAX_PUZZLES;
         },
         wanted: () => (making.cancelled ? 0 : Math.min(count - making.made, COACH_MAX_PUZZLES - s.puzzles.length)),
+        // A puzzle started ahead whose kind has turned out wrong (a seed before it gave none,
+        // or a repeat) is stopped at once, its worker started afresh, and made again with the
+        // right kind. (One puzzle spread over the workers is never started ahead.)
+        abandon: (lane) => lanes[lane].cancel(),
       });
     } finally {
       clearInterval(tick);
@@ -613,19 +625,24 @@ export class Coach {
     $('coach').dataset.made = String(s.puzzles.length);
     // Every theme of the recipe ran out of games at the band: the making stopped.
     const exhausted = left.size > 0 && !themes().length;
-    const quoted = [...left].map((t) => `“${this.themeLabel(t)}”`).join(' and ');
-    if (exhausted) problem = `no puzzle of ${quoted} came at this difficulty within the games tried; choose another difficulty`;
+    const quoted = (t) => `“${this.themeLabel(t)}”`;
+    if (exhausted) {
+      const each = [...left].map(([t, n]) => `${quoted(t)}: none ${fromSeeds(n)}`).join(', ');
+      problem = `no puzzle came at this difficulty (${each}); choose another difficulty`;
+    }
+    const puzzles = count === 1 ? 'puzzle' : 'puzzles';
     const outcome = problem
-      ? `Made ${making.made} of ${count} puzzles; then it stopped: ${problem}.`
-      : making.made < count ? `Stopped: made ${making.made} of ${count} puzzles; they are kept.` : `Made ${count} ${count === 1 ? 'puzzle' : 'puzzles'} in ${secs ? `${secs} s` : 'under a second'}.`;
-    // The tries passed over for the themes that stayed (a theme left out is said so instead).
-    const over = [...skipped].reduce((sum, [t, n]) => sum + (left.has(t) ? 0 : n), 0);
-    const passed = over && !exhausted
-      ? ` ${over} ${over === 1 ? 'try' : 'tries'} gave no puzzle at this difficulty and ${over === 1 ? 'was' : 'were'} passed over.`
+      ? `Made ${making.made} of ${count} ${puzzles}; then it stopped: ${problem}.`
+      : making.made < count ? `Stopped: made ${making.made} of ${count} ${puzzles}; they are kept.` : `Made ${count} ${puzzles} in ${secs ? `${secs} s` : 'under a second'}.`;
+    // The seeds passed over for the themes that stayed (a theme left out is said so instead).
+    const over = [...skipped.values()].reduce((sum, n) => sum + n, 0);
+    const passed = over && !problem
+      ? ` ${over} ${over === 1 ? 'seed' : 'seeds'} gave no puzzle at this difficulty and ${over === 1 ? 'was' : 'were'} passed over.`
       : '';
-    const said = left.size && !exhausted
-      ? `${outcome}${passed} ${quoted} gave no puzzle at this difficulty within the games tried, so ${left.size === 1 ? 'it was' : 'they were'} left out.`
-      : `${outcome}${passed}`;
+    const leftOut = exhausted
+      ? ''
+      : [...left].map(([t, n]) => ` ${quoted(t)} gave no puzzle at this difficulty ${fromSeeds(n)}, so it was left out of the rest of the set.`).join('');
+    const said = `${outcome}${passed}${leftOut}`;
     banner(said, { kind: problem || left.size ? 'warn' : 'info', id: 'coach' });
     announce(said);
     this.render();

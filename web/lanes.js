@@ -6,7 +6,10 @@
 // recipe's theme for the set's next place, and a puzzle made twice takes no place). A task
 // started ahead of its turn is given the input it would have if every task before it were
 // kept; when its turn comes, its input is asked again, and if it differs the task is run
-// again with the right one. No DOM here: web/e2e/lanes.test.mjs runs it under node.
+// again with the right one. A caller that can stop a running task early says how (`abandon`):
+// then a task whose guess is seen to be wrong while it runs, after a result before it was
+// taken, is stopped at once and started again. No DOM here: web/e2e/lanes.test.mjs runs it
+// under node.
 
 /**
  * Runs tasks `first`, `first + 1`, ... on `lanes` lanes and takes their results in order.
@@ -18,14 +21,17 @@
  * - `take(n, input, outcome)`: called in number order, with `{ value }` or `{ error }`;
  *   returns whether more tasks are wanted;
  * - `wanted()`: how many more results are still wanted if every task taken so far counts;
- *   no more tasks are started ahead than that.
+ *   no more tasks are started ahead than that;
+ * - `abandon(lane, n)` (optional): stops task n running on `lane`, whose input has turned out
+ *   wrong; its promise should settle soon. Whatever it settles with is never taken: the task
+ *   is started again, with the input it now needs, as soon as a lane is free.
  * Resolves once `take` has said no (or nothing more is wanted), rejects if `input`, `take` or
  * `wanted` throws. Lanes may still be running tasks started ahead then: their results will
  * never be taken, and the caller stops them. To cancel a run, make `wanted()` say 0 and
  * `work` reject at once, then stop the running tasks: a task whose input turns out wrong is
  * run again before its outcome is taken, and that run must not start real work.
  */
-export function inOrder({ lanes, first, input, same = sameJson, work, take, wanted }) {
+export function inOrder({ lanes, first, input, same = sameJson, work, take, wanted, abandon = null }) {
   return new Promise((resolve, reject) => {
     let next = first; // the next task to start
     let due = first; // the next task to take
@@ -34,6 +40,8 @@ export function inOrder({ lanes, first, input, same = sameJson, work, take, want
     const done = new Map(); // task -> { used, outcome }
     const idle = Array.from({ length: Math.max(1, lanes) }, (_, i) => i).reverse();
     const busy = new Set();
+    const running = new Map(); // task -> { lane, used, abandoned }
+    const redo = []; // abandoned tasks to start again, in increasing order
 
     const stop = () => {
       stopped = true;
@@ -51,6 +59,7 @@ export function inOrder({ lanes, first, input, same = sameJson, work, take, want
         again = false;
         return due;
       }
+      if (redo.length && redo[0] - due < wanted()) return redo.shift();
       if (next - due >= wanted()) return null;
       return next++;
     };
@@ -71,11 +80,22 @@ export function inOrder({ lanes, first, input, same = sameJson, work, take, want
           return;
         }
       }
+      // Tasks running ahead whose guess the results taken have proved wrong are stopped.
+      if (abandon) {
+        for (const [n, r] of running) {
+          if (!r.abandoned && !same(r.used, input(n, n - due))) {
+            r.abandoned = true;
+            abandon(r.lane, n);
+          }
+        }
+      }
       while (idle.length) {
         const n = claim();
         if (n === null) break;
         const lane = idle.pop();
         const used = input(n, n - due);
+        const run = { lane, used, abandoned: false };
+        running.set(n, run);
         busy.add(lane);
         Promise.resolve()
           .then(() => work(lane, n, used))
@@ -83,7 +103,13 @@ export function inOrder({ lanes, first, input, same = sameJson, work, take, want
           .then((outcome) => {
             busy.delete(lane);
             idle.push(lane);
-            done.set(n, { used, outcome });
+            running.delete(n);
+            if (run.abandoned) {
+              redo.push(n);
+              redo.sort((a, b) => a - b);
+            } else {
+              done.set(n, { used, outcome });
+            }
             pump();
           })
           .catch(fail);

@@ -64,7 +64,7 @@ self.onmessage = async (event) => {
     // page starts a fresh worker for the next job.
     const fatal = e instanceof WebAssembly.RuntimeError;
     // A generation whose games ran out before enough puzzles were found (generateSet's
-    // `NotEnough`) is told apart, so that Coach can leave that theme out and go on (the code is
+    // `NotEnough`) is told apart, so that Coach can pass that seed over and go on (the code is
     // jobs.js's NOT_ENOUGH; this worker does not import jobs.js, which starts workers).
     const code = e?.name === 'NotEnough' ? 'not-enough' : null;
     self.postMessage({ id: m.id, error: String(e?.message ?? e), code, fatal });

@@ -11,11 +11,13 @@ import { inOrder } from '../lanes.js';
  * the first item kept, which takes no place); themes are taken in turn by place. A task's
  * result depends on its number and input only, as a puzzle does on its seed and kind.
  * Returns what was taken, in order. */
-async function make({ lanes, count, themes, delays, failAt = -1 }) {
+async function make({ lanes, count, themes, delays, failAt = -1, abandonable = false }) {
   const kept = [];
   const log = [];
   const started = new Set();
   const runs = new Map();
+  const stops = new Map(); // lane -> stops its task at once
+  const abandoned = [];
   let running = 0;
   let most = 0;
   const themeAt = (place) => themes[place % themes.length];
@@ -28,11 +30,25 @@ async function make({ lanes, count, themes, delays, failAt = -1 }) {
       most = Math.max(most, running);
       started.add(n);
       runs.set(n, (runs.get(n) ?? 0) + 1);
-      await new Promise((ok) => setTimeout(ok, delays(n, lane)));
+      const stopped = await new Promise((ok) => {
+        const timer = setTimeout(() => ok(false), delays(n, lane));
+        stops.set(lane, () => {
+          clearTimeout(timer);
+          ok(true);
+        });
+      });
+      stops.delete(lane);
       running--;
+      if (stopped) throw new Error(`task ${n} stopped`);
       if (n === failAt) throw new Error(`task ${n} failed`);
       return item(n, theme, themes);
     },
+    abandon: abandonable
+      ? (lane, n) => {
+        abandoned.push(n);
+        stops.get(lane)();
+      }
+      : null,
     take: (n, theme, outcome) => {
       if (outcome.error) {
         log.push(`error ${n}`);
@@ -44,7 +60,7 @@ async function make({ lanes, count, themes, delays, failAt = -1 }) {
     },
     wanted: () => count - kept.length,
   });
-  return { kept, log, most, left: running, started, runs };
+  return { kept, log, most, left: running, started, runs, abandoned };
 }
 
 function item(n, theme, themes) {
@@ -75,9 +91,11 @@ for (const [name, delays] of Object.entries(ORDERS)) {
     for (const themes of [['a'], ['a', 'b', 'c']]) {
       const want = oneByOne(9, themes);
       for (const lanes of [1, 2, 3, 4]) {
-        const { kept, most } = await make({ lanes, count: 9, themes, delays });
-        assert.deepEqual(kept, want, `${lanes} lanes, themes ${themes}`);
-        assert.ok(most <= lanes, `at most ${lanes} tasks at once, saw ${most}`);
+        for (const abandonable of [false, true]) {
+          const { kept, most } = await make({ lanes, count: 9, themes, delays, abandonable });
+          assert.deepEqual(kept, want, `${lanes} lanes, themes ${themes}, abandon ${abandonable}`);
+          assert.ok(most <= lanes, `at most ${lanes} tasks at once, saw ${most}`);
+        }
       }
     }
   });
@@ -90,6 +108,17 @@ test('a task run ahead with a theme that turned out wrong is run again with the 
   assert.deepEqual(log, ['10 a:10', '11 a:10', '12 b:12', '13 a:13']);
   assert.equal(runs.get(12), 2, 'task 12 ran with theme a ahead of its turn, then with b');
   assert.equal(runs.get(13), 1);
+});
+
+test('a task running ahead with a guess proved wrong is stopped at once and started again', async () => {
+  // As above, but task 12 (guessed theme a, needs b once task 11 repeats an item) runs long:
+  // it is stopped when task 11 is taken, not left to finish, and made again with b.
+  const delays = (n) => (n === 12 ? 200 : 5);
+  const { kept, log, runs, abandoned } = await make({ lanes: 3, count: 3, themes: ['a', 'b'], delays, abandonable: true });
+  assert.deepEqual(kept, ['a:10', 'b:12', 'a:13']);
+  assert.deepEqual(log, ['10 a:10', '11 a:10', '12 b:12', '13 a:13'], 'the stopped run is never taken');
+  assert.deepEqual(abandoned, [12]);
+  assert.equal(runs.get(12), 2);
 });
 
 test('uses every lane while enough is wanted, and starts no more tasks than are wanted', async () => {

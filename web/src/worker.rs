@@ -126,8 +126,8 @@ fn one() -> usize {
 /// set-file JSON. The same options give the same set here and natively. `progress`, if given,
 /// is called after every self-play game with the puzzles kept and the games played so far.
 /// When the games run out before enough puzzles are found, the error thrown is an `Error`
-/// named `NotEnough` (so that Coach can tell a theme that gives nothing at a band from a
-/// failure); any other problem is thrown as its message.
+/// named `NotEnough` (so that Coach can tell a seed that gives nothing at a band from a
+/// failure, and pass it over); any other problem is thrown as its message.
 #[wasm_bindgen(js_name = generateSet)]
 pub fn generate_set(
     options: JsValue,

@@ -8,7 +8,8 @@
 //   node web/tools/measure-coach.mjs [--workers 2] [--count 12] [--seed 20261] [--band expert]
 //     [--themes four-three,vcf,vct,defend,forbidden-trap/renju,forbidden-win/renju] [--rule freestyle]
 // A theme may name its rule after a slash; `--rule` is the rule of the others. Difficulty
-// "Any level" unless `--band` names another (Coach's band names), 15x15. With `--count 1`
+// "Any level" unless `--band` names another (Coach's band names), 15x15. With `--mix` the themes
+// make one set together (taken in turn, as Coach's recipe does; one rule for all). With `--count 1`
 // it times a single puzzle, whose games Coach spreads over its workers. It prints one line
 // per theme and writes web/artefacts/measure-coach.json.
 
@@ -29,14 +30,16 @@ const THEMES = arg('--themes', 'four-three,vcf,vct,defend,forbidden-trap/renju,f
   .map((t) => (t.includes('/') ? t.split('/') : [t, RULE]));
 const SEED = Number(arg('--seed', 20261));
 const BAND = arg('--band', undefined);
+const MIX = process.argv.includes('--mix');
 
 /** Makes a set of COUNT puzzles of `theme` in Coach on a device of `cores` cores; returns
  * the milliseconds from Make to the last puzzle, the workers Coach used and the puzzles. */
 async function make(browser, url, [theme, rule], cores) {
   const c = await openOnCores(browser, url, cores);
   const { page } = c;
+  const themes = theme.split('+');
   const { set, ms } = await makeCoachSet(page, {
-    title: `Harbour Street: ${theme}`, theme, count: COUNT, seed: SEED, rule, band: BAND, timeout: 60 * 60 * 1000,
+    title: `Harbour Street: ${theme}`, themes, count: COUNT, seed: SEED, rule, band: BAND, timeout: 60 * 60 * 1000,
   });
   const workers = Number(await page.getAttribute('#coach', 'data-workers'));
   await c.context.close();
@@ -47,7 +50,8 @@ const server = await serve();
 const browser = await launch();
 const rows = [];
 try {
-  for (const [theme, rule] of THEMES) {
+  const sets = MIX ? [[THEMES.map(([t]) => t).join('+'), THEMES[0][1]]] : THEMES;
+  for (const [theme, rule] of sets) {
     const one = await make(browser, server.url, [theme, rule], 1);
     const many = await make(browser, server.url, [theme, rule], WORKERS);
     assert.equal(one.workers, 1);
