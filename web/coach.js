@@ -634,7 +634,7 @@ export class Coach {
     const outcome = problem
       ? `Made ${making.made} of ${count} ${puzzles}; then it stopped: ${problem}.`
       : making.made < count ? `Stopped: made ${making.made} of ${count} ${puzzles}; they are kept.` : `Made ${count} ${puzzles} in ${secs ? `${secs} s` : 'under a second'}.`;
-    // The seeds passed over for the themes that stayed (a theme left out is said so instead).
+    // The seeds passed over (the last run of misses of a theme left out is said with it).
     const over = [...skipped.values()].reduce((sum, n) => sum + n, 0);
     const passed = over && !problem
       ? ` ${over} ${over === 1 ? 'seed' : 'seeds'} gave no puzzle at this difficulty and ${over === 1 ? 'was' : 'were'} passed over.`

@@ -80,7 +80,8 @@ export function inOrder({ lanes, first, input, same = sameJson, work, take, want
           return;
         }
       }
-      // Tasks running ahead whose guess the results taken have proved wrong are stopped.
+      // Tasks ahead whose guess the results taken have proved wrong are stopped if running,
+      // and made again at once if finished.
       if (abandon) {
         for (const [n, r] of running) {
           if (!r.abandoned && !same(r.used, input(n, n - due))) {
@@ -88,6 +89,13 @@ export function inOrder({ lanes, first, input, same = sameJson, work, take, want
             abandon(r.lane, n);
           }
         }
+        for (const [n, d] of done) {
+          if (!same(d.used, input(n, n - due))) {
+            done.delete(n);
+            redo.push(n);
+          }
+        }
+        redo.sort((a, b) => a - b);
       }
       while (idle.length) {
         const n = claim();
@@ -98,7 +106,8 @@ export function inOrder({ lanes, first, input, same = sameJson, work, take, want
         running.set(n, run);
         busy.add(lane);
         Promise.resolve()
-          .then(() => work(lane, n, used))
+          // (Stopped before it began: a result taken in between proved its guess wrong.)
+          .then(() => (run.abandoned ? Promise.reject(new Error('abandoned')) : work(lane, n, used)))
           .then((value) => ({ value }), (error) => ({ error }))
           .then((outcome) => {
             busy.delete(lane);

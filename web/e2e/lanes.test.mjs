@@ -11,7 +11,7 @@ import { inOrder } from '../lanes.js';
  * the first item kept, which takes no place); themes are taken in turn by place. A task's
  * result depends on its number and input only, as a puzzle does on its seed and kind.
  * Returns what was taken, in order. */
-async function make({ lanes, count, themes, delays, failAt = -1, abandonable = false }) {
+async function make({ lanes, count, themes, delays, failAt = -1, abandonable = false, repeat = everyFourth, stopAfter = 0 }) {
   const kept = [];
   const log = [];
   const started = new Set();
@@ -34,14 +34,16 @@ async function make({ lanes, count, themes, delays, failAt = -1, abandonable = f
         const timer = setTimeout(() => ok(false), delays(n, lane));
         stops.set(lane, () => {
           clearTimeout(timer);
-          ok(true);
+          // A stop may take a while to come through (a worker being ended).
+          if (stopAfter) setTimeout(() => ok(true), stopAfter);
+          else ok(true);
         });
       });
       stops.delete(lane);
       running--;
       if (stopped) throw new Error(`task ${n} stopped`);
       if (n === failAt) throw new Error(`task ${n} failed`);
-      return item(n, theme, themes);
+      return item(n, theme, themes, repeat);
     },
     abandon: abandonable
       ? (lane, n) => {
@@ -63,16 +65,20 @@ async function make({ lanes, count, themes, delays, failAt = -1, abandonable = f
   return { kept, log, most, left: running, started, runs, abandoned };
 }
 
-function item(n, theme, themes) {
-  return n % 4 === 3 ? `${themes[0]}:10` : `${theme}:${n}`;
+function everyFourth(n) {
+  return n % 4 === 3;
+}
+
+function item(n, theme, themes, repeat = everyFourth) {
+  return repeat(n) ? `${themes[0]}:10` : `${theme}:${n}`;
 }
 
 // The same recipe run one task at a time, by hand: what the runner must reproduce.
-function oneByOne(count, themes) {
+function oneByOne(count, themes, repeat = everyFourth) {
   const kept = [];
   for (let n = 10; kept.length < count; n++) {
     const theme = themes[kept.length % themes.length];
-    const value = item(n, theme, themes);
+    const value = item(n, theme, themes, repeat);
     if (!kept.includes(value)) kept.push(value);
   }
   return kept;
@@ -86,20 +92,28 @@ const ORDERS = {
   scrambled: (n) => (n * 7919) % 13,
 };
 
+// Tasks stopped for a wrong guess over the runs below (the runs with `abandon` must stop some).
+let stoppedInOrders = 0;
+
 for (const [name, delays] of Object.entries(ORDERS)) {
   test(`the same items for 1 to 4 lanes, finishing ${name}`, async () => {
     for (const themes of [['a'], ['a', 'b', 'c']]) {
       const want = oneByOne(9, themes);
       for (const lanes of [1, 2, 3, 4]) {
         for (const abandonable of [false, true]) {
-          const { kept, most } = await make({ lanes, count: 9, themes, delays, abandonable });
+          const { kept, most, abandoned } = await make({ lanes, count: 9, themes, delays, abandonable });
           assert.deepEqual(kept, want, `${lanes} lanes, themes ${themes}, abandon ${abandonable}`);
           assert.ok(most <= lanes, `at most ${lanes} tasks at once, saw ${most}`);
+          stoppedInOrders += abandoned.length;
         }
       }
     }
   });
 }
+
+test('the runs above stopped some tasks running ahead (so they checked the stopping too)', () => {
+  assert.ok(stoppedInOrders > 0, `stopped ${stoppedInOrders}`);
+});
 
 test('a task run ahead with a theme that turned out wrong is run again with the right one', async () => {
   // Task 11 repeats item 10 (11 % 4 === 3), so task 12 guessed the wrong place's theme.
@@ -119,6 +133,22 @@ test('a task running ahead with a guess proved wrong is stopped at once and star
   assert.deepEqual(log, ['10 a:10', '11 a:10', '12 b:12', '13 a:13'], 'the stopped run is never taken');
   assert.deepEqual(abandoned, [12]);
   assert.equal(runs.get(12), 2);
+});
+
+test('a task stopped for a wrong guess is made again even when the guess turns right again', async () => {
+  // Tasks 11 and 12 both repeat item 10. Task 12 ends first, guessing place 2 (a). Task 13
+  // starts ahead guessing place 3 (b). When 11 is taken, 12's guess is wrong (place 1, b) and
+  // it is made again; 13's is wrong too (place 2, a), so it is stopped, and its stop takes a
+  // while to come through. Meanwhile 12 is made again and taken, and 13 is place 1 (b) again,
+  // its first guess: the stopped run must still not be taken as its outcome.
+  const repeat = (n) => n === 11 || n === 12;
+  const themes = ['a', 'b'];
+  const delays = (n) => ({ 10: 1, 11: 5, 12: 2, 13: 100 })[n] ?? 1;
+  const { kept, log, abandoned, runs } = await make({ lanes: 4, count: 4, themes, delays, abandonable: true, repeat, stopAfter: 30 });
+  assert.deepEqual(kept, oneByOne(4, themes, repeat));
+  assert.deepEqual(abandoned, [13]);
+  assert.equal(runs.get(12), 2);
+  assert.ok(!log.some((l) => l.startsWith('error')), log.join(', '));
 });
 
 test('uses every lane while enough is wanted, and starts no more tasks than are wanted', async () => {
@@ -197,6 +227,7 @@ test('cancelled as Coach cancels: no task starts afterwards, not even one to be 
       return kept.length < 9;
     },
     wanted: () => (cancelled ? 0 : 9 - kept.length),
+    abandon: (lane, n) => running.get(n)?.(new Error('abandoned')),
   });
   await new Promise((ok) => setTimeout(ok, 25));
   cancelled = true;
