@@ -14,7 +14,7 @@ import { save } from './store.js';
 import {
   COACH_BANDS, COACH_DEEP_MOVES, COACH_MAX_CODES, COACH_MAX_PUZZLES, COACH_MOST_WORKERS, COACH_MAX_SETS, COACH_TABS, coachSetFile, emptyCoach,
 } from './coach-data.js';
-import { $, announce, banner, download, el, fill, isInt, keepFocus, paintQr, randomSeed } from './ui.js';
+import { $, announce, banner, clearBanner, download, el, fill, isInt, keepFocus, paintQr, randomSeed } from './ui.js';
 
 // Seeds are whole numbers; six digits are easy to read out and write down.
 const newCoachSeed = () => 100000 + (randomSeed() % 900000);
@@ -306,7 +306,8 @@ export class Coach {
     }
     for (const i of box.querySelectorAll('input')) i.disabled = busy || locked;
     $('coach-locked').hidden = !locked;
-    $('coach-make-go').textContent = s.puzzles.length ? `Make ${s.count} new puzzles` : `Make ${s.count} puzzles`;
+    const what = s.count === 1 ? 'puzzle' : 'puzzles';
+    $('coach-make-go').textContent = s.puzzles.length ? `Make ${s.count} new ${what}` : `Make ${s.count} ${what}`;
     this.renderBusy();
     this.renderPuzzles();
   }
@@ -540,7 +541,9 @@ export class Coach {
     const lanes = this.workers();
     // `workers`: how many make puzzles at once; `cancelled`: set by Cancel, after which no
     // puzzle is started (not even one made again for its right theme).
-    const making = { set: s.id, started: performance.now(), made: 0, count, workers: count === 1 ? lanes.length : Math.min(lanes.length, count), cancelled: false };
+    // The last making's message would cover the progress line.
+    clearBanner('coach');
+    const making = { set: s.id, started: performance.now(), made: 0, passed: 0, count, workers: count === 1 ? lanes.length : Math.min(lanes.length, count), cancelled: false };
     this.making = making;
     this.render();
     const tick = setInterval(() => this.renderBusy(), 1000);
@@ -568,6 +571,8 @@ export class Coach {
               // The seed is passed over: the next one is tried for the same place, until the
               // theme has used up its tries in a row.
               s.next = index + 1;
+              making.passed++;
+              this.renderBusy();
               const n = (dry.get(kind.theme) ?? 0) + 1;
               dry.set(kind.theme, n);
               if (n < this.triesFor(s, kind)) {
@@ -659,7 +664,9 @@ export class Coach {
     const secs = Math.floor((performance.now() - m.started) / 1000);
     const time = `${Math.floor(secs / 60)}:${String(secs % 60).padStart(2, '0')}`;
     const together = m.workers > 1 ? ` · ${m.workers} at a time` : '';
-    $('coach-busy-text').textContent = `Made ${m.made} of ${m.count} · ${time}${together}`;
+    // Seeds that gave none explain a making that seems to stand still.
+    const passed = m.passed ? ` · ${m.passed} ${m.passed === 1 ? 'seed' : 'seeds'} gave none` : '';
+    $('coach-busy-text').textContent = `Made ${m.made} of ${m.count} · ${time}${passed}${together}`;
     $('coach').dataset.workers = String(m.workers);
     $('coach-progress').max = m.count;
     $('coach-progress').value = m.made;

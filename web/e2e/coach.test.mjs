@@ -451,6 +451,11 @@ test('a theme that gives no puzzle at the band is left out, and the set is made 
   assert.match(await page.textContent('#coach-band-note'), /a theme that keeps giving none is left out of the rest of the set\./);
   // With that theme alone there is nothing to go on with: the making stops and says why.
   await makeSet(page, { title: 'Harbour Street: threats only', theme: 'vct', count: 1, seed, rule: 'freestyle', band: 'starting', wait: false });
+  assert.equal(await page.textContent('#coach-make-go'), 'Make 1 puzzle');
+  assert.equal(await page.$('#banners .banner[data-id="coach"]'), null, 'the last making\'s message is gone');
+  // While its second seed is tried, the progress line says why nothing has come yet.
+  await page.waitForFunction(() => /^Made 0 of 1 · \d+:\d\d · 1 seed gave none · 4 at a time$/.test(document.querySelector('#coach-busy-text').textContent), null, { timeout: 120000 });
+  await artefact(page, 'coach-busy-passed-desktop');
   await page.waitForSelector('#coach:not([data-making])', { timeout: 240000 });
   assert.equal(await page.getAttribute('#coach', 'data-made'), '0');
   assert.match(await page.textContent('#banners'), /Made 0 of 1 puzzle; then it stopped: no puzzle came at this difficulty \(“Win with threes and fours”: none from 2 seeds in a row\); choose another difficulty\./);
