@@ -317,9 +317,10 @@ export class Coach {
    * with two or three correct answers, which rate lower (difficulty.rs: 160 less for two, 254
    * for three), so a band below the range is still reached, by those alone: rarer, so slower,
    * and sometimes not at all (benchmark notes, 2026-12-04: Club threes-and-fours sets are made
-   * in about 10 s, Starting-out ones come out empty, and in a set of several themes such a
-   * theme is left out: see generate). Several answers never rate higher, so a band above the
-   * range finds few or none (and in a set of several themes, that theme is left out too). */
+   * in about 10 s, Starting-out ones in freestyle come out empty, and in a set of several
+   * themes such a theme is left out: see generate). Several answers never rate higher, so a
+   * band above the range finds few or none (and in a set of several themes, that theme is
+   * left out too). */
   renderBandNote() {
     const s = this.current();
     const band = COACH_BANDS.find((b) => b.name === s.band);
@@ -354,9 +355,10 @@ export class Coach {
    * to 15:35):
    * - where the library's range of the theme lies below the band, no seed gave one (four-three
    *   at Strong club and Expert: 0 of 20), and several answers only rate lower: one try;
-   * - threes and fours and defences take 15 to 25 s to give none, and Expert's deep lines up
-   *   to 35 s (Expert fours: 1 of 5 missed; threes and fours at Starting out: 5 of 5 missed in
-   *   freestyle, 2 of 5 in renju; defences missed none of 40): two tries;
+   * - threes and fours take 15 to 25 s to give none, and Expert's deep lines up to 35 s
+   *   (Expert fours: 1 of 5 missed; threes and fours at Starting out: 5 of 5 missed in
+   *   freestyle, 2 of 5 in renju); defences, whose searches are as dear, missed none of 40:
+   *   two tries;
    * - the others give none within a second, and some seeds miss where others give one (a
    *   four-three at Club: 1 of 5; a forbidden trap at Expert: 11 of 15; a forbidden win at
    *   Starting out: 5 of 15): sixteen tries, after which a forbidden trap at Expert is still
