@@ -352,7 +352,7 @@ export class Coach {
    * band before the theme is left out (or, alone, stops the making). A seed that gives none
    * is passed over and the next is tried for the same place. Measured with the command line,
    * five seeds each, one puzzle, Coach's options (engine/benches/README.md, 2026-12-04, 15:05
-   * to 15:35):
+   * to 15:56):
    * - where the library's range of the theme lies below the band, no seed gave one (four-three
    *   at Strong club and Expert: 0 of 20), and several answers only rate lower: one try;
    * - threes and fours take 15 to 25 s to give none, and Expert's deep lines up to 35 s

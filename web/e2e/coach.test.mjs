@@ -466,7 +466,8 @@ test('a theme that gives no puzzle at the band is left out, and the set is made 
 test('a seed that gives no puzzle at the band is passed over, and the next seed takes its place', async () => {
   const { page, context: ctx, errors } = await open(env.browser, env.server.url);
   // Club four-threes: most seeds give one, seed 3 does not (engine/benches/README.md,
-  // 2026-12-04, 15:05 to 15:35: 4 of seeds 1 to 5; the library's four-threes rate up to 1320, inside the band). A one-theme set from seed 1 used to stop there.
+  // 2026-12-04, 15:05 to 15:56: 4 of seeds 1 to 5; the library's four-threes rate up to 1320,
+  // inside the band). A one-theme set from seed 1 used to stop there.
   const made = await page.evaluate(async () => {
     const m = await import('./workshop/fivefold_web.js');
     await m.default();
