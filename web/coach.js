@@ -21,6 +21,8 @@ const newCoachSeed = () => 100000 + (randomSeed() % 900000);
 const coachToday = () => new Date().toISOString().slice(0, 10);
 
 const bandWords = (b) => `${b.words}, ${b.lo} to ${b.hi}`;
+// A set's band (Any level for a name no longer known).
+const bandOf = (s) => COACH_BANDS.find((b) => b.name === s.band) ?? COACH_BANDS[0];
 // How many seeds in a row gave no puzzle, in words.
 const fromSeeds = (n) => (n === 1 ? 'from its seed' : `from ${n} seeds in a row`);
 
@@ -323,7 +325,7 @@ export class Coach {
    * left out too). */
   renderBandNote() {
     const s = this.current();
-    const band = COACH_BANDS.find((b) => b.name === s.band);
+    const band = bandOf(s);
     const notes = [];
     let warn = false;
     const noneFound = s.themes.length > 1 ? 'a theme that keeps giving none is left out of the rest of the set' : 'the set may come out short or empty';
@@ -365,7 +367,7 @@ export class Coach {
    *   left out 0.7 % of the times, at a cost of about 11 s here where a theme gives none at
    *   all (a forbidden win at Expert: 0 of 15). */
   triesFor(s, { theme, rule }) {
-    const band = COACH_BANDS.find((b) => b.name === s.band) ?? COACH_BANDS[0];
+    const band = bandOf(s);
     let r = null;
     try {
       r = this.ws.themeRatings(theme, rule);
@@ -427,7 +429,7 @@ export class Coach {
   /** The generation options of one puzzle of `kind` ({theme, rule, size}) from the set's seed
    * plus `index`. */
   optionsFor(s, kind, index) {
-    const band = COACH_BANDS.find((b) => b.name === s.band) ?? COACH_BANDS[0];
+    const band = bandOf(s);
     const deep = band.name === 'expert' && COACH_DEEP_MOVES[kind.theme];
     return {
       ...kind, ratingLo: band.lo, ratingHi: band.hi, seed: s.seed + index, count: 1,
@@ -530,10 +532,9 @@ export class Coach {
   async generate(s, count, done, kindAt = null) {
     // The themes left out, each with the seeds in a row that gave none.
     const left = new Map();
-    // Per theme: its seeds in a row that gave none (reset when one gives a puzzle kept).
-    const dry = new Map();
-    // Per theme: its seeds passed over in this making.
-    const skipped = new Map();
+    // Seeds in a row that gave none for the place being made (a miss keeps the place, and so
+    // its theme, until a puzzle is kept or the theme is left out).
+    let dry = 0;
     const recipe = !kindAt;
     const themes = () => s.themes.filter((t) => !left.has(t));
     kindAt ??= (i) => {
@@ -575,14 +576,9 @@ export class Coach {
               s.next = index + 1;
               making.passed++;
               this.renderBusy();
-              const n = (dry.get(kind.theme) ?? 0) + 1;
-              dry.set(kind.theme, n);
-              if (n < this.triesFor(s, kind)) {
-                skipped.set(kind.theme, (skipped.get(kind.theme) ?? 0) + 1);
-                return true;
-              }
-              // This run of seeds is said as a whole, not as seeds passed over.
-              skipped.set(kind.theme, (skipped.get(kind.theme) ?? 0) - (n - 1));
+              const n = ++dry;
+              if (n < this.triesFor(s, kind)) return true;
+              dry = 0;
               if (!recipe) {
                 problem = `no puzzle like it came at this difficulty ${fromSeeds(n)}`;
                 return false;
@@ -604,7 +600,7 @@ export class Coach {
             }
             return true;
           }
-          dry.delete(kind.theme);
+          dry = 0;
           s.puzzles.push(p);
           making.made++;
           this.save();
@@ -642,7 +638,7 @@ export class Coach {
       ? `Made ${making.made} of ${count} ${puzzles}; then it stopped: ${problem}.`
       : making.made < count ? `Stopped: made ${making.made} of ${count} ${puzzles}; they are kept.` : `Made ${count} ${puzzles} in ${secs ? `${secs} s` : 'under a second'}.`;
     // The seeds passed over (the last run of misses of a theme left out is said with it).
-    const over = [...skipped.values()].reduce((sum, n) => sum + n, 0);
+    const over = [...left.values()].reduce((sum, n) => sum - n, making.passed);
     const passed = over && !problem
       ? ` ${over} ${over === 1 ? 'seed' : 'seeds'} gave no puzzle at this difficulty and ${over === 1 ? 'was' : 'were'} passed over.`
       : '';

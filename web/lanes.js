@@ -39,7 +39,6 @@ export function inOrder({ lanes, first, input, same = sameJson, work, take, want
     let stopped = false;
     const done = new Map(); // task -> { used, outcome }
     const idle = Array.from({ length: Math.max(1, lanes) }, (_, i) => i).reverse();
-    const busy = new Set();
     const running = new Map(); // task -> { lane, used, abandoned }
     const redo = []; // abandoned tasks to start again, in increasing order
 
@@ -104,13 +103,11 @@ export function inOrder({ lanes, first, input, same = sameJson, work, take, want
         const used = input(n, n - due);
         const run = { lane, used, abandoned: false };
         running.set(n, run);
-        busy.add(lane);
         Promise.resolve()
           // (Stopped before it began: a result taken in between proved its guess wrong.)
           .then(() => (run.abandoned ? Promise.reject(new Error('abandoned')) : work(lane, n, used)))
           .then((value) => ({ value }), (error) => ({ error }))
           .then((outcome) => {
-            busy.delete(lane);
             idle.push(lane);
             running.delete(n);
             if (run.abandoned) {
@@ -124,7 +121,7 @@ export function inOrder({ lanes, first, input, same = sameJson, work, take, want
           .catch(fail);
       }
       // Nothing running and nothing more wanted: done.
-      if (!busy.size) stop();
+      if (!running.size) stop();
     };
 
     try {
