@@ -37,10 +37,12 @@ export class BoardView {
     this.message = message;
     this.onChange = onChange;
     // Called once when a try ends (solved or failed), with the status and the milliseconds
-    // since the puzzle was shown.
+    // since the puzzle was shown; what it returns (a line or none) is said once the app's
+    // replies are all on show.
     this.onFinish = onFinish;
     this.shownAt = performance.now();
     this.reported = false;
+    this.afterReplies = [];
     this.trainer = kind === 'study' ? new StudyBoard(canvas) : new PuzzleBoard(canvas);
     this.token = 0;
     this.animating = false;
@@ -113,13 +115,21 @@ export class BoardView {
     d.toMove = s.toMove;
     d.rule = s.rule;
     this.canvas.setAttribute('aria-label', this.trainer.describe());
-    // A try ends once it is solved or failed and the app's moves are all on show; it is
-    // reported once (a retry starts a new try).
-    if (s.state === 'playing') this.reported = false;
-    const ended = why !== 'load' && !this.reported && s.state !== 'playing' && s.pending === 0 && !s.solution;
+    // A try ends as soon as it is solved or failed, and is reported then, once (a retry
+    // starts a new try): not after the app's replies are shown, which a reload or a closed
+    // page could cut short, losing the try. What the report has to say waits for the replies.
+    if (s.state === 'playing') {
+      this.reported = false;
+      this.afterReplies = [];
+    }
+    const ended = why !== 'load' && !this.reported && s.state !== 'playing' && !s.solution;
     if (ended) this.reported = true;
     this.onChange(s, why);
-    if (ended) this.onFinish(s, Math.round(performance.now() - this.shownAt));
+    if (ended) {
+      const said = this.onFinish(s, Math.round(performance.now() - this.shownAt));
+      if (said) this.afterReplies.push(said);
+    }
+    if (s.pending === 0 && this.afterReplies.length) this.say(this.afterReplies.splice(0));
     // The buttons under the board change with the state (a failure adds "Show the solution"):
     // keep the board and them in view together.
     if (why !== 'load' && s.state !== this.lastState) bringBoard(this.canvas);
@@ -159,6 +169,7 @@ export class BoardView {
   load(puzzleJson, { record = null, trusted = false } = {}) {
     this.cancelPacing();
     this.clearLog();
+    this.afterReplies = [];
     this.trainer.load(puzzleJson, trusted, record);
     this.puzzle = { json: puzzleJson, trusted };
     this.shownAt = performance.now();

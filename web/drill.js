@@ -440,7 +440,8 @@ export class Drill {
     announce($('drill-rating').textContent);
   }
 
-  /** A try ended: rated, then into the logbook and, if missed, into Revisit. */
+  /** A try ended: rated, then into the logbook and, if missed, into Revisit. Returns what to
+   * say once the app's replies are on show. */
   finished(s, millis) {
     const c = this.data.current;
     if (!c || this.loading) return;
@@ -451,7 +452,7 @@ export class Drill {
       puzzleRating: c.puzzle.rating,
     });
     this.save();
-    if (out?.say) this.board.say([out.say]);
+    return out?.say;
   }
 
   next() {

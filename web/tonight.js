@@ -522,7 +522,8 @@ export class Tonight {
     this.renderPlay(s);
   }
 
-  /** A try ended: into the logbook, and into Revisit if it was missed. */
+  /** A try ended: into the logbook, and into Revisit if it was missed. Returns what to say
+   * once the app's replies are on show. */
   finished(s, millis) {
     const key = this.data.open;
     if (!key || this.loading) return;
@@ -544,7 +545,7 @@ export class Tonight {
       millis,
       rating: this.app.drill.ratingFor(p.rule),
     });
-    if (out?.say) this.board.say([out.say]);
+    return out?.say;
   }
 
   renderPlay(s) {

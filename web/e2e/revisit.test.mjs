@@ -20,6 +20,7 @@ import {
   solve,
   tap,
   useBrowser,
+  wrongFour,
   wrongMove,
   PHONE,
   openSettings,
@@ -131,6 +132,31 @@ test('a failed puzzle comes back on the schedule, and its solution can be shown'
   const themes = await page.$$eval('#progress-themes tr', (rows) => rows.map((r) => r.textContent));
   assert.ok(themes.some((t) => t.startsWith('a win with fours')), themes.join(' | '));
   await artefact(page, 'progress-desktop');
+  assert.deepEqual(errors, []);
+  await ctx.close();
+});
+
+test('a try cut short by a reload while the app shows its replies still counts', async () => {
+  const { page, context: ctx, errors } = await openAt(START);
+  await addFromLibrary(page, CLUB.title);
+  // A wrong four fails the try at once; the replies that show why (the block, then the
+  // defence's own line) follow one by one. The page is reloaded before they are all shown,
+  // as a phone's closed tab would cut them.
+  const four = wrongFour(CLUB.puzzles[1]);
+  await page.click('#tonight-marks li:nth-child(2) button');
+  await page.waitForSelector('#tonight-count:has-text("Puzzle 2 of")');
+  await tap(page, 'tonight-board', four);
+  await page.waitForSelector('#tonight-board[data-state="failed"]');
+  const pending = await page.$eval('#tonight-board', (c) => Number(c.dataset.pending));
+  assert.ok(pending > 0, 'the reload comes while replies are still to be shown');
+  await page.reload();
+  await ready(page);
+  // The miss was recorded: Revisit holds it, and Progress counts the try.
+  await goTo(page, 'revisit');
+  assert.match(await page.textContent('#revisit-lead'), /Nothing due today; 1 in all/);
+  await at(page, new Date(START.getTime() + DAY));
+  await goTo(page, 'revisit');
+  assert.equal(await dueCount(page), 1);
   assert.deepEqual(errors, []);
   await ctx.close();
 });
