@@ -64,6 +64,16 @@ export function checkCoach(d) {
         return `the puzzles of ${what} are not valid (${e})`;
       }
     }
+    // While a set is made: how many were asked for, and the puzzles it replaces.
+    if (s.making !== undefined && !(s.making && isInt(s.making.count, 1, COACH_MAX_PUZZLES))) return `${what} has a making of unknown size`;
+    if (s.earlier !== undefined) {
+      if (!Array.isArray(s.earlier) || !s.earlier.length || s.earlier.length > COACH_MAX_PUZZLES) return `the earlier puzzles of ${what} are malformed`;
+      try {
+        parseSet(coachSetFile({ ...s, puzzles: s.earlier }));
+      } catch (e) {
+        return `the earlier puzzles of ${what} are not valid (${e})`;
+      }
+    }
   }
   return null;
 }

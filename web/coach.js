@@ -125,6 +125,8 @@ export class Coach {
   init(data) {
     this.cancelMaking(true);
     this.data = data ?? emptyCoach();
+    this.cutShort = this.recover();
+    if (this.cutShort) this.save();
     this.show();
   }
 
@@ -143,6 +145,10 @@ export class Coach {
 
   show() {
     if (!this.ws) return; // activate() shows the screen once the module is there
+    if (this.cutShort) {
+      banner(this.cutShort, { kind: 'warn', id: 'coach' });
+      this.cutShort = '';
+    }
     if (this.current()) this.openSet(this.data.open, this.data.tab);
     else this.showList();
   }
@@ -387,6 +393,7 @@ export class Coach {
   renderPuzzles() {
     const s = this.current();
     const n = s.puzzles.length;
+    $('coach').dataset.made = String(n);
     this.sel = Math.min(Math.max(0, this.sel), Math.max(0, n - 1));
     $('coach-empty').hidden = n > 0;
     $('coach-preview').hidden = n === 0;
@@ -507,15 +514,50 @@ export class Coach {
     const old = s.puzzles;
     s.puzzles = [];
     s.next = 0;
+    // The earlier puzzles are kept with the set until the new ones are there: a making that
+    // gives none, or that a closed page cuts short (see `recover`), gives them back.
+    if (old.length) s.earlier = old;
     this.sel = 0;
     this.save();
-    await this.generate(s, s.count, old.length ? () => {
-      this.undoBanner('The new puzzles replaced the earlier ones.', () => {
-        s.puzzles = old;
-        this.save();
-        this.render();
-      });
-    } : null);
+    const made = await this.generate(s, s.count);
+    // (A set deleted, or the data restored from a backup, while it was made: nothing to do.)
+    if (!old.length || !this.data.sets.includes(s)) return;
+    delete s.earlier;
+    if (!made) {
+      s.puzzles = old;
+      this.save();
+      this.render();
+      banner(`The set keeps its ${old.length} earlier ${old.length === 1 ? 'puzzle' : 'puzzles'}.`, { kind: 'info', id: 'coach-undo' });
+      return;
+    }
+    this.save();
+    this.undoBanner(`The new puzzles replaced the ${old.length} earlier ${old.length === 1 ? 'one' : 'ones'}.`, () => {
+      s.puzzles = old;
+      this.save();
+      this.render();
+    });
+  }
+
+  /** A making cut short by a closed or reloaded page (its set still says it is being made):
+   * the set keeps the puzzles made, or, when it was replacing earlier ones, gets those back
+   * (the new ones come again from the same seed). Returns what to tell the instructor. */
+  recover() {
+    const said = [];
+    for (const s of this.data.sets) {
+      if (!s.making) continue;
+      const { count } = s.making;
+      delete s.making;
+      const title = `“${s.title || 'Untitled set'}”`;
+      if (s.earlier) {
+        const made = s.puzzles.length;
+        s.puzzles = s.earlier;
+        delete s.earlier;
+        said.push(`Making ${title} stopped when the page was closed, after ${made} of ${count}; the set keeps its ${s.puzzles.length} earlier puzzles.`);
+      } else {
+        said.push(`Making ${title} stopped when the page was closed; the set keeps the ${s.puzzles.length} puzzles made.`);
+      }
+    }
+    return said.join(' ');
   }
 
   /** Adds `count` generated puzzles to the set; `kindAt(i)` gives the theme, rule and size of
@@ -528,8 +570,9 @@ export class Coach {
    * out for the rest of this making, while another theme remains, and the set is filled with
    * the others; the making stops when none remains (for a kind given by `kindAt`, when its
    * tries are used up). A puzzle started ahead with another kind than its place turns out to
-   * need is stopped and made again with the right kind (lanes.js `abandon`). */
-  async generate(s, count, done, kindAt = null) {
+   * need is stopped and made again with the right kind (lanes.js `abandon`). Returns how
+   * many puzzles were added. */
+  async generate(s, count, kindAt = null) {
     // The themes left out, each with the seeds in a row that gave none.
     const left = new Map();
     // Seeds in a row that gave none for the place being made (a miss keeps the place, and so
@@ -548,6 +591,9 @@ export class Coach {
     clearBanner('coach');
     const making = { set: s.id, started: performance.now(), made: 0, passed: 0, count, workers: count === 1 ? lanes.length : Math.min(lanes.length, count), cancelled: false };
     this.making = making;
+    // Saved with the set until the making ends, so that a closed page is noticed (`recover`).
+    s.making = { count };
+    this.save();
     this.render();
     const tick = setInterval(() => this.renderBusy(), 1000);
     this.renderBusy();
@@ -618,6 +664,7 @@ export class Coach {
     } finally {
       clearInterval(tick);
       if (this.making === making) this.making = null;
+      delete s.making;
       // Puzzles started ahead that are no longer needed are stopped, and the extra workers'
       // memory is given back (the next set starts them again).
       if (this.jobs.busy) this.jobs.cancel();
@@ -636,7 +683,8 @@ export class Coach {
     const puzzles = count === 1 ? 'puzzle' : 'puzzles';
     const outcome = problem
       ? `Made ${making.made} of ${count} ${puzzles}; then it stopped: ${problem}.`
-      : making.made < count ? `Stopped: made ${making.made} of ${count} ${puzzles}; they are kept.` : `Made ${count} ${puzzles} in ${secs ? `${secs} s` : 'under a second'}.`;
+      : making.made === 0 && count > 0 ? 'Stopped before any puzzle was made.'
+        : making.made < count ? `Stopped: made ${making.made} of ${count} ${puzzles}; they are kept.` : `Made ${count} ${puzzles} in ${secs ? `${secs} s` : 'under a second'}.`;
     // The seeds passed over (the last run of misses of a theme left out is said with it).
     const over = [...left.values()].reduce((sum, n) => sum - n, making.passed);
     const passed = over && !problem
@@ -649,7 +697,7 @@ export class Coach {
     banner(said, { kind: problem || left.size ? 'warn' : 'info', id: 'coach' });
     announce(said);
     this.render();
-    if (!problem && done) done();
+    return making.made;
   }
 
   renderBusy() {
@@ -712,7 +760,7 @@ export class Coach {
     if (!s || this.making || s.codes.length || !s.puzzles.length) return;
     const like = s.puzzles[this.sel];
     const at = s.puzzles.length;
-    await this.generate(s, 1, null, () => ({ theme: like.theme, rule: like.rule, size: like.size }));
+    await this.generate(s, 1, () => ({ theme: like.theme, rule: like.rule, size: like.size }));
     if (s.puzzles.length > at) {
       this.sel = at;
       this.renderPuzzles();

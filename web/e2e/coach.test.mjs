@@ -374,6 +374,64 @@ test('a set of two themes made on four workers is the set one worker makes, and 
   await ctx.close();
 });
 
+test('a set made again keeps its earlier puzzles until the new ones are there', async () => {
+  const { page, context: ctx, errors } = await open(env.browser, env.server.url);
+  const title = 'Harbour Street: made again';
+  const { set } = await makeSet(page, { title, theme: 'four-three', count: 3, seed: 7 });
+  const earlier = set.puzzles.map((p) => p.id);
+  const stored = () => page.evaluate(() => {
+    const d = JSON.parse(localStorage.getItem('fivefold.coach')).data;
+    return d.sets.find((s) => s.id === d.open);
+  });
+  // Forty Expert threes and fours instead (deep lines, many seconds each), stopped before
+  // the first is made: the set keeps the three it had.
+  page.once('dialog', (d) => d.accept());
+  await makeSet(page, { title, theme: 'vct', band: 'expert', count: 40, seed: 7, keep: true, wait: false });
+  await page.waitForSelector('#coach[data-making]');
+  await page.click('#coach-cancel');
+  await page.waitForSelector('#coach:not([data-making])');
+  let now = await stored();
+  assert.deepEqual(now.puzzles.map((p) => p.id), earlier);
+  assert.equal(now.earlier, undefined);
+  assert.equal(now.making, undefined);
+  assert.equal(await page.getAttribute('#coach', 'data-made'), '3');
+  const said = await page.textContent('#banners');
+  assert.match(said, /Stopped before any puzzle was made\./);
+  assert.match(said, /The set keeps its 3 earlier puzzles\./);
+  // Again, and the page is closed while the first is being made: opened again, Coach gives
+  // the earlier puzzles back and says what happened.
+  page.once('dialog', (d) => d.accept());
+  await page.click('#coach-make-go');
+  await page.waitForSelector('#coach[data-making]');
+  now = await stored();
+  assert.deepEqual(now.earlier.map((p) => p.id), earlier, 'kept with the set while it is made');
+  assert.deepEqual(now.making, { count: 40 });
+  await page.reload();
+  await ready(page);
+  await goTo(page, 'coach');
+  await page.waitForSelector('#banners .banner[data-id="coach"]');
+  assert.equal(await page.textContent('#banners .banner[data-id="coach"] p'),
+    `Making “${title}” stopped when the page was closed, after 0 of 40; the set keeps its 3 earlier puzzles.`);
+  await artefact(page, 'coach-cut-short-desktop');
+  now = await stored();
+  assert.deepEqual(now.puzzles.map((p) => p.id), earlier);
+  assert.equal(now.earlier, undefined);
+  assert.equal(now.making, undefined);
+  await page.waitForSelector('#coach[data-made="3"]');
+  // A making that ends replaces them, with an Undo that gives them back.
+  page.once('dialog', (d) => d.accept());
+  await makeSet(page, { title, theme: 'four-three', band: 'any', count: 2, seed: 8, keep: true, wait: false });
+  await page.waitForSelector('#coach[data-made="2"]:not([data-making])', { timeout: 60000 });
+  const undo = page.locator('#banners .banner[data-id="coach-undo"]');
+  assert.match(await undo.textContent(), /The new puzzles replaced the 3 earlier ones\./);
+  await undo.getByRole('button', { name: 'Undo' }).click();
+  now = await stored();
+  assert.deepEqual(now.puzzles.map((p) => p.id), earlier);
+  assert.equal(now.earlier, undefined);
+  assert.deepEqual(errors, []);
+  await ctx.close();
+});
+
 test('the band note says where each theme rates, and what a band below that finds', async () => {
   const { page, context: ctx, errors } = await open(env.browser, env.server.url, SMALL_PHONE);
   await goTo(page, 'coach');
