@@ -4,14 +4,14 @@
 // scripts pass events in and write the returned text out, always as text, never as markup.
 
 import { SERVED, loadScreen, startEngine } from './platform.js';
-import { hasSaved, keepAside, load, makeBackup, onStorageEvents, readBackup, save } from './store.js';
+import { changedElsewhere, hasSaved, heardElsewhere, keepAside, load, makeBackup, onStorageEvents, readBackup, save } from './store.js';
 import { Tonight, checkSets, checkTonight } from './tonight.js';
 import { Drill, checkDrill } from './drill.js';
 import { Study, checkStudy } from './study.js';
 import { PracticeStore, checkPractice } from './practice.js';
 import { checkCoach, emptyCoach } from './coach-data.js';
 import { checkGames, emptyGames } from './games-data.js';
-import { $, banner, clearBanner, download, shown } from './ui.js';
+import { $, banner, clearBanner, download, el, shown } from './ui.js';
 import { setSounds } from './sounds.js';
 
 const SCREENS = ['tonight', 'drill', 'revisit', 'study', 'coach', 'progress', 'games'];
@@ -136,6 +136,18 @@ class App {
         banner('A newer version of Fivefold saved your progress on this device, so this older copy ' +
           'does not save over it. Reload the page to get the newer version.', { kind: 'warn', id: 'newer', sticky: true });
       },
+      onElsewhere: () => {
+        if (document.visibilityState !== 'hidden') this.sayElsewhere();
+      },
+    });
+    // Another tab or window of the app saved progress: this page's copy is out of date, and
+    // the store no longer saves it (that would undo the other's saves). A page in view says
+    // so; one out of view loads again when it comes back (unless Coach is making a set).
+    window.addEventListener('storage', heardElsewhere);
+    document.addEventListener('visibilitychange', () => {
+      if (document.visibilityState !== 'visible' || !changedElsewhere()) return;
+      if (this.coach.screen?.making) this.sayElsewhere();
+      else window.location.reload();
     });
     this.practice = new PracticeStore();
     this.tonight = new Tonight(this);
@@ -162,6 +174,14 @@ class App {
     this.wireSkip();
     window.addEventListener('hashchange', () => this.readHash());
     this.readHash();
+  }
+
+  /** Says that another tab or window saved progress, so this page no longer saves, with a
+   * button that loads the page again (with the other's progress). */
+  sayElsewhere() {
+    const b = banner('Fivefold was used in another tab or window, so this one stopped saving ' +
+      '(it would undo what was saved there). Reload to go on from the latest progress.', { kind: 'warn', id: 'elsewhere', sticky: true });
+    b.insertBefore(el('button', { type: 'button', class: 'secondary', onclick: () => window.location.reload() }, 'Reload'), b.lastElementChild);
   }
 
   // Loads every saved document (recovering damaged ones) and hands it to its screen.

@@ -7,6 +7,7 @@ import assert from 'node:assert/strict';
 import { readFileSync } from 'node:fs';
 import {
   addFromLibrary,
+  artefact,
   banners,
   boardState,
   colourAt,
@@ -72,6 +73,46 @@ test('progress survives a reload, move by move', async () => {
   s = await boardState(page, BOARD);
   assert.equal(s.moves, LINE.slice(0, 4).join(' '));
   assert.deepEqual(await banners(page), []);
+  assert.deepEqual(errors, []);
+  await context.close();
+});
+
+test('a second tab: the first stops saving over what the second saved, and says so', async () => {
+  // Tab A has the club set open at puzzle 1 with a move played; tab B (the same browser)
+  // solves puzzle 1.
+  const { page: a, context, errors } = await started();
+  const b = await context.newPage();
+  b.on('pageerror', (e) => errors.push(`page error (tab B): ${e.message}`));
+  await b.goto(env.server.url);
+  await ready(b);
+  await b.waitForSelector(`#${BOARD}[data-mode="puzzle"]`);
+  await tap(b, BOARD, LINE[2]);
+  await settled(b, BOARD, 4);
+  for (let i = 4; i < LINE.length; i += 2) {
+    await tap(b, BOARD, LINE[i]);
+    await b.waitForFunction(([id, n]) => {
+      const d = document.getElementById(id).dataset;
+      return d.pending === '0' && d.moves.split(' ').length >= n;
+    }, [BOARD, i + 1]);
+  }
+  await b.waitForSelector(`#${BOARD}[data-state="solved"]`);
+  const outcome = (page) => page.evaluate((id) =>
+    Object.values(JSON.parse(localStorage.getItem('fivefold.tonight')).data.progress)[0].puzzles[id]?.outcome, CLUB.puzzles[0].id);
+  assert.equal(await outcome(b), 'clean');
+  // Tab A hears of it: it says so, and its next move does not save over tab B's solve.
+  await a.waitForSelector('#banners .banner[data-id="elsewhere"]');
+  assert.match(await a.textContent('#banners .banner[data-id="elsewhere"] p'), /used in another tab or window, so this one stopped saving/);
+  await artefact(a, 'storage-elsewhere-desktop');
+  await a.click('#tonight-marks li:nth-child(2) button');
+  await a.waitForFunction(() => document.getElementById('tonight-count').textContent.startsWith('Puzzle 2 '));
+  await tap(a, BOARD, CLUB.puzzles[1].solution.first_moves[0]);
+  await a.waitForTimeout(300);
+  assert.equal(await outcome(a), 'clean', 'tab B\'s solve is still saved');
+  // Reload from the banner: tab A goes on with tab B's progress.
+  await Promise.all([a.waitForEvent('load'), a.click('#banners .banner[data-id="elsewhere"] button:has-text("Reload")')]);
+  await ready(a);
+  await a.click('#tonight-marks li:nth-child(1) button');
+  assert.equal((await boardState(a, BOARD)).state, 'solved');
   assert.deepEqual(errors, []);
   await context.close();
 });
