@@ -489,7 +489,7 @@ export class Drill {
     const root = $('drill');
     const over = s.state !== 'playing';
     const none = !this.data.current;
-    root.querySelector('[data-act="hint"]').disabled = none || over || s.pending > 0 || s.record.hints >= 3;
+    root.querySelector('[data-act="hint"]').disabled = none || over || s.pending > 0 || s.record.hints >= 3 || !!s.solution;
     root.querySelector('[data-act="hint"]').hidden = s.state === 'failed';
     root.querySelector('[data-act="solution"]').hidden = s.state !== 'failed';
     root.querySelector('[data-act="solution"]').disabled = s.pending > 0;

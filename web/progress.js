@@ -64,8 +64,10 @@ export class Progress {
       ? `Now ${Math.round(last.rating)}, give or take ${Math.round(2 * last.deviation)} (the band shows twice the rating deviation, where the true rating lies 19 times in 20).`
       : `No rated ${this.rule} puzzles yet: your rating moves with every Drill puzzle.`;
     const s = d.streaks;
-    $('progress-streaks').textContent =
-      `Current streak: ${s.current} day${s.current === 1 ? '' : 's'}${s.todayDone ? '' : ' (play today to keep it)'}. Best: ${s.best}.`;
+    // No streak to keep once it is broken: then today starts a new one.
+    $('progress-streaks').textContent = s.current
+      ? `Current streak: ${s.current} day${s.current === 1 ? '' : 's'}${s.todayDone ? '' : ' (play today to keep it)'}. Best: ${s.best}.`
+      : `No current streak (play today to start one). Best: ${s.best}.`;
     const tally = (list) => [
       row(['', 'Solved clean', 'With help', 'Failed', 'Solved'], true),
       ...list.map((t) => row([t.words, t.clean, t.helped, t.failed, `${t.solved}%`])),

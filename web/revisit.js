@@ -111,7 +111,7 @@ export class Revisit {
   renderPlay(s) {
     const root = $('revisit-play');
     const over = s.state !== 'playing';
-    root.querySelector('[data-act="hint"]').disabled = over || s.pending > 0 || s.record.hints >= 3;
+    root.querySelector('[data-act="hint"]').disabled = over || s.pending > 0 || s.record.hints >= 3 || !!s.solution;
     root.querySelector('[data-act="hint"]').hidden = s.state === 'failed';
     root.querySelector('[data-act="solution"]').hidden = s.state !== 'failed';
     root.querySelector('[data-act="solution"]').disabled = s.pending > 0;

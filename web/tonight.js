@@ -575,7 +575,7 @@ export class Tonight {
     marks.children[prog.index]?.scrollIntoView?.({ block: 'nearest', inline: 'nearest' });
     const play = $('tonight-play');
     const over = s.state !== 'playing';
-    play.querySelector('[data-act="hint"]').disabled = over || s.pending > 0 || s.record.hints >= 3;
+    play.querySelector('[data-act="hint"]').disabled = over || s.pending > 0 || s.record.hints >= 3 || !!s.solution;
     play.querySelector('[data-act="hint"]').hidden = s.state === 'failed';
     play.querySelector('[data-act="solution"]').hidden = s.state !== 'failed';
     play.querySelector('[data-act="solution"]').disabled = s.pending > 0;

@@ -422,7 +422,9 @@ pub fn skipped(s: crate::rating::drill::Skip) -> Option<String> {
 }
 
 /// Which puzzles a drill chooses from, and why: "Choosing puzzles rated 1300 to 1700, around
-/// your renju rating of 1500 (give or take 350)."
+/// your renju rating of 1500 (give or take 700)." The "give or take" is twice the rating
+/// deviation, the same figure as Drill's rating line ("1500 ± 700") and Progress: the true
+/// rating lies within it 19 times in 20.
 pub fn band(b: &crate::rating::drill::Band, rule: crate::types::Rule) -> String {
     use crate::rating::drill::Placement;
     let r = &b.reason;
@@ -430,7 +432,7 @@ pub fn band(b: &crate::rating::drill::Band, rule: crate::types::Rule) -> String 
         "your {} rating of {:.0} (give or take {:.0})",
         rule.name(),
         r.rating,
-        r.deviation
+        2.0 * r.deviation
     );
     let why = match r.placement {
         Placement::AroundRating => format!("around {you}"),
@@ -725,6 +727,23 @@ pub fn study(s: &Study) -> Vec<String> {
 mod tests {
     use super::*;
     use std::str::FromStr;
+
+    #[test]
+    fn the_drill_band_says_the_rating_give_or_take_twice_its_deviation() {
+        use crate::rating::drill::band as drill_band;
+        use crate::rating::Rating;
+        use crate::types::Rule;
+        let player = Rating {
+            rating: 1261.0,
+            deviation: 272.6,
+            volatility: 0.06,
+        };
+        let said = band(&drill_band(&player, &[1100, 1400, 1700]), Rule::Renju);
+        assert!(
+            said.contains("your renju rating of 1261 (give or take 545)"),
+            "{said}"
+        );
+    }
 
     fn pts(s: &str) -> Vec<Point> {
         s.split_whitespace()

@@ -74,6 +74,7 @@ test('a failed puzzle comes back on the schedule, and its solution can be shown'
     return d.pending === '0' && d.moves && d.moves.split(' ').length === n;
   }, line.length, { timeout: 30000 });
   assert.equal((await boardState(page, 'tonight-board')).moves, line.join(' '));
+  assert.equal(await page.isDisabled('#tonight-play [data-act="hint"]'), true, 'no hint over a shown solution');
   const log = await page.$$eval('#tonight-log li', (l) => l.map((x) => x.textContent));
   assert.ok(log.some((t) => t.startsWith(`1. Black ${line[0]}`)), log.join(' | '));
   const stored = await page.evaluate(() => JSON.parse(localStorage.getItem('fivefold.tonight')).data);
@@ -130,7 +131,9 @@ test('a failed puzzle comes back on the schedule, and its solution can be shown'
   assert.equal(days2.length, byDay.size, days2.join(' | '));
   assert.deepEqual(days2.map(Number), [...byDay.values()]);
   const themes = await page.$$eval('#progress-themes tr', (rows) => rows.map((r) => r.textContent));
-  assert.ok(themes.some((t) => t.startsWith('a win with fours')), themes.join(' | '));
+  assert.ok(themes.some((t) => t.startsWith('Win with fours')), themes.join(' | '));
+  // Two days played, the last some days ago: the streak is broken, and nothing says to keep it.
+  assert.equal(await page.textContent('#progress-streaks'), 'No current streak (play today to start one). Best: 2.');
   await artefact(page, 'progress-desktop');
   assert.deepEqual(errors, []);
   await ctx.close();

@@ -292,7 +292,7 @@ impl Practice {
             .log
             .accuracy_by_theme()
             .iter()
-            .map(|(t, x)| tally(t.name(), words::theme(*t), x))
+            .map(|(t, x)| tally(t.name(), words::theme_label(*t), x))
             .collect();
         let rules: Vec<serde_json::Value> = self
             .log
