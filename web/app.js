@@ -4,7 +4,7 @@
 // scripts pass events in and write the returned text out, always as text, never as markup.
 
 import { SERVED, loadScreen, startEngine } from './platform.js';
-import { changedElsewhere, hasSaved, heardElsewhere, keepAside, load, makeBackup, onStorageEvents, readBackup, save } from './store.js';
+import { handOver, hasSaved, keepAside, load, makeBackup, onStorageEvents, readBackup, save, savingHere } from './store.js';
 import { Tonight, checkSets, checkTonight } from './tonight.js';
 import { Drill, checkDrill } from './drill.js';
 import { Study, checkStudy } from './study.js';
@@ -112,6 +112,7 @@ class App {
     // The documents whose last save failed for lack of space: the warning stays until every
     // one of them has been saved again.
     const unsaved = new Set();
+    this.unsaved = unsaved;
     onStorageEvents({
       onFull: (name) => {
         unsaved.add(name);
@@ -136,19 +137,8 @@ class App {
         banner('A newer version of Fivefold saved your progress on this device, so this older copy ' +
           'does not save over it. Reload the page to get the newer version.', { kind: 'warn', id: 'newer', sticky: true });
       },
-      onElsewhere: () => {
-        if (document.visibilityState !== 'hidden') this.sayElsewhere();
-      },
     });
-    // Another tab or window of the app saved progress: this page's copy is out of date, and
-    // the store no longer saves it (that would undo the other's saves). A page in view says
-    // so; one out of view loads again when it comes back (unless Coach is making a set).
-    window.addEventListener('storage', heardElsewhere);
-    document.addEventListener('visibilitychange', () => {
-      if (document.visibilityState !== 'visible' || !changedElsewhere()) return;
-      if (this.coach.screen?.making) this.sayElsewhere();
-      else window.location.reload();
-    });
+    this.watchOtherPages();
     this.practice = new PracticeStore();
     this.tonight = new Tonight(this);
     this.drill = new Drill(this);
@@ -176,12 +166,31 @@ class App {
     this.readHash();
   }
 
-  /** Says that another tab or window saved progress, so this page no longer saves, with a
-   * button that loads the page again (with the other's progress). */
-  sayElsewhere() {
-    const b = banner('Fivefold was used in another tab or window, so this one stopped saving ' +
-      '(it would undo what was saved there). Reload to go on from the latest progress.', { kind: 'warn', id: 'elsewhere', sticky: true });
-    b.insertBefore(el('button', { type: 'button', class: 'secondary', onclick: () => window.location.reload() }, 'Reload'), b.lastElementChild);
+  /** One page of the app saves at a time, so that two tabs or windows never save their own
+   * copies over each other's progress: a page says on a channel that it saves from now on as
+   * it starts (before it reads the saved progress), and every other page stops saving and
+   * says so, with a button that takes saving back (by loading again, with the latest
+   * progress). A page brought back from the browser's back-forward cache missed what other
+   * pages did meanwhile, so it loads again. */
+  watchOtherPages() {
+    window.addEventListener('pageshow', (e) => {
+      if (e.persisted) window.location.reload();
+    });
+    if (typeof BroadcastChannel !== 'function') return;
+    const me = `${Date.now()}-${Math.random()}`;
+    const channel = new BroadcastChannel('fivefold-pages');
+    channel.onmessage = (e) => {
+      if (e.data?.kind !== 'saving' || e.data.page === me || !savingHere()) return;
+      handOver();
+      // Nothing is saved here any more, so nothing waits for space either.
+      this.unsaved.clear();
+      this.quotaWarned = false;
+      clearBanner('quota');
+      const b = banner('Fivefold was opened in another tab or window, which saves your progress from ' +
+        'now on. This one no longer saves, so that it cannot undo what is saved there.', { kind: 'warn', id: 'elsewhere', sticky: true });
+      b.insertBefore(el('button', { type: 'button', class: 'secondary', onclick: () => window.location.reload() }, 'Use it here'), b.lastElementChild);
+    };
+    channel.postMessage({ kind: 'saving', page: me });
   }
 
   // Loads every saved document (recovering damaged ones) and hands it to its screen.
@@ -359,6 +368,12 @@ class App {
       if (!Object.keys(parts).length) throw new Error('the backup holds nothing to restore');
     } catch (e) {
       const msg = `"${f.name}" cannot be used: ${e.message}. Nothing was changed.`;
+      $('settings-note').textContent = msg;
+      banner(msg, { kind: 'error', id: 'backup' });
+      return;
+    }
+    if (!savingHere()) {
+      const msg = 'Fivefold saves from another tab or window now, so this one cannot restore a backup: choose "Use it here" first. Nothing was changed.';
       $('settings-note').textContent = msg;
       banner(msg, { kind: 'error', id: 'backup' });
       return;

@@ -64,18 +64,24 @@ export function checkCoach(d) {
         return `the puzzles of ${what} are not valid (${e})`;
       }
     }
-    // While a set is made: how many were asked for, and the puzzles it replaces.
-    if (s.making !== undefined && !(s.making && isInt(s.making.count, 1, COACH_MAX_PUZZLES))) return `${what} has a making of unknown size`;
-    if (s.earlier !== undefined) {
-      if (!Array.isArray(s.earlier) || !s.earlier.length || s.earlier.length > COACH_MAX_PUZZLES) return `the earlier puzzles of ${what} are malformed`;
-      try {
-        parseSet(coachSetFile({ ...s, puzzles: s.earlier }));
-      } catch (e) {
-        return `the earlier puzzles of ${what} are not valid (${e})`;
-      }
-    }
+    // A set's `making` and `earlier` (kept while it is made) are checked where they are used,
+    // by `earlierOf`: a bad one is dropped there, never the document.
   }
   return null;
+}
+
+/** The puzzles and next seed a set being made again replaces (kept with it as `earlier`
+ * until the new puzzles are there), if they are whole and valid; otherwise null. */
+export function earlierOf(s) {
+  const e = s.earlier;
+  if (!e || typeof e !== 'object' || !Array.isArray(e.puzzles) || !e.puzzles.length ||
+    e.puzzles.length > COACH_MAX_PUZZLES || !isInt(e.next, 0, 1e6)) return null;
+  try {
+    parseSet(coachSetFile({ ...s, puzzles: e.puzzles }));
+  } catch {
+    return null;
+  }
+  return { puzzles: e.puzzles, next: e.next };
 }
 
 export function emptyCoach() {

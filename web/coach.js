@@ -12,7 +12,7 @@ import { inOrder } from './lanes.js';
 import { loadScanner, loadWorkshop } from './platform.js';
 import { save } from './store.js';
 import {
-  COACH_BANDS, COACH_DEEP_MOVES, COACH_MAX_CODES, COACH_MAX_PUZZLES, COACH_MOST_WORKERS, COACH_MAX_SETS, COACH_TABS, coachSetFile, emptyCoach,
+  COACH_BANDS, COACH_DEEP_MOVES, COACH_MAX_CODES, COACH_MAX_PUZZLES, COACH_MOST_WORKERS, COACH_MAX_SETS, COACH_TABS, coachSetFile, earlierOf, emptyCoach,
 } from './coach-data.js';
 import { $, announce, banner, clearBanner, download, el, fill, isInt, keepFocus, paintQr, randomSeed } from './ui.js';
 
@@ -124,8 +124,10 @@ export class Coach {
 
   init(data) {
     this.cancelMaking(true);
+    // The same data again (a backup without Coach's part): its set being made is still live.
+    const live = data === this.data ? this.making?.set : null;
     this.data = data ?? emptyCoach();
-    this.cutShort = this.recover();
+    this.cutShort = this.recover(live);
     if (this.cutShort) this.save();
     this.show();
   }
@@ -511,51 +513,58 @@ export class Coach {
     const s = this.current();
     if (!s || this.making || s.codes.length) return;
     if (s.puzzles.length && !window.confirm(`Replace the ${s.puzzles.length} puzzles of this set with ${s.count} new ones?`)) return;
-    const old = s.puzzles;
+    const old = { puzzles: s.puzzles, next: s.next };
+    const n = old.puzzles.length;
     s.puzzles = [];
     s.next = 0;
     // The earlier puzzles are kept with the set until the new ones are there: a making that
-    // gives none, or that a closed page cuts short (see `recover`), gives them back.
-    if (old.length) s.earlier = old;
+    // gives none gives them back, and so does Coach after one a closed page cut short
+    // (`recover`).
+    if (n) s.earlier = old;
     this.sel = 0;
     this.save();
-    const made = await this.generate(s, s.count);
-    // (A set deleted, or the data restored from a backup, while it was made: nothing to do.)
-    if (!old.length || !this.data.sets.includes(s)) return;
-    delete s.earlier;
+    let made = 0;
+    try {
+      made = await this.generate(s, s.count);
+    } finally {
+      if (n) {
+        delete s.earlier;
+        if (!made) Object.assign(s, old);
+        this.save();
+      }
+    }
+    // (A set deleted, or the data restored from a backup, while it was made: nothing to say.)
+    if (!n || !this.data.sets.includes(s)) return;
+    const puzzles = n === 1 ? 'puzzle' : 'puzzles';
     if (!made) {
-      s.puzzles = old;
-      this.save();
       this.render();
-      banner(`The set keeps its ${old.length} earlier ${old.length === 1 ? 'puzzle' : 'puzzles'}.`, { kind: 'info', id: 'coach-undo' });
+      banner(`The set keeps its ${n} earlier ${puzzles}.`, { kind: 'info', id: 'coach-undo' });
       return;
     }
-    this.save();
-    this.undoBanner(`The new puzzles replaced the ${old.length} earlier ${old.length === 1 ? 'one' : 'ones'}.`, () => {
-      s.puzzles = old;
+    this.undoBanner(`The new puzzles replaced the ${n} earlier ${n === 1 ? 'one' : 'ones'}.`, () => {
+      Object.assign(s, old);
       this.save();
       this.render();
     });
   }
 
-  /** A making cut short by a closed or reloaded page (its set still says it is being made):
-   * the set keeps the puzzles made, or, when it was replacing earlier ones, gets those back
-   * (the new ones come again from the same seed). Returns what to tell the instructor. */
-  recover() {
+  /** A making cut short by a closed or reloaded page (its set still says it is being made, or
+   * still holds the puzzles it replaces): the set gets its earlier puzzles back, if it was
+   * made again (the new ones come again from the same seed), or keeps those it has. `live`:
+   * the set this page is making now, left alone. Returns what to tell the instructor. */
+  recover(live = null) {
     const said = [];
     for (const s of this.data.sets) {
-      if (!s.making) continue;
-      const { count } = s.making;
+      if (s.id === live || (s.making === undefined && s.earlier === undefined)) continue;
+      const earlier = s.earlier === undefined ? undefined : earlierOf(s);
       delete s.making;
-      const title = `“${s.title || 'Untitled set'}”`;
-      if (s.earlier) {
-        const made = s.puzzles.length;
-        s.puzzles = s.earlier;
-        delete s.earlier;
-        said.push(`Making ${title} stopped when the page was closed, after ${made} of ${count}; the set keeps its ${s.puzzles.length} earlier puzzles.`);
-      } else {
-        said.push(`Making ${title} stopped when the page was closed; the set keeps the ${s.puzzles.length} puzzles made.`);
-      }
+      delete s.earlier;
+      if (earlier) Object.assign(s, earlier);
+      const n = s.puzzles.length;
+      const kept = earlier
+        ? `the set keeps its ${n} earlier ${n === 1 ? 'puzzle' : 'puzzles'}`
+        : `the set keeps the ${n} ${n === 1 ? 'puzzle' : 'puzzles'} it has${earlier === null ? ' (its earlier ones could not be read)' : ''}`;
+      said.push(`Making “${s.title || 'Untitled set'}” was cut short (the page was closed or reloaded, or Fivefold opened in another tab, while it ran); ${kept}.`);
     }
     return said.join(' ');
   }

@@ -5,7 +5,7 @@
 import { BoardView } from './board.js';
 import { dayWords } from './pkg/fivefold_web.js';
 import { today } from './practice.js';
-import { $, announce, el, fill, keepFocus } from './ui.js';
+import { $, el, fill, keepFocus } from './ui.js';
 
 export class Revisit {
   constructor(app) {
@@ -102,10 +102,9 @@ export class Revisit {
       millis,
       rating: this.app.drill.ratingFor(p.rule),
     });
-    if (out?.say) {
-      $('revisit-next-time').textContent = out.say;
-      announce(out.say);
-    }
+    // Shown at once, and said (to screen readers too) once the app's replies are shown.
+    if (out?.say) $('revisit-next-time').textContent = out.say;
+    return out?.say;
   }
 
   renderPlay(s) {

@@ -65,43 +65,29 @@ function isQuota(e) {
 let quotaHandler = () => {};
 let savedHandler = () => {};
 let newerHandler = () => {};
-let elsewhereHandler = () => {};
-// The documents another tab or window of this app has saved since this page loaded: this
-// page's copies of them are out of date, and saving them would undo what the other saved.
-const savedElsewhere = new Set();
+// Set once another tab or window of the app has taken over saving (app.js): from then on this
+// page saves nothing, so that it cannot save its older copies over what the other saves.
+let handedOver = false;
+
+/** Stops every save from this page (another page of the app saves from now on). */
+export function handOver() {
+  handedOver = true;
+}
+
+/** Whether this page still saves (no other tab or window has taken over). */
+export function savingHere() {
+  return !handedOver;
+}
 
 /**
  * `onFull(name)` is called when a save of `name` fails for lack of space, `onSaved(name)` after
  * a save of `name` succeeds, and `onNewer(name)` when `name` was not saved because a newer
  * version of the app stored it (this one must not overwrite what it cannot read).
  */
-export function onStorageEvents({ onFull, onSaved, onNewer, onElsewhere }) {
+export function onStorageEvents({ onFull, onSaved, onNewer }) {
   quotaHandler = onFull ?? quotaHandler;
   savedHandler = onSaved ?? savedHandler;
   newerHandler = onNewer ?? newerHandler;
-  elsewhereHandler = onElsewhere ?? elsewhereHandler;
-}
-
-/** The document a storage key holds (its ".prev" and ".damaged" copies included), or null
- * for a key that is not this app's. */
-export function documentOf(key) {
-  if (typeof key !== 'string' || !key.startsWith(PREFIX)) return null;
-  return key.slice(PREFIX.length).replace(/\.(prev|damaged)$/, '');
-}
-
-/** Heard from the browser when another tab or window of this origin changed localStorage
- * (a page never hears its own saves): from then on this page does not save that document,
- * and `onElsewhere(name)` tells the page, which should load again. */
-export function heardElsewhere(e) {
-  const name = documentOf(e.key);
-  if (name === null || e.storageArea !== storage() || e.oldValue === e.newValue) return;
-  savedElsewhere.add(name);
-  elsewhereHandler(name);
-}
-
-/** Whether another tab or window has saved any document since this page loaded. */
-export function changedElsewhere() {
-  return savedElsewhere.size > 0;
 }
 
 function storage() {
@@ -114,12 +100,12 @@ function storage() {
 
 /**
  * Saves `data` under `name`. Returns true when it is safely stored, false when it could not be
- * (full quota, storage switched off, or another tab saved it since this page loaded); play
+ * (full quota, storage switched off, or another tab or window has taken over saving); play
  * goes on either way.
  */
 export function save(name, data) {
   const ls = storage();
-  if (!ls || savedElsewhere.has(name)) return false;
+  if (!ls || handedOver) return false;
   const key = PREFIX + name;
   const text = envelope(name, data);
   try {

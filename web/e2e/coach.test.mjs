@@ -392,6 +392,7 @@ test('a set made again keeps its earlier puzzles until the new ones are there', 
   await page.waitForSelector('#coach:not([data-making])');
   let now = await stored();
   assert.deepEqual(now.puzzles.map((p) => p.id), earlier);
+  assert.equal(now.next, set.next, 'and the seed One more like it goes on from');
   assert.equal(now.earlier, undefined);
   assert.equal(now.making, undefined);
   assert.equal(await page.getAttribute('#coach', 'data-made'), '3');
@@ -404,17 +405,19 @@ test('a set made again keeps its earlier puzzles until the new ones are there', 
   await page.click('#coach-make-go');
   await page.waitForSelector('#coach[data-making]');
   now = await stored();
-  assert.deepEqual(now.earlier.map((p) => p.id), earlier, 'kept with the set while it is made');
+  assert.deepEqual(now.earlier.puzzles.map((p) => p.id), earlier, 'kept with the set while it is made');
+  assert.equal(now.earlier.next, set.next);
   assert.deepEqual(now.making, { count: 40 });
   await page.reload();
   await ready(page);
   await goTo(page, 'coach');
   await page.waitForSelector('#banners .banner[data-id="coach"]');
   assert.equal(await page.textContent('#banners .banner[data-id="coach"] p'),
-    `Making “${title}” stopped when the page was closed, after 0 of 40; the set keeps its 3 earlier puzzles.`);
+    `Making “${title}” was cut short (the page was closed or reloaded, or Fivefold opened in another tab, while it ran); the set keeps its 3 earlier puzzles.`);
   await artefact(page, 'coach-cut-short-desktop');
   now = await stored();
   assert.deepEqual(now.puzzles.map((p) => p.id), earlier);
+  assert.equal(now.next, set.next);
   assert.equal(now.earlier, undefined);
   assert.equal(now.making, undefined);
   await page.waitForSelector('#coach[data-made="3"]');
@@ -427,7 +430,28 @@ test('a set made again keeps its earlier puzzles until the new ones are there', 
   await undo.getByRole('button', { name: 'Undo' }).click();
   now = await stored();
   assert.deepEqual(now.puzzles.map((p) => p.id), earlier);
+  assert.equal(now.next, set.next);
   assert.equal(now.earlier, undefined);
+  // A damaged `earlier` or `making` is dropped where it is used, never the set or the rest.
+  await page.evaluate(async () => {
+    const { checksum } = await import('./store.js');
+    const doc = JSON.parse(localStorage.getItem('fivefold.coach'));
+    const s = doc.data.sets.find((x) => x.id === doc.data.open);
+    s.earlier = { puzzles: 'junk', next: -1 };
+    s.making = { count: 'many' };
+    doc.sum = checksum(JSON.stringify(doc.data));
+    localStorage.setItem('fivefold.coach', JSON.stringify(doc));
+  });
+  await page.reload();
+  await ready(page);
+  await goTo(page, 'coach');
+  await page.waitForSelector('#banners .banner[data-id="coach"]');
+  assert.equal(await page.textContent('#banners .banner[data-id="coach"] p'),
+    `Making “${title}” was cut short (the page was closed or reloaded, or Fivefold opened in another tab, while it ran); the set keeps the 3 puzzles it has (its earlier ones could not be read).`);
+  now = await stored();
+  assert.deepEqual(now.puzzles.map((p) => p.id), earlier);
+  assert.equal(now.earlier, undefined);
+  assert.equal(now.making, undefined);
   assert.deepEqual(errors, []);
   await ctx.close();
 });

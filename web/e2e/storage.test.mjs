@@ -77,18 +77,22 @@ test('progress survives a reload, move by move', async () => {
   await context.close();
 });
 
-test('a second tab: the first stops saving over what the second saved, and says so', async () => {
+test('a second tab takes over saving: the first stops, says so, and can take it back', async () => {
   // Tab A has the club set open at puzzle 1 with a move played; tab B (the same browser)
-  // solves puzzle 1.
+  // opens, and saves from then on: tab A says so at once.
   const { page: a, context, errors } = await started();
   const b = await context.newPage();
   b.on('pageerror', (e) => errors.push(`page error (tab B): ${e.message}`));
   await b.goto(env.server.url);
   await ready(b);
+  const notice = '#banners .banner[data-id="elsewhere"]';
+  await a.waitForSelector(notice);
+  assert.match(await a.textContent(`${notice} p`), /opened in another tab or window, which saves your progress from now on\. This one no longer saves/);
+  await artefact(a, 'storage-elsewhere-desktop');
+  // Tab B solves puzzle 1, from where tab A left it.
   await b.waitForSelector(`#${BOARD}[data-mode="puzzle"]`);
-  await tap(b, BOARD, LINE[2]);
-  await settled(b, BOARD, 4);
-  for (let i = 4; i < LINE.length; i += 2) {
+  assert.equal((await boardState(b, BOARD)).moves, `${LINE[0]} ${LINE[1]}`);
+  for (let i = 2; i < LINE.length; i += 2) {
     await tap(b, BOARD, LINE[i]);
     await b.waitForFunction(([id, n]) => {
       const d = document.getElementById(id).dataset;
@@ -96,23 +100,24 @@ test('a second tab: the first stops saving over what the second saved, and says 
     }, [BOARD, i + 1]);
   }
   await b.waitForSelector(`#${BOARD}[data-state="solved"]`);
-  const outcome = (page) => page.evaluate((id) =>
-    Object.values(JSON.parse(localStorage.getItem('fivefold.tonight')).data.progress)[0].puzzles[id]?.outcome, CLUB.puzzles[0].id);
+  const stored = (page) => page.evaluate(() => JSON.parse(localStorage.getItem('fivefold.tonight')).data);
+  const outcome = async (page) => Object.values((await stored(page)).progress)[0].puzzles[CLUB.puzzles[0].id]?.outcome;
   assert.equal(await outcome(b), 'clean');
-  // Tab A hears of it: it says so, and its next move does not save over tab B's solve.
-  await a.waitForSelector('#banners .banner[data-id="elsewhere"]');
-  assert.match(await a.textContent('#banners .banner[data-id="elsewhere"] p'), /used in another tab or window, so this one stopped saving/);
-  await artefact(a, 'storage-elsewhere-desktop');
+  // Tab A plays on elsewhere: nothing of it is saved over tab B's progress.
+  const before = await stored(a);
   await a.click('#tonight-marks li:nth-child(2) button');
   await a.waitForFunction(() => document.getElementById('tonight-count').textContent.startsWith('Puzzle 2 '));
   await tap(a, BOARD, CLUB.puzzles[1].solution.first_moves[0]);
   await a.waitForTimeout(300);
-  assert.equal(await outcome(a), 'clean', 'tab B\'s solve is still saved');
-  // Reload from the banner: tab A goes on with tab B's progress.
-  await Promise.all([a.waitForEvent('load'), a.click('#banners .banner[data-id="elsewhere"] button:has-text("Reload")')]);
+  assert.deepEqual(await stored(a), before, 'tab A saved nothing');
+  assert.equal(await outcome(a), 'clean');
+  // "Use it here": tab A loads again, with tab B's solve, and tab B stops saving in turn.
+  await Promise.all([a.waitForEvent('load'), a.click(`${notice} button:has-text("Use it here")`)]);
   await ready(a);
   await a.click('#tonight-marks li:nth-child(1) button');
   assert.equal((await boardState(a, BOARD)).state, 'solved');
+  await b.waitForSelector(notice);
+  assert.equal(await a.isVisible(notice), false);
   assert.deepEqual(errors, []);
   await context.close();
 });
