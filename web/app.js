@@ -4,7 +4,7 @@
 // scripts pass events in and write the returned text out, always as text, never as markup.
 
 import { SERVED, loadScreen, startEngine } from './platform.js';
-import { handOver, hasSaved, keepAside, load, makeBackup, onStorageEvents, readBackup, save, savingHere } from './store.js';
+import { claimSaving, handOver, hasSaved, keepAside, load, makeBackup, onStorageEvents, readBackup, save, savingHere } from './store.js';
 import { Tonight, checkSets, checkTonight } from './tonight.js';
 import { Drill, checkDrill } from './drill.js';
 import { Study, checkStudy } from './study.js';
@@ -137,8 +137,9 @@ class App {
         banner('A newer version of Fivefold saved your progress on this device, so this older copy ' +
           'does not save over it. Reload the page to get the newer version.', { kind: 'warn', id: 'newer', sticky: true });
       },
+      onHandedOver: () => this.handedOver(),
     });
-    this.watchOtherPages();
+    const claim = this.watchOtherPages();
     this.practice = new PracticeStore();
     this.tonight = new Tonight(this);
     this.drill = new Drill(this);
@@ -147,6 +148,7 @@ class App {
     this.games = new Later(this, 'Games', emptyGames);
     this.revisit = new Later(this, 'Revisit', () => null);
     this.progress = new Later(this, 'Progress', () => null);
+    claim();
     this.loadAll();
     for (const b of document.querySelectorAll('[data-go]')) {
       b.addEventListener('click', () => {
@@ -167,30 +169,47 @@ class App {
   }
 
   /** One page of the app saves at a time, so that two tabs or windows never save their own
-   * copies over each other's progress: a page says on a channel that it saves from now on as
-   * it starts (before it reads the saved progress), and every other page stops saving and
-   * says so, with a button that takes saving back (by loading again, with the latest
-   * progress). A page brought back from the browser's back-forward cache missed what other
-   * pages did meanwhile, so it loads again. */
+   * copies over each other's progress (web/store.js): the returned `claim`, called just before
+   * the saved progress is read, makes this page the one that saves, and tells the others on a
+   * channel so that they say at once that they no longer save (a page that misses the message
+   * finds out at its next save). A page brought back from the browser's back-forward cache
+   * missed what other pages did meanwhile, so it loads again. */
   watchOtherPages() {
+    const me = `${Date.now().toString(36)}-${Math.random().toString(36).slice(2)}`;
     window.addEventListener('pageshow', (e) => {
-      if (e.persisted) window.location.reload();
-    });
-    if (typeof BroadcastChannel !== 'function') return;
-    const me = `${Date.now()}-${Math.random()}`;
-    const channel = new BroadcastChannel('fivefold-pages');
-    channel.onmessage = (e) => {
-      if (e.data?.kind !== 'saving' || e.data.page === me || !savingHere()) return;
+      if (!e.persisted) return;
       handOver();
-      // Nothing is saved here any more, so nothing waits for space either.
-      this.unsaved.clear();
-      this.quotaWarned = false;
-      clearBanner('quota');
-      const b = banner('Fivefold was opened in another tab or window, which saves your progress from ' +
-        'now on. This one no longer saves, so that it cannot undo what is saved there.', { kind: 'warn', id: 'elsewhere', sticky: true });
-      b.insertBefore(el('button', { type: 'button', class: 'secondary', onclick: () => window.location.reload() }, 'Use it here'), b.lastElementChild);
+      window.location.reload();
+    });
+    const channel = typeof BroadcastChannel === 'function' ? new BroadcastChannel('fivefold-pages') : null;
+    if (channel) {
+      channel.onmessage = (e) => {
+        // Two pages that start together both claim: the owner is the one that wrote last.
+        if (e.data?.kind === 'saving' && e.data.page !== me && !savingHere()) this.handedOver();
+      };
+    }
+    return () => {
+      claimSaving(me);
+      channel?.postMessage({ kind: 'saving', page: me });
     };
-    channel.postMessage({ kind: 'saving', page: me });
+  }
+
+  /** Another page saves from now on: this one stops its long jobs (their results could not be
+   * kept), and says, in a message that stays, that nothing done here is kept, with a button
+   * that loads the page again with the latest progress and makes it the one that saves. */
+  handedOver() {
+    handOver();
+    document.documentElement.dataset.saving = 'elsewhere';
+    if ($('banners').querySelector('[data-id="elsewhere"]')) return;
+    this.coach.screen?.cancelMaking(true);
+    this.games.screen?.cancel();
+    // Nothing is saved here any more, so nothing waits for space either.
+    this.unsaved.clear();
+    this.quotaWarned = false;
+    clearBanner('quota');
+    const b = banner('Progress is now saved in another Fivefold tab or window, so nothing you do here is kept. ' +
+      '"Continue here" loads this page again with the latest progress.', { kind: 'warn', id: 'elsewhere', sticky: true, dismiss: false });
+    b.append(el('button', { type: 'button', class: 'secondary', onclick: () => window.location.reload() }, 'Continue here'));
   }
 
   // Loads every saved document (recovering damaged ones) and hands it to its screen.
@@ -372,12 +391,15 @@ class App {
       banner(msg, { kind: 'error', id: 'backup' });
       return;
     }
-    if (!savingHere()) {
-      const msg = 'Fivefold saves from another tab or window now, so this one cannot restore a backup: choose "Use it here" first. Nothing was changed.';
+    // (Asked again after the question: another page may have started while it was open.)
+    const elsewhere = () => {
+      if (savingHere()) return false;
+      const msg = 'Progress is saved in another Fivefold tab or window now, so this one cannot restore a backup: choose "Continue here" first. Nothing was changed.';
       $('settings-note').textContent = msg;
       banner(msg, { kind: 'error', id: 'backup' });
-      return;
-    }
+      return true;
+    };
+    if (elsewhere()) return;
     const names = Object.keys(parts);
     if (hasSaved(names)) {
       const when = exported ? new Date(exported).toLocaleString() : 'an unknown date';
@@ -386,6 +408,7 @@ class App {
         $('settings-note').textContent = 'The backup was not restored. Nothing was changed.';
         return;
       }
+      if (elsewhere()) return;
       if (!keepAside(names)) {
         const msg = 'The progress on this device could not be kept aside (storage is full), so the backup was not restored. Nothing was changed.';
         $('settings-note').textContent = msg;

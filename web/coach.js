@@ -542,6 +542,8 @@ export class Coach {
       return;
     }
     this.undoBanner(`The new puzzles replaced the ${n} earlier ${n === 1 ? 'one' : 'ones'}.`, () => {
+      // Not under a making, nor once the set is handed out (its codes fit these puzzles).
+      if (this.making || s.codes.length || !this.data.sets.includes(s)) return;
       Object.assign(s, old);
       this.save();
       this.render();

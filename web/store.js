@@ -65,29 +65,53 @@ function isQuota(e) {
 let quotaHandler = () => {};
 let savedHandler = () => {};
 let newerHandler = () => {};
-// Set once another tab or window of the app has taken over saving (app.js): from then on this
-// page saves nothing, so that it cannot save its older copies over what the other saves.
+// One page of the app saves at a time: the page that starts last claims saving by writing its
+// name under OWNER before it reads the progress (`claimSaving`), and every save first checks
+// that the name is still its own. Once another page has claimed it (or this page is told so,
+// `handOver`), this page saves nothing, so that it cannot save its older copies over what the
+// other saves; `onHandedOver` hears of every save refused so.
+const OWNER = `${PREFIX}owner`;
+let me = null;
 let handedOver = false;
+let handedOverHandler = () => {};
+
+/** Claims saving for this page (called once, before the progress is read). */
+export function claimSaving(name) {
+  me = name;
+  const ls = storage();
+  if (!ls) return;
+  try {
+    ls.setItem(OWNER, name);
+  } catch {
+    // A full quota: with no owner written, no page is refused (as before there were owners).
+    ls.removeItem(OWNER);
+  }
+}
+
+/** Whether this page still saves: no other page has claimed saving since this one did. */
+export function savingHere() {
+  if (handedOver) return false;
+  const owner = me === null ? null : storage()?.getItem(OWNER);
+  if (owner && owner !== me) handedOver = true;
+  return !handedOver;
+}
 
 /** Stops every save from this page (another page of the app saves from now on). */
 export function handOver() {
   handedOver = true;
 }
 
-/** Whether this page still saves (no other tab or window has taken over). */
-export function savingHere() {
-  return !handedOver;
-}
-
 /**
  * `onFull(name)` is called when a save of `name` fails for lack of space, `onSaved(name)` after
- * a save of `name` succeeds, and `onNewer(name)` when `name` was not saved because a newer
- * version of the app stored it (this one must not overwrite what it cannot read).
+ * a save of `name` succeeds, `onNewer(name)` when `name` was not saved because a newer
+ * version of the app stored it (this one must not overwrite what it cannot read), and
+ * `onHandedOver()` when a save was refused because another page saves now.
  */
-export function onStorageEvents({ onFull, onSaved, onNewer }) {
+export function onStorageEvents({ onFull, onSaved, onNewer, onHandedOver }) {
   quotaHandler = onFull ?? quotaHandler;
   savedHandler = onSaved ?? savedHandler;
   newerHandler = onNewer ?? newerHandler;
+  handedOverHandler = onHandedOver ?? handedOverHandler;
 }
 
 function storage() {
@@ -105,7 +129,11 @@ function storage() {
  */
 export function save(name, data) {
   const ls = storage();
-  if (!ls || handedOver) return false;
+  if (!ls) return false;
+  if (!savingHere()) {
+    handedOverHandler();
+    return false;
+  }
   const key = PREFIX + name;
   const text = envelope(name, data);
   try {
@@ -230,7 +258,7 @@ export function hasSaved(names) {
  */
 export function keepAside(names) {
   const ls = storage();
-  if (!ls) return false;
+  if (!ls || !savingHere()) return false;
   let ok = true;
   for (const n of names) {
     const v = ls.getItem(PREFIX + n);

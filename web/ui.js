@@ -48,15 +48,18 @@ const BANNER_MS = { info: 10000, warn: 20000 };
  * away by themselves (not while the pointer or the focus is on them); errors, and `sticky`
  * banners, stay until dismissed. Returns the banner element.
  */
-export function banner(message, { kind = 'info', id = null, sticky = false } = {}) {
+export function banner(message, { kind = 'info', id = null, sticky = false, dismiss = true } = {}) {
   const box = $('banners');
   if (id) box.querySelector(`[data-id="${id}"]`)?.remove();
-  const b = el('div', { class: 'banner', 'data-kind': kind, 'data-id': id, role: kind === 'error' ? 'alert' : 'status' },
+  const b = el('div', { class: 'banner', 'data-kind': kind, 'data-id': id, 'data-sticky': sticky ? 'true' : null, role: kind === 'error' ? 'alert' : 'status' },
     el('p', { text: message }),
-    el('button', { type: 'button', class: 'quiet', 'aria-label': 'Dismiss this message', onclick: () => b.remove() }, 'OK'));
+    dismiss ? el('button', { type: 'button', class: 'quiet', 'aria-label': 'Dismiss this message', onclick: () => b.remove() }, 'OK') : null);
   box.append(b);
-  if (!sticky) {
-    while (box.childElementCount > 4) box.firstElementChild.remove();
+  // At most four at once: the oldest that is not sticky goes first.
+  while (box.childElementCount > 4) {
+    const oldest = [...box.children].find((x) => x !== b && !x.dataset.sticky);
+    if (!oldest) break;
+    oldest.remove();
   }
   const ms = sticky ? undefined : BANNER_MS[kind];
   if (ms) {

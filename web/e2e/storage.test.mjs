@@ -9,6 +9,7 @@ import {
   addFromLibrary,
   artefact,
   banners,
+  context,
   boardState,
   colourAt,
   isBlack,
@@ -87,7 +88,8 @@ test('a second tab takes over saving: the first stops, says so, and can take it 
   await ready(b);
   const notice = '#banners .banner[data-id="elsewhere"]';
   await a.waitForSelector(notice);
-  assert.match(await a.textContent(`${notice} p`), /opened in another tab or window, which saves your progress from now on\. This one no longer saves/);
+  assert.match(await a.textContent(`${notice} p`), /^Progress is now saved in another Fivefold tab or window, so nothing you do here is kept\./);
+  assert.equal(await a.locator(`${notice} button`).count(), 1, 'the message cannot be dismissed, only acted on');
   await artefact(a, 'storage-elsewhere-desktop');
   // Tab B solves puzzle 1, from where tab A left it.
   await b.waitForSelector(`#${BOARD}[data-mode="puzzle"]`);
@@ -111,8 +113,8 @@ test('a second tab takes over saving: the first stops, says so, and can take it 
   await a.waitForTimeout(300);
   assert.deepEqual(await stored(a), before, 'tab A saved nothing');
   assert.equal(await outcome(a), 'clean');
-  // "Use it here": tab A loads again, with tab B's solve, and tab B stops saving in turn.
-  await Promise.all([a.waitForEvent('load'), a.click(`${notice} button:has-text("Use it here")`)]);
+  // "Continue here": tab A loads again, with tab B's solve, and tab B stops saving in turn.
+  await Promise.all([a.waitForEvent('load'), a.click(`${notice} button:has-text("Continue here")`)]);
   await ready(a);
   await a.click('#tonight-marks li:nth-child(1) button');
   assert.equal((await boardState(a, BOARD)).state, 'solved');
@@ -120,6 +122,33 @@ test('a second tab takes over saving: the first stops, says so, and can take it 
   assert.equal(await a.isVisible(notice), false);
   assert.deepEqual(errors, []);
   await context.close();
+});
+
+test('without a channel between tabs, the first finds out at its next save and saves nothing', async () => {
+  const { page: a, context: ctx, errors } = await context(env.browser);
+  await ctx.addInitScript(() => {
+    delete window.BroadcastChannel;
+  });
+  await a.goto(env.server.url);
+  await ready(a);
+  await addFromLibrary(a, CLUB.title);
+  await tap(a, BOARD, LINE[0]);
+  await settled(a, BOARD, 2);
+  const b = await ctx.newPage();
+  await b.goto(env.server.url);
+  await ready(b);
+  const notice = '#banners .banner[data-id="elsewhere"]';
+  assert.equal(await a.isVisible(notice), false, 'nothing told tab A yet');
+  // Tab A's next move is not saved, and tab A says why.
+  await tap(a, BOARD, LINE[2]);
+  await settled(a, BOARD, 4);
+  await a.waitForSelector(notice);
+  const played = await a.evaluate((id) =>
+    Object.values(JSON.parse(localStorage.getItem('fivefold.tonight')).data.progress)[0].puzzles[id].played, CLUB.puzzles[0].id);
+  assert.deepEqual(played, [LINE[0]]);
+  assert.equal(await b.isVisible(notice), false);
+  assert.deepEqual(errors, []);
+  await ctx.close();
 });
 
 test('a corrupted stored value is recovered from the last good copy, with a message', async () => {
