@@ -182,15 +182,21 @@ class App {
       window.location.reload();
     });
     const channel = typeof BroadcastChannel === 'function' ? new BroadcastChannel('fivefold-pages') : null;
+    let at = Infinity;
     if (channel) {
+      // The message can come before the other page's claim is seen in this page's storage, so
+      // it is judged by the time of the claim: the later claim saves (two pages that start
+      // together are told apart by name).
       channel.onmessage = (e) => {
-        // Two pages that start together both claim: the owner is the one that wrote last.
-        if (e.data?.kind === 'saving' && e.data.page !== me && !savingHere()) this.handedOver();
+        const d = e.data;
+        if (d?.kind !== 'saving' || d.page === me || typeof d.at !== 'number') return;
+        if (d.at > at || (d.at === at && d.page > me)) this.handedOver();
       };
     }
     return () => {
+      at = performance.timeOrigin + performance.now();
       claimSaving(me);
-      channel?.postMessage({ kind: 'saving', page: me });
+      channel?.postMessage({ kind: 'saving', page: me, at });
     };
   }
 
@@ -369,6 +375,13 @@ class App {
   }
 
   exportBackup() {
+    // This page's copy may be older than what another page has saved since.
+    if (!savingHere()) {
+      const msg = 'Progress is saved in another Fivefold tab or window now, so a backup from this one could be out of date: choose "Continue here" first.';
+      $('settings-note').textContent = msg;
+      banner(msg, { kind: 'error', id: 'backup' });
+      return;
+    }
     const parts = this.documents();
     const day = new Date().toISOString().slice(0, 10);
     download(`fivefold-backup-${day}.json`, makeBackup(parts));

@@ -147,6 +147,13 @@ test('without a channel between tabs, the first finds out at its next save and s
     Object.values(JSON.parse(localStorage.getItem('fivefold.tonight')).data.progress)[0].puzzles[id].played, CLUB.puzzles[0].id);
   assert.deepEqual(played, [LINE[0]]);
   assert.equal(await b.isVisible(notice), false);
+  // Nor does it export a backup of its copy, which may be older than tab B's.
+  await openSettings(a);
+  const downloads = [];
+  a.on('download', (d) => downloads.push(d));
+  await a.click('#export-backup');
+  assert.match(await a.textContent('#settings-note'), /could be out of date: choose "Continue here" first/);
+  assert.equal(downloads.length, 0);
   assert.deepEqual(errors, []);
   await ctx.close();
 });
