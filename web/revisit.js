@@ -3,7 +3,7 @@
 // plays it puzzle by puzzle, and after each says when it comes back.
 
 import { BoardView } from './board.js';
-import { dayWords } from './pkg/fivefold_web.js';
+import { dayWords, themes } from './pkg/fivefold_web.js';
 import { today } from './practice.js';
 import { $, el, fill, keepFocus } from './ui.js';
 
@@ -53,13 +53,19 @@ export class Revisit {
     const due = practice.due(day);
     $('revisit-start').disabled = due.length === 0;
     $('revisit').dataset.due = String(due.length);
+    const labels = new Map(JSON.parse(themes()).map((t) => [t.name, t.label]));
     fill($('revisit-list'), due.map((item) => {
       const p = JSON.parse(item.puzzle);
       const from = item.origin === 'tonight' ? `Tonight: ${item.title}` : item.origin === 'games' ? 'My games' : 'Drill';
       const late = item.due < day ? `due since ${dayWords(item.due)}` : 'due today';
+      // What the puzzle is, so that two from one set can be told apart.
+      const side = p.to_move === 'white' ? 'White' : 'Black';
+      const what = [`${side} to play`, labels.get(p.theme), Number.isInteger(p.rating) ? `difficulty ${p.rating}` : null]
+        .filter(Boolean).join(' · ');
       return el('li', { class: 'card compact' },
         el('div', {},
           el('h3', { class: 'set-title', text: from }),
+          el('p', { class: 'meta', text: what }),
           el('p', { class: 'meta', text: `${p.rule} · ${item.tries} ${item.tries === 1 ? 'try' : 'tries'} so far · ${late}` })));
     }));
   }

@@ -88,6 +88,10 @@ test('a failed puzzle comes back on the schedule, and its solution can be shown'
   assert.equal(await page.textContent('#revisit-badge'), '1');
   await goTo(page, 'revisit');
   assert.equal(await dueCount(page), 1);
+  // The entry says what the puzzle is, so that two from one set can be told apart.
+  const metas = await page.$$eval('#revisit-list li .meta', (l) => l.map((x) => x.textContent));
+  assert.equal(FIRST.to_move, 'black');
+  assert.equal(metas[0], `Black to play · Win with fours · difficulty ${FIRST.rating}`);
   await artefact(page, 'revisit-desktop');
   await page.click('#revisit-start');
   await page.waitForSelector('#revisit-board[data-mode="puzzle"]');
