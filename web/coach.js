@@ -994,11 +994,31 @@ export class Coach {
     this.save();
     const head = `${r.newStudents} new student${r.newStudents === 1 ? '' : 's'}, ${r.replaced} replaced` +
       `${r.notices.length ? `, ${r.notices.length} to look at` : ''}.`;
-    this.report([{ line: 0, kind: r.notices.some((n) => n.kind === 'refused') ? 'refused' : 'ok', message: head }, ...r.notices]);
+    const notices = r.notices.map((n) => ({ ...n, message: this.nameOtherSet(n.message, s) }));
+    this.report([{ line: 0, kind: r.notices.some((n) => n.kind === 'refused') ? 'refused' : 'ok', message: head }, ...notices]);
     if (how === 'paste' && r.accepted.length && !r.notices.some((n) => n.kind === 'refused')) $('coach-codes').value = '';
     this.renderTable(r.table);
     this.renderHead();
     announce(head);
+  }
+
+  /** A code for another set names that set when it is one of this device's (a code pasted
+   * into the wrong set); the engine's words give only its key ("a result for another set
+   * (set key 5c5f9877)", engine/src/formats/class.rs). */
+  nameOtherSet(message, s) {
+    const m = /a result for another set \(set key ([0-9a-f]{8})\)/.exec(message);
+    if (!m) return message;
+    const keyOf = (o) => {
+      try {
+        return setKey(coachSetFile(o));
+      } catch {
+        return null;
+      }
+    };
+    const titles = this.data.sets.filter((o) => o !== s && o.puzzles.length && keyOf(o) === m[1])
+      .map((o) => `“${o.title || 'Untitled set'}”`);
+    if (!titles.length) return message;
+    return message.replace(m[0], `a result for your set ${titles.join(' or ')} (set key ${m[1]}), not this one`);
   }
 
   report(lines) {

@@ -332,6 +332,16 @@ test('the class round trip: make, hand out, three students, read the codes back'
   shown = await shownTable(page);
   assert.deepEqual(shown.rows.map((r) => r[0]), ['Mira Okafor', 'Tomas Reyne', '=Ines Varga']);
 
+  // Tuesday's code pasted into another of the instructor's sets is refused, naming the set it
+  // belongs to.
+  await makeSet(page, { title: 'Harbour Street: Thursday', theme: 'four-three', count: 1, seed: 3 });
+  await page.click('#coach-tabs [data-tab="results"]');
+  await page.fill('#coach-codes', codes['Mira Okafor']);
+  await page.click('#coach-read');
+  const wrongSet = await page.textContent('#coach-reports li:nth-child(2)');
+  assert.match(wrongSet, /a result for your set “Harbour Street: Tuesday” \(set key [0-9a-f]{8}\), not this one; skipped$/);
+  assert.equal(await page.$$eval('#coach-table tbody tr', (l) => l.length), 0, 'nothing was added');
+
   assert.deepEqual(errors, []);
   await coach.context.close();
 });
