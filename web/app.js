@@ -205,7 +205,6 @@ class App {
    * that loads the page again with the latest progress and makes it the one that saves. */
   handedOver() {
     handOver();
-    document.documentElement.dataset.saving = 'elsewhere';
     if ($('banners').querySelector('[data-id="elsewhere"]')) return;
     this.coach.screen?.cancelMaking(true);
     this.games.screen?.cancel();
@@ -374,14 +373,18 @@ class App {
     $('import-backup').addEventListener('change', (e) => this.importBackup(e.target));
   }
 
+  /** Whether a backup must wait because another page saves now (saying so, with `why`). */
+  backupElsewhere(why) {
+    if (savingHere()) return false;
+    const msg = `Progress is saved in another Fivefold tab or window now, so ${why}`;
+    $('settings-note').textContent = msg;
+    banner(msg, { kind: 'error', id: 'backup' });
+    return true;
+  }
+
   exportBackup() {
     // This page's copy may be older than what another page has saved since.
-    if (!savingHere()) {
-      const msg = 'Progress is saved in another Fivefold tab or window now, so a backup from this one could be out of date: choose "Continue here" first.';
-      $('settings-note').textContent = msg;
-      banner(msg, { kind: 'error', id: 'backup' });
-      return;
-    }
+    if (this.backupElsewhere('a backup from this one could be out of date: choose "Continue here" first.')) return;
     const parts = this.documents();
     const day = new Date().toISOString().slice(0, 10);
     download(`fivefold-backup-${day}.json`, makeBackup(parts));
@@ -405,13 +408,7 @@ class App {
       return;
     }
     // (Asked again after the question: another page may have started while it was open.)
-    const elsewhere = () => {
-      if (savingHere()) return false;
-      const msg = 'Progress is saved in another Fivefold tab or window now, so this one cannot restore a backup: choose "Continue here" first. Nothing was changed.';
-      $('settings-note').textContent = msg;
-      banner(msg, { kind: 'error', id: 'backup' });
-      return true;
-    };
+    const elsewhere = () => this.backupElsewhere('this one cannot restore a backup: choose "Continue here" first. Nothing was changed.');
     if (elsewhere()) return;
     const names = Object.keys(parts);
     if (hasSaved(names)) {

@@ -291,6 +291,7 @@ export class Coach {
     const s = this.current();
     $('coach-set-title').textContent = s.title || 'Untitled set';
     const n = s.puzzles.length;
+    $('coach').dataset.made = String(n);
     $('coach-set-count').textContent = `${n} puzzle${n === 1 ? '' : 's'} · ${s.rule} · ${s.size} × ${s.size}`;
   }
 
@@ -395,7 +396,6 @@ export class Coach {
   renderPuzzles() {
     const s = this.current();
     const n = s.puzzles.length;
-    $('coach').dataset.made = String(n);
     this.sel = Math.min(Math.max(0, this.sel), Math.max(0, n - 1));
     $('coach-empty').hidden = n > 0;
     $('coach-preview').hidden = n === 0;
@@ -683,7 +683,6 @@ export class Coach {
     }
     this.save();
     const secs = Math.round((performance.now() - making.started) / 1000);
-    $('coach').dataset.made = String(s.puzzles.length);
     // Every theme of the recipe ran out of games at the band: the making stopped.
     const exhausted = left.size > 0 && !themes().length;
     const quoted = (t) => `“${this.themeLabel(t)}”`;
@@ -994,8 +993,7 @@ export class Coach {
     this.save();
     const head = `${r.newStudents} new student${r.newStudents === 1 ? '' : 's'}, ${r.replaced} replaced` +
       `${r.notices.length ? `, ${r.notices.length} to look at` : ''}.`;
-    const notices = r.notices.map((n) => ({ ...n, message: this.nameOtherSet(n.message, s) }));
-    this.report([{ line: 0, kind: r.notices.some((n) => n.kind === 'refused') ? 'refused' : 'ok', message: head }, ...notices]);
+    this.report([{ line: 0, kind: r.notices.some((n) => n.kind === 'refused') ? 'refused' : 'ok', message: head }, ...this.nameOtherSets(r.notices, s)]);
     if (how === 'paste' && r.accepted.length && !r.notices.some((n) => n.kind === 'refused')) $('coach-codes').value = '';
     this.renderTable(r.table);
     this.renderHead();
@@ -1004,21 +1002,28 @@ export class Coach {
 
   /** A code for another set names that set when it is one of this device's (a code pasted
    * into the wrong set); the engine's words give only its key ("a result for another set
-   * (set key 5c5f9877)", engine/src/formats/class.rs). */
-  nameOtherSet(message, s) {
-    const m = /a result for another set \(set key ([0-9a-f]{8})\)/.exec(message);
-    if (!m) return message;
-    const keyOf = (o) => {
-      try {
-        return setKey(coachSetFile(o));
-      } catch {
-        return null;
-      }
+   * (set key 5c5f9877)", engine/src/formats/class.rs). The keys of the other sets are worked
+   * out once, and only if a notice needs them. */
+  nameOtherSets(notices, s) {
+    let titles = null;
+    const titlesOf = (key) => {
+      titles ??= this.data.sets.reduce((map, o) => {
+        if (o === s || !o.puzzles.length) return map;
+        let k;
+        try {
+          k = setKey(coachSetFile(o));
+        } catch {
+          return map;
+        }
+        return map.set(k, [...(map.get(k) ?? []), `“${o.title || 'Untitled set'}”`]);
+      }, new Map());
+      return titles.get(key);
     };
-    const titles = this.data.sets.filter((o) => o !== s && o.puzzles.length && keyOf(o) === m[1])
-      .map((o) => `“${o.title || 'Untitled set'}”`);
-    if (!titles.length) return message;
-    return message.replace(m[0], `a result for your set ${titles.join(' or ')} (set key ${m[1]}), not this one`);
+    return notices.map((n) => {
+      const m = /a result for another set \(set key ([0-9a-f]{8})\)/.exec(n.message);
+      const named = m && titlesOf(m[1]);
+      return named ? { ...n, message: n.message.replace(m[0], `a result for your set ${named.join(' or ')} (set key ${m[1]}), not this one`) } : n;
+    });
   }
 
   report(lines) {
