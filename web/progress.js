@@ -75,7 +75,7 @@ export class Progress {
     const themes = $('progress-themes');
     fill(themes, themes.querySelector('caption'), ...(d.themes.length ? tally(d.themes) : [row(['Nothing finished yet'])]));
     const rules = $('progress-rules');
-    fill(rules, rules.querySelector('caption'), ...(d.rules.length ? tally(d.rules) : [row(['Nothing finished yet'])]));
+    fill(rules, rules.querySelector('caption'), ...(d.rules.length ? tally(d.rules.map((r) => ({ ...r, words: r.words[0].toUpperCase() + r.words.slice(1) }))) : [row(['Nothing finished yet'])]));
     const rt = $('progress-rating-table');
     fill(rt, rt.querySelector('caption'), row(['Day', 'Rating', 'Give or take'], true),
       ...series.map((p) => row([dayWords(p.day), Math.round(p.rating), Math.round(2 * p.deviation)])));

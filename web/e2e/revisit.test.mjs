@@ -182,6 +182,20 @@ test('Revisit and Progress on a phone', async () => {
   const width = await page.evaluate(() => document.documentElement.scrollWidth);
   assert.ok(width <= PHONE.width, `no overflow: ${width}`);
   await artefact(page, 'progress-phone');
+  // With a try in the history, every table of numbers fits the phone's width (the rule's
+  // table once scrolled sideways), and the rule is named as in the menus.
+  await addFromLibrary(page, CLUB.title);
+  await tap(page, 'tonight-board', wrongMove(FIRST));
+  await page.waitForSelector('#tonight-board[data-state="failed"][data-pending="0"]');
+  await goTo(page, 'progress');
+  const boxes = await page.$$eval('#progress .table-box', (l) => l.filter((b) => b.offsetParent)
+    .map((b) => ({ table: b.firstElementChild.id, scroll: b.scrollWidth, width: b.clientWidth })));
+  assert.ok(boxes.length >= 2, JSON.stringify(boxes));
+  for (const b of boxes) assert.ok(b.scroll <= b.width, `${b.table} fits: ${JSON.stringify(b)}`);
+  const rules = await page.$$eval('#progress-rules tr', (rows) => rows.slice(1).map((r) => r.firstElementChild.textContent));
+  assert.deepEqual(rules, ['Freestyle']);
+  await page.$eval('#progress-themes', (t) => t.scrollIntoView());
+  await artefact(page, 'progress-tables-phone');
   await goTo(page, 'revisit');
   await artefact(page, 'revisit-phone');
   assert.deepEqual(errors, []);
