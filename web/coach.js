@@ -991,9 +991,15 @@ export class Coach {
     }
     s.codes.push(...r.accepted);
     this.save();
+    // Words around the codes (a greeting, a name) are listed once, at the end, not as codes
+    // to look at.
+    const skipped = r.notices.filter((n) => n.kind === 'skipped');
+    const notices = r.notices.filter((n) => n.kind !== 'skipped');
     const head = `${r.newStudents} new student${r.newStudents === 1 ? '' : 's'}, ${r.replaced} replaced` +
-      `${r.notices.length ? `, ${r.notices.length} to look at` : ''}.`;
-    this.report([{ line: 0, kind: r.notices.some((n) => n.kind === 'refused') ? 'refused' : 'ok', message: head }, ...this.nameOtherSets(r.notices, s)]);
+      `${notices.length ? `, ${notices.length} to look at` : ''}.`;
+    const words = skipped.length ? [{ line: skipped[0].line, kind: 'skipped',
+      message: `Skipped as text, not codes: ${skipped.map((n) => `line ${n.line} ‘${n.text}’`).join(', ')}.` }] : [];
+    this.report([{ line: 0, kind: notices.some((n) => n.kind === 'refused') ? 'refused' : 'ok', message: head }, ...this.nameOtherSets(notices, s), ...words]);
     if (how === 'paste' && r.accepted.length && !r.notices.some((n) => n.kind === 'refused')) $('coach-codes').value = '';
     this.renderTable(r.table);
     this.renderHead();

@@ -205,7 +205,9 @@ test('the class round trip: make, hand out, three students, read the codes back'
   const damaged = good.slice(0, at) + (good[at] === '7' ? '8' : '7') + good.slice(at + 1);
 
   await page.click('#coach-tabs [data-tab="results"]');
-  await page.fill('#coach-codes', `${codes['Mira Okafor']}\n${damaged}\n${other}, ${codes['Tomas Reyne']}`);
+  // With the words students write around their codes, which are text, not damaged codes.
+  const pasted = `${codes['Mira Okafor']} (Mira)\n${damaged}\n${other}, ${codes['Tomas Reyne']}\nThanks, see you Tuesday!`;
+  await page.fill('#coach-codes', pasted);
   await page.click('#coach-read');
   const reports = await page.$$eval('#coach-reports li', (l) => l.map((li) => [li.dataset.kind, li.dataset.line, li.textContent]));
   assert.equal(reports[0][2], '2 new students, 0 replaced, 2 to look at.');
@@ -215,8 +217,13 @@ test('the class round trip: make, hand out, three students, read the codes back'
   assert.match(refused[0][2], /^line 2, /);
   assert.equal(refused[1][1], '3', 'the other set\'s code is on line 3');
   assert.match(refused[1][2], /another set/);
-  assert.equal(await page.inputValue('#coach-codes'), `${codes['Mira Okafor']}\n${damaged}\n${other}, ${codes['Tomas Reyne']}`,
+  assert.deepEqual(reports.at(-1), ['skipped', '1',
+    'Skipped as text, not codes: line 1 ‘(Mira)’, line 4 ‘Thanks’, line 4 ‘see you Tuesday!’.']);
+  assert.equal(reports.length, 4, JSON.stringify(reports));
+  assert.equal(await page.inputValue('#coach-codes'), pasted,
     'the pasted text stays while some of it was refused');
+  await page.$eval('#coach-reports', (r) => r.scrollIntoView());
+  await artefact(page, 'coach-reports-desktop');
 
   // The third code comes in by the camera, as at a venue with no signal: a second browser
   // whose fake camera shows the student's QR code (a Y4M video made from the app's own QR

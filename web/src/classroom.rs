@@ -105,8 +105,10 @@ fn table_js(table: &ClassTable, by: SortBy) -> TableJs {
 #[derive(Serialize)]
 struct NoticeJs {
     line: usize,
-    /// "refused", "repeated" or "replaced".
+    /// "refused", "skipped" (words around the codes), "repeated" or "replaced".
     kind: &'static str,
+    /// The text as pasted, shortened.
+    text: String,
     /// The whole report: "line 3, 'AB12-…': a result for another set …".
     message: String,
 }
@@ -116,12 +118,14 @@ impl NoticeJs {
         let kind = match n.problem {
             Problem::Repeated { .. } => "repeated",
             Problem::Replaced { .. } => "replaced",
+            Problem::NotACode => "skipped",
             _ => "refused",
         };
         NoticeJs {
             line: n.line,
             kind,
             message: n.to_string(),
+            text: n.text,
         }
     }
 }
@@ -171,7 +175,7 @@ pub fn class_read(
             Err(e) => out.notices.push(NoticeJs::of(Notice {
                 line: found.line,
                 text: shortened(&found.text),
-                problem: Problem::Unreadable(e),
+                problem: Problem::unreadable(&found.text, e),
             })),
             Ok(_) => {
                 let added = table.add(&found.text);

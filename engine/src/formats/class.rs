@@ -8,8 +8,11 @@
 //! and semicolons always separate codes. Spaces may separate codes or groups of one code: a
 //! code's first bytes say how long it is (its version, name length and puzzle count), so the
 //! reader takes exactly that many characters, across spaces, and the code must end where a word
-//! ends. Text that is not a code (a damaged code, a word such as a greeting) is reported with
-//! its line and skipped; consecutive words that cannot be read are reported once. The reading
+//! ends. Text that cannot be read is reported with its line and skipped; consecutive words
+//! that cannot be read are reported once. Such text is called a damaged code when it could be
+//! part of one ([`looks_like_code`]: a word of at least four code characters with a digit
+//! among them, which every code has, its version being written first), and otherwise words
+//! around the codes (a greeting, a name, a date), reported as [`Problem::NotACode`]. The reading
 //! is linear in the length of the text: each word starts at most a bounded header read, and a
 //! whole code is decoded only when its length ends on a word boundary, after which reading goes
 //! on after it.
@@ -205,11 +208,26 @@ fn attempt(
         .map_err(|e| (e, k + 1))
 }
 
+/// Whether text that could not be read as a code could be part of one: it holds a word with at
+/// least four characters a code may hold and a digit among them. A code's first character is
+/// a digit (it writes its version first, a small number) and a word of a code is one of its
+/// groups of four or the whole code, so a damaged code passes whichever character went wrong
+/// (a test tries them all); words such as "thanks", "(Mira)" or "9pm" do not.
+pub fn looks_like_code(text: &str) -> bool {
+    text.split_whitespace().any(|w| {
+        w.chars().filter(|&c| result::symbol(c).is_some()).count() >= 4
+            && w.chars().any(|c| c.is_ascii_digit())
+    })
+}
+
 /// Why a code found in pasted text did not simply add a student.
 #[derive(Clone, Debug, PartialEq, Eq)]
 pub enum Problem {
-    /// The code could not be read (a typing mistake, cut short, not a code).
+    /// The code could not be read (a typing mistake, cut short).
     Unreadable(ResultError),
+    /// Text that could not be read and is no code (see [`looks_like_code`]): words around the
+    /// codes.
+    NotACode,
     /// A code for another set.
     OtherSet {
         /// The fingerprint in the code.
@@ -245,11 +263,24 @@ pub struct Notice {
     pub problem: Problem,
 }
 
+impl Problem {
+    /// The problem of text that could not be read: [`Problem::Unreadable`] when it could be a
+    /// damaged code, [`Problem::NotACode`] otherwise.
+    pub fn unreadable(text: &str, error: ResultError) -> Problem {
+        if looks_like_code(text) {
+            Problem::Unreadable(error)
+        } else {
+            Problem::NotACode
+        }
+    }
+}
+
 impl fmt::Display for Notice {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         write!(f, "line {}, '{}': ", self.line, self.text)?;
         match &self.problem {
             Problem::Unreadable(e) => write!(f, "{e}; skipped"),
+            Problem::NotACode => f.write_str("not a result code; skipped"),
             Problem::OtherSet { fingerprint } => write!(
                 f,
                 "a result for another set (set key {fingerprint:08x}); skipped"
@@ -393,7 +424,9 @@ impl ClassTable {
             };
             let code = match found.code {
                 Err(e) => {
-                    added.notices.push(notice(Problem::Unreadable(e)));
+                    added
+                        .notices
+                        .push(notice(Problem::unreadable(&found.text, e)));
                     continue;
                 }
                 Ok(code) => code,
@@ -610,6 +643,61 @@ mod tests {
         assert!(found[1].code.is_err() && found[1].line == 2);
         assert_eq!(found[2].code.as_ref().unwrap().name, "Tomas");
         assert!(found[3].code.is_err() && found[3].line == 3);
+    }
+
+    #[test]
+    fn words_around_the_codes_are_not_called_damaged_codes() {
+        let s = set();
+        let a = code(&s, "Mira", &[Attempt::Clean]);
+        let mut table = ClassTable::new(&s);
+        let text =
+            format!("Codes from the Harbour Street Circle: {a} (Mira)\nThanks! See you at 9pm");
+        let added = table.add(&text);
+        assert_eq!(added.new_students, 1);
+        assert!(!added.notices.is_empty());
+        for n in &added.notices {
+            assert_eq!(n.problem, Problem::NotACode, "{n}");
+            assert!(n.to_string().ends_with("not a result code; skipped"), "{n}");
+        }
+        // A date or a number with a digit could be a damaged code, and is reported as one.
+        let added = table.add("2026-12-04");
+        assert!(matches!(
+            added.notices[..],
+            [Notice {
+                problem: Problem::Unreadable(_),
+                ..
+            }]
+        ));
+    }
+
+    #[test]
+    fn every_damaged_code_is_reported_as_one_whatever_went_wrong() {
+        let s = set();
+        let mut table = ClassTable::new(&s);
+        let a = code(&s, "Ines", &[Attempt::Helped]);
+        let mut texts = Vec::new();
+        for (i, c) in a.char_indices().filter(|&(_, c)| c != '-') {
+            // Dropped, and changed to every other character a code may hold.
+            texts.push(format!("{}{}", &a[..i], &a[i + 1..]));
+            for d in "0123456789ABCDEFGHJKMNPQRSTVWXYZU"
+                .chars()
+                .filter(|&d| d != c)
+            {
+                texts.push(format!("{}{d}{}", &a[..i], &a[i + 1..]));
+            }
+        }
+        for text in texts.iter().flat_map(|t| [t.clone(), t.replace('-', " ")]) {
+            let added = table.add(&text);
+            assert_eq!(added.new_students, 0, "{text}");
+            assert!(
+                added
+                    .notices
+                    .iter()
+                    .all(|n| matches!(n.problem, Problem::Unreadable(_))),
+                "{text}: {:?}",
+                added.notices
+            );
+        }
     }
 
     #[test]
