@@ -115,7 +115,20 @@ async function student(link, name, puzzles, plan, viewport) {
   await page.fill('#student-name', name);
   const code = await page.textContent('#result-code');
   assert.match(code, /^[0-9A-Z]{4}(-[0-9A-Z]{1,4})+$/, `${name}'s code`);
-  if (touch) await artefact(page, 'coach-student-phone');
+  if (touch) {
+    await artefact(page, 'coach-student-phone');
+    // A message (the code copied) never covers the QR code held up to a camera: with the QR
+    // code at the foot of the screen, the banner stands at the top.
+    await page.$eval('#result-qr', (q) => q.scrollIntoView({ block: 'end' }));
+    await page.$eval('#copy-code', (b) => b.click());
+    await page.waitForSelector('#banners .banner[data-id="copied"]');
+    const [qr, msg] = await page.$$eval('#result-qr, #banners .banner[data-id="copied"]', (l) => l.map((x) => {
+      const r = x.getBoundingClientRect();
+      return { top: r.top, bottom: r.bottom };
+    }));
+    assert.ok(msg.bottom <= qr.top || msg.top >= qr.bottom, `the message ${JSON.stringify(msg)} is clear of the QR code ${JSON.stringify(qr)}`);
+    await artefact(page, 'coach-student-copied-phone');
+  }
   assert.deepEqual(errors, [], `${name}: no errors`);
   await context.close();
   return code;
@@ -659,9 +672,11 @@ test('Coach on a phone: make, preview, hand out and results fit 360 px', async (
   assert.ok(await wide() <= 360, 'nothing is wider than the phone (hand out)');
   await artefact(page, 'coach-handout-phone', { fullPage: true });
   await page.click('#coach-tabs [data-tab="results"]');
-  await page.fill('#coach-codes', 'HELLO');
+  // A damaged code (its report is the longest line), and a word that is no code.
+  await page.fill('#coach-codes', 'HELLO\n0B5G-X7SV-1D6P-JWK1-417P-PRB6-DXS0-C022-GM51-8A20-ZR8C-780');
   await page.click('#coach-read');
-  assert.match(await page.textContent('#coach-reports li:nth-child(2)'), /^line 1, 'HELLO': /);
+  assert.match(await page.textContent('#coach-reports li:nth-child(2)'), /^line 2, '0B5G-X7SV-1D6P-JWK1-417P-PRB6-DXS0-C022-…': this result code does not check out/);
+  assert.equal(await page.textContent('#coach-reports li:nth-child(3)'), 'Skipped as text, not codes: line 1 ‘HELLO’.');
   assert.ok(await wide() <= 360, 'nothing is wider than the phone (results)');
   await artefact(page, 'coach-results-phone', { fullPage: true });
   // Every control has a name and a target of at least 44 px.
