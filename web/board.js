@@ -141,14 +141,14 @@ export class BoardView {
     this.log?.replaceChildren();
   }
 
-  say(lines, kind) {
+  say(lines, kind, aloud = true) {
     const list = lines.filter(Boolean);
     if (!list.length) return;
     if (this.log) {
       for (const line of list) this.log.append(el('li', { text: line }));
       while (this.log.childElementCount > LOG_KEEP) this.log.firstElementChild.remove();
     }
-    announce(list);
+    if (aloud) announce(list);
     if (this.message && kind !== undefined) {
       this.message.textContent = list.join(' ');
       this.message.dataset.kind = kind;
@@ -178,7 +178,12 @@ export class BoardView {
     const s = this.changed('load');
     this.markFirstBoard();
     bringBoard(this.canvas);
-    this.note(s.goal, 'goal');
+    // A try that ended before a reload says again why: the reason and the replies, or the solve.
+    const said = this.trainer.restoredSay().split('\n').filter(Boolean);
+    if (said.length) {
+      this.say(said.slice(0, 1), s.state === 'solved' ? 'solved' : 'wrong');
+      this.say(said.slice(1), undefined, false);
+    } else this.note(s.goal, 'goal');
     return s;
   }
 

@@ -166,6 +166,12 @@ test('a try cut short by a reload while the app shows its replies still counts',
   await ready(page);
   const pending = Number(await page.evaluate(() => sessionStorage.getItem('pendingAtFail')));
   assert.ok(pending > 0, `the reload came while replies were still to be shown (${pending})`);
+  // Opened again, the puzzle still says why the move failed, and the log holds the replies.
+  await page.waitForSelector('#tonight-board[data-state="failed"]');
+  assert.equal(await page.getAttribute('#tonight-message', 'data-kind'), 'wrong');
+  assert.match(await page.textContent('#tonight-message'), new RegExp(`^(Black|White) ${four}: not right`));
+  const replies = await page.$$eval('#tonight-log li', (l) => l.map((x) => x.textContent));
+  assert.ok(replies.length >= 2, replies.join(' | '));
   // The miss was recorded: Revisit holds it, and Progress counts the try.
   await goTo(page, 'revisit');
   assert.match(await page.textContent('#revisit-lead'), /Nothing due today; 1 in all/);

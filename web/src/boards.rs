@@ -101,6 +101,8 @@ pub struct PuzzleBoardHandle {
     surface: Surface,
     board: Option<PuzzleBoard>,
     options: Settings,
+    /// What the loaded record's try said when it ended (see `restoredSay`).
+    restored: Vec<String>,
 }
 
 impl PuzzleBoardHandle {
@@ -135,6 +137,7 @@ impl PuzzleBoardHandle {
             surface: Surface::new(canvas)?,
             board: None,
             options: Settings::default(),
+            restored: Vec::new(),
         })
     }
 
@@ -183,9 +186,10 @@ impl PuzzleBoardHandle {
         };
         let mut board = PuzzleBoard::new(puzzle, trusted);
         board.set_options(self.options);
-        if let Some(r) = record {
-            with_solver(|s| board.restore(s, &r));
-        }
+        self.restored = match record {
+            Some(r) => with_solver(|s| board.restore(s, &r)),
+            None => Vec::new(),
+        };
         // A move the page cannot settle within a frame's work goes to the worker
         // (`gradedMoves`, then `settle`).
         board.set_allowance(grade::PAGE_NODES);
@@ -194,6 +198,14 @@ impl PuzzleBoardHandle {
         let view = self.view();
         self.surface.fit(None, None, &view)?;
         self.status()
+    }
+
+    /// What the try of the record given to `load` said when it ended (a wrong move's reason
+    /// and the replies, or the solve), one sentence a line, to be shown again; empty for a try
+    /// still going.
+    #[wasm_bindgen(js_name = restoredSay)]
+    pub fn restored_say(&self) -> String {
+        self.restored.join("\n")
     }
 
     /// A tap or click at viewport coordinates (see `PuzzleBoard::touch`).

@@ -138,25 +138,37 @@ impl PuzzleBoard {
 
     /// Brings back a record after a reload: the player's moves are graded again, replies
     /// included, and everything is shown at once; the wrong tries, hint steps and attempt
-    /// counted before are kept (they decide how the puzzle went).
-    pub fn restore(&mut self, solver: &mut Solver, record: &Record) {
+    /// counted before are kept (they decide how the puzzle went). Returns what was said when
+    /// the try ended, so that a page opened again still says why: the last move's answer in
+    /// one line (a wrong move's reason, or the solve), then the replies; nothing for a try
+    /// still going.
+    pub fn restore(&mut self, solver: &mut Solver, record: &Record) -> Vec<String> {
+        let mut said = Vec::new();
         for &p in &record.played {
             let a = self.play_point(solver, p);
-            if matches!(
-                a.kind,
-                AnswerKind::Wrong
-                    | AnswerKind::Illegal
-                    | AnswerKind::Finished
-                    | AnswerKind::Undecided
-            ) {
+            let ended = matches!(a.kind, AnswerKind::Wrong | AnswerKind::Solved);
+            if ended {
+                said = vec![a.say.join(" ")];
+            }
+            if ended
+                || matches!(
+                    a.kind,
+                    AnswerKind::Illegal | AnswerKind::Finished | AnswerKind::Undecided
+                )
+            {
                 break;
             }
         }
-        while self.reveal().is_some() {}
+        while let Some(r) = self.reveal() {
+            if !said.is_empty() {
+                said.push(r.say);
+            }
+        }
         self.wrong = self.wrong.max(record.wrong);
         self.hints = self.hints.max(record.hints.min(3));
         self.attempt = record.attempt.merge(self.attempt);
         self.settle();
+        said
     }
 
     /// Folds the live attempt into the record's.
@@ -689,8 +701,15 @@ mod tests {
             .expect("a wrong move with a refutation in the fixture");
         assert!(a.reason.is_some());
         assert!(a.pending >= 1);
-        while b.reveal().is_some() {}
+        let mut said = vec![a.say.join(" ")];
+        while let Some(r) = b.reveal() {
+            said.push(r.say);
+        }
         assert_eq!(b.status().state, State::Failed);
+        // Opened again (a reload), the board says the same: the reason and the replies.
+        let mut again = PuzzleBoard::new(b.puzzle().clone(), true);
+        assert_eq!(again.restore(&mut s, &b.status().record), said);
+        assert_eq!(again.status().state, State::Failed);
         assert_eq!(b.view().marks.refuted, Some(wrong));
         assert_eq!(b.status().record.played, vec![wrong]);
         assert_eq!(b.status().record.attempt, Attempt::Failed);
@@ -785,7 +804,10 @@ mod tests {
         b.hint(&mut s);
         let rec = b.status().record;
         let mut again = PuzzleBoard::new(p, true);
-        again.restore(&mut s, &rec);
+        assert!(
+            again.restore(&mut s, &rec).is_empty(),
+            "a try still going says nothing"
+        );
         let st = again.status();
         assert_eq!(
             st.moves,
