@@ -531,7 +531,10 @@ export class Tonight {
     const p = this.puzzlesOf(key)[prog.index];
     if (!p) return;
     const rec = own(prog.puzzles, p.id);
-    if (rec && rec.seconds === undefined) {
+    // Only a puzzle's first finished try counts, in the logbook (so in Revisit and Progress)
+    // as in the result code and the marks; a try after it is practice on a counted puzzle.
+    if (rec?.seconds !== undefined) return;
+    if (rec) {
       rec.seconds = Math.round(millis / 1000);
       this.saveProgress();
     }

@@ -172,6 +172,13 @@ test('a try cut short by a reload while the app shows its replies still counts',
   assert.match(await page.textContent('#tonight-message'), new RegExp(`^(Black|White) ${four}: not right`));
   const replies = await page.$$eval('#tonight-log li', (l) => l.map((x) => x.textContent));
   assert.ok(replies.length >= 2, replies.join(' | '));
+  // A retry that solves it is practice on a counted puzzle: the logbook (so Progress and
+  // Revisit) keeps the first try only, as the marks and the result code do.
+  await page.click('#tonight-play [data-act="retry"]');
+  await settled(page, 'tonight-board', 0);
+  await solve(page, 'tonight-board', CLUB.puzzles[1].solution.line);
+  const logged = await page.evaluate(() => JSON.parse(JSON.parse(localStorage.getItem('fivefold.practice')).data.log).entries);
+  assert.deepEqual(logged.map((e) => e.outcome), ['failed'], JSON.stringify(logged));
   // The miss was recorded: Revisit holds it, and Progress counts the try.
   await goTo(page, 'revisit');
   assert.match(await page.textContent('#revisit-lead'), /Nothing due today; 1 in all/);
