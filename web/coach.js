@@ -995,11 +995,14 @@ export class Coach {
     // to look at.
     const skipped = r.notices.filter((n) => n.kind === 'skipped');
     const notices = r.notices.filter((n) => n.kind !== 'skipped');
+    const count = (kind) => notices.filter((n) => n.kind === kind).length;
+    const same = count('repeated');
+    const look = count('refused');
     const head = `${r.newStudents} new student${r.newStudents === 1 ? '' : 's'}, ${r.replaced} replaced` +
-      `${notices.length ? `, ${notices.length} to look at` : ''}.`;
+      `${same ? `, ${same} unchanged` : ''}${look ? `, ${look} to look at` : ''}.`;
     const words = skipped.length ? [{ line: skipped[0].line, kind: 'skipped',
       message: `Skipped as text, not codes: ${skipped.map((n) => `line ${n.line} ‘${n.text}’`).join(', ')}.` }] : [];
-    this.report([{ line: 0, kind: notices.some((n) => n.kind === 'refused') ? 'refused' : 'ok', message: head }, ...this.nameOtherSets(notices, s), ...words]);
+    this.report([{ line: 0, kind: look ? 'refused' : 'ok', message: head }, ...this.nameOtherSets(notices, s), ...words]);
     if (how === 'paste' && r.accepted.length && !r.notices.some((n) => n.kind === 'refused')) $('coach-codes').value = '';
     this.renderTable(r.table);
     this.renderHead();

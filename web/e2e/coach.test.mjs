@@ -231,12 +231,16 @@ test('the class round trip: make, hand out, three students, read the codes back'
   assert.equal(refused[1][1], '3', 'the other set\'s code is on line 3');
   assert.match(refused[1][2], /another set/);
   assert.deepEqual(reports.at(-1), ['skipped', '1',
-    'Skipped as text, not codes: line 1 ‘(Mira)’, line 4 ‘Thanks’, line 4 ‘see you Tuesday!’.']);
+    'Skipped as text, not codes: line 1 ‘Mira’, line 4 ‘Thanks’, line 4 ‘see you Tuesday’.']);
   assert.equal(reports.length, 4, JSON.stringify(reports));
   assert.equal(await page.inputValue('#coach-codes'), pasted,
     'the pasted text stays while some of it was refused');
   await page.$eval('#coach-reports', (r) => r.scrollIntoView());
   await artefact(page, 'coach-reports-desktop');
+  // The same code again changes nothing, and is no problem to look at.
+  await page.fill('#coach-codes', `Mira again: ${codes['Mira Okafor']}.`);
+  await page.click('#coach-read');
+  assert.equal(await page.textContent('#coach-reports li:first-child'), '0 new students, 0 replaced, 1 unchanged.');
 
   // The third code comes in by the camera, as at a venue with no signal: a second browser
   // whose fake camera shows the student's QR code (a Y4M video made from the app's own QR

@@ -116,7 +116,7 @@ struct NoticeJs {
 impl NoticeJs {
     fn of(n: Notice) -> NoticeJs {
         let kind = match n.problem {
-            Problem::Repeated { .. } => "repeated",
+            Problem::Repeated { .. } | Problem::Earlier { .. } => "repeated",
             Problem::Replaced { .. } => "replaced",
             Problem::NotACode => "skipped",
             _ => "refused",

@@ -3,9 +3,12 @@
 //!
 //! **Reading pasted text.** An instructor pastes whatever the students sent: one code per line,
 //! or several on a line separated by spaces, commas or semicolons, each code written as the page
-//! shows it (groups of four joined by dashes) or typed with spaces between the groups, in lower
-//! case, with I, L or O for 1, 1 or 0 (the result code's own forgiving reading). Lines, commas
-//! and semicolons always separate codes. Spaces may separate codes or groups of one code: a
+//! shows it (groups of four joined by dashes, or by the other dashes a phone may write) or typed
+//! with spaces between the groups, in lower case, with I, L or O for 1, 1 or 0 (the result
+//! code's own forgiving reading), and with the punctuation of a chat around it ("Mira: CODE.",
+//! "(CODE)", quotes, the invisible characters messaging apps insert): every character but the
+//! letters and digits of the Latin alphabet and dashes separates words as a space does. Lines, commas and semicolons always separate codes. Spaces may separate codes
+//! or groups of one code: a
 //! code's first bytes say how long it is (its version, name length and puzzle count), so the
 //! reader takes exactly that many characters, across spaces, and the code must end where a word
 //! ends. Text that cannot be read is reported with its line and skipped; consecutive words
@@ -19,11 +22,15 @@
 //!
 //! **Which codes count.** Each code is checked: unreadable (a typing mistake, cut short), for
 //! another set (its fingerprint differs from the set's), or for a set of another length. A
-//! student is known by name, compared without regard to case or repeated spaces. **The latest
-//! code of a student replaces the earlier one**: a student who sends a second code after trying
-//! again means the second, and the report says that it replaced the earlier result. A code
-//! that repeats what the table already holds for that student is reported as a repeat and
-//! changes nothing. A code with no name is its own row. Adding codes never removes a student.
+//! student is known by name, compared without regard to case or repeated spaces. **A code
+//! carries no time, so a student's codes are ordered by what they hold**: the page's record of
+//! a puzzle only moves on (untried, then failed, then solved; a solve stays), so a code that
+//! carries on from the one in the table ([`carries_on`]) replaces it, and one the table's
+//! carries on from is an earlier code, reported and kept out, whatever order they are pasted
+//! in. Two codes that neither carries on from (two devices) are settled by the order they are
+//! read in: the later read replaces the earlier, and the report says so. A code that repeats
+//! what the table already holds for that student is reported as a repeat and changes nothing.
+//! A code with no name is its own row. Adding codes never removes a student.
 //!
 //! **CSV.** [`ClassTable::to_csv`] follows RFC 4180: a header row, records ending in CRLF,
 //! fields quoted when they hold a comma, a double quote, CR or LF, quotes inside doubled, UTF-8.
@@ -62,6 +69,17 @@ pub fn find_codes(text: &str) -> Vec<Found> {
     let mut found = Vec::new();
     for (n, line) in text.lines().enumerate() {
         for piece in line.split([',', ';']) {
+            // Letters and digits of the alphabet a code is written in, and dashes, make words;
+            // anything else (punctuation, quotes, invisible characters, other scripts) parts
+            // them as a space does.
+            let piece: String = piece
+                .chars()
+                .map(|c| match c {
+                    '\u{2010}'..='\u{2015}' | '\u{2212}' => '-',
+                    c if c.is_ascii_alphanumeric() || c == '-' => c,
+                    _ => ' ',
+                })
+                .collect();
             let words: Vec<Word> = piece
                 .split_whitespace()
                 .map(|w| {
@@ -209,15 +227,28 @@ fn attempt(
 }
 
 /// Whether text that could not be read as a code could be part of one: it holds a word with at
-/// least four characters a code may hold and a digit among them. A code's first character is
-/// a digit (it writes its version first, a small number) and a word of a code is one of its
-/// groups of four or the whole code, so a damaged code passes whichever character went wrong
-/// (a test tries them all); words such as "thanks", "(Mira)" or "9pm" do not.
+/// least four characters a code may hold, a digit and a letter among them. A code's first
+/// character is a digit (it writes its version first, a small number), a word of a code is one
+/// of its groups of four or the whole code, and its groups hold letters, so a damaged code
+/// passes whichever character went wrong (a test tries them all); words such as "thanks",
+/// "Mira", "9pm", or a chat's date and time ("02/12/2026 21:14") do not.
 pub fn looks_like_code(text: &str) -> bool {
     text.split_whitespace().any(|w| {
         w.chars().filter(|&c| result::symbol(c).is_some()).count() >= 4
             && w.chars().any(|c| c.is_ascii_digit())
+            && w.chars().any(|c| c.is_ascii_alphabetic())
     })
+}
+
+/// Whether the results `later` carry on from `earlier`: each puzzle's attempt is where the
+/// page's record of it could have moved from the earlier one ([`Attempt::merge`]: an untried
+/// puzzle tried, a failed one failed again or solved; a solve stays as it was).
+pub fn carries_on(later: &[PuzzleResult], earlier: &[PuzzleResult]) -> bool {
+    later.len() == earlier.len()
+        && later
+            .iter()
+            .zip(earlier)
+            .all(|(l, e)| e.attempt.merge(l.attempt) == l.attempt)
 }
 
 /// Why a code found in pasted text did not simply add a student.
@@ -247,6 +278,14 @@ pub enum Problem {
     },
     /// A new code for a student already in the table: it replaced the earlier results.
     Replaced {
+        /// The student.
+        name: String,
+        /// Whether it carries on from the results it replaced ([`carries_on`]); if not (two
+        /// devices), it replaced them for being read later.
+        later: bool,
+    },
+    /// A code the table's results for the student carry on from: an earlier one, kept out.
+    Earlier {
         /// The student.
         name: String,
     },
@@ -292,8 +331,15 @@ impl fmt::Display for Notice {
             Problem::Repeated { name } => {
                 write!(f, "the same result for {name} again; nothing changed")
             }
-            Problem::Replaced { name } => {
-                write!(f, "a newer result for {name}; it replaces the earlier one")
+            Problem::Replaced { name, later: true } => {
+                write!(f, "a later result for {name}; it replaces the earlier one")
+            }
+            Problem::Replaced { name, later: false } => write!(
+                f,
+                "another result for {name} (another device?); read later, it replaces the one before"
+            ),
+            Problem::Earlier { name } => {
+                write!(f, "an earlier result for {name}; the table keeps the later one")
             }
         }
     }
@@ -453,17 +499,23 @@ impl ClassTable {
             match row {
                 Some(row) => {
                     let student = &mut self.students[row];
+                    let later = carries_on(&code.puzzles, &student.results);
                     if student.results == code.puzzles {
                         added
                             .notices
                             .push(notice(Problem::Repeated { name: code.name }));
+                    } else if !later && carries_on(&student.results, &code.puzzles) {
+                        added
+                            .notices
+                            .push(notice(Problem::Earlier { name: code.name }));
                     } else {
                         student.results = code.puzzles;
                         student.name = code.name.clone();
                         added.replaced += 1;
-                        added
-                            .notices
-                            .push(notice(Problem::Replaced { name: code.name }));
+                        added.notices.push(notice(Problem::Replaced {
+                            name: code.name,
+                            later,
+                        }));
                     }
                 }
                 None => {
@@ -659,15 +711,77 @@ mod tests {
             assert_eq!(n.problem, Problem::NotACode, "{n}");
             assert!(n.to_string().ends_with("not a result code; skipped"), "{n}");
         }
-        // A date or a number with a digit could be a damaged code, and is reported as one.
-        let added = table.add("2026-12-04");
+        // A chat's date and time are words too; a group of code characters with a digit and a
+        // letter could be a damaged code, and is reported as one.
+        let added = table.add("[02/12/2026 21:14] Tomas Reyne: thanks\n0B5G-X7SV");
+        assert_eq!(added.notices.len(), 2, "{:?}", added.notices);
+        assert_eq!(added.notices[0].problem, Problem::NotACode);
+        assert!(matches!(added.notices[1].problem, Problem::Unreadable(_)));
+        assert_eq!(added.notices[1].text, "0B5G-X7SV");
+    }
+
+    #[test]
+    fn a_code_in_a_chat_reads_with_the_punctuation_around_it() {
+        let s = set();
+        let a = code(&s, "Mira", &[Attempt::Clean]);
+        let dashed = a.replace('-', "\u{2013}");
+        for text in [
+            format!("{a}."),
+            format!("({a})"),
+            format!("\"{a}\"!"),
+            format!("“{a}”"),
+            format!("Mira:{a}"),
+            format!("Ines: {a}. Sorry, only did one"),
+            format!("{a}\u{200B}"),
+            format!("\u{FEFF}{dashed}"),
+        ] {
+            let mut table = ClassTable::new(&s);
+            let added = table.add(&text);
+            assert_eq!(added.new_students, 1, "{text}: {:?}", added.notices);
+            assert!(
+                added.notices.iter().all(|n| n.problem == Problem::NotACode),
+                "{text}: {:?}",
+                added.notices
+            );
+        }
+    }
+
+    #[test]
+    fn a_students_codes_count_in_the_order_they_carry_on_whatever_the_pasting_order() {
+        let s = set();
+        let n = s.puzzles.len();
+        assert!(n >= 2);
+        // At 19:00 Tomas failed puzzle 1 and stopped; at 21:00 he had solved it (helped, after
+        // the failure) and puzzle 2 cleanly.
+        let evening = code(&s, "Tomas", &[Attempt::Failed]);
+        let night = code(&s, "Tomas", &[Attempt::Helped, Attempt::Clean]);
+        let solved = |t: &ClassTable| t.students()[0].solved();
+        let mut table = ClassTable::new(&s);
+        let added = table.add(&format!("{night}\n{evening}"));
+        assert_eq!((added.new_students, added.replaced), (1, 0));
+        assert_eq!(
+            added.notices[0].problem,
+            Problem::Earlier {
+                name: "Tomas".into()
+            }
+        );
+        assert_eq!(solved(&table), 2, "the later code stays");
+        let mut table = ClassTable::new(&s);
+        let added = table.add(&format!("{evening}\n{night}"));
+        assert_eq!((added.new_students, added.replaced), (1, 1));
         assert!(matches!(
-            added.notices[..],
-            [Notice {
-                problem: Problem::Unreadable(_),
-                ..
-            }]
+            added.notices[0].problem,
+            Problem::Replaced { later: true, .. }
         ));
+        assert_eq!(solved(&table), 2);
+        // Codes from two devices: neither carries on from the other, and the later read wins.
+        let other = code(&s, "Tomas", &[Attempt::Clean, Attempt::Failed]);
+        let added = table.add(&other);
+        assert!(matches!(
+            added.notices[0].problem,
+            Problem::Replaced { later: false, .. }
+        ));
+        assert_eq!(solved(&table), 1);
     }
 
     #[test]
@@ -719,7 +833,7 @@ mod tests {
         assert_eq!((added.new_students, added.replaced), (0, 1));
         assert!(added.notices[0]
             .to_string()
-            .contains("replaces the earlier"));
+            .contains("a later result for mira; it replaces"));
         // Both students are still there; Mira's row now holds the newer results.
         let rows = table.students();
         assert_eq!(rows.len(), 2);
