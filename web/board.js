@@ -178,11 +178,13 @@ export class BoardView {
     const s = this.changed('load');
     this.markFirstBoard();
     bringBoard(this.canvas);
-    // A try that ended before a reload says again why: the reason and the replies, or the solve.
-    const said = this.trainer.restoredSay().split('\n').filter(Boolean);
-    if (said.length) {
-      this.say(said.slice(0, 1), s.state === 'solved' ? 'solved' : 'wrong');
-      this.say(said.slice(1), undefined, false);
+    // After a reload the log is back, and a try that had ended says again why (the wrong
+    // move's reason, or the solve).
+    const [end, ...log] = this.trainer.restoredSay().split('\n');
+    this.say(log, undefined, false);
+    if (end) {
+      this.note(end, s.state === 'solved' ? 'solved' : 'wrong');
+      announce(end);
     } else this.note(s.goal, 'goal');
     return s;
   }

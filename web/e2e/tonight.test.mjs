@@ -87,6 +87,12 @@ test('a VCF puzzle from the starter library is solved by clicking its solution o
   assert.ok(log.includes('Solved. Five in a row.'));
   assert.match(await page.textContent('#live'), /Solved/);
   assert.ok(await page.$eval('[data-act="next"]', (b) => b.classList.contains('ready')));
+  // Opened again, the puzzle shows its log and how it ended, not only the goal.
+  await page.reload();
+  await page.waitForSelector(`#${BOARD}[data-state="solved"]`);
+  assert.deepEqual(await logLines(page, 'tonight-log'), log);
+  assert.match(await page.textContent('#tonight-message'), /Solved\. Five in a row\./);
+  assert.equal(await page.getAttribute('#tonight-message', 'data-kind'), 'solved');
   assert.deepEqual(errors, []);
   await context.close();
 });

@@ -9,7 +9,9 @@ use std::str::FromStr;
 use engine::formats::setfile;
 use engine::puzzle::attempt::Attempt;
 use engine::puzzle::grade::{self, Grade};
-use engine::trainer::{Answer, AnswerKind, PuzzleBoard, Record, Settings, StudyBoard, Tool, View};
+use engine::trainer::{
+    Answer, AnswerKind, PuzzleBoard, Record, Retold, Settings, StudyBoard, Tool, View,
+};
 use engine::{Point, Rule, Stone};
 use serde::{Deserialize, Serialize};
 use wasm_bindgen::prelude::*;
@@ -101,8 +103,8 @@ pub struct PuzzleBoardHandle {
     surface: Surface,
     board: Option<PuzzleBoard>,
     options: Settings,
-    /// What the loaded record's try said when it ended (see `restoredSay`).
-    restored: Vec<String>,
+    /// What the loaded record's try said (see `restoredSay`).
+    restored: Retold,
 }
 
 impl PuzzleBoardHandle {
@@ -137,7 +139,7 @@ impl PuzzleBoardHandle {
             surface: Surface::new(canvas)?,
             board: None,
             options: Settings::default(),
-            restored: Vec::new(),
+            restored: Retold::default(),
         })
     }
 
@@ -188,7 +190,7 @@ impl PuzzleBoardHandle {
         board.set_options(self.options);
         self.restored = match record {
             Some(r) => with_solver(|s| board.restore(s, &r)),
-            None => Vec::new(),
+            None => Retold::default(),
         };
         // A move the page cannot settle within a frame's work goes to the worker
         // (`gradedMoves`, then `settle`).
@@ -200,12 +202,15 @@ impl PuzzleBoardHandle {
         self.status()
     }
 
-    /// What the try of the record given to `load` said when it ended (a wrong move's reason
-    /// and the replies, or the solve), one sentence a line, to be shown again; empty for a try
-    /// still going.
+    /// What the try of the record given to `load` said, one sentence a line: first the
+    /// answer that ended it (a wrong move's reason, or the solve; an empty line for a try still
+    /// going), then its log of moves and replies, to be shown again.
     #[wasm_bindgen(js_name = restoredSay)]
     pub fn restored_say(&self) -> String {
-        self.restored.join("\n")
+        let r = &self.restored;
+        let mut lines = vec![r.ended.as_deref().unwrap_or("")];
+        lines.extend(r.log.iter().map(String::as_str));
+        lines.join("\n")
     }
 
     /// A tap or click at viewport coordinates (see `PuzzleBoard::touch`).

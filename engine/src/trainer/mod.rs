@@ -16,7 +16,7 @@
 mod puzzle;
 mod study;
 
-pub use puzzle::{PuzzleBoard, PuzzleStatus, Record};
+pub use puzzle::{PuzzleBoard, PuzzleStatus, Record, Retold};
 pub use study::{StudyBoard, StudyStatus, Tool};
 
 use serde::Serialize;

@@ -73,6 +73,15 @@ pub struct PuzzleStatus {
     pub solution: bool,
 }
 
+/// What a restored try said ([`PuzzleBoard::restore`]).
+#[derive(Clone, Debug, Default, PartialEq, Eq)]
+pub struct Retold {
+    /// Every sentence of its moves and replies, in order, as the log showed them.
+    pub log: Vec<String>,
+    /// The answer that ended it, in one line; `None` for a try still going.
+    pub ended: Option<String>,
+}
+
 /// A puzzle being played.
 #[derive(Clone, Debug)]
 pub struct PuzzleBoard {
@@ -138,37 +147,35 @@ impl PuzzleBoard {
 
     /// Brings back a record after a reload: the player's moves are graded again, replies
     /// included, and everything is shown at once; the wrong tries, hint steps and attempt
-    /// counted before are kept (they decide how the puzzle went). Returns what was said when
-    /// the try ended, so that a page opened again still says why: the last move's answer in
-    /// one line (a wrong move's reason, or the solve), then the replies; nothing for a try
-    /// still going.
-    pub fn restore(&mut self, solver: &mut Solver, record: &Record) -> Vec<String> {
-        let mut said = Vec::new();
+    /// counted before are kept (they decide how the puzzle went). Returns what the try said,
+    /// so that a page opened again still shows it: the log of its moves and replies, and the
+    /// answer that ended it (a wrong move's reason, or the solve) in one line.
+    pub fn restore(&mut self, solver: &mut Solver, record: &Record) -> Retold {
+        let mut told = Retold::default();
         for &p in &record.played {
             let a = self.play_point(solver, p);
-            let ended = matches!(a.kind, AnswerKind::Wrong | AnswerKind::Solved);
-            if ended {
-                said = vec![a.say.join(" ")];
+            let stop = matches!(
+                a.kind,
+                AnswerKind::Illegal | AnswerKind::Finished | AnswerKind::Undecided
+            );
+            if matches!(a.kind, AnswerKind::Wrong | AnswerKind::Solved) {
+                told.ended = Some(a.say.join(" "));
             }
-            if ended
-                || matches!(
-                    a.kind,
-                    AnswerKind::Illegal | AnswerKind::Finished | AnswerKind::Undecided
-                )
-            {
+            if !stop {
+                told.log.extend(a.say);
+            }
+            while let Some(r) = self.reveal() {
+                told.log.push(r.say);
+            }
+            if stop || told.ended.is_some() {
                 break;
-            }
-        }
-        while let Some(r) = self.reveal() {
-            if !said.is_empty() {
-                said.push(r.say);
             }
         }
         self.wrong = self.wrong.max(record.wrong);
         self.hints = self.hints.max(record.hints.min(3));
         self.attempt = record.attempt.merge(self.attempt);
         self.settle();
-        said
+        told
     }
 
     /// Folds the live attempt into the record's.
@@ -701,14 +708,16 @@ mod tests {
             .expect("a wrong move with a refutation in the fixture");
         assert!(a.reason.is_some());
         assert!(a.pending >= 1);
-        let mut said = vec![a.say.join(" ")];
+        let mut log = a.say.clone();
         while let Some(r) = b.reveal() {
-            said.push(r.say);
+            log.push(r.say);
         }
         assert_eq!(b.status().state, State::Failed);
         // Opened again (a reload), the board says the same: the reason and the replies.
         let mut again = PuzzleBoard::new(b.puzzle().clone(), true);
-        assert_eq!(again.restore(&mut s, &b.status().record), said);
+        let told = again.restore(&mut s, &b.status().record);
+        assert_eq!(told.log, log);
+        assert_eq!(told.ended, Some(a.say.join(" ")));
         assert_eq!(again.status().state, State::Failed);
         assert_eq!(b.view().marks.refuted, Some(wrong));
         assert_eq!(b.status().record.played, vec![wrong]);
@@ -800,14 +809,16 @@ mod tests {
         let line = p.line.clone();
         let mut s = solver();
         let mut b = PuzzleBoard::new(p.clone(), true);
-        b.play(&mut s, line[0]);
+        let mut log = b.play(&mut s, line[0]).say;
+        while let Some(r) = b.reveal() {
+            log.push(r.say);
+        }
         b.hint(&mut s);
         let rec = b.status().record;
         let mut again = PuzzleBoard::new(p, true);
-        assert!(
-            again.restore(&mut s, &rec).is_empty(),
-            "a try still going says nothing"
-        );
+        let told = again.restore(&mut s, &rec);
+        assert_eq!(told.log, log, "the move and the reply, as the log had them");
+        assert_eq!(told.ended, None, "a try still going");
         let st = again.status();
         assert_eq!(
             st.moves,
