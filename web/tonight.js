@@ -268,13 +268,14 @@ export class Tonight {
     const bad = puzzles.map((p, i) => [i, this.checkOf(key, p.id)]).filter(([, c]) => c && c.state !== 'ok');
     const title = s.title || 'Untitled set';
     if (!bad.length) {
-      banner(`All ${puzzles.length} answer keys of "${title}" check out.`, { id: 'check' });
+      banner(puzzles.length === 1 ? `The answer key of "${title}" checks out.`
+        : `All ${puzzles.length} answer keys of "${title}" check out.`, { id: 'check' });
       return;
     }
     const lines = bad.map(([i, c]) => `puzzle ${i + 1}: ${c.problems.join('; ')}`);
     const what = bad.some(([, c]) => c.state === 'corrected')
       ? ' Fivefold grades and hints these with its own proved answers.' : '';
-    banner(`${bad.length} of ${puzzles.length} answer keys of "${title}" do not hold: ${lines.join('. ')}.${what}`,
+    banner(`${bad.length} of ${puzzles.length} answer key${puzzles.length === 1 ? '' : 's'} of "${title}" ${bad.length === 1 ? 'does' : 'do'} not hold: ${lines.join('. ')}.${what}`,
       { kind: 'warn', id: 'check', sticky: true });
   }
 

@@ -210,8 +210,8 @@ impl fmt::Display for ResultError {
             ),
             ResultError::NameTooLong { bytes } => write!(
                 f,
-                "the name is {bytes} bytes long; a result code holds at most {MAX_NAME_BYTES} \
-                 (shorten it)"
+                "the name takes {bytes} bytes and a result code holds {MAX_NAME_BYTES} (a letter \
+                 outside A to Z takes two or more); shorten it"
             ),
             ResultError::TooManyPuzzles { count } => write!(
                 f,
@@ -540,6 +540,12 @@ mod tests {
         assert_eq!(
             encode(1, "Bartholomew of the Harbour", &sample()),
             Err(ResultError::NameTooLong { bytes: 26 })
+        );
+        // Said in words a student can act on: what a code holds, and why a name is long.
+        let said = ResultError::NameTooLong { bytes: 37 }.to_string();
+        assert!(
+            said.contains("takes 37 bytes and a result code holds 24 (a letter outside A to Z"),
+            "{said}"
         );
         // 24 bytes exactly is allowed; 8 letters of 3 bytes each is 24 bytes.
         assert!(encode(1, "ナミダナミダナミ", &sample()).is_ok());
