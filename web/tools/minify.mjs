@@ -2,7 +2,8 @@
 // module script (the app's modules, the worker, the wasm-bindgen glue) and the style sheet.
 // Each file stays the module it was (same imports and exports, nothing bundled); names local
 // to a module are shortened, comments and spaces dropped. The service worker is left alone
-// (tools/stamp.mjs writes into it afterwards), and so is the page itself.
+// (tools/stamp.mjs writes into it afterwards). The page loses its comments and the indents
+// of its lines (tools/lean-html.mjs).
 //   node web/tools/minify.mjs [dist]
 // Set FIVEFOLD_NO_MINIFY=1 to keep the files readable while debugging.
 
@@ -10,6 +11,7 @@ import { readFileSync, readdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { transformSync } from 'esbuild';
+import { leanHtml } from './lean-html.mjs';
 
 const DIST = process.argv[2] ?? fileURLToPath(new URL('../dist/', import.meta.url));
 
@@ -42,4 +44,10 @@ for (const dir of MODULE_DIRS) {
     after += code.length;
   }
 }
-console.log(`    minified the scripts and the style sheet: ${before} -> ${after} bytes`);
+const page = join(DIST, 'index.html');
+const html = readFileSync(page, 'utf8');
+const lean = leanHtml(html);
+writeFileSync(page, lean);
+before += html.length;
+after += lean.length;
+console.log(`    minified the scripts, the style sheet and the page: ${before} -> ${after} bytes`);
