@@ -81,6 +81,13 @@ export function emptyTonight() {
   return { open: null, view: 'list', name: '', progress: {} };
 }
 
+/** What adding a set did (`addSet`'s answer), in words; `opened` follows a set already here. */
+function addedWords({ added, title, was }, opened = '') {
+  if (added) return `Added "${title}" to Tonight.`;
+  return was ? `"${was}" is already in Tonight with the same puzzles, now called "${title}"${opened}.`
+    : `"${title}" is already in Tonight${opened}.`;
+}
+
 function ruleWords(puzzles) {
   const rules = [...new Set(puzzles.map((p) => p.rule))];
   return rules.join(', ');
@@ -302,9 +309,10 @@ export class Tonight {
       // The same puzzles under a new title: the title the sender gives now is the one shown.
       const title = JSON.parse(json).title;
       if (title !== have.title) {
+        const was = have.title;
         have.title = title;
         this.saveSets();
-        return { key, added: false, title, renamed: true };
+        return { key, added: false, title, was };
       }
       return { key, added: false, title: have.title };
     }
@@ -332,11 +340,9 @@ export class Tonight {
       announce(`This link cannot be opened: ${e.message ?? e}.`);
       return false;
     }
-    const { key, added, title } = got;
-    banner(added ? `Added "${title}" to Tonight.` : `"${title}" is already in Tonight: opened it.`,
-      { kind: 'info', id: 'link' });
+    banner(addedWords(got, ': opened it'), { kind: 'info', id: 'link' });
     this.app.go('tonight');
-    this.openSet(key);
+    this.openSet(got.key);
     return true;
   }
 
@@ -353,9 +359,9 @@ export class Tonight {
     }
     try {
       const text = await file.text();
-      const { key, added, title } = this.addSet(text, 'file');
-      banner(added ? `Added "${title}" to Tonight.` : `"${title}" is already in Tonight.`, { id: 'file' });
-      this.openSet(key);
+      const got = this.addSet(text, 'file');
+      banner(addedWords(got), { id: 'file' });
+      this.openSet(got.key);
     } catch (e) {
       banner(`"${file.name}" cannot be opened: ${e.message ?? e}. Nothing was loaded.`, { kind: 'error', id: 'file' });
     }

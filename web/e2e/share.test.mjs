@@ -185,6 +185,16 @@ test('a set file picked from the device opens; a bad one says what is wrong and 
   await tap(page, BOARD, set.puzzles[0].solution.line[0]);
   await settled(page, BOARD, 2);
   assert.equal((await boardState(page, BOARD)).state, 'playing');
+  // The same puzzles again under another title: the set keeps its progress and takes the
+  // new title, and the message says which set that was.
+  const again = { ...set, title: 'Harbour Street Circle: renju fours, corrected' };
+  await file('week3-corrected.json', JSON.stringify(again));
+  await page.waitForFunction((t) => document.getElementById('tonight-set-title').textContent === t, again.title);
+  assert.equal((await banners(page)).at(-1),
+    `"${set.title}" is already in Tonight with the same puzzles, now called "${again.title}".`);
+  const stored = await page.evaluate(() => JSON.parse(localStorage.getItem('fivefold.sets')).data.list.map((x) => x.title));
+  assert.deepEqual(stored, [again.title]);
+  assert.equal((await boardState(page, BOARD)).moves.split(' ').length, 2, 'the progress is kept');
   assert.deepEqual(errors, []);
   await context.close();
 });
