@@ -78,10 +78,11 @@ export class Progress {
     fill(rules, rules.querySelector('caption'), ...(d.rules.length ? tally(d.rules.map((r) => ({ ...r, words: r.words[0].toUpperCase() + r.words.slice(1) }))) : [row(['Nothing finished yet'])]));
     const rt = $('progress-rating-table');
     fill(rt, rt.querySelector('caption'), row(['Day', 'Rating', 'Give or take'], true),
-      ...series.map((p) => row([dayWords(p.day), Math.round(p.rating), Math.round(2 * p.deviation)])));
+      ...(series.length ? series.map((p) => row([dayWords(p.day), Math.round(p.rating), Math.round(2 * p.deviation)]))
+        : [row(['No rated puzzles yet'])]));
     const dt = $('progress-days-table');
     fill(dt, dt.querySelector('caption'), row(['Day', 'Puzzles'], true),
-      ...d.days.map((x) => row([dayWords(x.day), x.count])));
+      ...(d.days.length ? d.days.map((x) => row([dayWords(x.day), x.count])) : [row(['Nothing finished yet'])]));
     $('progress').dataset.points = String(series.length);
     this.draw();
   }

@@ -194,6 +194,9 @@ test('Revisit and Progress on a phone', async () => {
   await goTo(page, 'progress');
   const width = await page.evaluate(() => document.documentElement.scrollWidth);
   assert.ok(width <= PHONE.width, `no overflow: ${width}`);
+  // With nothing yet, the tables say so instead of showing their headings alone.
+  assert.deepEqual(await page.$$eval('#progress-rating-table tr, #progress-days-table tr', (l) => l.map((r) => r.textContent)),
+    ['DayRatingGive or take', 'No rated puzzles yet', 'DayPuzzles', 'Nothing finished yet']);
   await artefact(page, 'progress-phone');
   // With a try in the history, every table of numbers fits the phone's width (the rule's
   // table once scrolled sideways), and the rule is named as in the menus.
