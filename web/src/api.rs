@@ -28,25 +28,8 @@ pub(crate) fn err(e: impl std::fmt::Display) -> JsValue {
 /// puzzle and field that is wrong.
 #[wasm_bindgen(js_name = parseSet)]
 pub fn parse_set(text: &str) -> Result<String, JsValue> {
-    playable(setfile::parse(text).map_err(err)?)
-}
-
-/// A set as set-file JSON if the page can play it: a puzzle whose position already has a five
-/// has nothing to play (every grade of it would mean nothing), so the set is refused and names
-/// it. The file format allows such a position; `fivefold inspect` reports it.
-fn playable(set: setfile::PuzzleSet) -> Result<String, JsValue> {
-    match set
-        .puzzles
-        .iter()
-        .position(|p| p.board().find_winner().is_some())
-    {
-        Some(i) => Err(err(format!(
-            "puzzle {} ({}): the position already has a five, so there is nothing to play",
-            i + 1,
-            set.puzzles[i].id
-        ))),
-        None => Ok(setfile::to_json(&set)),
-    }
+    let set = setfile::parse(text).map_err(err)?;
+    Ok(setfile::to_json(&set))
 }
 
 /// The starter library's index: a JSON array with, per set, `{file, title, count, rules, key,
@@ -78,7 +61,8 @@ pub fn share_encode(set_json: &str) -> Result<String, JsValue> {
 /// (damaged or cut short, from a newer version, not a code).
 #[wasm_bindgen(js_name = shareDecode)]
 pub fn share_decode(code: &str) -> Result<String, JsValue> {
-    playable(share::decode(code).map_err(err)?)
+    let set = share::decode(code).map_err(err)?;
+    Ok(setfile::to_json(&set))
 }
 
 /// One puzzle's result as the page keeps it.
