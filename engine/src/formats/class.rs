@@ -42,7 +42,7 @@ use std::borrow::Cow;
 use std::collections::HashMap;
 use std::fmt;
 
-use super::result::{self, PuzzleResult, ResultError, Results};
+use super::result::{self, PuzzleResult, ResultError, Results, TimeBucket};
 use super::setfile::PuzzleSet;
 use crate::puzzle::attempt::Attempt;
 
@@ -51,7 +51,8 @@ use crate::puzzle::attempt::Attempt;
 pub struct Found {
     /// The line it is on, counted from 1.
     pub line: usize,
-    /// The text as pasted (its words joined by single spaces).
+    /// The text as read: its words joined by single spaces, the punctuation that parted them
+    /// dropped, other dashes written as `-`.
     pub text: String,
     /// The decoded code, or why it could not be read.
     pub code: Result<Results, ResultError>,
@@ -135,6 +136,8 @@ fn scan(line: usize, words: &[Word], found: &mut Vec<Found>) {
             .join(" ")
     };
     let mut failed: Option<(usize, ResultError)> = None;
+    // Whether the failed run starts with a word that could be part of a code.
+    let mut run_codeish = false;
     let flush = |failed: &mut Option<(usize, ResultError)>, upto: usize, found: &mut Vec<Found>| {
         if let Some((from, error)) = failed.take() {
             found.push(Found {
@@ -162,8 +165,19 @@ fn scan(line: usize, words: &[Word], found: &mut Vec<Found>) {
                 i = k + 1;
             }
             Err((error, next)) => {
-                if failed.is_none() {
-                    failed = Some((i, error));
+                let here = codeish(words[i].text);
+                match &mut failed {
+                    None => {
+                        failed = Some((i, error));
+                        run_codeish = here;
+                    }
+                    // A run that starts with words (a greeting) gives the error of its first
+                    // word that could be part of a code, not one read from the greeting.
+                    Some((_, e)) if here && !run_codeish => {
+                        *e = error;
+                        run_codeish = true;
+                    }
+                    Some(_) => {}
                 }
                 i = next;
             }
@@ -226,29 +240,42 @@ fn attempt(
         .map_err(|e| (e, k + 1))
 }
 
-/// Whether text that could not be read as a code could be part of one: it holds a word with at
-/// least four characters a code may hold, a digit and a letter among them. A code's first
-/// character is a digit (it writes its version first, a small number), a word of a code is one
-/// of its groups of four or the whole code, and its groups hold letters, so a damaged code
-/// passes whichever character went wrong (a test tries them all); words such as "thanks",
-/// "Mira", "9pm", or a chat's date and time ("02/12/2026 21:14") do not.
-pub fn looks_like_code(text: &str) -> bool {
-    text.split_whitespace().any(|w| {
-        w.chars().filter(|&c| result::symbol(c).is_some()).count() >= 4
-            && w.chars().any(|c| c.is_ascii_digit())
-            && w.chars().any(|c| c.is_ascii_alphabetic())
-    })
+/// A word that could be a group of a code or a whole one: four code characters or more, with
+/// a digit and a letter among them (a code's groups hold both, and its first character is a
+/// digit, as it writes its version first).
+fn codeish(word: &str) -> bool {
+    word.chars()
+        .filter(|&c| result::symbol(c).is_some())
+        .count()
+        >= 4
+        && word.chars().any(|c| c.is_ascii_digit())
+        && word.chars().any(|c| c.is_ascii_alphabetic())
 }
 
-/// Whether the results `later` carry on from `earlier`: each puzzle's attempt is where the
-/// page's record of it could have moved from the earlier one ([`Attempt::merge`]: an untried
-/// puzzle tried, a failed one failed again or solved; a solve stays as it was).
+/// Whether text that could not be read as a code could be part of one: it holds a [`codeish`]
+/// word of eight code characters or more (a code as the page writes it, groups joined by
+/// dashes) or two such words (groups typed apart). A damaged code passes whichever character
+/// went wrong (a test tries them all); words such as "thanks", "Mira", "12th", or a chat's
+/// date and time ("02/12/2026 21:14") do not.
+pub fn looks_like_code(text: &str) -> bool {
+    let words: Vec<&str> = text.split_whitespace().filter(|w| codeish(w)).collect();
+    words.len() >= 2
+        || words
+            .iter()
+            .any(|w| w.chars().filter(|&c| result::symbol(c).is_some()).count() >= 8)
+}
+
+/// Whether the results `later` carry on from `earlier`: each puzzle's record is where the
+/// page's could have moved from the earlier one: the attempt by [`Attempt::merge`] (an untried
+/// puzzle tried, a failed one failed again or solved; a solve stays as it was), the hint steps
+/// never fewer (the record keeps the most), and the time set once, by the first finished try.
 pub fn carries_on(later: &[PuzzleResult], earlier: &[PuzzleResult]) -> bool {
     later.len() == earlier.len()
-        && later
-            .iter()
-            .zip(earlier)
-            .all(|(l, e)| e.attempt.merge(l.attempt) == l.attempt)
+        && later.iter().zip(earlier).all(|(l, e)| {
+            e.attempt.merge(l.attempt) == l.attempt
+                && l.hints >= e.hints
+                && (l.time == e.time || e.time == TimeBucket::NotTimed)
+        })
 }
 
 /// Why a code found in pasted text did not simply add a student.
@@ -291,12 +318,13 @@ pub enum Problem {
     },
 }
 
-/// A code that was refused, repeated, or replaced a student's earlier results.
+/// Text that was refused or skipped, a code that repeated, came before, or replaced a
+/// student's results.
 #[derive(Clone, Debug, PartialEq, Eq)]
 pub struct Notice {
     /// The line of the pasted text, counted from 1.
     pub line: usize,
-    /// The code as pasted (at most 40 characters of it).
+    /// The text as read ([`Found::text`], at most 40 characters of it).
     pub text: String,
     /// What happened.
     pub problem: Problem,
@@ -359,7 +387,7 @@ pub struct Added {
 /// One student's row.
 #[derive(Clone, Debug, PartialEq, Eq)]
 pub struct Student {
-    /// The name as in the latest code.
+    /// The name as in the code the row holds.
     pub name: String,
     /// One result per puzzle.
     pub results: Vec<PuzzleResult>,
@@ -458,8 +486,9 @@ impl ClassTable {
         self.puzzles
     }
 
-    /// Reads pasted text and adds its codes: new students are appended, a student's newer
-    /// code replaces the earlier results, nothing is removed.
+    /// Reads pasted text and adds its codes: new students are appended, a student's code
+    /// replaces the results it carries on from (or, from another device, those read before),
+    /// nothing is removed.
     pub fn add(&mut self, text: &str) -> Added {
         let mut added = Added::default();
         for found in find_codes(text) {
@@ -637,7 +666,6 @@ pub fn csv_record<S: AsRef<str>>(out: &mut String, fields: &[S]) {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::formats::result::TimeBucket;
     use crate::formats::setfile;
 
     fn set() -> PuzzleSet {
@@ -713,11 +741,22 @@ mod tests {
         }
         // A chat's date and time are words too; a group of code characters with a digit and a
         // letter could be a damaged code, and is reported as one.
-        let added = table.add("[02/12/2026 21:14] Tomas Reyne: thanks\n0B5G-X7SV");
+        let added = table.add("[02/12/2026 21:14] Tomas Reyne: thanks 12th\n0B5G-X7SV");
         assert_eq!(added.notices.len(), 2, "{:?}", added.notices);
         assert_eq!(added.notices[0].problem, Problem::NotACode);
         assert!(matches!(added.notices[1].problem, Problem::Unreadable(_)));
         assert_eq!(added.notices[1].text, "0B5G-X7SV");
+        // A greeting before a damaged code on its line: the code's own error is given, not one
+        // read from the greeting's letters (here, a code header of a newer version).
+        let mut damaged = a.clone();
+        let last = damaged.pop().unwrap();
+        damaged.push(if last == '7' { '8' } else { '7' });
+        let added = table.add(&format!("Levi here {damaged}"));
+        assert_eq!(added.notices.len(), 1, "{:?}", added.notices);
+        assert_eq!(
+            added.notices[0].problem,
+            Problem::Unreadable(ResultError::Damaged)
+        );
     }
 
     #[test]
@@ -774,6 +813,25 @@ mod tests {
             Problem::Replaced { later: true, .. }
         ));
         assert_eq!(solved(&table), 2);
+        // The same attempt with more hint steps carries on from fewer, not the other way.
+        let hinted = |hints: u8| {
+            let results: Vec<PuzzleResult> = (0..n)
+                .map(|i| match i {
+                    0 => PuzzleResult::new(Attempt::Failed, hints, TimeBucket::Under2Min),
+                    _ => PuzzleResult::new(Attempt::Untried, 0, TimeBucket::NotTimed),
+                })
+                .collect();
+            result::encode(result::fingerprint(&s), "Ines", &results).unwrap()
+        };
+        let mut ines = ClassTable::new(&s);
+        let added = ines.add(&format!("{}\n{}", hinted(3), hinted(1)));
+        assert_eq!(
+            added.notices[0].problem,
+            Problem::Earlier {
+                name: "Ines".into()
+            }
+        );
+        assert_eq!(ines.students()[0].results[0].hints, Some(3));
         // Codes from two devices: neither carries on from the other, and the later read wins.
         let other = code(&s, "Tomas", &[Attempt::Clean, Attempt::Failed]);
         let added = table.add(&other);
