@@ -61,7 +61,6 @@ export function banner(message, { kind = 'info', id = null, sticky = false, dism
     if (!oldest) break;
     oldest.remove();
   }
-  placeBanners();
   const ms = sticky ? undefined : BANNER_MS[kind];
   if (ms) {
     let timer = 0;
@@ -78,21 +77,6 @@ export function banner(message, { kind = 'info', id = null, sticky = false, dism
   }
   return b;
 }
-
-/** The banners stand at the top of the screen while their place at its foot would cover a QR
- * code on show (one a student holds up to the instructor's camera). */
-function placeBanners() {
-  const box = $('banners');
-  if (!box?.childElementCount) return;
-  delete box.dataset.top;
-  const r = box.getBoundingClientRect();
-  if ([...document.querySelectorAll('.qr')].some((q) => {
-    const c = q.getBoundingClientRect();
-    return c.height && c.bottom > r.top && c.top < r.bottom;
-  })) box.dataset.top = '';
-}
-document.addEventListener('scroll', placeBanners, { passive: true, capture: true });
-addEventListener('resize', placeBanners);
 
 /** Whether an element is on show (not inside anything hidden). */
 export const shown = (node) => !!node && node.isConnected && node.getClientRects().length > 0;
