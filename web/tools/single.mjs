@@ -117,7 +117,7 @@ const minify = (text, options) => (process.env.FIVEFOLD_NO_MINIFY === '1'
 
 const pasted = `${glue}\n${modules.map((m) => `// ---- ${m.name} ----\n${unmodule(m.source, m.name)}`).join('\n')}`;
 check(pasted, 'mjs');
-const page = safeInScript(minify(pasted, { loader: 'js', format: 'esm' }), 'the page script');
+const page = safeInScript(minify(pasted, { loader: 'js', format: 'esm', treeShaking: true }), 'the page script');
 
 const workerSource = read(join(DIST, 'worker.js'));
 const pastedWorker = `${glue.replaceAll('import.meta.url', 'self.location.href')}\nconst init = __wbg_init;\n${unmodule(workerSource, 'worker.js')}`;

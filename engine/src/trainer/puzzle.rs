@@ -76,7 +76,8 @@ pub struct PuzzleStatus {
 /// What a restored try said ([`PuzzleBoard::restore`]).
 #[derive(Clone, Debug, Default, PartialEq, Eq)]
 pub struct Retold {
-    /// Every sentence of its moves and replies, in order, as the log showed them.
+    /// The sentences of its moves and replies, in order (hints, and moves taken back, are not
+    /// in a record, so not here).
     pub log: Vec<String>,
     /// The answer that ended it, in one line; `None` for a try still going.
     pub ended: Option<String>,
