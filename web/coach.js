@@ -1003,7 +1003,7 @@ export class Coach {
     const words = skipped.length ? [{ line: skipped[0].line, kind: 'skipped',
       message: `Skipped as text, not codes: ${skipped.map((n) => `line ${n.line} ‘${n.text}’`).join(', ')}.` }] : [];
     this.report([{ line: 0, kind: look ? 'refused' : 'ok', message: head }, ...this.nameOtherSets(notices, s), ...words]);
-    if (how === 'paste' && r.accepted.length && !r.notices.some((n) => n.kind === 'refused')) $('coach-codes').value = '';
+    if (how === 'paste' && r.accepted.length && !look) $('coach-codes').value = '';
     this.renderTable(r.table);
     this.renderHead();
     announce(head);

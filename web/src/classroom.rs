@@ -107,7 +107,7 @@ struct NoticeJs {
     line: usize,
     /// "refused", "skipped" (words around the codes), "repeated" or "replaced".
     kind: &'static str,
-    /// The text as pasted, shortened.
+    /// The text as read (`class::Found::text`), shortened.
     text: String,
     /// The whole report: "line 3, 'AB12-…': a result for another set …".
     message: String,

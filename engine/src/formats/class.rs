@@ -7,15 +7,14 @@
 //! with spaces between the groups, in lower case, with I, L or O for 1, 1 or 0 (the result
 //! code's own forgiving reading), and with the punctuation of a chat around it ("Mira: CODE.",
 //! "(CODE)", quotes, the invisible characters messaging apps insert): every character but the
-//! letters and digits of the Latin alphabet and dashes separates words as a space does. Lines, commas and semicolons always separate codes. Spaces may separate codes
-//! or groups of one code: a
-//! code's first bytes say how long it is (its version, name length and puzzle count), so the
-//! reader takes exactly that many characters, across spaces, and the code must end where a word
-//! ends. Text that cannot be read is reported with its line and skipped; consecutive words
-//! that cannot be read are reported once. Such text is called a damaged code when it could be
-//! part of one ([`looks_like_code`]: a word of at least four code characters with a digit
-//! among them, which every code has, its version being written first), and otherwise words
-//! around the codes (a greeting, a name, a date), reported as [`Problem::NotACode`]. The reading
+//! letters and digits of the Latin alphabet and dashes separates words as a space does. Lines,
+//! commas and semicolons always separate codes. Spaces may separate codes or groups of one
+//! code: a code's first bytes say how long it is (its version, name length and puzzle count),
+//! so the reader takes exactly that many characters, across spaces, and the code must end where
+//! a word ends. Text that cannot be read is reported with its line and skipped; consecutive
+//! words that cannot be read are reported once. Such text is called a damaged code when it
+//! could be part of one ([`looks_like_code`]), and otherwise words around the codes (a
+//! greeting, a name, a date), reported as [`Problem::NotACode`]. The reading
 //! is linear in the length of the text: each word starts at most a bounded header read, and a
 //! whole code is decoded only when its length ends on a word boundary, after which reading goes
 //! on after it.
@@ -244,25 +243,26 @@ fn attempt(
 /// a digit and a letter among them (a code's groups hold both, and its first character is a
 /// digit, as it writes its version first).
 fn codeish(word: &str) -> bool {
-    word.chars()
-        .filter(|&c| result::symbol(c).is_some())
-        .count()
-        >= 4
+    code_chars(word) >= 4
         && word.chars().any(|c| c.is_ascii_digit())
         && word.chars().any(|c| c.is_ascii_alphabetic())
 }
 
-/// Whether text that could not be read as a code could be part of one: it holds a [`codeish`]
+/// Whether text that could not be read as a code could be part of one: it holds a `codeish`
 /// word of eight code characters or more (a code as the page writes it, groups joined by
 /// dashes) or two such words (groups typed apart). A damaged code passes whichever character
 /// went wrong (a test tries them all); words such as "thanks", "Mira", "12th", or a chat's
 /// date and time ("02/12/2026 21:14") do not.
 pub fn looks_like_code(text: &str) -> bool {
     let words: Vec<&str> = text.split_whitespace().filter(|w| codeish(w)).collect();
-    words.len() >= 2
-        || words
-            .iter()
-            .any(|w| w.chars().filter(|&c| result::symbol(c).is_some()).count() >= 8)
+    words.len() >= 2 || words.iter().any(|w| code_chars(w) >= 8)
+}
+
+/// The characters of a word that a code may hold.
+fn code_chars(word: &str) -> usize {
+    word.chars()
+        .filter(|&c| result::symbol(c).is_some())
+        .count()
 }
 
 /// Whether the results `later` carry on from `earlier`: each puzzle's record is where the
