@@ -31,6 +31,7 @@ import {
   wrongFour,
   wrongMove,
   y4m,
+  resultCode,
 } from './support.mjs';
 
 const BOARD = 'tonight-board';
@@ -113,7 +114,7 @@ async function student(link, name, puzzles, plan, viewport) {
   if (plan.includes('stop')) await page.click('#finish-anyway');
   await page.waitForSelector('#tonight-summary:not([hidden])');
   await page.fill('#student-name', name);
-  const code = await page.textContent('#result-code');
+  const code = await resultCode(page);
   assert.match(code, /^[0-9A-Z]{4}(-[0-9A-Z]{1,4})+$/, `${name}'s code`);
   if (touch) {
     await artefact(page, 'coach-student-phone');

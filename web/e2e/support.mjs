@@ -136,6 +136,13 @@ export async function open(browser, url, options = {}) {
 }
 
 /** A starter-library set as shipped (puzzles/<stem>.json). */
+/** The result code on the summary, once written: the code writer is loaded on first use, and
+ * until then the summary says it is writing the code. */
+export async function resultCode(page) {
+  await page.waitForFunction(() => /^[0-9A-Z]{4}-|^No code/.test(document.getElementById('result-code').textContent));
+  return page.textContent('#result-code');
+}
+
 export function librarySet(stem) {
   return JSON.parse(readFileSync(join(PUZZLES, `${stem}.json`), 'utf8'));
 }

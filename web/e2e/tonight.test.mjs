@@ -22,6 +22,7 @@ import {
   wrongFour,
   wrongMove,
   openSettings,
+  resultCode,
 } from './support.mjs';
 
 const CLUB = librarySet('fours-freestyle-club');
@@ -317,15 +318,15 @@ test('the end of a set shows a summary and a result code with the student\'s nam
     ['Failed', '0'],
     ['Not tried', String(CLUB.puzzles.length - 1)],
   ]);
-  const before = await page.textContent('#result-code');
+  const before = await resultCode(page);
   await page.fill('#student-name', 'Mira Okafor');
-  const code = await page.textContent('#result-code');
+  const code = await resultCode(page);
   assert.match(code, /^[0-9A-Z]{4}(-[0-9A-Z]{1,4})+$/);
   assert.notEqual(code, before, 'the name is in the code');
   await page.reload();
   await page.waitForSelector('#tonight-summary:not([hidden])');
   assert.equal(await page.inputValue('#student-name'), 'Mira Okafor', 'the name is kept');
-  assert.equal(await page.textContent('#result-code'), code);
+  assert.equal(await resultCode(page), code);
   assert.deepEqual(errors, []);
   await context.close();
 });
