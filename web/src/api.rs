@@ -44,7 +44,7 @@ pub fn library_index() -> String {
 #[cfg(feature = "workshop")]
 #[wasm_bindgen(js_name = librarySets)]
 pub fn library_sets() -> String {
-    let parts: Vec<&str> = library::SETS.iter().map(|s| s.1).collect();
+    let parts: Vec<String> = library::set_files().into_iter().map(|s| s.1).collect();
     format!("[{}]", parts.join(","))
 }
 

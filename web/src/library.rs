@@ -1,12 +1,28 @@
 //! The starter library, built into the app from every set of `puzzles/` (by `build.rs`): the
 //! page's index of the sets and the ratings of their puzzles; the sets themselves are files the
-//! page fetches when it opens one, and only the workshop module holds them all ([`SETS`]).
+//! page fetches when it opens one, and only the workshop module holds them all ([`SETS`], as
+//! share codes; [`set_files`] reads them).
 
 use engine::puzzle::Theme;
 use engine::Rule;
 
 // INDEX, RATINGS, and SETS in the workshop module.
 include!(concat!(env!("OUT_DIR"), "/library.rs"));
+
+/// Every shipped set as (file stem, set-file JSON), read from its share code in [`SETS`].
+#[cfg(feature = "workshop")]
+pub fn set_files() -> Vec<(&'static str, String)> {
+    SETS.iter()
+        .map(|&(stem, code, min_moves, unique)| {
+            // build.rs wrote each code and read it back as its set.
+            let mut set = engine::formats::share::decode(code).expect("a library code reads");
+            if let Some(g) = &mut set.generator {
+                (g.min_moves, g.unique) = (min_moves, unique);
+            }
+            (stem, engine::formats::setfile::to_json(&set))
+        })
+        .collect()
+}
 
 /// The ratings of the library's puzzles of `theme` under `rule` (under any rule if the library
 /// has none under that one), deep sets left out: deep sets are made with a minimum line
@@ -35,7 +51,7 @@ mod tests {
     #[test]
     fn every_shipped_set_is_built_in_and_valid() {
         assert!(SETS.len() >= 14);
-        let total: usize = SETS
+        let total: usize = set_files()
             .iter()
             .map(|(name, json)| {
                 engine::formats::setfile::parse(json)
@@ -47,6 +63,30 @@ mod tests {
         assert!(total >= 300);
     }
 
+    /// Each built-in set is its shipped file whole: read back from its share code, it equals
+    /// what the engine's reader makes of `puzzles/<stem>.json`, and every file is built in.
+    #[cfg(not(target_arch = "wasm32"))]
+    #[test]
+    fn the_built_in_sets_are_the_shipped_files() {
+        let dir = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("../puzzles");
+        let built = set_files();
+        let files = std::fs::read_dir(&dir)
+            .unwrap()
+            .filter(|e| e.as_ref().unwrap().path().extension() == Some("json".as_ref()))
+            .count();
+        assert_eq!(built.len(), files);
+        for (stem, json) in &built {
+            let file = std::fs::read_to_string(dir.join(format!("{stem}.json"))).unwrap();
+            let shipped = engine::formats::setfile::parse(&file).unwrap();
+            assert_eq!(
+                engine::formats::setfile::parse(json).unwrap(),
+                shipped,
+                "{stem}"
+            );
+            assert_eq!(*json, engine::formats::setfile::to_json(&shipped), "{stem}");
+        }
+    }
+
     /// The index and the ratings agree with the sets they are made from, read as the page
     /// reads them (`setKey` for the keys).
     #[test]
@@ -54,7 +94,7 @@ mod tests {
         let index: Vec<serde_json::Value> = serde_json::from_str(INDEX).unwrap();
         assert_eq!(index.len(), SETS.len());
         let mut want: Vec<(String, String, u32)> = Vec::new();
-        for (entry, (stem, json)) in index.iter().zip(SETS) {
+        for (entry, (stem, json)) in index.iter().zip(&set_files()) {
             let set = engine::formats::setfile::parse(json).unwrap();
             assert_eq!(entry["file"], *stem);
             assert_eq!(entry["title"], set.title.as_str());
