@@ -1,7 +1,7 @@
 // Tonight: the sets a student has been given (from a link, a file or the starter library),
 // played puzzle by puzzle with progress, and a summary with a result code at the end.
 
-import { attemptWords, parseSet, recordedAttempt, setKey, shareDecode } from './pkg/fivefold_web.js';
+import { attemptWords, finishedPuzzle, parseSet, recordedAttempt, setKey, shareDecode } from './pkg/fivefold_web.js';
 import { BoardView } from './board.js';
 import { Cancelled, Jobs } from './jobs.js';
 import { isLibraryKey, library, librarySet } from './library.js';
@@ -303,6 +303,8 @@ export class Tonight {
   addSet(text, source) {
     if (text.length > MAX_SET_BYTES) throw new Error('the file is too large to be a set');
     const json = parseSet(text);
+    const over = finishedPuzzle(json);
+    if (over) throw over;
     const key = setKey(json);
     const have = this.set(key);
     if (have) {

@@ -164,6 +164,14 @@ test('a set file picked from the device opens; a bad one says what is wrong and 
   assert.match(msg, /^"broken\.json" cannot be opened: .*z99.*Nothing was loaded\.$/);
   assert.match(msg, new RegExp(CLUB.puzzles[3].id), 'the message names the puzzle');
   assert.equal(await setCount(page), 0);
+  // A position that already has a five has nothing to play: refused, naming the puzzle.
+  const over = structuredClone(CLUB);
+  over.puzzles[1].black.push('a1', 'a2', 'a3', 'a4', 'a5');
+  await file('over.json', JSON.stringify(over));
+  await page.waitForFunction(() => [...document.querySelectorAll('#banners .banner p')].some((p) => p.textContent.includes('over.json')));
+  assert.ok((await banners(page)).includes(`"over.json" cannot be opened: puzzle 2 (${CLUB.puzzles[1].id}): the position already has a five, so there is nothing to play. Nothing was loaded.`),
+    (await banners(page)).join(' | '));
+  assert.equal(await setCount(page), 0);
   await file('not-json.json', 'hello');
   await page.waitForFunction(() => document.querySelectorAll('#banners .banner').length === 1 &&
     document.querySelector('#banners .banner p').textContent.includes('not-json.json'));

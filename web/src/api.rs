@@ -32,6 +32,26 @@ pub fn parse_set(text: &str) -> Result<String, JsValue> {
     Ok(setfile::to_json(&set))
 }
 
+/// Why a set arriving from outside (a file or a link, as set-file JSON) cannot be played, or
+/// an empty string: a puzzle whose position already has a five has nothing to play (every
+/// grade of it would mean nothing), and is named. Saved sets are not asked, so none is dropped
+/// at start. The file format allows such a position; `fivefold inspect` reports it.
+#[wasm_bindgen(js_name = finishedPuzzle)]
+pub fn finished_puzzle(set_json: &str) -> Result<String, JsValue> {
+    let set = setfile::parse(set_json).map_err(err)?;
+    let over = set
+        .puzzles
+        .iter()
+        .position(|p| p.board().find_winner().is_some());
+    Ok(over.map_or(String::new(), |i| {
+        format!(
+            "puzzle {} ({}): the position already has a five, so there is nothing to play",
+            i + 1,
+            set.puzzles[i].id
+        )
+    }))
+}
+
 /// The starter library's index: a JSON array with, per set, `{file, title, count, rules, key,
 /// generator}` (`generator` null or `{theme, rule, min_moves}`). The page fetches a set's file,
 /// `library/<file>.json`, when it needs the puzzles.

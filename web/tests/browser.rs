@@ -699,6 +699,35 @@ fn sets_share_codes_and_result_codes_cross_the_boundary() {
     let id = sets[0]["puzzles"][2]["id"].as_str().unwrap();
     assert!(e.contains(id) && e.contains("z99"), "{e}");
 
+    // A position that already has a five: still a valid set (saved data is read as it is),
+    // but a set from outside with one is refused, naming the puzzle.
+    assert_eq!(api::finished_puzzle(&normal).unwrap(), "");
+    let mut over: Value = sets[0].clone();
+    // Five in a row on the first column of a-o whose rows 1 to 5 are empty.
+    let p1 = &over["puzzles"][1];
+    let used: Vec<&Value> = [&p1["black"], &p1["white"], &p1["solution"]["line"]]
+        .iter()
+        .flat_map(|l| l.as_array().unwrap())
+        .collect();
+    let taken = |q: &str| used.iter().any(|x| *x == q);
+    let five: Vec<String> = ('a'..='o')
+        .map(|c| (1..=5).map(|r| format!("{c}{r}")).collect::<Vec<_>>())
+        .find(|col| !col.iter().any(|q| taken(q)))
+        .unwrap();
+    for q in five {
+        over["puzzles"][1]["black"]
+            .as_array_mut()
+            .unwrap()
+            .push(q.into());
+    }
+    let over = api::parse_set(&over.to_string()).unwrap();
+    let id = sets[0]["puzzles"][1]["id"].as_str().unwrap();
+    let said = api::finished_puzzle(&over).unwrap();
+    assert!(
+        said.starts_with(&format!("puzzle 2 ({id}): the position already has a five")),
+        "{said}"
+    );
+
     let code = api::share_encode(&normal).unwrap();
     let back: Value = serde_json::from_str(&api::share_decode(&code).unwrap()).unwrap();
     let want: Value = serde_json::from_str(&normal).unwrap();
