@@ -1,9 +1,10 @@
-//! Builds the starter library's tables into the app, from every `puzzles/*.json` in file-name
-//! order, as `$OUT_DIR/library.rs`:
+//! Builds the starter library's tables into the app, from every `puzzles/*.json`, as
+//! `$OUT_DIR/library.rs`, easiest set first (by the median rating of its puzzles, then by file
+//! name):
 //! - `INDEX`: what the page needs before a set is opened, as JSON: per set its file stem,
-//!   title, puzzle count, rules, key (the fingerprint `setKey` gives) and generator
-//!   (theme, rule, minimum moves). The sets themselves are files the page fetches when it
-//!   needs them (web/tools/common.sh copies them to `dist/library/`);
+//!   title (which names its rules), puzzle count, median rating, key (the fingerprint `setKey` gives) and
+//!   generator (theme, rule, minimum moves). The sets themselves are files the page fetches
+//!   when it needs them (web/tools/common.sh copies them to `dist/library/`);
 //! - `RATINGS`: (theme, rule, rating) of every puzzle of the plain (not deep) sets, which steer
 //!   the Drill's and the generator's rating bands;
 //! - `SETS`: (file stem, share code, and the two generator fields a code does not hold: the
@@ -24,12 +25,21 @@ use serde_json::json;
 fn main() {
     let dir = Path::new(env!("CARGO_MANIFEST_DIR")).join("../puzzles");
     println!("cargo:rerun-if-changed={}", dir.display());
-    let mut files: Vec<_> = std::fs::read_dir(&dir)
+    let files: Vec<_> = std::fs::read_dir(&dir)
         .expect("the puzzles folder")
         .filter_map(|e| e.ok().map(|e| e.path()))
         .filter(|p| p.extension().is_some_and(|x| x == "json"))
         .collect();
-    files.sort();
+    // Easiest first: by the median rating of a set's puzzles, then by file name.
+    let mut files: Vec<_> = files
+        .into_iter()
+        .map(|f| {
+            let text = std::fs::read_to_string(&f).expect("a readable set");
+            let set = setfile::parse(&text).unwrap_or_else(|e| panic!("{}: {e}", f.display()));
+            (median_rating(&set), f, set)
+        })
+        .collect();
+    files.sort_by(|a, b| (a.0, &a.1).cmp(&(b.0, &b.1)));
     let mut index = Vec::new();
     let mut ratings = String::from(
         "/// (theme, rule, rating) of every puzzle of the library's plain sets (deep sets left out).\n\
@@ -40,25 +50,16 @@ fn main() {
          /// shipped set.\n\
          #[cfg(feature = \"workshop\")]\npub const SETS: &[(&str, &str, u16, bool)] = &[\n",
     );
-    for f in &files {
+    for (rating, f, set) in &files {
         println!("cargo:rerun-if-changed={}", f.display());
-        let text = std::fs::read_to_string(f).expect("a readable set");
-        let set = setfile::parse(&text).unwrap_or_else(|e| panic!("{}: {e}", f.display()));
         let stem = f.file_stem().unwrap().to_string_lossy();
-        let mut rules: Vec<String> = Vec::new();
-        for p in &set.puzzles {
-            let r = p.rule.to_string();
-            if !rules.contains(&r) {
-                rules.push(r);
-            }
-        }
         let deep = set.generator.as_ref().is_some_and(|g| g.min_moves > 0);
         index.push(json!({
             "file": stem,
             "title": set.title,
             "count": set.puzzles.len(),
-            "rules": rules,
-            "key": format!("{:08x}", result::fingerprint(&set)),
+            "rating": rating,
+            "key": format!("{:08x}", result::fingerprint(set)),
             "generator": set.generator.as_ref().map(|g| json!({
                 "theme": g.theme.to_string(),
                 "rule": g.rule.to_string(),
@@ -94,7 +95,7 @@ fn main() {
             (g.min_moves, g.unique) = (min_moves, unique);
         }
         assert!(
-            back == set,
+            back == *set,
             "{}: its share code does not read back as the set",
             f.display()
         );
@@ -108,4 +109,11 @@ fn main() {
     );
     let dest = Path::new(&std::env::var("OUT_DIR").unwrap()).join("library.rs");
     std::fs::write(dest, out).expect("writable OUT_DIR");
+}
+
+/// The middle rating of a set's puzzles (the lower of the two middle ones for an even count).
+fn median_rating(set: &setfile::PuzzleSet) -> u32 {
+    let mut r: Vec<u32> = set.puzzles.iter().map(|p| p.rating).collect();
+    r.sort_unstable();
+    r[(r.len() - 1) / 2]
 }

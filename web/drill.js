@@ -49,7 +49,9 @@ function deepChoices(index) {
     c.minMoves = Math.min(c.minMoves, g.min_moves);
     c.files.push(entry.file);
   }
-  return out;
+  // In the order of DEEP_LABELS, whatever the index's order (easiest set first).
+  const at = (c) => Object.keys(DEEP_LABELS).indexOf(c.theme);
+  return out.sort((a, b) => at(a) - at(b));
 }
 
 function checkRating(r) {

@@ -1,4 +1,4 @@
-// The starter library on the page. Its index (titles, counts, rules, keys, how each set was
+// The starter library on the page. Its index (titles, counts, ratings, keys, how each set was
 // made) comes with the page's module; a set's puzzles are a file of their own,
 // library/<file>.json, fetched when the set is first needed (the single-file build holds them
 // in its module), so a first visit loads only the set it opens.
@@ -9,7 +9,8 @@ import { loadLibraryFile } from './platform.js';
 let index = null;
 const sets = new Map();
 
-/** The index: `[{file, title, count, rules, key, generator}]`, in file-name order. */
+/** The index: `[{file, title, count, rating, key, generator}]`, easiest first (by the
+ * median rating of a set's puzzles). */
 export function library() {
   index ??= JSON.parse(libraryIndex());
   return index;

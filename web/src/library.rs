@@ -94,26 +94,34 @@ mod tests {
         let index: Vec<serde_json::Value> = serde_json::from_str(INDEX).unwrap();
         assert_eq!(index.len(), SETS.len());
         let mut want: Vec<(String, String, u32)> = Vec::new();
+        let mut last = 0;
         for (entry, (stem, json)) in index.iter().zip(&set_files()) {
             let set = engine::formats::setfile::parse(json).unwrap();
             assert_eq!(entry["file"], *stem);
             assert_eq!(entry["title"], set.title.as_str());
             assert_eq!(entry["count"], set.puzzles.len());
-            assert_eq!(entry["key"], crate::api::set_key(json).unwrap());
-            let mut rules: Vec<String> = set.puzzles.iter().map(|p| p.rule.to_string()).collect();
-            rules.dedup();
-            let listed: Vec<String> = serde_json::from_value(entry["rules"].clone()).unwrap();
-            assert_eq!(
-                listed.len(),
-                listed
-                    .iter()
-                    .collect::<std::collections::HashSet<_>>()
-                    .len()
+            // The middle rating, which orders the index: easiest first.
+            let rating = entry["rating"].as_u64().unwrap() as u32;
+            let (below, above) = (
+                set.puzzles.iter().filter(|p| p.rating < rating).count(),
+                set.puzzles.iter().filter(|p| p.rating > rating).count(),
             );
+            let n = set.puzzles.len();
             assert!(
-                rules.iter().all(|r| listed.contains(r))
-                    && listed.iter().all(|r| rules.contains(r))
+                below <= (n - 1) / 2 && above <= n / 2,
+                "{stem}: {rating} is not the median"
             );
+            assert!(rating >= last, "{stem}: the index is not easiest first");
+            last = rating;
+            assert_eq!(entry["key"], crate::api::set_key(json).unwrap());
+            // The page shows no rule beside a library set: its title names each of them.
+            for p in &set.puzzles {
+                let rule = p.rule.to_string();
+                assert!(
+                    set.title.contains(&rule),
+                    "{stem}: the title does not say {rule}"
+                );
+            }
             let g = set
                 .generator
                 .as_ref()
