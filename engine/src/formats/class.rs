@@ -11,7 +11,9 @@
 //! commas and semicolons always separate codes. Spaces may separate codes or groups of one
 //! code: a code's first bytes say how long it is (its version, name length and puzzle count),
 //! so the reader takes exactly that many characters, across spaces, and the code must end where
-//! a word ends. Text that cannot be read is reported with its line and skipped; consecutive
+//! a word ends. A code wrapped onto the next line (a mail program's line length, a code typed
+//! in two halves) is read on across the line break when the line ends in text that cannot be
+//! read and the join gives more codes than the next line alone. Text that cannot be read is reported with its line and skipped; consecutive
 //! words that cannot be read are reported once. Such text is called a damaged code when it
 //! could be part of one ([`looks_like_code`]), and otherwise words around the codes (a
 //! greeting, a name, a date), reported as [`Problem::NotACode`]. The reading
@@ -57,8 +59,11 @@ pub struct Found {
     pub code: Result<Results, ResultError>,
 }
 
-/// One word of a piece of text: its symbols and whether it holds a character no code has.
+/// One word of a piece of text: its line, its symbols and whether it holds a character no
+/// code has.
+#[derive(Clone)]
 struct Word<'a> {
+    line: usize,
     text: &'a str,
     symbols: usize,
     bad: Option<(char, usize)>,
@@ -66,12 +71,12 @@ struct Word<'a> {
 
 /// Finds the result codes in pasted text (see the module doc for the rules).
 pub fn find_codes(text: &str) -> Vec<Found> {
-    let mut found = Vec::new();
+    // Every piece: its line, whether it starts the line, and its text with every character
+    // but the letters and digits of the alphabet a code is written in, and dashes, made a space
+    // (punctuation, quotes, invisible characters and other scripts part words as a space does).
+    let mut pieces: Vec<(usize, bool, String)> = Vec::new();
     for (n, line) in text.lines().enumerate() {
-        for piece in line.split([',', ';']) {
-            // Letters and digits of the alphabet a code is written in, and dashes, make words;
-            // anything else (punctuation, quotes, invisible characters, other scripts) parts
-            // them as a space does.
+        for (k, piece) in line.split([',', ';']).enumerate() {
             let piece: String = piece
                 .chars()
                 .map(|c| match c {
@@ -80,39 +85,101 @@ pub fn find_codes(text: &str) -> Vec<Found> {
                     _ => ' ',
                 })
                 .collect();
-            let words: Vec<Word> = piece
-                .split_whitespace()
-                .map(|w| {
-                    let mut symbols = 0;
-                    let mut bad = None;
-                    for (i, c) in w.chars().enumerate() {
-                        if c == '-' {
-                            continue;
-                        }
-                        if result::symbol(c).is_some() {
-                            symbols += 1;
-                        } else if bad.is_none() {
-                            bad = Some((c, i + 1));
-                        }
-                    }
-                    Word {
-                        text: w,
-                        symbols,
-                        bad,
-                    }
-                })
-                .collect();
-            scan(n + 1, &words, &mut found);
+            pieces.push((n + 1, k == 0, piece));
         }
+    }
+    let pieces: Vec<(usize, bool, Vec<Word>)> = pieces
+        .iter()
+        .map(|(line, first, piece)| (*line, *first, words_of(*line, piece)))
+        .collect();
+    let mut found = Vec::new();
+    let mut i = 0;
+    while i < pieces.len() {
+        let mut words = pieces[i].2.clone();
+        let mut here = scan(&words);
+        // A code wrapped onto the next lines: this piece ends in text that cannot be read, and
+        // read on into the first pieces of the lines after it (at most WRAP_LINES in all) it
+        // gives more codes than the last of those pieces alone (a code's checksum makes a
+        // chance join all but impossible).
+        while let Some(Found {
+            text, code: Err(_), ..
+        }) = here.last()
+        {
+            let mut tail: Vec<Word> = words[words.len() - text.split(' ').count()..].to_vec();
+            let mut joined = None;
+            let after = pieces.iter().enumerate().skip(i + 1).take(WRAP_LINES - 1);
+            for (j, (line, first, next)) in after {
+                let end = tail.last().expect("a run has a word").line;
+                if !first || *line != end + 1 {
+                    break;
+                }
+                let joint: Vec<Word> = tail.iter().chain(next).cloned().collect();
+                let read = scan(&joint);
+                let codes = |f: &[Found]| f.iter().filter(|f| f.code.is_ok()).count();
+                if codes(&read) > codes(&scan(next)) {
+                    joined = Some((j, joint, read));
+                    break;
+                }
+                // Still one run that cannot be read: a code may go on over the next line.
+                let symbols: usize = joint.iter().map(|w| w.symbols).sum();
+                if read.len() != 1 || symbols > result::MAX_CODE_CHARS {
+                    break;
+                }
+                tail = joint;
+            }
+            let Some((j, joint, read)) = joined else {
+                break;
+            };
+            here.pop();
+            here.extend(read);
+            words = joint;
+            i = j;
+        }
+        found.extend(here);
+        i += 1;
     }
     found
 }
 
+/// The words of one piece of a line.
+fn words_of(line: usize, piece: &str) -> Vec<Word<'_>> {
+    piece
+        .split_whitespace()
+        .map(|w| {
+            let mut symbols = 0;
+            let mut bad = None;
+            for (i, c) in w.chars().enumerate() {
+                if c == '-' {
+                    continue;
+                }
+                if result::symbol(c).is_some() {
+                    symbols += 1;
+                } else if bad.is_none() {
+                    bad = Some((c, i + 1));
+                }
+            }
+            Word {
+                line,
+                text: w,
+                symbols,
+                bad,
+            }
+        })
+        .collect()
+}
+
+/// The most lines one code is read across: more than a mail or chat program's wrap makes of
+/// the code of a usual set (a 12-puzzle set's is about 80 characters), and a bound that keeps
+/// the reading linear in the text.
+const WRAP_LINES: usize = 8;
+
 /// No word ends after this many symbols.
 const NO_WORD: u32 = u32::MAX;
 
-/// Reads the codes of one piece (a part of a line between commas and semicolons).
-fn scan(line: usize, words: &[Word], found: &mut Vec<Found>) {
+/// Reads the codes of one piece (a part of a line between commas and semicolons, or such parts
+/// of two lines when a code is wrapped); each is reported on the line of its first word.
+fn scan(words: &[Word]) -> Vec<Found> {
+    let mut found = Vec::new();
     // before[j]: the symbols in words[..j]; ends[s]: the first word after which exactly s
     // symbols have been read, or NO_WORD.
     let mut before = Vec::with_capacity(words.len() + 1);
@@ -140,7 +207,7 @@ fn scan(line: usize, words: &[Word], found: &mut Vec<Found>) {
     let flush = |failed: &mut Option<(usize, ResultError)>, upto: usize, found: &mut Vec<Found>| {
         if let Some((from, error)) = failed.take() {
             found.push(Found {
-                line,
+                line: words[from].line,
                 text: joined(from, upto - 1),
                 code: Err(error),
             });
@@ -155,9 +222,9 @@ fn scan(line: usize, words: &[Word], found: &mut Vec<Found>) {
         }
         match attempt(words, i, &before, &ends) {
             Ok((code, k)) => {
-                flush(&mut failed, i, found);
+                flush(&mut failed, i, &mut found);
                 found.push(Found {
-                    line,
+                    line: words[i].line,
                     text: joined(i, k),
                     code: Ok(code),
                 });
@@ -182,7 +249,8 @@ fn scan(line: usize, words: &[Word], found: &mut Vec<Found>) {
             }
         }
     }
-    flush(&mut failed, words.len(), found);
+    flush(&mut failed, words.len(), &mut found);
+    found
 }
 
 /// Tries to read one code starting at word `i`: the code and its last word, or why not and
@@ -723,6 +791,53 @@ mod tests {
         assert!(found[1].code.is_err() && found[1].line == 2);
         assert_eq!(found[2].code.as_ref().unwrap().name, "Tomas");
         assert!(found[3].code.is_err() && found[3].line == 3);
+    }
+
+    #[test]
+    fn a_code_wrapped_onto_the_next_lines_is_read_whole() {
+        let s = set();
+        let a = code(&s, "Mira", &[Attempt::Clean]);
+        let b = code(&s, "Tomas", &[Attempt::Failed]);
+        let names = |text: &str| -> Vec<(usize, Result<String, String>)> {
+            find_codes(text)
+                .into_iter()
+                .map(|f| (f.line, f.code.map(|r| r.name).map_err(|_| f.text)))
+                .collect()
+        };
+        let ok = |line: usize, name: &str| (line, Ok(name.to_string()));
+        // Broken after a dash, in the middle of a group, and in three pieces, with words
+        // before it and a code after it.
+        let at_dash = a.find('-').unwrap() + 1;
+        let wrapped = [
+            format!("Mira: {}\n{} {b}", &a[..at_dash], &a[at_dash..]),
+            format!("Mira: {}\n{} {b}", &a[..7], &a[7..]),
+            format!("{}\n{}\n{}\n{b}", &a[..12], &a[12..30], &a[30..]),
+        ];
+        for text in &wrapped {
+            let got = names(text);
+            let want_b = if text.matches('\n').count() == 1 {
+                2
+            } else {
+                4
+            };
+            assert_eq!(got.last(), Some(&ok(want_b, "Tomas")), "{text}: {got:?}");
+            assert!(got.contains(&ok(1, "Mira")), "{text}: {got:?}");
+            assert_eq!(
+                got.iter().filter(|x| x.1.is_ok()).count(),
+                2,
+                "{text}: {got:?}"
+            );
+        }
+        // A damaged code at the end of a line is not joined to the whole code that starts the
+        // next: it is reported, and the next line's code reads.
+        let cut = &a[..a.len() - 3];
+        assert_eq!(
+            names(&format!("{cut}\n{b}")),
+            vec![(1, Err(cut.to_string())), ok(2, "Tomas")]
+        );
+        // Only the next line is read on into: a blank line between ends the code.
+        let got = names(&format!("{}\n\n{}", &a[..12], &a[12..]));
+        assert!(got.iter().all(|x| x.1.is_err()), "{got:?}");
     }
 
     #[test]
