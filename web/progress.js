@@ -95,8 +95,11 @@ export class Progress {
 
   drawRating() {
     const canvas = $('progress-chart');
-    const { ctx, w, h } = surface(canvas);
     const series = this.series ?? [];
+    // No rated puzzle yet: the note above says so, and no empty axes are drawn.
+    canvas.hidden = !series.length;
+    if (!series.length) return;
+    const { ctx, w, h } = surface(canvas);
     ctx.fillStyle = css('--panel');
     ctx.fillRect(0, 0, w, h);
     const ink = css('--ink');
@@ -111,10 +114,6 @@ export class Progress {
     ctx.lineTo(left, h - bottom);
     ctx.lineTo(w - right, h - bottom);
     ctx.stroke();
-    if (!series.length) {
-      canvas.setAttribute('aria-label', `Rating over time (${this.rule}): no rated puzzles yet.`);
-      return;
-    }
     const lo = Math.min(...series.map((p) => p.rating - 2 * p.deviation));
     const hi = Math.max(...series.map((p) => p.rating + 2 * p.deviation));
     const y0 = Math.floor(lo / 100) * 100;
@@ -160,14 +159,34 @@ export class Progress {
     // Columns are weeks (Monday first, the current week last), rows the days of the week.
     const weekday = (day) => (day + 3) % 7; // 1970-01-01 was a Thursday: Monday is 0.
     const start = end - weekday(end) - 7 * (WEEKS - 1);
-    const cell = Math.min((w - 4) / WEEKS, (h - 4) / 7);
+    // Room on the left for the days' names and on top for the months'.
+    const left = 30;
+    const top = 16;
+    const cell = Math.min((w - left - 2) / WEEKS, (h - top - 2) / 7);
     const max = Math.max(1, ...counts.values());
     const ink = css('--ink');
+    ctx.fillStyle = ink;
+    ctx.font = '11px system-ui, sans-serif';
+    ctx.textBaseline = 'middle';
+    for (const [r, name] of [[0, 'Mon'], [2, 'Wed'], [4, 'Fri'], [6, 'Sun']]) ctx.fillText(name, 0, top + (r + 0.5) * cell);
+    // A month's name over the week of its first day.
+    // A month's name over the week of its first day, and the first week's month when no other
+    // name is near.
+    const month = (day) => dayWords(day).split(' ')[2].slice(0, 3);
+    let named = WEEKS;
+    for (let col = WEEKS - 1; col >= 0; col--) {
+      const day = start + 7 * col;
+      const first = [...Array(7)].map((_, i) => day + i).find((d) => dayWords(d).split(' ')[1] === '1');
+      if (first !== undefined || (col === 0 && named >= 3)) {
+        ctx.fillText(month(first ?? day), left + col * cell, top / 2);
+        named = col;
+      }
+    }
     for (let day = start; day <= end; day++) {
       const col = Math.floor((day - start) / 7);
       const rowi = weekday(day);
-      const cx = 2 + col * cell;
-      const cy = 2 + rowi * cell;
+      const cx = left + col * cell;
+      const cy = top + rowi * cell;
       const n = counts.get(day) ?? 0;
       ctx.strokeStyle = ink;
       ctx.lineWidth = 1;

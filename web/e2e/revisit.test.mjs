@@ -121,13 +121,9 @@ test('a failed puzzle comes back on the schedule, and its solution can be shown'
     return dark;
   });
   assert.ok(inked > 100, `the calendar is drawn (${inked} dark pixels)`);
-  const chart = await page.$eval('#progress-chart', (c) => {
-    const d = c.getContext('2d').getImageData(0, 0, c.width, c.height).data;
-    let inked = 0;
-    for (let i = 0; i < d.length; i += 4) if (d[i] + d[i + 1] + d[i + 2] < 600) inked++;
-    return inked;
-  });
-  assert.ok(chart > 100, `the rating chart's axes are drawn (${chart} inked pixels)`);
+  // No Drill puzzle, so no rating: the note says so, and no empty chart is drawn.
+  assert.ok(await page.isHidden('#progress-chart'), 'an empty rating chart is hidden');
+  assert.match(await page.textContent('#progress-rating-note'), /^No rated /);
   const days2 = await page.$$eval('#progress-days-table tr', (rows) => rows.slice(1).map((r) => r.lastElementChild.textContent));
   const stored2 = await page.evaluate(() => JSON.parse(JSON.parse(localStorage.getItem('fivefold.practice')).data.log));
   const byDay = new Map();
