@@ -13,7 +13,8 @@
 //! so the reader takes exactly that many characters, across spaces, and the code must end where
 //! a word ends. A code wrapped onto the next line (a mail program's line length, a code typed
 //! in two halves) is read on across the line break when the line ends in text that cannot be
-//! read and the join gives more codes than the next line alone. Text that cannot be read is reported with its line and skipped; consecutive
+//! read, whose last word could be part of a code, and the join gives more codes than the next
+//! line alone. Text that cannot be read is reported with its line and skipped; consecutive
 //! words that cannot be read are reported once. Such text is called a damaged code when it
 //! could be part of one ([`looks_like_code`]), and otherwise words around the codes (a
 //! greeting, a name, a date), reported as [`Problem::NotACode`]. The reading
@@ -97,15 +98,18 @@ pub fn find_codes(text: &str) -> Vec<Found> {
     while i < pieces.len() {
         let mut words = pieces[i].2.clone();
         let mut here = scan(&words);
-        // A code wrapped onto the next lines: this piece ends in text that cannot be read, and
-        // read on into the first pieces of the lines after it (at most WRAP_LINES in all) it
-        // gives more codes than the last of those pieces alone (a code's checksum makes a
-        // chance join all but impossible).
+        // A code wrapped onto the next lines: this piece ends in text that cannot be read, its
+        // last word could be part of a code, and read on into the first pieces of the lines
+        // after it (at most WRAP_LINES in all) it gives more codes than the last of those
+        // pieces alone (a code's checksum makes a chance join all but impossible).
         while let Some(Found {
             text, code: Err(_), ..
         }) = here.last()
         {
             let mut tail: Vec<Word> = words[words.len() - text.split(' ').count()..].to_vec();
+            if !codeish(tail.last().expect("a run has a word").text) {
+                break;
+            }
             let mut joined = None;
             let after = pieces.iter().enumerate().skip(i + 1).take(WRAP_LINES - 1);
             for (j, (line, first, next)) in after {
