@@ -39,7 +39,10 @@ export class Progress {
       this.rule = e.target.value;
       this.render();
     });
-    new ResizeObserver(() => this.draw()).observe($('progress-chart'));
+    // The calendar too: the chart is hidden until a puzzle is rated.
+    const resized = new ResizeObserver(() => this.draw());
+    resized.observe($('progress-chart'));
+    resized.observe($('progress-calendar'));
     app.practice.onChange(() => {
       if (!$('progress').hidden) this.render();
     });
@@ -169,14 +172,13 @@ export class Progress {
     ctx.font = '11px system-ui, sans-serif';
     ctx.textBaseline = 'middle';
     for (const [r, name] of [[0, 'Mon'], [2, 'Wed'], [4, 'Fri'], [6, 'Sun']]) ctx.fillText(name, 0, top + (r + 0.5) * cell);
-    // A month's name over the week of its first day.
     // A month's name over the week of its first day, and the first week's month when no other
     // name is near.
     const month = (day) => dayWords(day).split(' ')[2].slice(0, 3);
     let named = WEEKS;
     for (let col = WEEKS - 1; col >= 0; col--) {
       const day = start + 7 * col;
-      const first = [...Array(7)].map((_, i) => day + i).find((d) => dayWords(d).split(' ')[1] === '1');
+      const first = [...Array(7)].map((_, i) => day + i).find((d) => d <= end && dayWords(d).split(' ')[1] === '1');
       if (first !== undefined || (col === 0 && named >= 3)) {
         ctx.fillText(month(first ?? day), left + col * cell, top / 2);
         named = col;

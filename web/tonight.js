@@ -304,7 +304,7 @@ export class Tonight {
     if (text.length > MAX_SET_BYTES) throw new Error('the file is too large to be a set');
     const json = parseSet(text);
     const over = finishedPuzzle(json);
-    if (over) throw over;
+    if (over) throw new Error(over);
     const key = setKey(json);
     const have = this.set(key);
     if (have) {

@@ -217,7 +217,7 @@ test('the scanner reads a student\'s result code from the camera, once, and stop
     // The code writers are the workshop module's (the page loads it for the summary).
     const m = await import(new URL('workshop/fivefold_web.js', location.href).href);
     await m.default();
-    const set = JSON.parse(m.librarySets())[0];
+    const set = JSON.parse(m.librarySets()).find((x) => x.title === 'Deep fours (freestyle)');
     const results = set.puzzles.map((_, i) => ({ attempt: ['clean', 'helped', 'failed', 'untried'][i % 4], hints: i % 3, seconds: 20 + 50 * i }));
     const code = m.resultCode(JSON.stringify(set), 'Ines Halloran', results);
     const qr = m.qrMatrix(code);

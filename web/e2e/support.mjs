@@ -135,7 +135,6 @@ export async function open(browser, url, options = {}) {
   return c;
 }
 
-/** A starter-library set as shipped (puzzles/<stem>.json). */
 /** The result code on the summary, once written: the code writer is loaded on first use, and
  * until then the summary says it is writing the code. */
 export async function resultCode(page) {
@@ -143,6 +142,7 @@ export async function resultCode(page) {
   return page.textContent('#result-code');
 }
 
+/** A starter-library set as shipped (puzzles/<stem>.json). */
 export function librarySet(stem) {
   return JSON.parse(readFileSync(join(PUZZLES, `${stem}.json`), 'utf8'));
 }

@@ -32,10 +32,11 @@ pub fn parse_set(text: &str) -> Result<String, JsValue> {
     Ok(setfile::to_json(&set))
 }
 
-/// Why a set arriving from outside (a file or a link, as set-file JSON) cannot be played, or
-/// an empty string: a puzzle whose position already has a five has nothing to play (every
-/// grade of it would mean nothing), and is named. Saved sets are not asked, so none is dropped
-/// at start. The file format allows such a position; `fivefold inspect` reports it.
+/// Why a set being added to Tonight (set-file JSON: from a file, a link, Coach, My games or the
+/// library) cannot be played, or an empty string: a puzzle whose position already has a five
+/// has nothing to play (every grade of it would mean nothing), and is named. Saved sets are not
+/// asked, so none is dropped at start. The file format allows such a position; `fivefold
+/// inspect` reports it.
 #[wasm_bindgen(js_name = finishedPuzzle)]
 pub fn finished_puzzle(set_json: &str) -> Result<String, JsValue> {
     let set = setfile::parse(set_json).map_err(err)?;

@@ -94,7 +94,7 @@ mod tests {
         let index: Vec<serde_json::Value> = serde_json::from_str(INDEX).unwrap();
         assert_eq!(index.len(), SETS.len());
         let mut want: Vec<(String, String, u32)> = Vec::new();
-        let mut last = 0;
+        let mut last = (0, "");
         for (entry, (stem, json)) in index.iter().zip(&set_files()) {
             let set = engine::formats::setfile::parse(json).unwrap();
             assert_eq!(entry["file"], *stem);
@@ -111,8 +111,12 @@ mod tests {
                 below <= (n - 1) / 2 && above <= n / 2,
                 "{stem}: {rating} is not the median"
             );
-            assert!(rating >= last, "{stem}: the index is not easiest first");
-            last = rating;
+            // Easiest first, then by file name.
+            assert!(
+                (rating, *stem) > last,
+                "{stem}: the index is not easiest first"
+            );
+            last = (rating, *stem);
             assert_eq!(entry["key"], crate::api::set_key(json).unwrap());
             // The page shows no rule beside a library set: its title names each of them.
             for p in &set.puzzles {

@@ -7,20 +7,23 @@
 //! with spaces between the groups, in lower case, with I, L or O for 1, 1 or 0 (the result
 //! code's own forgiving reading), and with the punctuation of a chat around it ("Mira: CODE.",
 //! "(CODE)", quotes, the invisible characters messaging apps insert): every character but the
-//! letters and digits of the Latin alphabet and dashes separates words as a space does. Lines,
-//! commas and semicolons always separate codes. Spaces may separate codes or groups of one
-//! code: a code's first bytes say how long it is (its version, name length and puzzle count),
-//! so the reader takes exactly that many characters, across spaces, and the code must end where
-//! a word ends. A code wrapped onto the next line (a mail program's line length, a code typed
-//! in two halves) is read on across the line break when the line ends in text that cannot be
-//! read, whose last word could be part of a code, and the join gives more codes than the next
-//! line alone. Text that cannot be read is reported with its line and skipped; consecutive
-//! words that cannot be read are reported once. Such text is called a damaged code when it
-//! could be part of one ([`looks_like_code`]), and otherwise words around the codes (a
-//! greeting, a name, a date), reported as [`Problem::NotACode`]. The reading
-//! is linear in the length of the text: each word starts at most a bounded header read, and a
+//! letters and digits of the Latin alphabet and dashes separates words as a space does. Commas
+//! and semicolons always separate codes. Spaces may separate codes or groups of one code: a
+//! code's first bytes say how long it is (its version, name length and puzzle count), so the
+//! reader takes exactly that many characters, across spaces, and the code must end where a word
+//! ends. A line break separates codes too, unless a code is wrapped (a mail program's line
+//! length, a code typed in two halves): a code that starts in a line's last text that cannot be
+//! read and runs out of text (its header, or the length it gives, goes on past the line's end)
+//! is read on into the next lines, up to [`WRAP_LINES`] lines in all, while it still runs out,
+//! and the join is kept when it gives more codes than those lines alone. Text that cannot be
+//! read is reported with its line and skipped; consecutive words that cannot be read are
+//! reported once. Such text is called a damaged code when it could be part of one
+//! ([`looks_like_code`]), and otherwise words around the codes (a greeting, a name, a date),
+//! reported as [`Problem::NotACode`]. The reading
+//! is linear in the length of the text: each word starts at most a bounded header read, a
 //! whole code is decoded only when its length ends on a word boundary, after which reading goes
-//! on after it.
+//! on after it, and a line is read again only in the joins of a code that runs out of text, at
+//! most [`WRAP_LINES`] times.
 //!
 //! **Which codes count.** Each code is checked: unreadable (a typing mistake, cut short), for
 //! another set (its fingerprint differs from the set's), or for a set of another length. A
@@ -51,7 +54,7 @@ use crate::puzzle::attempt::Attempt;
 /// One code found in pasted text, read or not.
 #[derive(Clone, Debug, PartialEq, Eq)]
 pub struct Found {
-    /// The line it is on, counted from 1.
+    /// The line it starts on, counted from 1.
     pub line: usize,
     /// The text as read: its words joined by single spaces, the punctuation that parted them
     /// dropped, other dashes written as `-`.
@@ -89,57 +92,50 @@ pub fn find_codes(text: &str) -> Vec<Found> {
             pieces.push((n + 1, k == 0, piece));
         }
     }
-    let pieces: Vec<(usize, bool, Vec<Word>)> = pieces
-        .iter()
-        .map(|(line, first, piece)| (*line, *first, words_of(*line, piece)))
-        .collect();
+    let codes = |f: &[Found]| f.iter().filter(|f| f.code.is_ok()).count();
     let mut found = Vec::new();
     let mut i = 0;
     while i < pieces.len() {
-        let mut words = pieces[i].2.clone();
+        let mut words = words_of(pieces[i].0, &pieces[i].2);
         let mut here = scan(&words);
-        // A code wrapped onto the next lines: this piece ends in text that cannot be read, its
-        // last word could be part of a code, and read on into the first pieces of the lines
-        // after it (at most WRAP_LINES in all) it gives more codes than the last of those
-        // pieces alone (a code's checksum makes a chance join all but impossible).
-        while let Some(Found {
-            text, code: Err(_), ..
-        }) = here.last()
-        {
-            let mut tail: Vec<Word> = words[words.len() - text.split(' ').count()..].to_vec();
-            if !codeish(tail.last().expect("a run has a word").text) {
-                break;
-            }
+        // A code wrapped onto the next lines: a code that starts in this piece's last run of
+        // unread text runs out of text. It is read on into the first pieces of the lines after
+        // it (at most WRAP_LINES lines in all) while it still runs out, and the join is kept
+        // if it gives more codes than those pieces alone (a code's checksum makes a chance
+        // join all but impossible).
+        while let Some((run, start)) = here.runs_out {
+            let mut joint: Vec<Word> = words[start..].to_vec();
+            let mut alone = 0;
             let mut joined = None;
-            let after = pieces.iter().enumerate().skip(i + 1).take(WRAP_LINES - 1);
-            for (j, (line, first, next)) in after {
-                let end = tail.last().expect("a run has a word").line;
-                if !first || *line != end + 1 {
+            for (j, (line, first, next)) in pieces.iter().enumerate().skip(i + 1) {
+                let end = joint.last().expect("a run has a word").line;
+                if !first || *line != end + 1 || *line - words[start].line >= WRAP_LINES {
                     break;
                 }
-                let joint: Vec<Word> = tail.iter().chain(next).cloned().collect();
+                let next = words_of(*line, next);
+                alone += codes(&scan(&next).found);
+                joint.extend(next);
                 let read = scan(&joint);
-                let codes = |f: &[Found]| f.iter().filter(|f| f.code.is_ok()).count();
-                if codes(&read) > codes(&scan(next)) {
-                    joined = Some((j, joint, read));
+                if codes(&read.found) > alone {
+                    joined = Some((j, read));
                     break;
                 }
-                // Still one run that cannot be read: a code may go on over the next line.
-                let symbols: usize = joint.iter().map(|w| w.symbols).sum();
-                if read.len() != 1 || symbols > result::MAX_CODE_CHARS {
+                if read.runs_out.map(|r| r.1) != Some(0) {
                     break;
                 }
-                tail = joint;
             }
-            let Some((j, joint, read)) = joined else {
+            let Some((j, read)) = joined else {
                 break;
             };
-            here.pop();
-            here.extend(read);
+            // The run's words before the code's first stay as they were read on their own.
+            here.found.pop();
+            here.found.extend(scan(&words[run..start]).found);
+            here.found.extend(read.found);
+            here.runs_out = read.runs_out;
             words = joint;
             i = j;
         }
-        found.extend(here);
+        found.extend(here.found);
         i += 1;
     }
     found
@@ -175,15 +171,27 @@ fn words_of(line: usize, piece: &str) -> Vec<Word<'_>> {
 /// The most lines one code is read across: more than a mail or chat program's wrap makes of
 /// the code of a usual set (a 12-puzzle set's is about 80 characters), and a bound that keeps
 /// the reading linear in the text.
-const WRAP_LINES: usize = 8;
+pub const WRAP_LINES: usize = 8;
 
 /// No word ends after this many symbols.
 const NO_WORD: u32 = u32::MAX;
 
+/// What [`scan`] read of a piece.
+struct Scanned {
+    /// The codes and the runs of text that could not be read, in order.
+    found: Vec<Found>,
+    /// When the piece ends in a run that could not be read in which a code runs out of text
+    /// (its header, or the length it gives, goes on past the last word): the run's first word
+    /// and the first word of the earliest such code.
+    runs_out: Option<(usize, usize)>,
+}
+
 /// Reads the codes of one piece (a part of a line between commas and semicolons, or such parts
-/// of two lines when a code is wrapped); each is reported on the line of its first word.
-fn scan(words: &[Word]) -> Vec<Found> {
+/// of up to [`WRAP_LINES`] lines when a code is wrapped); each is reported on the line of its
+/// first word.
+fn scan(words: &[Word]) -> Scanned {
     let mut found = Vec::new();
+    let mut runs_out = None;
     // before[j]: the symbols in words[..j]; ends[s]: the first word after which exactly s
     // symbols have been read, or NO_WORD.
     let mut before = Vec::with_capacity(words.len() + 1);
@@ -227,6 +235,7 @@ fn scan(words: &[Word]) -> Vec<Found> {
         match attempt(words, i, &before, &ends) {
             Ok((code, k)) => {
                 flush(&mut failed, i, &mut found);
+                runs_out = None;
                 found.push(Found {
                     line: words[i].line,
                     text: joined(i, k),
@@ -234,8 +243,12 @@ fn scan(words: &[Word]) -> Vec<Found> {
                 });
                 i = k + 1;
             }
-            Err((error, next)) => {
+            Err((error, next, out)) => {
                 let here = codeish(words[i].text);
+                let run = failed.as_ref().map_or(i, |f| f.0);
+                if out && runs_out.is_none() {
+                    runs_out = Some((run, i));
+                }
                 match &mut failed {
                     None => {
                         failed = Some((i, error));
@@ -253,18 +266,22 @@ fn scan(words: &[Word]) -> Vec<Found> {
             }
         }
     }
+    if failed.is_none() {
+        runs_out = None;
+    }
     flush(&mut failed, words.len(), &mut found);
-    found
+    Scanned { found, runs_out }
 }
 
-/// Tries to read one code starting at word `i`: the code and its last word, or why not and
-/// where to try next.
+/// Tries to read one code starting at word `i`: the code and its last word, or why not, where
+/// to try next, and whether the code runs out of text (its header, or the length it gives, goes
+/// on past the last word).
 fn attempt(
     words: &[Word],
     i: usize,
     before: &[usize],
     ends: &[u32],
-) -> Result<(Results, usize), (ResultError, usize)> {
+) -> Result<(Results, usize), (ResultError, usize, bool)> {
     let next = i + 1;
     // Read the header symbol by symbol until the code's length is known. The header is at most
     // 8 + 255 bytes, so this is bounded whatever the text.
@@ -273,7 +290,7 @@ fn attempt(
     let mut length = None;
     'words: for w in &words[i..] {
         if let Some((found, at)) = w.bad {
-            return Err((ResultError::BadCharacter { found, at }, next));
+            return Err((ResultError::BadCharacter { found, at }, next, false));
         }
         for c in w.text.chars().filter(|&c| c != '-') {
             let v = result::symbol(c).expect("checked above");
@@ -288,27 +305,28 @@ fn attempt(
                         break 'words;
                     }
                     Ok(None) => {}
-                    Err(e) => return Err((e, next)),
+                    Err(e) => return Err((e, next, false)),
                 }
             }
         }
     }
     let Some(bytes) = length else {
-        return Err((ResultError::Damaged, next));
+        return Err((ResultError::Damaged, next, true));
     };
     let symbols = result::code_chars(bytes);
     if symbols > result::MAX_CODE_CHARS {
-        return Err((ResultError::Damaged, next));
+        return Err((ResultError::Damaged, next, false));
     }
     // The code must end where a word ends.
     let k = match ends.get(before[i] + symbols) {
         Some(&k) if k != NO_WORD => k as usize,
-        _ => return Err((ResultError::Damaged, next)),
+        Some(_) => return Err((ResultError::Damaged, next, false)),
+        None => return Err((ResultError::Damaged, next, true)),
     };
     let text: String = words[i..=k].iter().map(|w| w.text).collect();
     result::decode(&text)
         .map(|r| (r, k))
-        .map_err(|e| (e, k + 1))
+        .map_err(|e| (e, k + 1, false))
 }
 
 /// A word that could be a group of a code or a whole one: four code characters or more, with
@@ -832,6 +850,32 @@ mod tests {
                 "{text}: {got:?}"
             );
         }
+        // Typed with spaces between the groups, in lower case, wrapped after a group or inside
+        // one; with CRLF line ends; a comma piece after the code's end on the next line.
+        let spaced = a.replace('-', " ").to_lowercase();
+        let group = spaced.find(' ').unwrap() + 1;
+        let wrapped = [
+            format!("{}\r\n{}\r\n{b}", &spaced[..group], &spaced[group..]),
+            format!("{}\n{}, {b}", &spaced[..group + 2], &spaced[group + 2..]),
+        ];
+        for text in &wrapped {
+            let got = names(text);
+            assert_eq!(got.first(), Some(&ok(1, "Mira")), "{text}: {got:?}");
+            assert_eq!(
+                got.iter().filter(|x| x.1.is_ok()).count(),
+                2,
+                "{text}: {got:?}"
+            );
+        }
+        // Cut into more lines than WRAP_LINES: not read (each line is reported).
+        let chars: Vec<char> = a.chars().collect();
+        let many: Vec<String> = chars
+            .chunks((a.len() / (WRAP_LINES + 1)).max(1))
+            .map(|c| c.iter().collect())
+            .collect();
+        assert!(many.len() > WRAP_LINES);
+        assert!(names(&many.join("\n")).iter().all(|x| x.1.is_err()));
+        assert_eq!(names(&many[..WRAP_LINES].join("\n")).len(), WRAP_LINES);
         // A damaged code at the end of a line is not joined to the whole code that starts the
         // next: it is reported, and the next line's code reads.
         let cut = &a[..a.len() - 3];
