@@ -64,7 +64,7 @@
 //! bytes. Such codes carry no generator block.
 
 use std::fmt;
-use std::io::{Read, Write};
+use std::io::Write;
 
 use base64::engine::general_purpose::URL_SAFE_NO_PAD;
 use base64::Engine as _;
@@ -464,15 +464,20 @@ fn decode_v2(text: &str) -> Result<PuzzleSet, ShareError> {
     if header & 0b1000 == 0 {
         return read_body(body);
     }
-    let mut inflated = Vec::new();
-    flate2::read::DeflateDecoder::new(body)
-        .take(MAX_BODY_BYTES as u64 + 1)
-        .read_to_end(&mut inflated)
-        .map_err(|_| ShareError::Malformed("the compressed body"))?;
-    if inflated.len() > MAX_BODY_BYTES {
-        return Err(ShareError::Malformed("the compressed body (too large)"));
-    }
+    let inflated = inflate(body, ShareError::Malformed("the compressed body"))?;
     read_body(&inflated)
+}
+
+/// Inflates a DEFLATE stream (RFC 1951) to at most [`MAX_BODY_BYTES`], or fails with `bad`
+/// (a stream that is not valid DEFLATE) or as too large. miniz_oxide's one-call decoder, which
+/// flate2's reader wraps: without the reader the page's module is about 1.9 KB smaller
+/// (gzipped).
+fn inflate(packed: &[u8], bad: ShareError) -> Result<Vec<u8>, ShareError> {
+    use miniz_oxide::inflate::{decompress_to_vec_with_limit, TINFLStatus};
+    decompress_to_vec_with_limit(packed, MAX_BODY_BYTES).map_err(|e| match e.status {
+        TINFLStatus::HasMoreOutput => ShareError::Malformed("the compressed body (too large)"),
+        _ => bad,
+    })
 }
 
 /// Reads the body; every count is checked against the limits before anything is allocated
@@ -831,14 +836,7 @@ fn decode_v1(code: &str) -> Result<PuzzleSet, ShareError> {
     if super::bits::crc32(packed).to_le_bytes() != crc {
         return Err(ShareError::Damaged);
     }
-    let mut raw = Vec::new();
-    flate2::read::DeflateDecoder::new(packed)
-        .take(MAX_BODY_BYTES as u64 + 1)
-        .read_to_end(&mut raw)
-        .map_err(|_| ShareError::Damaged)?;
-    if raw.len() > MAX_BODY_BYTES {
-        return Err(ShareError::Malformed("the compressed body (too large)"));
-    }
+    let raw = inflate(packed, ShareError::Damaged)?;
     let mut r = V1 { b: &raw, at: 0 };
     let version = r.byte()?;
     if version != 1 {
