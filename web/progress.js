@@ -127,12 +127,18 @@ export class Progress {
     const y = (v) => h - bottom - ((v - y0) / (y1 - y0)) * (h - top - bottom);
     // The uncertainty band, then the line, then a mark per day (a square, so it reads without
     // colour).
-    ctx.fillStyle = css('--board');
+    // The band in the ink's own colour, faint, so the line stands out in either scheme.
+    ctx.fillStyle = css('--ink');
+    ctx.globalAlpha = 0.2;
     ctx.beginPath();
     series.forEach((p, i) => (i ? ctx.lineTo : ctx.moveTo).call(ctx, x(p.day), y(p.rating + 2 * p.deviation)));
     for (let i = series.length - 1; i >= 0; i--) ctx.lineTo(x(series[i].day), y(series[i].rating - 2 * series[i].deviation));
     ctx.closePath();
     ctx.fill();
+    // One day alone has no width: its band is a bar.
+    const [p0] = series;
+    if (series.length === 1) ctx.fillRect(x(d0) - 6, y(p0.rating + 2 * p0.deviation), 12, 4 * p0.deviation * (h - top - bottom) / (y1 - y0));
+    ctx.globalAlpha = 1;
     ctx.strokeStyle = ink;
     ctx.lineWidth = 2;
     ctx.beginPath();
@@ -146,7 +152,14 @@ export class Progress {
     for (const v of [y0, y1]) ctx.fillText(String(v), left - 4, y(v));
     ctx.textAlign = 'left';
     ctx.textBaseline = 'alphabetic';
-    ctx.fillText(dayWords(d0).split(' ').slice(1, 3).join(' '), left, h - 6);
+    // The first and the last day.
+    const date = (d) => dayWords(d).split(' ').slice(1, 3).join(' ');
+    ctx.fillText(date(d0), left, h - 6);
+    const dn = series[series.length - 1].day;
+    if (dn !== d0) {
+      ctx.textAlign = 'right';
+      ctx.fillText(date(dn), w - right, h - 6);
+    }
     const last = series[series.length - 1];
     canvas.setAttribute('aria-label',
       `Rating over time (${this.rule}): ${series.length} day${series.length === 1 ? '' : 's'}, now ${Math.round(last.rating)}. The table below has every point.`);

@@ -438,7 +438,7 @@ export class Tonight {
       return el('li', { class: 'card compact', 'data-library': String(i) },
         el('div', {},
           el('h3', { class: 'set-title', text: entry.title }),
-          el('p', { class: 'meta', text: `${entry.count} puzzles · rated about ${entry.rating}` })),
+          el('p', { class: 'meta', text: `${entry.count} puzzles · rated about ${Math.round(entry.rating / 10) * 10}` })),
         el('button', {
           type: 'button',
           class: have ? 'secondary' : 'primary',

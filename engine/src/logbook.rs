@@ -6,9 +6,9 @@
 //! the source, and whether it was a Drill skip that counted as a failure. From the entries the
 //! logbook computes:
 //!
-//! * the rating series of a rule ([`Logbook::rating_series`]): one point per day with
-//!   attempts under that rule, the rating and deviation after the day's last attempt, for a
-//!   chart with an uncertainty band;
+//! * the rating series of a rule ([`Logbook::rating_series`]): one point per day with rated
+//!   attempts (Drill's; the other screens carry the rating unchanged) under that rule, the
+//!   rating and deviation after the day's last of them, for a chart with an uncertainty band;
 //! * accuracy by theme and by rule ([`Logbook::accuracy_by_theme`],
 //!   [`Logbook::accuracy_by_rule`]): clean, helped and failed counts ([`Tally`]) and the
 //!   percentages;
@@ -46,7 +46,7 @@ use serde_json::Value;
 use crate::puzzle::attempt::Attempt;
 use crate::puzzle::Theme;
 use crate::rating::drill::{self, Skip};
-use crate::schedule::deck::{source_from, source_value, Source, TITLE_CHARS};
+use crate::schedule::deck::{source_from, source_value, Screen, Source, TITLE_CHARS};
 use crate::schedule::stored::{
     self, build, field, flag, list, name, number, object, opt, opt_uint, six_places, text, uint,
     Object,
@@ -317,7 +317,9 @@ impl Logbook {
         let earlier = &mut self.earlier;
         add_to_day(&mut earlier.days, e);
         let points = &mut earlier.ratings[rule_index(e.rule)];
-        put_point(points, e);
+        if rated(e) {
+            put_point(points, e);
+        }
         if points.len() > DAY_CAP {
             points.remove(0);
         }
@@ -335,13 +337,13 @@ impl Logbook {
         }
     }
 
-    /// The rating series of `rule`: one point per day, the rating and deviation after the
-    /// day's last attempt under that rule, oldest day first.
+    /// The rating series of `rule`: one point per day with a rated attempt under that rule,
+    /// the rating and deviation after the day's last, oldest day first.
     pub fn rating_series(&self, rule: Rule) -> Vec<RatingPoint> {
         // The folded points are in order of day; each entry, in the order recorded, replaces
         // its day's point or is put in its place, so the last of each day stays.
         let mut series = self.earlier.ratings[rule_index(rule)].clone();
-        for e in self.entries.iter().filter(|e| e.rule == rule) {
+        for e in self.entries.iter().filter(|e| e.rule == rule && rated(e)) {
             put_point(&mut series, e);
         }
         series
@@ -590,6 +592,12 @@ impl Logbook {
 }
 
 /// The player's rating and deviation after an entry.
+/// Whether an entry's try was rated: only Drill's are; the other screens log the rating as
+/// it stood.
+fn rated(e: &Entry) -> bool {
+    e.source.origin == Screen::Drill
+}
+
 fn point(e: &Entry) -> RatingPoint {
     RatingPoint {
         day: e.day,
@@ -766,7 +774,6 @@ fn earlier_from(v: &Value) -> Result<Earlier, String> {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::schedule::deck::Screen;
     use std::collections::BTreeMap;
 
     /// An entry on `day` under `rule` and `theme` with `outcome`, leaving the player at
@@ -829,6 +836,15 @@ mod tests {
         assert_eq!(std, vec![(13, 1540.0)]);
         assert_eq!(log.rating_series(Renju).len(), 1);
         assert_eq!(log.latest(Freestyle).map(|p| p.rating), Some(1490.0));
+        // A Tonight try carries the rating as it stood: no point of its own, on a day without
+        // a Drill try or on one with.
+        let mut log = log;
+        for day in [11, 12] {
+            let mut e = entry(day, Freestyle, Vcf, Clean, 1500.0);
+            e.source = Source::new(Screen::Tonight, "Harbour Street, week 3");
+            log.record(e).unwrap();
+        }
+        assert_eq!(log.rating_series(Freestyle), free);
         assert_eq!(Logbook::new().latest(Renju), None);
     }
 

@@ -204,6 +204,12 @@ test('Revisit and Progress on a phone', async () => {
     .map((b) => ({ table: b.firstElementChild.id, scroll: b.scrollWidth, width: b.clientWidth })));
   assert.ok(boxes.length >= 2, JSON.stringify(boxes));
   for (const b of boxes) assert.ok(b.scroll <= b.width, `${b.table} fits: ${JSON.stringify(b)}`);
+  // And on a small phone, 360 px wide.
+  await page.setViewportSize({ width: 360, height: 740 });
+  const small = await page.$$eval('#progress .table-box', (l) => l.filter((b) => b.offsetParent)
+    .map((b) => ({ table: b.firstElementChild.id, scroll: b.scrollWidth, width: b.clientWidth })));
+  for (const b of small) assert.ok(b.scroll <= b.width, `${b.table} fits 360 px: ${JSON.stringify(b)}`);
+  await page.setViewportSize({ width: PHONE.width, height: PHONE.height });
   const rules = await page.$$eval('#progress-rules tr', (rows) => rows.slice(1).map((r) => r.firstElementChild.textContent));
   assert.deepEqual(rules, ['Freestyle']);
   await page.$eval('#progress-themes', (t) => t.scrollIntoView());

@@ -15,9 +15,10 @@
 //! length, a code typed in two halves): a code that starts in a line's last text that cannot be
 //! read and runs out of text (its header, or the length it gives, goes on past the line's end)
 //! is read on into the next lines, up to [`WRAP_LINES`] lines in all, while it still runs out,
-//! and the join is kept when it gives more codes than those lines alone. Text that cannot be
-//! read is reported with its line and skipped; consecutive words that cannot be read are
-//! reported once. Such text is called a damaged code when it could be part of one
+//! and the join is kept when it gives more codes than those lines alone, or as many and the
+//! code's length ends where a word ends (a damaged code wrapped is reported once). Text that
+//! cannot be read is reported with its line and skipped; consecutive words that cannot be read
+//! are reported once. Such text is called a damaged code when it could be part of one
 //! ([`looks_like_code`]), and otherwise words around the codes (a greeting, a name, a date),
 //! reported as [`Problem::NotACode`]. The reading
 //! is linear in the length of the text: each word starts at most a bounded header read, a
@@ -102,7 +103,8 @@ pub fn find_codes(text: &str) -> Vec<Found> {
         // unread text runs out of text. It is read on into the first pieces of the lines after
         // it (at most WRAP_LINES lines in all) while it still runs out, and the join is kept
         // if it gives more codes than those pieces alone (a code's checksum makes a chance
-        // join all but impossible).
+        // join all but impossible), or as many and the code's length, read from its header,
+        // ends where a word ends (a damaged code, reported once).
         while let Some((run, start)) = here.runs_out {
             let mut joint: Vec<Word> = words[start..].to_vec();
             let mut alone = 0;
@@ -116,7 +118,12 @@ pub fn find_codes(text: &str) -> Vec<Found> {
                 alone += codes(&scan(&next).found);
                 joint.extend(next);
                 let read = scan(&joint);
-                if codes(&read.found) > alone {
+                // More codes; or as many, with the first one looking like a code and its
+                // length ending on a word of the lines read on into (a damaged code wrapped:
+                // reported once, on its first line).
+                let more = codes(&read.found) > alone;
+                let damaged = || codeish(joint[0].text) && spans_words(&joint);
+                if more || (codes(&read.found) == alone && damaged()) {
                     joined = Some((j, read));
                     break;
                 }
@@ -192,20 +199,7 @@ struct Scanned {
 fn scan(words: &[Word]) -> Scanned {
     let mut found = Vec::new();
     let mut runs_out = None;
-    // before[j]: the symbols in words[..j]; ends[s]: the first word after which exactly s
-    // symbols have been read, or NO_WORD.
-    let mut before = Vec::with_capacity(words.len() + 1);
-    before.push(0usize);
-    for w in words {
-        before.push(before.last().expect("one entry") + w.symbols);
-    }
-    let total = *before.last().expect("one entry");
-    // Word numbers fit 32 bits (a text of 4 GiB would be needed to overflow them); the table
-    // then takes 4 bytes per symbol of the piece.
-    let mut ends: Vec<u32> = vec![NO_WORD; total + 1];
-    for j in (0..words.len()).rev() {
-        ends[before[j + 1]] = j as u32;
-    }
+    let (before, ends) = word_ends(words);
     let joined = |from: usize, to: usize| -> String {
         words[from..=to]
             .iter()
@@ -271,6 +265,34 @@ fn scan(words: &[Word]) -> Scanned {
     }
     flush(&mut failed, words.len(), &mut found);
     Scanned { found, runs_out }
+}
+
+/// For reading codes across words: `before[j]`, the symbols in `words[..j]`, and `ends[s]`,
+/// the first word after which exactly `s` symbols have been read, or [`NO_WORD`].
+fn word_ends(words: &[Word]) -> (Vec<usize>, Vec<u32>) {
+    let mut before = Vec::with_capacity(words.len() + 1);
+    before.push(0usize);
+    for w in words {
+        before.push(before.last().expect("one entry") + w.symbols);
+    }
+    let total = *before.last().expect("one entry");
+    // Word numbers fit 32 bits (a text of 4 GiB would be needed to overflow them); the table
+    // then takes 4 bytes per symbol of the piece.
+    let mut ends: Vec<u32> = vec![NO_WORD; total + 1];
+    for j in (0..words.len()).rev() {
+        ends[before[j + 1]] = j as u32;
+    }
+    (before, ends)
+}
+
+/// Whether the code that starts at the first word, its length read from its header, ends
+/// where a later word ends (read, or refused by its checksum).
+fn spans_words(words: &[Word]) -> bool {
+    let (before, ends) = word_ends(words);
+    match attempt(words, 0, &before, &ends) {
+        Ok((_, k)) => k > 0,
+        Err((_, next, _)) => next > 1,
+    }
 }
 
 /// Tries to read one code starting at word `i`: the code and its last word, or why not, where
@@ -450,14 +472,17 @@ impl fmt::Display for Notice {
                 write!(f, "the same result for {name} again; nothing changed")
             }
             Problem::Replaced { name, later: true } => {
-                write!(f, "a later result for {name}; it replaces the earlier one")
+                write!(f, "a result for {name} further on than the table's; it replaces it")
             }
             Problem::Replaced { name, later: false } => write!(
                 f,
                 "another result for {name} (another device?); read later, it replaces the one before"
             ),
             Problem::Earlier { name } => {
-                write!(f, "an earlier result for {name}; the table keeps the later one")
+                write!(
+                    f,
+                    "a result for {name} that the table's already goes past (an earlier one, or another device's); the table keeps its own"
+                )
             }
         }
     }
@@ -638,8 +663,11 @@ impl ClassTable {
                     }
                 }
                 None => {
+                    // Numbered among the nameless rows: a line number would change as the
+                    // page reads its codes again.
                     let name = if key.is_empty() {
-                        format!("(no name, line {})", found.line)
+                        let n = self.rows.len();
+                        format!("(no name {})", self.students.len() - n + 1)
                     } else {
                         self.rows.insert(key, self.students.len());
                         code.name
@@ -876,6 +904,20 @@ mod tests {
         assert!(many.len() > WRAP_LINES);
         assert!(names(&many.join("\n")).iter().all(|x| x.1.is_err()));
         assert_eq!(names(&many[..WRAP_LINES].join("\n")).len(), WRAP_LINES);
+        // A damaged code wrapped (one character changed) is one code to look at, on its first
+        // line, and the code after it still reads.
+        let at = a.len() - 3;
+        let swap = if &a[at..=at] == "7" { "8" } else { "7" };
+        let damaged = format!("{}{swap}{}", &a[..at], &a[at + 1..]);
+        let got = names(&format!(
+            "{}\n{}\n{b}",
+            &damaged[..at_dash],
+            &damaged[at_dash..]
+        ));
+        assert_eq!(got.len(), 2, "{got:?}");
+        let as_read = format!("{} {}", &damaged[..at_dash], &damaged[at_dash..]);
+        assert_eq!(got[0], (1, Err(as_read)), "{got:?}");
+        assert_eq!(got[1], ok(3, "Tomas"));
         // A damaged code at the end of a line is not joined to the whole code that starts the
         // next: it is reported, and the next line's code reads.
         let cut = &a[..a.len() - 3];
@@ -1054,7 +1096,7 @@ mod tests {
         assert_eq!((added.new_students, added.replaced), (0, 1));
         assert!(added.notices[0]
             .to_string()
-            .contains("a later result for mira; it replaces"));
+            .contains("a result for mira further on than the table's; it replaces it"));
         // Both students are still there; Mira's row now holds the newer results.
         let rows = table.students();
         assert_eq!(rows.len(), 2);
@@ -1072,6 +1114,13 @@ mod tests {
             Problem::WrongLength { .. }
         ));
         assert_eq!(table.students().len(), 2);
+        // Codes with no name are rows of their own, numbered among themselves, whatever line
+        // they are read from.
+        let nameless = code(&s, "", &[Attempt::Clean]);
+        table.add(&format!("\n\n{nameless}"));
+        table.add(&format!("{nameless}\n{}", code(&s, "", &[Attempt::Failed])));
+        let names: Vec<&str> = table.students().iter().map(|r| r.name.as_str()).collect();
+        assert_eq!(names[2..], ["(no name 1)", "(no name 2)", "(no name 3)"]);
     }
 
     #[test]
