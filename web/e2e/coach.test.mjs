@@ -682,7 +682,7 @@ test('Coach on a phone: make, preview, hand out and results fit 360 px', async (
   // A damaged code (its report is the longest line), and a word that is no code.
   await page.fill('#coach-codes', 'HELLO\n0B5G-X7SV-1D6P-JWK1-417P-PRB6-DXS0-C022-GM51-8A20-ZR8C-780');
   await page.click('#coach-read');
-  assert.match(await page.textContent('#coach-reports li:nth-child(2)'), /^line 2, '0B5G-X7SV-1D6P-JWK1-417P-PRB6-DXS0-C022-…': this result code does not check out/);
+  assert.match(await page.textContent('#coach-reports li:nth-child(2)'), /^line 2, ‘0B5G-X7SV-1D6P-JWK1-417P-PRB6-DXS0-C022-…’: this result code does not check out/);
   assert.equal(await page.textContent('#coach-reports li:nth-child(3)'), 'Skipped as text, not codes: line 1 ‘HELLO’.');
   assert.ok(await wide() <= 360, 'nothing is wider than the phone (results)');
   await artefact(page, 'coach-results-phone', { fullPage: true });

@@ -109,7 +109,7 @@ struct NoticeJs {
     kind: &'static str,
     /// The text as read (`class::Found::text`), shortened.
     text: String,
-    /// The whole report: "line 3, 'AB12-…': a result for another set …".
+    /// The whole report: "line 3, ‘AB12-…’: a result for another set …".
     message: String,
 }
 

@@ -456,7 +456,7 @@ impl Problem {
 
 impl fmt::Display for Notice {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        write!(f, "line {}, '{}': ", self.line, self.text)?;
+        write!(f, "line {}, ‘{}’: ", self.line, self.text)?;
         match &self.problem {
             Problem::Unreadable(e) => write!(f, "{e}; skipped"),
             Problem::NotACode => f.write_str("not a result code; skipped"),
