@@ -56,10 +56,9 @@ export class Progress {
     const day = today();
     this.data = this.app.practice.handle.progress(day);
     const d = this.data;
-    // A rating exists once the player has rated tries (Drill) under the rule; the logbook's
-    // entries from other screens carry the rating as it stood, which says nothing before that.
-    const rated = this.app.drill.ratingFor(this.rule) !== null;
-    const series = rated ? d.ratings[this.rule] ?? [] : [];
+    // Points of rated tries (Drill's) only: the engine leaves out the other screens', which
+    // carry the rating as it stood.
+    const series = d.ratings[this.rule] ?? [];
     this.series = series;
     $('progress-rule').value = this.rule;
     const last = series[series.length - 1];
@@ -123,12 +122,13 @@ export class Progress {
     const y1 = Math.ceil(hi / 100) * 100 || y0 + 100;
     const d0 = series[0].day;
     const d1 = Math.max(series[series.length - 1].day, d0 + 1);
-    const x = (day) => left + ((day - d0) / (d1 - d0)) * (w - left - right);
+    // A lone day stands in the middle.
+    const x = (day) => series.length === 1 ? (left + w - right) / 2 : left + ((day - d0) / (d1 - d0)) * (w - left - right);
     const y = (v) => h - bottom - ((v - y0) / (y1 - y0)) * (h - top - bottom);
     // The uncertainty band, then the line, then a mark per day (a square, so it reads without
     // colour).
     // The band in the ink's own colour, faint, so the line stands out in either scheme.
-    ctx.fillStyle = css('--ink');
+    ctx.fillStyle = ink;
     ctx.globalAlpha = 0.2;
     ctx.beginPath();
     series.forEach((p, i) => (i ? ctx.lineTo : ctx.moveTo).call(ctx, x(p.day), y(p.rating + 2 * p.deviation)));
@@ -154,7 +154,8 @@ export class Progress {
     ctx.textBaseline = 'alphabetic';
     // The first and the last day.
     const date = (d) => dayWords(d).split(' ').slice(1, 3).join(' ');
-    ctx.fillText(date(d0), left, h - 6);
+    if (series.length === 1) ctx.textAlign = 'center';
+    ctx.fillText(date(d0), x(d0), h - 6);
     const dn = series[series.length - 1].day;
     if (dn !== d0) {
       ctx.textAlign = 'right';

@@ -319,9 +319,9 @@ impl Logbook {
         let points = &mut earlier.ratings[rule_index(e.rule)];
         if rated(e) {
             put_point(points, e);
-        }
-        if points.len() > DAY_CAP {
-            points.remove(0);
+            if points.len() > DAY_CAP {
+                points.remove(0);
+            }
         }
         earlier.themes[theme_index(e.theme)].add(e.outcome);
         earlier.rules[rule_index(e.rule)].add(e.outcome);
@@ -349,9 +349,14 @@ impl Logbook {
         series
     }
 
-    /// The player's latest rating and deviation under `rule`, if any attempt was logged.
+    /// The player's latest rating and deviation under `rule`, if any rated attempt was logged.
     pub fn latest(&self, rule: Rule) -> Option<RatingPoint> {
-        match self.entries.iter().rev().find(|e| e.rule == rule) {
+        match self
+            .entries
+            .iter()
+            .rev()
+            .find(|e| e.rule == rule && rated(e))
+        {
             Some(e) => Some(point(e)),
             None => self.earlier.ratings[rule_index(rule)].last().copied(),
         }
@@ -591,13 +596,13 @@ impl Logbook {
     }
 }
 
-/// The player's rating and deviation after an entry.
 /// Whether an entry's try was rated: only Drill's are; the other screens log the rating as
-/// it stood.
+/// it stood. (A logbook folded before this rule keeps whatever points it folded.)
 fn rated(e: &Entry) -> bool {
     e.source.origin == Screen::Drill
 }
 
+/// The player's rating and deviation after an entry.
 fn point(e: &Entry) -> RatingPoint {
     RatingPoint {
         day: e.day,
@@ -845,6 +850,13 @@ mod tests {
             log.record(e).unwrap();
         }
         assert_eq!(log.rating_series(Freestyle), free);
+        assert_eq!(log.latest(Freestyle).map(|p| p.rating), Some(1490.0));
+        let mut only_tonight = Logbook::new();
+        let mut e = entry(12, Renju, Vcf, Clean, 1500.0);
+        e.source = Source::new(Screen::Tonight, "Harbour Street, week 3");
+        only_tonight.record(e).unwrap();
+        assert_eq!(only_tonight.latest(Renju), None);
+        assert!(only_tonight.rating_series(Renju).is_empty());
         assert_eq!(Logbook::new().latest(Renju), None);
     }
 

@@ -208,6 +208,7 @@ test('Revisit and Progress on a phone', async () => {
   await page.setViewportSize({ width: 360, height: 740 });
   const small = await page.$$eval('#progress .table-box', (l) => l.filter((b) => b.offsetParent)
     .map((b) => ({ table: b.firstElementChild.id, scroll: b.scrollWidth, width: b.clientWidth })));
+  assert.ok(small.length >= 2, JSON.stringify(small));
   for (const b of small) assert.ok(b.scroll <= b.width, `${b.table} fits 360 px: ${JSON.stringify(b)}`);
   await page.setViewportSize({ width: PHONE.width, height: PHONE.height });
   const rules = await page.$$eval('#progress-rules tr', (rows) => rows.slice(1).map((r) => r.firstElementChild.textContent));

@@ -16,7 +16,8 @@
 //! read and runs out of text (its header, or the length it gives, goes on past the line's end)
 //! is read on into the next lines, up to [`WRAP_LINES`] lines in all, while it still runs out,
 //! and the join is kept when it gives more codes than those lines alone, or as many and the
-//! code's length ends where a word ends (a damaged code wrapped is reported once). Text that
+//! code, its first word looking like one, has a length that ends where a later line ends (a
+//! damaged code wrapped is reported once). Text that
 //! cannot be read is reported with its line and skipped; consecutive words that cannot be read
 //! are reported once. Such text is called a damaged code when it could be part of one
 //! ([`looks_like_code`]), and otherwise words around the codes (a greeting, a name, a date),
@@ -104,7 +105,7 @@ pub fn find_codes(text: &str) -> Vec<Found> {
         // it (at most WRAP_LINES lines in all) while it still runs out, and the join is kept
         // if it gives more codes than those pieces alone (a code's checksum makes a chance
         // join all but impossible), or as many and the code's length, read from its header,
-        // ends where a word ends (a damaged code, reported once).
+        // ends where a later line ends (a damaged code, reported once).
         while let Some((run, start)) = here.runs_out {
             let mut joint: Vec<Word> = words[start..].to_vec();
             let mut alone = 0;
@@ -119,7 +120,7 @@ pub fn find_codes(text: &str) -> Vec<Found> {
                 joint.extend(next);
                 let read = scan(&joint);
                 // More codes; or as many, with the first one looking like a code and its
-                // length ending on a word of the lines read on into (a damaged code wrapped:
+                // length ending where a line read on into ends (a damaged code wrapped:
                 // reported once, on its first line).
                 let more = codes(&read.found) > alone;
                 let damaged = || codeish(joint[0].text) && spans_words(&joint);
@@ -286,13 +287,17 @@ fn word_ends(words: &[Word]) -> (Vec<usize>, Vec<u32>) {
 }
 
 /// Whether the code that starts at the first word, its length read from its header, ends
-/// where a later word ends (read, or refused by its checksum).
+/// where a later line ends, over words of code characters only (read, or refused as it is
+/// decoded): how a damaged code wrapped by a mail program looks. A code that would end inside a
+/// line, or take in a word no code has, is not taken to go on there.
 fn spans_words(words: &[Word]) -> bool {
     let (before, ends) = word_ends(words);
-    match attempt(words, 0, &before, &ends) {
-        Ok((_, k)) => k > 0,
-        Err((_, next, _)) => next > 1,
-    }
+    let k = match attempt(words, 0, &before, &ends) {
+        Ok((_, k)) => k,
+        Err((_, next, _)) => next - 1,
+    };
+    let line_ends = words.get(k + 1).is_none_or(|w| w.line != words[k].line);
+    k > 0 && line_ends && words[1..=k].iter().all(|w| w.bad.is_none())
 }
 
 /// Tries to read one code starting at word `i`: the code and its last word, or why not, where
@@ -472,18 +477,16 @@ impl fmt::Display for Notice {
                 write!(f, "the same result for {name} again; nothing changed")
             }
             Problem::Replaced { name, later: true } => {
-                write!(f, "a result for {name} further on than the table's; it replaces it")
+                write!(f, "a result for {name} with more done than the table's; it takes its place")
             }
             Problem::Replaced { name, later: false } => write!(
                 f,
                 "another result for {name} (another device?); read later, it replaces the one before"
             ),
-            Problem::Earlier { name } => {
-                write!(
-                    f,
-                    "a result for {name} that the table's already goes past (an earlier one, or another device's); the table keeps its own"
-                )
-            }
+            Problem::Earlier { name } => write!(
+                f,
+                "a result for {name} with less done than the table's (read before, or from another device); the table keeps its own"
+            ),
         }
     }
 }
@@ -918,6 +921,12 @@ mod tests {
         let as_read = format!("{} {}", &damaged[..at_dash], &damaged[at_dash..]);
         assert_eq!(got[0], (1, Err(as_read)), "{got:?}");
         assert_eq!(got[1], ok(3, "Tomas"));
+        // A code cut short before a line of chat keeps the chat apart, whatever its length.
+        for chat in ["thank you", "see you on Tuesday at the Circle", "ok 12th"] {
+            let got = names(&format!("{}\n{chat}", &a[..a.len() - 6]));
+            assert_eq!(got.len(), 2, "{chat}: {got:?}");
+            assert_eq!(got[1].0, 2, "{chat}: {got:?}");
+        }
         // A damaged code at the end of a line is not joined to the whole code that starts the
         // next: it is reported, and the next line's code reads.
         let cut = &a[..a.len() - 3];
@@ -1096,7 +1105,7 @@ mod tests {
         assert_eq!((added.new_students, added.replaced), (0, 1));
         assert!(added.notices[0]
             .to_string()
-            .contains("a result for mira further on than the table's; it replaces it"));
+            .contains("a result for mira with more done than the table's; it takes its place"));
         // Both students are still there; Mira's row now holds the newer results.
         let rows = table.students();
         assert_eq!(rows.len(), 2);
