@@ -3,8 +3,9 @@
 //! name):
 //! - `INDEX`: what the page needs before a set is opened, as JSON: per set its file stem,
 //!   title (which names its rules), puzzle count, median rating, key (the fingerprint
-//!   `setKey` gives) and generator (theme, rule, minimum moves). The sets themselves are files the page fetches
-//!   when it needs them (web/tools/common.sh copies them to `dist/library/`);
+//!   `setKey` gives) and generator (theme, rule, minimum moves). The sets themselves are
+//!   files the page fetches when it needs them (web/tools/common.sh copies them to
+//!   `dist/library/`);
 //! - `RATINGS`: (theme, rule, rating) of every puzzle of the plain (not deep) sets, which steer
 //!   the Drill's and the generator's rating bands;
 //! - `SETS`: (file stem, share code, and the two generator fields a code does not hold: the

@@ -120,14 +120,15 @@ export class Progress {
     const hi = Math.max(...series.map((p) => p.rating + 2 * p.deviation));
     const y0 = Math.floor(lo / 100) * 100;
     const y1 = Math.ceil(hi / 100) * 100 || y0 + 100;
-    const d0 = series[0].day;
-    const d1 = Math.max(series[series.length - 1].day, d0 + 1);
+    const [first] = series;
+    const last = series[series.length - 1];
+    const d0 = first.day;
+    const d1 = Math.max(last.day, d0 + 1);
     // A lone day stands in the middle.
     const x = (day) => series.length === 1 ? (left + w - right) / 2 : left + ((day - d0) / (d1 - d0)) * (w - left - right);
     const y = (v) => h - bottom - ((v - y0) / (y1 - y0)) * (h - top - bottom);
     // The uncertainty band, then the line, then a mark per day (a square, so it reads without
-    // colour).
-    // The band in the ink's own colour, faint, so the line stands out in either scheme.
+    // colour). The band is the ink's own colour, faint, so the line stands out in either scheme.
     ctx.fillStyle = ink;
     ctx.globalAlpha = 0.2;
     ctx.beginPath();
@@ -136,8 +137,7 @@ export class Progress {
     ctx.closePath();
     ctx.fill();
     // One day alone has no width: its band is a bar.
-    const [p0] = series;
-    if (series.length === 1) ctx.fillRect(x(d0) - 6, y(p0.rating + 2 * p0.deviation), 12, 4 * p0.deviation * (h - top - bottom) / (y1 - y0));
+    if (series.length === 1) ctx.fillRect(x(d0) - 6, y(first.rating + 2 * first.deviation), 12, 4 * first.deviation * (h - top - bottom) / (y1 - y0));
     ctx.globalAlpha = 1;
     ctx.strokeStyle = ink;
     ctx.lineWidth = 2;
@@ -156,12 +156,10 @@ export class Progress {
     const date = (d) => dayWords(d).split(' ').slice(1, 3).join(' ');
     if (series.length === 1) ctx.textAlign = 'center';
     ctx.fillText(date(d0), x(d0), h - 6);
-    const dn = series[series.length - 1].day;
-    if (dn !== d0) {
+    if (last.day !== d0) {
       ctx.textAlign = 'right';
-      ctx.fillText(date(dn), w - right, h - 6);
+      ctx.fillText(date(last.day), w - right, h - 6);
     }
-    const last = series[series.length - 1];
     canvas.setAttribute('aria-label',
       `Rating over time (${this.rule}): ${series.length} day${series.length === 1 ? '' : 's'}, now ${Math.round(last.rating)}. The table below has every point.`);
   }

@@ -54,9 +54,9 @@ pub fn finished_puzzle(set_json: &str) -> Result<String, JsValue> {
 }
 
 /// The starter library's index: a JSON array with, per set, `{file, title, count, rating, key,
-/// generator}` (`rating` the median of its puzzles', which orders the array,
-/// easiest first; `generator` null or `{theme, rule, min_moves}`). The page fetches a set's
-/// file, `library/<file>.json`, when it needs the puzzles.
+/// generator}` (`rating` the median of its puzzles', which orders the array, easiest first;
+/// `generator` null or `{theme, rule, min_moves}`). The page fetches a set's file,
+/// `library/<file>.json`, when it needs the puzzles.
 #[wasm_bindgen(js_name = libraryIndex)]
 pub fn library_index() -> String {
     library::INDEX.to_string()

@@ -17,14 +17,13 @@
 //! is read on into the next lines, up to [`WRAP_LINES`] lines in all, while it still runs out,
 //! and the join is kept when it gives more codes than those lines alone, or as many and the
 //! code, its first word looking like one, has a length that ends where a later line ends (a
-//! damaged code wrapped is reported once). Text that
-//! cannot be read is reported with its line and skipped; consecutive words that cannot be read
-//! are reported once. Such text is called a damaged code when it could be part of one
-//! ([`looks_like_code`]), and otherwise words around the codes (a greeting, a name, a date),
-//! reported as [`Problem::NotACode`]. The reading
-//! is linear in the length of the text: each word starts at most a bounded header read, a
-//! whole code is decoded only when its length ends on a word boundary, after which reading goes
-//! on after it, and a line is read again only in the joins of a code that runs out of text, at
+//! damaged code wrapped is reported once). Text that cannot be read is reported with its line
+//! and skipped; consecutive words that cannot be read are reported once. Such text is called a
+//! damaged code when it could be part of one ([`looks_like_code`]), and otherwise words around
+//! the codes (a greeting, a name, a date), reported as [`Problem::NotACode`]. The reading is
+//! linear in the length of the text: each word starts at most a bounded header read, a whole
+//! code is decoded only when its length ends on a word boundary, after which reading goes on
+//! after it, and a line is read again only in the joins of a code that runs out of text, at
 //! most [`WRAP_LINES`] times.
 //!
 //! **Which codes count.** Each code is checked: unreadable (a typing mistake, cut short), for
@@ -122,9 +121,8 @@ pub fn find_codes(text: &str) -> Vec<Found> {
                 // More codes; or as many, with the first one looking like a code and its
                 // length ending where a line read on into ends (a damaged code wrapped:
                 // reported once, on its first line).
-                let more = codes(&read.found) > alone;
-                let damaged = || codeish(joint[0].text) && spans_words(&joint);
-                if more || (codes(&read.found) == alone && damaged()) {
+                let got = codes(&read.found);
+                if got > alone || (got == alone && codeish(joint[0].text) && spans_words(&joint)) {
                     joined = Some((j, read));
                     break;
                 }
@@ -666,11 +664,10 @@ impl ClassTable {
                     }
                 }
                 None => {
-                    // Numbered among the nameless rows: a line number would change as the
-                    // page reads its codes again.
+                    // Numbered among the nameless rows (every named row has a key in `rows`):
+                    // a line number would change as the page reads its codes again.
                     let name = if key.is_empty() {
-                        let n = self.rows.len();
-                        format!("(no name {})", self.students.len() - n + 1)
+                        format!("(no name {})", self.students.len() - self.rows.len() + 1)
                     } else {
                         self.rows.insert(key, self.students.len());
                         code.name
