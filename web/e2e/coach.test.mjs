@@ -220,7 +220,7 @@ test('the class round trip: make, hand out, three students, read the codes back'
 
   await page.click('#coach-tabs [data-tab="results"]');
   // With the words students write around their codes, which are text, not damaged codes.
-  const pasted = `${codes['Mira Okafor']} (Mira)\n${damaged}\n${other}, ${codes['Tomas Reyne']}\nThanks, see you Tuesday!`;
+  const pasted = `${codes['Mira Okafor']} (Mira)\n${damaged}\n${other}, ${codes['Tomas Reyne']}\nThanks, see you Tuesday! It’s Mira’s turn.`;
   await page.fill('#coach-codes', pasted);
   await page.click('#coach-read');
   const reports = await page.$$eval('#coach-reports li', (l) => l.map((li) => [li.dataset.kind, li.dataset.line, li.textContent]));
@@ -232,7 +232,7 @@ test('the class round trip: make, hand out, three students, read the codes back'
   assert.equal(refused[1][1], '3', 'the other set\'s code is on line 3');
   assert.match(refused[1][2], /another set/);
   assert.deepEqual(reports.at(-1), ['skipped', '1',
-    'Skipped as text, not codes: line 1 ‘Mira’, line 4 ‘Thanks’, line 4 ‘see you Tuesday’.']);
+    'Skipped as text, not codes: line 1 ‘Mira’, line 4 ‘Thanks’, line 4 ‘see you Tuesday! It’s Mira’s turn’.']);
   assert.equal(reports.length, 4, JSON.stringify(reports));
   assert.equal(await page.inputValue('#coach-codes'), pasted,
     'the pasted text stays while some of it was refused');

@@ -107,7 +107,7 @@ struct NoticeJs {
     line: usize,
     /// "refused", "skipped" (words around the codes), "repeated" or "replaced".
     kind: &'static str,
-    /// The text as read (`class::Found::text`), shortened.
+    /// The text as written (`class::Found::said`), shortened.
     text: String,
     /// The whole report: "line 3, ‘AB12-…’: a result for another set …".
     message: String,
@@ -141,14 +141,6 @@ struct ReadJs {
     table: TableJs,
 }
 
-/// At most 40 characters of a pasted text, for a report.
-fn shortened(text: &str) -> String {
-    match text.char_indices().nth(40) {
-        Some((at, _)) => format!("{}…", &text[..at]),
-        None => text.to_string(),
-    }
-}
-
 /// Reads pasted text (result codes, any separators) into the class table of a set that already
 /// holds `codes`: `{accepted, newStudents, replaced, notices, table}`. `accepted` are the codes
 /// of the text that added or replaced a student (the page keeps them after `codes`); every
@@ -174,7 +166,7 @@ pub fn class_read(
         match found.code {
             Err(e) => out.notices.push(NoticeJs::of(Notice {
                 line: found.line,
-                text: shortened(&found.text),
+                text: class::shorten(&found.said),
                 problem: Problem::unreadable(&found.text, e),
             })),
             Ok(_) => {
@@ -187,6 +179,7 @@ pub fn class_read(
                 out.notices.extend(added.notices.into_iter().map(|n| {
                     NoticeJs::of(Notice {
                         line: found.line,
+                        text: class::shorten(&found.said),
                         ..n
                     })
                 }));
@@ -247,13 +240,6 @@ mod tests {
         let csv = class_csv(SET, codes.clone(), "name").unwrap();
         assert!(csv.starts_with("Student,Solved,Clean,Puzzle 1"));
         assert!(csv.find("Mira Okafor").unwrap() < csv.find("Tomas Reyne").unwrap());
-    }
-
-    #[test]
-    fn shortened_reports_keep_forty_characters() {
-        assert_eq!(shortened("abc"), "abc");
-        let long = "x".repeat(50);
-        assert_eq!(shortened(&long), format!("{}…", "x".repeat(40)));
     }
 
     #[test]

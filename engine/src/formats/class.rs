@@ -60,16 +60,22 @@ pub struct Found {
     /// The text as read: its words joined by single spaces, the punctuation that parted them
     /// dropped, other dashes written as `-`.
     pub text: String,
+    /// The text as written, for a report ([`said`]): from its first word to its last, with the
+    /// punctuation between them ("Here's", "see you Tuesday!" but not the quote around it).
+    pub said: String,
     /// The decoded code, or why it could not be read.
     pub code: Result<Results, ResultError>,
 }
 
 /// One word of a piece of text: its line, its symbols and whether it holds a character no
-/// code has.
+/// code has, and where it is in the text as written.
 #[derive(Clone)]
 struct Word<'a> {
     line: usize,
     text: &'a str,
+    /// The piece of the line as written, and the word's bytes in it.
+    written: &'a str,
+    span: (usize, usize),
     symbols: usize,
     bad: Option<(char, usize)>,
 }
@@ -79,10 +85,10 @@ pub fn find_codes(text: &str) -> Vec<Found> {
     // Every piece: its line, whether it starts the line, and its text with every character
     // but the letters and digits of the alphabet a code is written in, and dashes, made a space
     // (punctuation, quotes, invisible characters and other scripts part words as a space does).
-    let mut pieces: Vec<(usize, bool, String)> = Vec::new();
+    let mut pieces: Vec<(usize, bool, String, &str)> = Vec::new();
     for (n, line) in text.lines().enumerate() {
-        for (k, piece) in line.split([',', ';']).enumerate() {
-            let piece: String = piece
+        for (k, written) in line.split([',', ';']).enumerate() {
+            let piece: String = written
                 .chars()
                 .map(|c| match c {
                     '\u{2010}'..='\u{2015}' | '\u{2212}' => '-',
@@ -90,14 +96,14 @@ pub fn find_codes(text: &str) -> Vec<Found> {
                     _ => ' ',
                 })
                 .collect();
-            pieces.push((n + 1, k == 0, piece));
+            pieces.push((n + 1, k == 0, piece, written));
         }
     }
     let codes = |f: &[Found]| f.iter().filter(|f| f.code.is_ok()).count();
     let mut found = Vec::new();
     let mut i = 0;
     while i < pieces.len() {
-        let mut words = words_of(pieces[i].0, &pieces[i].2);
+        let mut words = words_of(pieces[i].0, &pieces[i].2, pieces[i].3);
         let mut here = scan(&words);
         // A code wrapped onto the next lines: a code that starts in this piece's last run of
         // unread text runs out of text. It is read on into the first pieces of the lines after
@@ -109,12 +115,12 @@ pub fn find_codes(text: &str) -> Vec<Found> {
             let mut joint: Vec<Word> = words[start..].to_vec();
             let mut alone = 0;
             let mut joined = None;
-            for (j, (line, first, next)) in pieces.iter().enumerate().skip(i + 1) {
+            for (j, (line, first, next, written)) in pieces.iter().enumerate().skip(i + 1) {
                 let end = joint.last().expect("a run has a word").line;
                 if !first || *line != end + 1 || *line - words[start].line >= WRAP_LINES {
                     break;
                 }
-                let next = words_of(*line, next);
+                let next = words_of(*line, next, written);
                 alone += codes(&scan(&next).found);
                 joint.extend(next);
                 let read = scan(&joint);
@@ -147,11 +153,26 @@ pub fn find_codes(text: &str) -> Vec<Found> {
     found
 }
 
-/// The words of one piece of a line.
-fn words_of(line: usize, piece: &str) -> Vec<Word<'_>> {
+/// The words of one piece of a line: `piece` is `written` with every character made one
+/// ASCII byte (see [`find_codes`]), so a word's bytes in `piece` are its characters in
+/// `written`.
+fn words_of<'a>(line: usize, piece: &'a str, written: &'a str) -> Vec<Word<'a>> {
+    // The byte where each character of `written` starts, and its end, when they differ from
+    // the character's number.
+    let starts: Vec<usize> = if written.is_ascii() {
+        Vec::new()
+    } else {
+        written
+            .char_indices()
+            .map(|(b, _)| b)
+            .chain([written.len()])
+            .collect()
+    };
+    let byte = |at: usize| starts.get(at).copied().unwrap_or(at);
     piece
         .split_whitespace()
         .map(|w| {
+            let at = w.as_ptr() as usize - piece.as_ptr() as usize;
             let mut symbols = 0;
             let mut bad = None;
             for (i, c) in w.chars().enumerate() {
@@ -167,6 +188,8 @@ fn words_of(line: usize, piece: &str) -> Vec<Word<'_>> {
             Word {
                 line,
                 text: w,
+                written,
+                span: (byte(at), byte(at + w.len())),
                 symbols,
                 bad,
             }
@@ -214,6 +237,7 @@ fn scan(words: &[Word]) -> Scanned {
             found.push(Found {
                 line: words[from].line,
                 text: joined(from, upto - 1),
+                said: said(&words[from..upto]),
                 code: Err(error),
             });
         }
@@ -232,6 +256,7 @@ fn scan(words: &[Word]) -> Scanned {
                 found.push(Found {
                     line: words[i].line,
                     text: joined(i, k),
+                    said: said(&words[i..=k]),
                     code: Ok(code),
                 });
                 i = k + 1;
@@ -264,6 +289,67 @@ fn scan(words: &[Word]) -> Scanned {
     }
     flush(&mut failed, words.len(), &mut found);
     Scanned { found, runs_out }
+}
+
+/// The text of `words` as written: on each line, from the first word to the last with what
+/// parts them (out to the ends of the words of any script at either end), the lines' texts
+/// joined by a space. Characters that would not show as
+/// themselves in a report are left out (the invisible ones messaging apps insert, the marks
+/// that turn text's direction, control characters) and spaces run together.
+fn said(words: &[Word]) -> String {
+    let mut out = String::new();
+    for line in words.chunk_by(|a, b| a.line == b.line) {
+        let (first, last) = (&line[0], &line[line.len() - 1]);
+        let written = first.written;
+        // Out to the whole words at the ends ("café", whose last letter parts words as read).
+        let start = written[..first.span.0]
+            .char_indices()
+            .rev()
+            .take_while(|&(_, c)| letter(c))
+            .last()
+            .map_or(first.span.0, |(b, _)| b);
+        let end = written[last.span.1..]
+            .char_indices()
+            .find(|&(_, c)| !letter(c))
+            .map_or(written.len(), |(b, _)| last.span.1 + b);
+        let text = &written[start..end];
+        for part in text.split_whitespace() {
+            let part: String = part.chars().filter(|&c| shows(c)).collect();
+            if part.is_empty() {
+                continue;
+            }
+            if !out.is_empty() {
+                out.push(' ');
+            }
+            out.push_str(&part);
+        }
+    }
+    out
+}
+
+/// Whether a character outside ASCII goes on a word as read, for a report: a letter of another
+/// alphabet (`é` in "café"), not a space or a mark of punctuation. A few ranges, not Unicode's
+/// tables, which would add kilobytes to the page: Latin-1's signs, the general and CJK
+/// punctuation blocks, and the full-width forms' signs.
+fn letter(c: char) -> bool {
+    !c.is_ascii()
+        && !c.is_whitespace()
+        && !matches!(c,
+            '\u{80}'..='\u{bf}' | '\u{d7}' | '\u{f7}' | '\u{2000}'..='\u{206f}'
+            | '\u{3000}'..='\u{303f}' | '\u{ff01}'..='\u{ff0f}' | '\u{ff1a}'..='\u{ff20}'
+            | '\u{ff3b}'..='\u{ff40}' | '\u{ff5b}'..='\u{ff65}')
+}
+
+/// Whether a character shows as itself in a report: not a control character, nor an
+/// invisible format character (Unicode's Cf category: zero-width spaces and joiners, the
+/// direction marks, embeddings, overrides and isolates, the byte-order mark and the like).
+fn shows(c: char) -> bool {
+    !c.is_control()
+        && !matches!(c,
+            '\u{ad}' | '\u{600}'..='\u{605}' | '\u{61c}' | '\u{6dd}' | '\u{70f}' | '\u{180e}'
+            | '\u{200b}'..='\u{200f}' | '\u{202a}'..='\u{202e}' | '\u{2060}'..='\u{2064}'
+            | '\u{2066}'..='\u{206f}' | '\u{feff}' | '\u{fff9}'..='\u{fffb}'
+            | '\u{e0001}' | '\u{e0020}'..='\u{e007f}')
 }
 
 /// For reading codes across words: `before[j]`, the symbols in `words[..j]`, and `ends[s]`,
@@ -439,7 +525,7 @@ pub enum Problem {
 pub struct Notice {
     /// The line of the pasted text, counted from 1.
     pub line: usize,
-    /// The text as read ([`Found::text`], at most 40 characters of it).
+    /// The text as written ([`Found::said`], at most 40 characters of it).
     pub text: String,
     /// What happened.
     pub problem: Problem,
@@ -574,7 +660,39 @@ fn name_key(name: &str) -> String {
         .to_lowercase()
 }
 
-fn shorten(text: &str) -> String {
+/// Orders two texts as a reader would a list of names: runs of digits by their value ("(no
+/// name 2)" before "(no name 10)", "Table 9" before "Table 10"), the rest by character.
+fn by_numbers(a: &str, b: &str) -> std::cmp::Ordering {
+    let (mut a, mut b) = (a, b);
+    loop {
+        let digits = |s: &str| s.find(|c: char| !c.is_ascii_digit()).unwrap_or(s.len());
+        let (da, db) = (digits(a), digits(b));
+        if da > 0 && db > 0 {
+            // By value: without leading zeros, the longer run is the larger; then by digits,
+            // then the shorter (fewer leading zeros) first.
+            let (na, nb) = (
+                a[..da].trim_start_matches('0'),
+                b[..db].trim_start_matches('0'),
+            );
+            let order = na.len().cmp(&nb.len()).then(na.cmp(nb)).then(da.cmp(&db));
+            if order.is_ne() {
+                return order;
+            }
+            (a, b) = (&a[da..], &b[db..]);
+            continue;
+        }
+        let mut ca = a.chars();
+        let mut cb = b.chars();
+        match (ca.next(), cb.next()) {
+            (None, None) => return std::cmp::Ordering::Equal,
+            (x, y) if x != y => return x.cmp(&y),
+            _ => (a, b) = (ca.as_str(), cb.as_str()),
+        }
+    }
+}
+
+/// At most 40 characters of a text, for a report ([`Notice::text`]).
+pub fn shorten(text: &str) -> String {
     match text.char_indices().nth(40) {
         Some((at, _)) => format!("{}…", &text[..at]),
         None => text.to_string(),
@@ -610,7 +728,7 @@ impl ClassTable {
         for found in find_codes(text) {
             let notice = |problem| Notice {
                 line: found.line,
-                text: shorten(&found.text),
+                text: shorten(&found.said),
                 problem,
             };
             let code = match found.code {
@@ -692,9 +810,7 @@ impl ClassTable {
     pub fn sorted(&self, by: SortBy) -> Vec<&Student> {
         let mut rows: Vec<&Student> = self.students.iter().collect();
         let by_name = |a: &&Student, b: &&Student| {
-            name_key(&a.name)
-                .cmp(&name_key(&b.name))
-                .then_with(|| a.name.cmp(&b.name))
+            by_numbers(&name_key(&a.name), &name_key(&b.name)).then_with(|| a.name.cmp(&b.name))
         };
         match by {
             SortBy::Added => {}
@@ -971,6 +1087,59 @@ mod tests {
     }
 
     #[test]
+    fn a_report_quotes_the_text_as_it_was_written() {
+        let s = set();
+        let a = code(&s, "Mira", &[Attempt::Clean]);
+        let mut table = ClassTable::new(&s);
+        // An apostrophe, a comma's other side and an exclamation inside the skipped words are
+        // kept; the punctuation around them (the quote, the colon before the code) is not.
+        let text = format!("“Here’s mine, from the café:” {a}\nThanks!! See you on Tuesday :)");
+        let added = table.add(&text);
+        assert_eq!(added.new_students, 1);
+        let quoted: Vec<&str> = added.notices.iter().map(|n| n.text.as_str()).collect();
+        assert_eq!(
+            quoted,
+            [
+                "Here’s mine",
+                "from the café",
+                "Thanks!! See you on Tuesday"
+            ]
+        );
+        assert!(added.notices.iter().all(|n| n.problem == Problem::NotACode));
+        assert_eq!(
+            added.notices[0].to_string(),
+            "line 1, ‘Here’s mine’: not a result code; skipped"
+        );
+        // Invisible characters and direction marks are left out of the quote, and a long text
+        // is cut at 40 characters.
+        let added = table.add("see\u{200b}you \u{202e}tuesday\u{202c}\u{feff} \u{7}ok");
+        assert_eq!(added.notices[0].text, "seeyou tuesday ok");
+        let added = table.add(&"ab cd ".repeat(20));
+        assert_eq!(
+            added.notices[0].text,
+            format!("{}…", &"ab cd ".repeat(7)[..40])
+        );
+        // A damaged code wrapped over two lines is quoted from both, as written.
+        let mut damaged = a.clone();
+        let last = damaged.pop().unwrap();
+        damaged.push(if last == '7' { '8' } else { '7' });
+        let cut = damaged.len() / 2;
+        let wrapped = format!("{}\r\n{}", &damaged[..cut], &damaged[cut..]);
+        let found = find_codes(&wrapped);
+        assert_eq!(found.len(), 1, "{found:?}");
+        assert_eq!(
+            found[0].said,
+            format!("{} {}", &damaged[..cut], &damaged[cut..])
+        );
+        // A code read is quoted as written too: in lower case, its groups typed apart.
+        let typed = a.to_lowercase().replace('-', " ");
+        let found = find_codes(&format!("({typed})"));
+        assert!(found[0].code.is_ok());
+        assert_eq!(found[0].said, typed);
+        assert_eq!(found[0].text, a.to_lowercase().replace('-', " "));
+    }
+
+    #[test]
     fn a_code_in_a_chat_reads_with_the_punctuation_around_it() {
         let s = set();
         let a = code(&s, "Mira", &[Attempt::Clean]);
@@ -1127,6 +1296,14 @@ mod tests {
         table.add(&format!("{nameless}\n{}", code(&s, "", &[Attempt::Failed])));
         let names: Vec<&str> = table.students().iter().map(|r| r.name.as_str()).collect();
         assert_eq!(names[2..], ["(no name 1)", "(no name 2)", "(no name 3)"]);
+        // Sorted by name, they keep their numbers' order past nine.
+        table.add(&[nameless.as_str(); 8].join("\n"));
+        let sorted: Vec<String> = table.sorted(SortBy::Name)[..11]
+            .iter()
+            .map(|r| r.name.clone())
+            .collect();
+        let numbered: Vec<String> = (1..=11).map(|n| format!("(no name {n})")).collect();
+        assert_eq!(sorted, numbered);
     }
 
     #[test]
@@ -1147,6 +1324,21 @@ mod tests {
         };
         assert_eq!(names(SortBy::Added), ["bea", "Ana", "Caro"]);
         assert_eq!(names(SortBy::Name), ["Ana", "bea", "Caro"]);
+        // Numbers in names go by their value (common practice in lists of names and files).
+        use std::cmp::Ordering::*;
+        for (a, b, order) in [
+            ("(no name 2)", "(no name 10)", Less),
+            ("table 9", "table 10", Less),
+            ("table 010", "table 9", Greater),
+            ("table 09", "table 9", Greater),
+            ("a2b", "a2c", Less),
+            ("ana", "ana 1", Less),
+            ("ana", "ana", Equal),
+            ("ä1", "a1", Greater),
+        ] {
+            assert_eq!(by_numbers(a, b), order, "{a} against {b}");
+            assert_eq!(by_numbers(b, a), order.reverse(), "{b} against {a}");
+        }
         assert_eq!(names(SortBy::Score), ["Caro", "Ana", "bea"]);
         let first = table.stats()[0];
         // Puzzle 1: Ana (helped) and Caro (clean) solved it, bea failed: 2 of 3 is 67 %.
