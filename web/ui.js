@@ -50,6 +50,12 @@ const BANNER_MS = { info: 10000, warn: 20000 };
  */
 export function banner(message, { kind = 'info', id = null, sticky = false, dismiss = true } = {}) {
   const box = $('banners');
+  // The page keeps room for the messages below its content (style.css, --banners), so that
+  // what they float over can be scrolled clear of them.
+  if (!box.dataset.sized) {
+    box.dataset.sized = 'true';
+    new ResizeObserver(() => document.documentElement.style.setProperty('--banners', `${box.offsetHeight}px`)).observe(box);
+  }
   if (id) box.querySelector(`[data-id="${id}"]`)?.remove();
   const b = el('div', { class: 'banner', 'data-kind': kind, 'data-id': id, 'data-sticky': sticky ? 'true' : null, role: kind === 'error' ? 'alert' : 'status' },
     el('p', { text: message }),

@@ -343,6 +343,18 @@ test('banners float over the page without moving the board, and information goes
   // that the test does not depend on which action says something).
   await page.evaluate(() => import('./ui.js').then((ui) => ui.banner('A test message.', { id: 'probe' })));
   assert.equal(await page.locator('#banners [data-id="probe"]').count(), 1);
+  // The page keeps room below its content for the messages: scrolled to its end, nothing of
+  // the screen is left under them.
+  const frame = () => page.evaluate(() => new Promise((done) => requestAnimationFrame(done)));
+  await frame();
+  const clear = await page.evaluate(() => new Promise((done) => requestAnimationFrame(() => {
+    window.scrollTo({ top: document.scrollingElement.scrollHeight, behavior: 'instant' });
+    const top = Math.min(...[...document.querySelectorAll('#banners .banner')].map((b) => b.getBoundingClientRect().top));
+    const bottoms = [...document.querySelectorAll('main section:not([hidden]) *')].filter((e) => e.checkVisibility())
+      .map((e) => e.getBoundingClientRect()).filter((r) => r.height > 0).map((r) => r.bottom);
+    done({ top, bottom: Math.max(...bottoms), scrolled: window.scrollY, });
+  })));
+  assert.ok(clear.scrolled > 0 && clear.bottom <= clear.top, JSON.stringify(clear));
   await page.clock.runFor(11_000);
   assert.equal(await page.locator('#banners [data-id="probe"]').count(), 0, 'information goes after 10 s');
   await page.clock.runFor(60_000);
