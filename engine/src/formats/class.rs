@@ -293,9 +293,9 @@ fn scan(words: &[Word]) -> Scanned {
 
 /// The text of `words` as written: on each line, from the first word to the last with what
 /// parts them (out to the ends of the words of any script at either end), the lines' texts
-/// joined by a space. Characters that would not show as
-/// themselves in a report are left out (the invisible ones messaging apps insert, the marks
-/// that turn text's direction, control characters) and spaces run together.
+/// joined by a space. Characters that would not show as themselves in a report are left out
+/// (the invisible ones messaging apps insert, the marks that turn text's direction, control
+/// characters) and spaces run together.
 fn said(words: &[Word]) -> String {
     let mut out = String::new();
     for line in words.chunk_by(|a, b| a.line == b.line) {
