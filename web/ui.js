@@ -39,6 +39,10 @@ export function announce(...lines) {
   while (live.childElementCount > LIVE_KEEP) live.firstElementChild.remove();
 }
 
+// The characters that turn the direction of the text around them (UAX #9's formatting
+// characters): a file's name or a title holding one would turn a message's own words round.
+const BIDI = /[\u061c\u200e\u200f\u202a-\u202e\u2066-\u2069]/g;
+
 // How long a banner stays, by kind, in milliseconds (an error stays until it is dismissed).
 const BANNER_MS = { info: 10000, warn: 20000 };
 
@@ -58,7 +62,7 @@ export function banner(message, { kind = 'info', id = null, sticky = false, dism
   }
   if (id) box.querySelector(`[data-id="${id}"]`)?.remove();
   const b = el('div', { class: 'banner', 'data-kind': kind, 'data-id': id, 'data-sticky': sticky ? 'true' : null, role: kind === 'error' ? 'alert' : 'status' },
-    el('p', { text: message }),
+    el('p', { text: message.replace(BIDI, '') }),
     dismiss ? el('button', { type: 'button', class: 'quiet', 'aria-label': 'Dismiss this message', onclick: () => b.remove() }, 'OK') : null);
   box.append(b);
   // At most four at once: the oldest that is not sticky goes first.

@@ -326,6 +326,27 @@ test('keyboard: the skip link goes to the board, adding a set with Enter focuses
   await ctx.close();
 });
 
+test('a title of one long word fits a 360 px phone: its puzzles and the list of sets', async () => {
+  const c = await openAt({ width: 360, height: 740, dpr: 2, touch: true });
+  const { page, errors } = c;
+  // A title of 200 characters without a space, from a set file.
+  // It starts with a right-to-left override, which would turn the app's sentences round: it
+  // arrives without it.
+  const title = `HarbourStreet${'Tuesday'.repeat(26)}`;
+  await page.setInputFiles('#set-file', { name: 'long.json', mimeType: 'application/json',
+    buffer: Buffer.from(JSON.stringify({ ...CLUB, title: `\u202e${title}` })) });
+  await page.waitForSelector('#tonight-board');
+  const added = await page.locator('#banners .banner', { hasText: 'to Tonight' }).first().textContent();
+  assert.equal(added, `Added "${title}" to Tonight.OK`);
+  await noOverflow(page, 'a puzzle of the set');
+  await page.click('#tonight-back');
+  await page.waitForSelector('#tonight-sets .card');
+  await noOverflow(page, 'the list of sets');
+  assert.equal(await page.textContent('#tonight-sets .card .set-title'), title);
+  assert.deepEqual(errors, []);
+  await c.context.close();
+});
+
 test('banners float over the page without moving the board, and information goes away by itself', async () => {
   const c = await context(env.browser, PHONE);
   const { page, errors } = c;

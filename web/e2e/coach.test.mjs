@@ -649,6 +649,17 @@ test('the printed sheet: diagrams, goals and answer boxes, the answer key on a p
     return Number(svg.getAttribute('font-size')) * (mm / units) / 25.4 * 72;
   });
   assert.ok(pt >= 8, `coordinates print at ${pt.toFixed(2)} pt`);
+  // The key's two columns: the second column's numbers stand in the gap between them, which
+  // leaves room for "40." at the key's type size (about 7 mm at 11 pt), clear of the first
+  // column's text.
+  await page.evaluate(() => { document.documentElement.dataset.print = 'sheet'; });
+  const gap = await page.$eval('#coach-print .key ol', (ol) => {
+    const boxes = [...ol.children].map((li) => li.getBoundingClientRect());
+    const second = boxes.filter((b) => b.left > boxes[0].right);
+    return second.length ? (second[0].left - boxes[0].right) / 96 * 25.4 : null;
+  });
+  assert.ok(gap !== null && gap >= 10, `the key's columns are ${gap?.toFixed(1)} mm apart`);
+  await page.evaluate(() => { delete document.documentElement.dataset.print; });
   await page.emulateMedia({ media: null });
   // The page prints the sheet until the print is over ('afterprint'); each PDF here is a print.
   const printing = () => page.evaluate(() => { document.documentElement.dataset.print = 'sheet'; });
@@ -668,7 +679,7 @@ test('the printed sheet: diagrams, goals and answer boxes, the answer key on a p
 
 test('Coach on a phone: make, preview, hand out and results fit 360 px', async () => {
   const { page, context, errors } = await open(env.browser, env.server.url, SMALL_PHONE);
-  await makeSet(page, { title: 'Harbour Street: phone', theme: 'vcf', count: 3, seed: 99 });
+  await makeSet(page, { title: 'Harbour Street: phone', theme: 'vcf', count: 8, seed: 99 });
   const wide = () => page.evaluate(() => document.documentElement.scrollWidth);
   assert.ok(await wide() <= 360, 'nothing is wider than the phone (make)');
   await artefact(page, 'coach-make-phone', { fullPage: true });
@@ -685,6 +696,24 @@ test('Coach on a phone: make, preview, hand out and results fit 360 px', async (
   assert.match(await page.textContent('#coach-reports li:nth-child(2)'), /^line 2, ‘0B5G-X7SV-1D6P-JWK1-417P-PRB6-DXS0-C022-…’: this result code does not check out/);
   assert.equal(await page.textContent('#coach-reports li:nth-child(3)'), 'Skipped as text, not codes: line 1 ‘HELLO’.');
   assert.ok(await wide() <= 360, 'nothing is wider than the phone (results)');
+  // Two students' codes: the table's cells carry words for a screen reader, which must not
+  // widen the page, read or drawn again after a reload.
+  const codes = await page.evaluate(async () => {
+    const d = JSON.parse(localStorage.getItem('fivefold.coach')).data;
+    const s = d.sets.find((x) => x.id === d.open);
+    const json = JSON.stringify({ format: 'fivefold-set', version: 1, title: s.title, created: s.created, puzzles: s.puzzles });
+    const m = await import('./workshop/fivefold_web.js');
+    await m.default();
+    const results = (attempt) => s.puzzles.map(() => ({ attempt, hints: 0, seconds: 20 }));
+    return [m.resultCode(json, 'Mira Okafor', results('clean')), m.resultCode(json, 'Tomas Reyne', results('failed'))];
+  });
+  await page.fill('#coach-codes', codes.join('\n'));
+  await page.click('#coach-read');
+  await page.waitForSelector('#coach-table tbody tr:nth-child(2)');
+  assert.ok(await wide() <= 360, 'nothing is wider than the phone (the class table)');
+  await page.reload();
+  await page.waitForSelector('#coach-table tbody tr:nth-child(2)');
+  assert.ok(await wide() <= 360, 'nothing is wider than the phone (the class table after a reload)');
   await artefact(page, 'coach-results-phone', { fullPage: true });
   // Every control has a name and a target of at least 44 px.
   const small = await page.$$eval('#coach button, #coach input, #coach select, #coach textarea', (all) => all

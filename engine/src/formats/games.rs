@@ -612,6 +612,7 @@ pub fn read_move_lists(text: &str, choices: Choices) -> Result<Vec<GameRecord>, 
             if let Some(done) = pending.take() {
                 close(&mut games, done)?;
             }
+            let title = super::plain(title);
             let title = title.trim();
             pending = Some(Pending {
                 title: (!title.is_empty()).then(|| title.to_string()),

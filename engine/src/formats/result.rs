@@ -356,6 +356,7 @@ pub(crate) fn code_chars(bytes: usize) -> usize {
 /// [`MAX_NAME_BYTES`] (after trimming white space), more puzzles than a set may have, or more
 /// than [`MAX_HINTS`] hint steps.
 pub fn encode(set: u32, name: &str, puzzles: &[PuzzleResult]) -> Result<String, ResultError> {
+    let name = super::plain(name.trim());
     let name = name.trim();
     if name.len() > MAX_NAME_BYTES {
         return Err(ResultError::NameTooLong { bytes: name.len() });
@@ -437,9 +438,9 @@ pub fn decode(code: &str) -> Result<Results, ResultError> {
     }
     let set = u32::from_le_bytes([body[1], body[2], body[3], body[4]]);
     let name_end = 6 + body[5] as usize;
-    let name = std::str::from_utf8(&body[6..name_end])
-        .map_err(|_| ResultError::Damaged)?
-        .to_string();
+    let name =
+        super::plain(std::str::from_utf8(&body[6..name_end]).map_err(|_| ResultError::Damaged)?)
+            .into_owned();
     let count = u16::from_le_bytes([body[name_end], body[name_end + 1]]) as usize;
     let packed = &body[name_end + 2..];
     if count > limits::MAX_PUZZLES && version > 1 {

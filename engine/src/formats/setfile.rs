@@ -257,7 +257,7 @@ pub fn parse(text: &str) -> Result<PuzzleSet, SetError> {
     if version < 1 {
         return Err(top("version", format!("{version} is not a set version")));
     }
-    let title = string(obj, "title").map_err(|m| top("title", m))?;
+    let title = super::plain(&string(obj, "title").map_err(|m| top("title", m))?).into_owned();
     let created = string(obj, "created").map_err(|m| top("created", m))?;
     let list = obj
         .get("puzzles")

@@ -874,7 +874,10 @@ impl<'a> Reader<'a> {
             }
         }
         let [black, white, gn, ev, dt, ru] = info;
-        let text = |v: Option<(String, &Prop)>| v.map(|(t, _)| t).filter(|t| !t.is_empty());
+        let text = |v: Option<(String, &Prop)>| {
+            v.map(|(t, _)| super::plain(&t).into_owned())
+                .filter(|t| !t.is_empty())
+        };
         let rule = match ru {
             Some((name, p)) if !name.is_empty() => match (rule_from_name(&name), choices.rule) {
                 (Some(rule), _) | (None, Some(rule)) => Some(rule),

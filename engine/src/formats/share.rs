@@ -745,7 +745,7 @@ fn read_body(bytes: &[u8]) -> Result<PuzzleSet, ShareError> {
     b.r.finish()
         .map_err(|_| ShareError::Malformed("the end of the code"))?;
     Ok(PuzzleSet {
-        title,
+        title: super::plain(&title).into_owned(),
         created,
         puzzles,
         generator,
@@ -844,7 +844,7 @@ fn decode_v1(code: &str) -> Result<PuzzleSet, ShareError> {
     if version != 1 {
         return Err(ShareError::Malformed("the version"));
     }
-    let title = r.text(limits::MAX_TITLE_BYTES, "title")?;
+    let title = super::plain(&r.text(limits::MAX_TITLE_BYTES, "title")?).into_owned();
     let created = r.text(10, "created")?;
     let n = r.len()?;
     if n == 0 || n > limits::MAX_PUZZLES {
