@@ -204,14 +204,21 @@ pub fn wrong(reason: WrongReason, p: Point, player: Stone) -> String {
     match reason {
         WrongReason::NoFollowUp {
             block,
-            counter_four: true,
-        } => format!(
-            "{t} blocks at {block} with a four of its own, and {m} has no winning follow-up."
-        ),
-        WrongReason::NoFollowUp {
-            block,
-            counter_four: false,
-        } => format!("{t} blocks at {block}, and {m} has no winning follow-up."),
+            counter_four,
+            fours,
+        } => {
+            let with = if counter_four {
+                " with a four of its own"
+            } else {
+                ""
+            };
+            let follow = if fours {
+                "no more fours that win"
+            } else {
+                "no winning follow-up"
+            };
+            format!("{t} blocks at {block}{with}, and {m} has {follow}.")
+        }
         WrongReason::OpponentWins {
             first,
             not_a_four: true,
@@ -895,12 +902,25 @@ mod tests {
             wrong(
                 WrongReason::NoFollowUp {
                     block: l8,
-                    counter_four: true
+                    counter_four: true,
+                    fours: false,
                 },
                 p,
                 Stone::Black
             ),
             "White blocks at l8 with a four of its own, and Black has no winning follow-up."
+        );
+        assert_eq!(
+            wrong(
+                WrongReason::NoFollowUp {
+                    block: l8,
+                    counter_four: false,
+                    fours: true,
+                },
+                p,
+                Stone::Black
+            ),
+            "White blocks at l8, and Black has no more fours that win."
         );
         assert_eq!(
             wrong(

@@ -4,8 +4,10 @@
 //! answers with a [`Grade`]: the move is illegal (and nothing changes), wrong (with the
 //! refutation and the reason, see `refute.rs`), accepted (and the opponent's reply, the one that
 //! resists longest, is already on the board) or the puzzle is solved. Any move that keeps a
-//! proved forced win is accepted, not only the stored one; in a defence puzzle any move after
-//! which the opponent has no forced win is. Hints are in `hints.rs`.
+//! proved forced win of the puzzle's kind is accepted, not only the stored one (in a puzzle
+//! about fours, a win with fours: a four after which only a win with threes is left is wrong,
+//! as every move after it would be); in a defence puzzle any move after which the opponent
+//! has no forced win is. Hints are in `hints.rs`.
 //!
 //! Grades carry structured reasons ([`ReplyNote`], [`WrongReason`], [`SolvedBy`], and the
 //! engine's [`MoveError`] for an illegal move); [`crate::words`] turns them into sentences.
@@ -81,12 +83,16 @@ pub enum SolvedBy {
 /// Why a move is wrong. The refutation that shows it is in [`Grade::Wrong`].
 #[derive(Clone, Copy, Debug, PartialEq, Eq, serde::Serialize, serde::Deserialize)]
 pub enum WrongReason {
-    /// The move was a four; the forced block at `block` leaves no winning follow-up.
+    /// The move was a four; the forced block at `block` leaves no winning follow-up of the
+    /// puzzle's kind.
     NoFollowUp {
         /// The opponent's block.
         block: Point,
         /// Whether the block makes a four of the opponent's own.
         counter_four: bool,
+        /// Whether the puzzle asks for fours (so the follow-up missing is one with fours: a
+        /// win with threes may still be there, and is not this puzzle's answer).
+        fours: bool,
     },
     /// The opponent answers with a win of its own by fours, starting at `first`.
     OpponentWins {
@@ -425,16 +431,6 @@ impl Session {
         } else {
             self.keeps_win(solver, Budget::GRADING, mode)
         };
-        if verdict != Verdict::Win && mode == Mode::Vcf {
-            // A win is a win, even with a three in a puzzle about fours.
-            let vct = self
-                .ask(solver, Budget::GRADING)
-                .wins_after(&self.board, me, them, Mode::Vct)
-                .0;
-            if vct == Verdict::Win {
-                verdict = Verdict::Win;
-            }
-        }
         if verdict == Verdict::Unknown && self.on_key() {
             // The phone's budget cannot decide, but the move is the answer key's, which was
             // proved with a larger budget when the puzzle was made (or is proved now).
@@ -788,13 +784,58 @@ mod tests {
                     reason,
                     WrongReason::NoFollowUp {
                         block: "l8".parse().unwrap(),
-                        counter_four: true
+                        counter_four: true,
+                        fours: true,
                     }
                 );
                 assert_eq!(s.state(), State::Failed);
                 assert!(s.undo());
                 assert_eq!(s.board().get("k8".parse().unwrap()), None);
                 assert_eq!(s.state(), State::Playing);
+            }
+            other => panic!("{other:?}"),
+        }
+    }
+
+    #[test]
+    fn in_a_puzzle_about_fours_a_four_that_keeps_only_a_win_with_threes_is_wrong() {
+        // A Drill puzzle an exploratory test played: the key is d7. c7 is a four, and after
+        // White's forced block at d7 Black still wins, but only with threes: the puzzle asks
+        // for fours, and its next move could not be graded right (every move after it is
+        // "not a four"), so the four is wrong, with the block as its refutation.
+        let p = puzzle(
+            Rule::Freestyle,
+            "e5 f6 e7 f7 g7 h8 i8 g9 g10 g11 h11 j11 f12",
+            "d4 h7 f8 g8 j8 h9 i9 f10 i10 f11 k11 g12 k12",
+            Stone::Black,
+            Theme::Vcf,
+        );
+        assert_eq!(p.first_moves, pts("d7"));
+        let mut solver = Solver::default();
+        let mut after = p.board();
+        after.place("c7".parse().unwrap(), Stone::Black);
+        after.place("d7".parse().unwrap(), Stone::White);
+        let mut ask = solver.ask(Budget::VERIFICATION);
+        assert_eq!(
+            ask.solve(&after, Stone::Black, Mode::Vct).verdict,
+            Verdict::Win
+        );
+        assert_eq!(
+            ask.solve(&after, Stone::Black, Mode::Vcf).verdict,
+            Verdict::NoWin
+        );
+        let mut s = Session::new(p);
+        match s.play(&mut solver, "c7".parse().unwrap()) {
+            Grade::Wrong { refutation, reason } => {
+                assert_eq!(refutation, pts("d7"));
+                assert_eq!(
+                    reason,
+                    WrongReason::NoFollowUp {
+                        block: "d7".parse().unwrap(),
+                        counter_four: false,
+                        fours: true,
+                    }
+                );
             }
             other => panic!("{other:?}"),
         }

@@ -4,7 +4,8 @@
 //! A [`Puzzle`] is a position with a goal ("win" or "defend"), a theme, the proved correct first
 //! moves and one shortest main line. Puzzles are made by [`generate::generate`], re-proved by
 //! [`verify`] and graded live by [`grade::Session`], which accepts any move that keeps a proved
-//! forced win (or, in a defence puzzle, any move after which the opponent has none), not only
+//! forced win of the puzzle's kind (with fours, in a puzzle about fours; or, in a defence
+//! puzzle, any move after which the opponent has none), not only
 //! the stored ones; `refute.rs` says why a wrong move fails and [`hints`] gives the three hint
 //! steps. [`attempt::Attempt`] is how a try went.
 

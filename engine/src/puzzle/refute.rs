@@ -43,6 +43,7 @@ impl Session {
                     WrongReason::NoFollowUp {
                         block,
                         counter_four,
+                        fours: mode == Mode::Vcf,
                     },
                 )
             });
