@@ -241,7 +241,8 @@ pub fn wrong(reason: WrongReason, p: Point, player: Stone) -> String {
             format!("{t} defends at {at}, and {m} has no more threats that win.")
         }
         WrongReason::NotForcing { fours: true } => {
-            format!("{p} is not a four; this puzzle asks for a win with fours.")
+            // True of a four-three puzzle too: its key is a four, and so is every move after.
+            format!("{p} is not a four; every attacking move of this puzzle's win is a four.")
         }
         WrongReason::NotForcing { fours: false } => {
             format!("{p} is not a forcing move; this puzzle asks for a win with threes and fours.")
@@ -921,6 +922,10 @@ mod tests {
                 Stone::Black
             ),
             "White blocks at l8, and Black has no more fours that win."
+        );
+        assert_eq!(
+            wrong(WrongReason::NotForcing { fours: true }, p, Stone::Black),
+            "k8 is not a four; every attacking move of this puzzle's win is a four."
         );
         assert_eq!(
             wrong(
