@@ -166,7 +166,7 @@ export class Tonight {
     $('share-code').addEventListener('click', () => this.sendCode());
     $('finish-anyway').addEventListener('click', () => this.showSummary());
     $('finish-go').addEventListener('click', () => {
-      const first = this.untried(this.data.open)[0];
+      const first = this.unfinished(this.data.open)[0];
       if (first !== undefined) this.openSet(this.data.open, first);
     });
     $('library').addEventListener('toggle', () => this.renderLibrary());
@@ -605,26 +605,37 @@ export class Tonight {
     if (what === 'next') {
       const prog = this.progressOf(key);
       if (prog.index + 1 < this.puzzlesOf(key).length) this.openSet(key, prog.index + 1);
-      else if (this.untried(key).length) this.askFinish(key);
+      else if (this.unfinished(key).length) this.askFinish(key);
       else this.showSummary();
     }
   }
 
-  /** The indices of the set's puzzles not tried yet. */
-  untried(key) {
-    return this.outcomes(key).flatMap((o, i) => (o === 'untried' ? [i] : []));
+  /** The indices of the set's puzzles with the given raw attempt names, in set order. */
+  withAttempt(key, names) {
+    const recs = this.progressOf(key).puzzles;
+    return this.puzzlesOf(key).flatMap((p, i) => (names.includes(own(recs, p.id)?.outcome ?? 'untried') ? [i] : []));
   }
 
-  /** Before the summary of a set with untried puzzles: says which, and lets the player finish
-   * anyway or go to the first of them. */
+  /** The indices of the set's puzzles not tried yet, or begun and not finished. */
+  unfinished(key) {
+    return this.withAttempt(key, ['untried', 'trying']);
+  }
+
+  /** Before the summary of a set with puzzles not tried or not finished: says which, and how
+   * each counts, and lets the player finish anyway or go to the first of them. */
   askFinish(key) {
-    const left = this.untried(key).map((i) => String(i + 1));
-    const shown = left.length > 8 ? [...left.slice(0, 7), `${left.length - 7} more`] : left;
-    const list = new Intl.ListFormat('en', { type: 'conjunction' }).format(shown);
-    $('tonight-finish-text').textContent = left.length === 1
-      ? `Puzzle ${list} is not tried yet. Finish the set anyway? It counts as not tried in your result code.`
-      : `${left.length} puzzles are not tried yet: ${list}. Finish the set anyway? They count as not tried in your result code.`;
-    $('finish-go').textContent = `Go to puzzle ${left[0]}`;
+    const said = (indices, one, many, counts) => {
+      const left = indices.map((i) => String(i + 1));
+      if (!left.length) return '';
+      const shown = left.length > 8 ? [...left.slice(0, 7), `${left.length - 7} more`] : left;
+      const list = new Intl.ListFormat('en', { type: 'conjunction' }).format(shown);
+      return left.length === 1 ? `Puzzle ${list} is ${one} (it counts as ${counts}). ` : `${left.length} puzzles are ${many}: ${list} (they count as ${counts}). `;
+    };
+    $('tonight-finish-text').textContent =
+      said(this.withAttempt(key, ['untried']), 'not tried yet', 'not tried yet', 'not tried') +
+      said(this.withAttempt(key, ['trying']), 'begun and not finished', 'begun and not finished', 'failed') +
+      'Finish the set anyway? That is what your result code will say.';
+    $('finish-go').textContent = `Go to puzzle ${this.unfinished(key)[0] + 1}`;
     $('tonight-finish').hidden = false;
     $('finish-anyway').focus({ preventScroll: true });
     // The whole question in view, clear of the phone's bar (its scroll margins, style.css).

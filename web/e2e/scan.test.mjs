@@ -19,6 +19,8 @@ import {
   useBrowser,
   y4m,
   resultCode,
+  settled,
+  tap,
 } from './support.mjs';
 
 const CLUB = librarySet('fours-freestyle-club');
@@ -93,9 +95,23 @@ test('finishing with untried puzzles asks first; the summary shows the code as a
   await page.click('#finish-go');
   assert.equal(await page.textContent('#tonight-count'), `Puzzle 2 of ${CLUB.puzzles.length}`);
   assert.ok(await page.isHidden('#tonight-finish'), 'the question goes with the puzzle');
+  // Puzzle 2 begun (its first move, and the reply) and left: the question names it too, and
+  // says it counts as failed, as the summary then does.
+  await tap(page, BOARD, CLUB.puzzles[1].solution.line[0], { touch: true });
+  await tap(page, BOARD, CLUB.puzzles[1].solution.line[0], { touch: true });
+  await settled(page, BOARD, 2);
   await finish(page);
+  const left = Array.from({ length: untried - 1 }, (_, i) => String(i + 3));
+  const listed = new Intl.ListFormat('en', { type: 'conjunction' })
+    .format(left.length > 8 ? [...left.slice(0, 7), `${left.length - 7} more`] : left);
+  assert.equal(await page.textContent('#tonight-finish-text'),
+    `${untried - 1} puzzles are not tried yet: ${listed} (they count as not tried). ` +
+    'Puzzle 2 is begun and not finished (it counts as failed). Finish the set anyway? That is what your result code will say.');
+  assert.equal(await page.textContent('#finish-go'), 'Go to puzzle 2');
   await page.click('#finish-anyway');
   await page.waitForSelector('#tonight-summary:not([hidden])');
+  assert.equal(await page.textContent('#tonight-summary .count-failed dd'), '1');
+  assert.equal(await page.textContent('#tonight-summary .count-untried dd'), String(untried - 1));
 
   await page.fill('#student-name', 'Mira Okafor');
   const code = await resultCode(page);
