@@ -343,8 +343,9 @@ export class Games {
         ? `The findings of ${whose} become puzzles when you play or save them (each is proved first, which takes a moment).`
         : `No finding of ${g.player === 'both' ? 'either side' : whose} can become a puzzle.`;
     } else {
+      const all = this.puzzleFindings(g).length;
       say = n
-        ? `${n === 1 ? 'One finding' : `${n} findings`} of ${whose} became ${n === 1 ? 'a puzzle' : 'puzzles'}.`
+        ? `${n < all ? `${n} of the ${all} findings` : n === 1 ? 'The finding' : `All ${n} findings`} of ${whose} became ${n === 1 ? 'a puzzle' : 'puzzles'}, in Revisit from today${n < all ? '; the others could not (a five to make or block, or too many answers, makes none)' : ''}.`
         : `No finding of ${g.player === 'both' ? 'either side' : whose} became a puzzle (a five to make or block, or too many answers, makes none).`;
     }
     const stopped = g.stopped ? ' The check was stopped: the moves not checked are marked so.' : '';
@@ -381,6 +382,11 @@ export class Games {
     g.set = set ?? null;
     g.made = true;
     this.save();
+    // Each puzzle is a miss in the player's own game: it goes to Revisit, as a puzzle missed
+    // here does (not to Progress, which counts tries made in the app).
+    for (const p of set ? JSON.parse(set).puzzles : []) {
+      this.app.practice.finished({ origin: 'games', title: gameHeading(g), puzzle: JSON.stringify(p), attempt: 'failed', outside: true });
+    }
     if (this.open === g) this.renderPuzzles();
     return true;
   }

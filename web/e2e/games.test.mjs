@@ -119,6 +119,13 @@ test('a pasted game is checked, its missed win is shown and played as a puzzle, 
   assert.match(set.title, /^From my games: Harbour Street Circle, round 3$/);
   const puzzle = set.puzzles[0];
   assert.equal(puzzle.to_move, 'black');
+  // Made, it is in Revisit already (a miss of the player's own game), and not in the logbook
+  // (Progress counts tries made in the app).
+  const practice = await page.evaluate(() => JSON.parse(localStorage.getItem('fivefold.practice')).data);
+  const deck = JSON.parse(practice.deck);
+  assert.deepEqual(JSON.stringify(deck).includes(puzzle.id), true, 'the puzzle is in the Revisit deck');
+  assert.ok(!practice.log.includes(puzzle.id), 'no try is logged');
+  assert.match(await page.textContent('#games-puzzles'), /^The finding of Black's moves became a puzzle, in Revisit from today\./);
   assert.equal(await page.textContent('#tonight-set-title'), set.title);
   await tap(page, 'tonight-board', wrongMove(puzzle));
   await page.waitForSelector('#tonight-board[data-state="failed"][data-pending="0"]', { timeout: 30000 });

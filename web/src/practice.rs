@@ -85,6 +85,10 @@ struct FinishJs {
     puzzle_rating: Option<f64>,
     #[serde(default)]
     skipped: bool,
+    /// A miss found outside the app (a finding of My games, made a puzzle): filed in the deck,
+    /// not logged, since the player has not tried it here.
+    #[serde(default)]
+    outside: bool,
     today: Day,
 }
 
@@ -145,9 +149,9 @@ impl Practice {
         self.log.to_json()
     }
 
-    /// Takes in a finished try (see the fields of `FinishJs`): it goes into the logbook, and a
-    /// failed or helped puzzle from Tonight, Drill or My games into Revisit; a try in Revisit
-    /// is a review. Returns `{due, say}`.
+    /// Takes in a finished try (see the fields of `FinishJs`): it goes into the logbook (not a
+    /// miss from outside the app), and a failed or helped puzzle from Tonight, Drill or My
+    /// games into Revisit; a try in Revisit is a review. Returns `{due, say}`.
     pub fn finish(&mut self, finished: JsValue) -> Result<JsValue, JsValue> {
         let f: FinishJs = serde_wasm_bindgen::from_value(finished).map_err(err)?;
         let puzzle = one_puzzle(&f.puzzle)?;
@@ -156,23 +160,25 @@ impl Practice {
         let quick = deck::quick(&puzzle, f.millis);
         let source = Source::new(origin, &f.title);
         let rating = f.rating.map(RatingJs::rating).unwrap_or_default();
-        self.log
-            .record(Entry {
-                day: f.today,
-                rule: puzzle.rule,
-                theme: puzzle.theme,
-                puzzle: puzzle.id.clone(),
-                puzzle_rating: f.puzzle_rating.unwrap_or(f64::from(puzzle.rating)),
-                outcome: attempt,
-                hints: f.hints,
-                wrong: f.wrong,
-                millis: f.millis,
-                rating: rating.rating,
-                deviation: rating.deviation,
-                source: source.clone(),
-                skipped: f.skipped,
-            })
-            .map_err(err)?;
+        if !f.outside {
+            self.log
+                .record(Entry {
+                    day: f.today,
+                    rule: puzzle.rule,
+                    theme: puzzle.theme,
+                    puzzle: puzzle.id.clone(),
+                    puzzle_rating: f.puzzle_rating.unwrap_or(f64::from(puzzle.rating)),
+                    outcome: attempt,
+                    hints: f.hints,
+                    wrong: f.wrong,
+                    millis: f.millis,
+                    rating: rating.rating,
+                    deviation: rating.deviation,
+                    source: source.clone(),
+                    skipped: f.skipped,
+                })
+                .map_err(err)?;
+        }
         let due = if origin == Screen::Revisit && self.deck.get(&puzzle.id).is_some() {
             Some(
                 self.deck
