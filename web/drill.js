@@ -443,11 +443,12 @@ export class Drill {
   }
 
   /** A try ended: rated, then into the logbook and, if missed, into Revisit. Returns what to
-   * say once the app's replies are on show. */
+   * say once the app's replies are on show. Only a puzzle's first finished try counts, as in
+   * Tonight: a retry is practice on a puzzle already counted (one puzzle, one outcome). */
   finished(s, millis) {
     const c = this.data.current;
-    if (!c || this.loading) return;
-    if (!c.rated) this.rate(s.attempt === 'clean');
+    if (!c || this.loading || c.rated) return;
+    this.rate(s.attempt === 'clean');
     const out = this.app.practice.finished({
       origin: 'drill', title: 'Drill', puzzle: JSON.stringify(c.puzzle), attempt: s.attempt,
       hints: s.record.hints, wrong: s.record.wrong, millis, rating: this.ratingFor(c.puzzle.rule),

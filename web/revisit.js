@@ -96,7 +96,10 @@ export class Revisit {
 
   finished(s, millis) {
     const item = this.queue[this.index];
-    if (!item) return;
+    // Only the first finished try of a review counts, as in Tonight and Drill: a retry after
+    // it is practice, and would review the puzzle again.
+    if (!item || item.counted) return;
+    item.counted = true;
     const p = JSON.parse(item.puzzle);
     const out = this.app.practice.finished({
       origin: 'revisit',

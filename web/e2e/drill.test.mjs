@@ -9,8 +9,11 @@ import {
   librarySet,
   open,
   ready,
+  settled,
   solve,
+  tap,
   useBrowser,
+  wrongMove,
 } from './support.mjs';
 
 const BOARD = 'drill-board';
@@ -93,6 +96,19 @@ test('Drill produces puzzles from the worker while the page stays responsive', a
   assert.equal(await page.getAttribute('html', 'data-screen'), 'drill');
   assert.equal((await stored(page)).current.puzzle.id, id);
   assert.equal((await boardState(page, BOARD)).mode, 'puzzle');
+  // Failed twice, then solved on a retry: one puzzle, one outcome. The logbook (so Progress
+  // and Revisit) keeps the first try only, as the rating does.
+  const second = (await stored(page)).current.puzzle;
+  for (let i = 0; i < 2; i++) {
+    await tap(page, BOARD, wrongMove(second));
+    await page.waitForSelector(`#${BOARD}[data-state="failed"][data-pending="0"]`, { timeout: 30000 });
+    await page.click('#drill [data-act="retry"]');
+    await settled(page, BOARD, 0);
+  }
+  await solve(page, BOARD, second.solution.line);
+  const logged = await page.evaluate(() => JSON.parse(JSON.parse(localStorage.getItem('fivefold.practice')).data.log).entries);
+  assert.deepEqual(logged.map((e) => [e.puzzle, e.outcome]), [[p.id, 'clean'], [second.id, 'failed']]);
+  assert.match(await page.textContent('#drill-rating'), / · 2 played, 1 solved clean$/);
   assert.deepEqual(errors, []);
   await context.close();
 });
