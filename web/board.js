@@ -129,10 +129,11 @@ export class BoardView {
       const said = this.onFinish(s, Math.round(performance.now() - this.shownAt));
       if (said) this.afterReplies.push(said);
     }
-    if (s.pending === 0 && this.afterReplies.length) this.say(this.afterReplies.splice(0));
+    const verdict = s.pending === 0 && this.afterReplies.length;
+    if (verdict) this.say(this.afterReplies.splice(0));
     // The buttons under the board change with the state (a failure adds "Show the solution"):
-    // keep the board and them in view together.
-    if (why !== 'load' && s.state !== this.lastState) bringBoard(this.canvas);
+    // keep the board and them in view together, and the verdict under them once it is said.
+    if (why !== 'load' && (s.state !== this.lastState || verdict)) bringBoard(this.canvas, this.message);
     this.lastState = s.state;
     return s;
   }

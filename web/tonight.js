@@ -624,17 +624,16 @@ export class Tonight {
   /** Before the summary of a set with puzzles not tried or not finished: says which, and how
    * each counts, and lets the player finish anyway or go to the first of them. */
   askFinish(key) {
-    const said = (indices, one, many, counts) => {
+    const said = (indices, what, counts = '') => {
       const left = indices.map((i) => String(i + 1));
       if (!left.length) return '';
       const shown = left.length > 8 ? [...left.slice(0, 7), `${left.length - 7} more`] : left;
       const list = new Intl.ListFormat('en', { type: 'conjunction' }).format(shown);
-      return left.length === 1 ? `Puzzle ${list} is ${one} (it counts as ${counts}). ` : `${left.length} puzzles are ${many}: ${list} (they count as ${counts}). `;
+      return left.length === 1 ? `Puzzle ${list} is ${what}${counts && `: it counts as ${counts}`}. `
+        : `${left.length} puzzles are ${what}: ${list}${counts && `; they count as ${counts}`}. `;
     };
-    $('tonight-finish-text').textContent =
-      said(this.withAttempt(key, ['untried']), 'not tried yet', 'not tried yet', 'not tried') +
-      said(this.withAttempt(key, ['trying']), 'begun and not finished', 'begun and not finished', 'failed') +
-      'Finish the set anyway? That is what your result code will say.';
+    $('tonight-finish-text').textContent = said(this.withAttempt(key, ['untried']), 'not tried yet') +
+      said(this.withAttempt(key, ['trying']), 'begun and not finished', 'failed') + 'Finish the set anyway?';
     $('finish-go').textContent = `Go to puzzle ${this.unfinished(key)[0] + 1}`;
     $('tonight-finish').hidden = false;
     $('finish-anyway').focus({ preventScroll: true });

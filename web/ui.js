@@ -106,17 +106,19 @@ export function clearBanner(id) {
 }
 
 /**
- * When the board and the buttons under it are not both in view (a phone with large text),
- * scrolls the page so that they are, keeping the board's top in view.
+ * When the board and the buttons under it (and `message`, a verdict under them, when given)
+ * are not all in view (a phone, large text), scrolls the page so that as much of them is,
+ * keeping the board's top in view.
  */
-export function bringBoard(canvas) {
+export function bringBoard(canvas, message = null) {
   const frame = canvas.closest('.board-frame');
   const actions = frame?.parentElement?.querySelector('.actions:not([hidden])');
   if (!shown(frame) || !shown(actions)) return;
   const rail = document.querySelector('.rail')?.getBoundingClientRect();
   const bottom = rail && rail.top > innerHeight / 2 ? rail.top : innerHeight;
   const top = frame.getBoundingClientRect().top;
-  const end = actions.getBoundingClientRect().bottom;
+  const below = shown(message) && message.textContent ? message.getBoundingClientRect().bottom : 0;
+  const end = Math.max(actions.getBoundingClientRect().bottom, below);
   let by = end > bottom ? end - bottom + 8 : 0;
   if (top < 0) by = top - 4;
   else if (top - by < 0 && getComputedStyle(frame).position !== 'sticky') by = top - 4;

@@ -347,6 +347,26 @@ test('a title of one long word fits a 360 px phone: its puzzles and the list of 
   await c.context.close();
 });
 
+test('on a 360 px phone, the verdict of a wrong move is brought into view with the board\'s top', async () => {
+  const c = await openAt({ width: 360, height: 740, dpr: 2, touch: true });
+  const { page, errors } = c;
+  await addFromLibrary(page, CLUB.title);
+  const wrong = wrongMove(CLUB.puzzles[0]);
+  await tap(page, 'tonight-board', wrong, { touch: true });
+  await tap(page, 'tonight-board', wrong, { touch: true });
+  await page.waitForSelector('#tonight-board[data-state="failed"][data-pending="0"]', { timeout: 30000 });
+  await page.waitForTimeout(100);
+  const r = await page.evaluate(() => {
+    const box = (id) => document.getElementById(id).getBoundingClientRect();
+    return { board: box('tonight-board').top, message: box('tonight-message').bottom, rail: document.querySelector('.rail').getBoundingClientRect().top };
+  });
+  assert.ok(r.board >= 0 && r.message <= r.rail, JSON.stringify(r));
+  assert.match(await page.textContent('#tonight-message'), /not right/);
+  await artefact(page, 'phone-360-wrong-move');
+  assert.deepEqual(errors, []);
+  await c.context.close();
+});
+
 test('banners float over the page without moving the board, and information goes away by itself', async () => {
   const c = await context(env.browser, PHONE);
   const { page, errors } = c;

@@ -105,8 +105,7 @@ test('finishing with untried puzzles asks first; the summary shows the code as a
   const listed = new Intl.ListFormat('en', { type: 'conjunction' })
     .format(left.length > 8 ? [...left.slice(0, 7), `${left.length - 7} more`] : left);
   assert.equal(await page.textContent('#tonight-finish-text'),
-    `${untried - 1} puzzles are not tried yet: ${listed} (they count as not tried). ` +
-    'Puzzle 2 is begun and not finished (it counts as failed). Finish the set anyway? That is what your result code will say.');
+    `${untried - 1} puzzles are not tried yet: ${listed}. Puzzle 2 is begun and not finished: it counts as failed. Finish the set anyway?`);
   assert.equal(await page.textContent('#finish-go'), 'Go to puzzle 2');
   await page.click('#finish-anyway');
   await page.waitForSelector('#tonight-summary:not([hidden])');
