@@ -177,7 +177,7 @@ pub fn reply(note: ReplyNote, reply: Point, player: Stone) -> String {
         ReplyNote::BlocksOneOfTwo => format!("{t} blocks at {reply}, but cannot block both ends."),
         ReplyNote::BlocksWithFour => format!("{t} blocks at {reply} and makes a four of its own."),
         ReplyNote::CannotBlock { at, why } => format!(
-            "{t} cannot block at {at}: it would make {} (forbidden for Black).",
+            "{t} cannot block at {at}: it would make {} (forbidden for Black); {t} plays {reply}.",
             forbidden(why)
         ),
         ReplyNote::AnswersWithFour => format!("{t} answers at {reply} with a four."),
@@ -893,6 +893,27 @@ mod tests {
             "Comes back tomorrow (Thursday 3 December 2026)."
         );
         assert_eq!(comes_back(20_789, 20_789), "Comes back today.");
+    }
+
+    #[test]
+    fn a_reply_that_cannot_block_says_where_it_went() {
+        let (e9, d8): (Point, Point) = ("e9".parse().unwrap(), "d8".parse().unwrap());
+        let said = reply(
+            ReplyNote::CannotBlock {
+                at: e9,
+                why: Forbidden::DoubleFour,
+            },
+            d8,
+            Stone::White,
+        );
+        assert!(
+            said.starts_with("Black cannot block at e9: it would make "),
+            "{said}"
+        );
+        assert!(
+            said.ends_with(" (forbidden for Black); Black plays d8."),
+            "{said}"
+        );
     }
 
     #[test]
