@@ -135,6 +135,20 @@ test('a failed puzzle comes back on the schedule, and its solution can be shown'
   // Two days played, the last some days ago: the streak is broken, and nothing says to keep it.
   assert.equal(await page.textContent('#progress-streaks'), 'No current streak (play today to start one). Best: 2.');
   await artefact(page, 'progress-desktop');
+
+  // Due again: failed, then solved on a retry. The review counts its first try only (one
+  // more entry, failed), as Tonight and Drill count a puzzle.
+  const reviews = async () => (await page.evaluate(() => JSON.parse(JSON.parse(localStorage.getItem('fivefold.practice')).data.log)))
+    .entries.filter((e) => e.source.origin === 'revisit').map((e) => e.outcome);
+  assert.deepEqual(await reviews(), ['clean']);
+  await goTo(page, 'revisit');
+  await page.click('#revisit-start');
+  await page.waitForSelector('#revisit-board[data-mode="puzzle"]');
+  await tap(page, 'revisit-board', wrongMove(FIRST));
+  await page.waitForSelector('#revisit-board[data-state="failed"][data-pending="0"]');
+  await page.click('#revisit-play [data-act="retry"]');
+  await solve(page, 'revisit-board', line);
+  assert.deepEqual(await reviews(), ['clean', 'failed']);
   assert.deepEqual(errors, []);
   await ctx.close();
 });
