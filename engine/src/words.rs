@@ -347,7 +347,7 @@ pub fn removed(c: Stone, p: Point) -> String {
     format!("Removed {} {p}.", c.name())
 }
 
-/// A five made on the study board.
+/// A five made on the study board, or one on the board it shows.
 pub fn five_made(c: Stone) -> String {
     format!("{} has five in a row.", colour(c))
 }

@@ -70,7 +70,7 @@ pub struct StudyStatus {
     pub rule: Rule,
     /// The side to move.
     pub to_move: Stone,
-    /// "Black to move" or "White to move".
+    /// "Black to move" or "White to move", or, with a five on the board, who made it.
     pub goal: String,
     /// The points edited, in order.
     pub moves: Vec<Point>,
@@ -406,7 +406,10 @@ impl StudyBoard {
             size: self.size(),
             rule: self.board.rule(),
             to_move: self.to_move,
-            goal: words::to_move(self.to_move),
+            goal: match self.board.find_winner() {
+                Some(c) => words::five_made(c),
+                None => words::to_move(self.to_move),
+            },
             moves: self.edits.iter().map(|e| e.point).collect(),
             game: self.is_game(),
             tool: self.tool,
@@ -581,6 +584,15 @@ mod tests {
             Some(Stone::Black),
             "the position before the clear"
         );
+    }
+
+    #[test]
+    fn a_position_with_a_five_says_so() {
+        let mut b = StudyBoard::new(15, Rule::Freestyle).unwrap();
+        b.paste("h8 h9").unwrap();
+        assert_eq!(b.status().goal, "Black to move");
+        b.paste("h8 h9 i8 i9 j8 j9 k8 k9 l8").unwrap();
+        assert_eq!(b.status().goal, "Black has five in a row.");
     }
 
     #[test]
