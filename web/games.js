@@ -345,7 +345,7 @@ export class Games {
     } else {
       const all = this.puzzleFindings(g).length;
       say = n
-        ? `${n < all ? `${n} of the ${all} findings` : n === 1 ? 'The finding' : `All ${n} findings`} of ${whose} became ${n === 1 ? 'a puzzle' : 'puzzles'}, in Revisit from today${n < all ? '; the others could not (a five to make or block, or too many answers, makes none)' : ''}.`
+        ? `${n < all ? `${n} of the ${all} findings` : n === 1 ? 'The finding' : `All ${n} findings`} of ${whose} became ${n === 1 ? 'a puzzle' : 'puzzles'}, filed in Revisit${n < all ? '; the others could not (a five to make or block, or too many answers, makes none)' : ''}.`
         : `No finding of ${g.player === 'both' ? 'either side' : whose} became a puzzle (a five to make or block, or too many answers, makes none).`;
     }
     const stopped = g.stopped ? ' The check was stopped: the moves not checked are marked so.' : '';
@@ -556,7 +556,7 @@ export class Games {
       banner(`The puzzles could not be added to Tonight: ${e.message ?? e}.`, { kind: 'error', id: 'games' });
       return;
     }
-    banner(got.added ? `Added "${got.title}" to Tonight. A puzzle you miss comes back in Revisit.`
+    banner(got.added ? `Added "${got.title}" to Tonight. Its puzzles are in Revisit too.`
       : `"${got.title}" is already in Tonight: opened it.`, { id: 'games' });
     this.app.go('tonight');
     this.app.tonight.openSet(got.key);

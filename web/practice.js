@@ -57,7 +57,8 @@ export class PracticeStore {
 
   /**
    * A finished try: `{origin, title, puzzle (set-file puzzle JSON text), attempt, hints, wrong,
-   * millis, rating, puzzleRating, skipped}`. Returns `{due, say}` (when it comes back to
+   * millis, rating, puzzleRating, skipped, outside}` (`outside`: a miss of the player's own
+   * game, filed in Revisit untried and not logged). Returns `{due, say}` (when it comes back to
    * Revisit, in words), or null if it could not be recorded.
    */
   finished(entry) {

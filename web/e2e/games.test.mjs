@@ -123,9 +123,11 @@ test('a pasted game is checked, its missed win is shown and played as a puzzle, 
   // (Progress counts tries made in the app).
   const practice = await page.evaluate(() => JSON.parse(localStorage.getItem('fivefold.practice')).data);
   const deck = JSON.parse(practice.deck);
-  assert.deepEqual(JSON.stringify(deck).includes(puzzle.id), true, 'the puzzle is in the Revisit deck');
+  const filed = deck.items.filter((i) => i.id === puzzle.id);
+  assert.equal(filed.length, 1, 'the puzzle is in the Revisit deck');
+  assert.deepEqual(filed[0].reviews, [], 'untried: the first try here is its first review');
   assert.ok(!practice.log.includes(puzzle.id), 'no try is logged');
-  assert.match(await page.textContent('#games-puzzles'), /^The finding of Black's moves became a puzzle, in Revisit from today\./);
+  assert.match(await page.textContent('#games-puzzles'), /^The finding of Black's moves became a puzzle, filed in Revisit\./);
   assert.equal(await page.textContent('#tonight-set-title'), set.title);
   await tap(page, 'tonight-board', wrongMove(puzzle));
   await page.waitForSelector('#tonight-board[data-state="failed"][data-pending="0"]', { timeout: 30000 });

@@ -85,8 +85,9 @@ struct FinishJs {
     puzzle_rating: Option<f64>,
     #[serde(default)]
     skipped: bool,
-    /// A miss found outside the app (a finding of My games, made a puzzle): filed in the deck,
-    /// not logged, since the player has not tried it here.
+    /// A miss found outside the app (a finding of My games, made a puzzle): filed in the deck
+    /// as a new card due today, with no review, and not logged, since the player has not tried
+    /// it here (`Deck::file`).
     #[serde(default)]
     outside: bool,
     today: Day,
@@ -179,7 +180,9 @@ impl Practice {
                 })
                 .map_err(err)?;
         }
-        let due = if origin == Screen::Revisit && self.deck.get(&puzzle.id).is_some() {
+        let due = if f.outside {
+            Some(self.deck.file(&puzzle, source, f.today))
+        } else if origin == Screen::Revisit && self.deck.get(&puzzle.id).is_some() {
             Some(
                 self.deck
                     .record(&puzzle.id, attempt, quick, f.today)

@@ -82,5 +82,14 @@ mod tests {
         let sgf = "(;FF[4]GM[4]SZ[15]PB[\u{202e}Ines Varga];B[hh])";
         let loaded = sgf::read_sgf(sgf.as_bytes(), games::Choices::default()).unwrap();
         assert_eq!(loaded.games[0].info().black.as_deref(), Some("Ines Varga"));
+        let lists = games::read_move_lists(
+            "# \u{202e}Harbour Street, round 3\nh8 h9 i8",
+            games::Choices::default(),
+        )
+        .unwrap();
+        assert_eq!(
+            lists[0].info().title.as_deref(),
+            Some("Harbour Street, round 3")
+        );
     }
 }

@@ -94,13 +94,12 @@ impl Session {
         let mut ask = self.ask(solver, Budget::GRADING);
         match self.puzzle.goal() {
             Goal::Win => {
+                // The puzzle's own kind only: a win with threes named in a puzzle about fours
+                // would be graded wrong.
                 let sol = ask.solve(&self.board, me, self.mode());
-                let sol = if sol.verdict == Verdict::Win {
-                    sol
-                } else {
-                    ask.solve(&self.board, me, Mode::Vct)
-                };
-                sol.line.first().copied()
+                (sol.verdict == Verdict::Win)
+                    .then(|| sol.line.first().copied())
+                    .flatten()
             }
             Goal::Defend => ask
                 .defences(&self.board, me, Mode::Vct)

@@ -368,6 +368,28 @@ impl Deck {
         Ok(Filed::New { due, evicted })
     }
 
+    /// Files a miss found outside the app (a finding of the player's own game, made a puzzle):
+    /// a puzzle not in the deck enters it as a new card, due on `today`, with no review (the
+    /// player has not tried it here; the first try is its first review). A puzzle already in
+    /// the deck is left as it is. Returns the day it is due.
+    pub fn file(&mut self, puzzle: &Puzzle, source: Source, today: Day) -> Day {
+        if let Some(item) = self.items.iter().find(|i| i.id == puzzle.id) {
+            return item.card.due;
+        }
+        if self.items.len() >= CAPACITY {
+            self.evict();
+        }
+        self.items.push(Item {
+            id: puzzle.id.clone(),
+            puzzle: puzzle_value(puzzle),
+            source: Source::new(source.origin, &source.title),
+            added: today,
+            card: Card::new(today),
+            reviews: Vec::new(),
+        });
+        today
+    }
+
     /// The puzzles due on `today` (or earlier), the longest overdue first; among those due on
     /// the same day, the one added first.
     pub fn due(&self, today: Day) -> Vec<&Item> {
@@ -706,6 +728,32 @@ mod tests {
         };
         assert_eq!(player_moves(&d), 1);
         assert!(quick(&d, 10_000) && !quick(&d, 10_001));
+    }
+
+    #[test]
+    fn a_miss_from_outside_is_due_today_with_no_review_and_filed_once() {
+        let mut deck = Deck::new();
+        let day = 20_454;
+        let games = Source::new(Screen::Games, "From my games");
+        assert_eq!(deck.file(&puzzle("a"), games.clone(), day), day);
+        assert_eq!(deck.due(day).len(), 1);
+        assert!(deck.get("a").unwrap().reviews.is_empty());
+        // Filed again (the same game checked again): left as it is.
+        assert_eq!(deck.file(&puzzle("a"), games.clone(), day + 3), day);
+        assert_eq!((deck.len(), deck.get("a").unwrap().added), (1, day));
+        // The first try in the app is its first review: a miss comes back tomorrow, as a miss
+        // of a puzzle not in the deck does.
+        let r = deck.add(&puzzle("a"), drill(), Attempt::Failed, false, day);
+        assert_eq!(r, Ok(Filed::Reviewed { due: day + 1 }));
+        assert_eq!(deck.get("a").unwrap().reviews.len(), 1);
+        // A card without reviews reads back from storage.
+        deck.file(&puzzle("b"), games, day);
+        let back = Deck::from_json(&deck.to_json()).unwrap();
+        assert_eq!(back.to_json(), deck.to_json());
+        // Filed in a puzzle already in the deck, nothing changes.
+        let before = deck.to_json();
+        deck.file(&puzzle("a"), drill(), day + 5);
+        assert_eq!(deck.to_json(), before);
     }
 
     #[test]
