@@ -163,6 +163,19 @@ pub struct Item {
 }
 
 impl Item {
+    /// A puzzle entering the deck on `today`, from `source`: a new card, due that day, with
+    /// no review yet.
+    fn new(puzzle: &Puzzle, source: Source, today: Day) -> Item {
+        Item {
+            id: puzzle.id.clone(),
+            puzzle: puzzle_value(puzzle),
+            source: Source::new(source.origin, &source.title),
+            added: today,
+            card: Card::new(today),
+            reviews: Vec::new(),
+        }
+    }
+
     /// The puzzle.
     pub fn puzzle(&self) -> Result<Puzzle, SetError> {
         puzzle_from_value(&self.puzzle)
@@ -355,14 +368,7 @@ impl Deck {
         } else {
             None
         };
-        let mut item = Item {
-            id: puzzle.id.clone(),
-            puzzle: puzzle_value(puzzle),
-            source: Source::new(source.origin, &source.title),
-            added: today,
-            card: Card::new(today),
-            reviews: Vec::new(),
-        };
+        let mut item = Item::new(puzzle, source, today);
         let due = review_item(&mut item, attempt, quick, g, today);
         self.items.push(item);
         Ok(Filed::New { due, evicted })
@@ -379,14 +385,7 @@ impl Deck {
         if self.items.len() >= CAPACITY {
             self.evict();
         }
-        self.items.push(Item {
-            id: puzzle.id.clone(),
-            puzzle: puzzle_value(puzzle),
-            source: Source::new(source.origin, &source.title),
-            added: today,
-            card: Card::new(today),
-            reviews: Vec::new(),
-        });
+        self.items.push(Item::new(puzzle, source, today));
         today
     }
 
