@@ -66,7 +66,7 @@ export class Revisit {
         el('div', {},
           el('h3', { class: 'set-title', text: from }),
           el('p', { class: 'meta', text: what }),
-          el('p', { class: 'meta', text: `${p.rule} · ${item.tries} ${item.tries === 1 ? 'try' : 'tries'} so far · ${late}` })));
+          el('p', { class: 'meta', text: `${p.rule} · ${item.tries ? `${item.tries} ${item.tries === 1 ? 'try' : 'tries'} so far` : 'missed in a game, not tried here yet'} · ${late}` })));
     }));
   }
 

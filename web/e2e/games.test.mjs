@@ -128,6 +128,10 @@ test('a pasted game is checked, its missed win is shown and played as a puzzle, 
   assert.deepEqual(filed[0].reviews, [], 'untried: the first try here is its first review');
   assert.ok(!practice.log.includes(puzzle.id), 'no try is logged');
   assert.match(await page.textContent('#games-puzzles'), /^The finding of Black's moves became a puzzle, filed in Revisit\./);
+  await goTo(page, 'revisit');
+  const meta = await page.$$eval('#revisit-list li .meta', (l) => l.map((x) => x.textContent));
+  assert.match(meta[1], /^\w+ · missed in a game, not tried here yet · due today$/, meta.join(' | '));
+  await goTo(page, 'tonight');
   assert.equal(await page.textContent('#tonight-set-title'), set.title);
   await tap(page, 'tonight-board', wrongMove(puzzle));
   await page.waitForSelector('#tonight-board[data-state="failed"][data-pending="0"]', { timeout: 30000 });
