@@ -31,6 +31,9 @@ function gameHeading(g) {
   return `A game of ${g.moves.length} moves`;
 }
 
+// Why a finding makes no puzzle, for the note under a game.
+const MAKES_NONE = '(a five to make or block, or too many answers, makes none)';
+
 export class Games {
   constructor(app) {
     this.app = app;
@@ -345,8 +348,8 @@ export class Games {
     } else {
       const all = this.puzzleFindings(g).length;
       say = n
-        ? `${n < all ? `${n} of the ${all} findings` : n === 1 ? 'The finding' : `All ${n} findings`} of ${whose} became ${n === 1 ? 'a puzzle' : 'puzzles'}, filed in Revisit${n < all ? '; the others could not (a five to make or block, or too many answers, makes none)' : ''}.`
-        : `No finding of ${g.player === 'both' ? 'either side' : whose} became a puzzle (a five to make or block, or too many answers, makes none).`;
+        ? `${n < all ? `${n} of the ${all} findings` : n === 1 ? 'The finding' : `All ${n} findings`} of ${whose} became ${n === 1 ? 'a puzzle' : 'puzzles'}, filed in Revisit${n < all ? `; the others could not ${MAKES_NONE}` : ''}.`
+        : `No finding of ${g.player === 'both' ? 'either side' : whose} became a puzzle ${MAKES_NONE}.`;
     }
     const stopped = g.stopped ? ' The check was stopped: the moves not checked are marked so.' : '';
     $('games-puzzles').textContent = `${say} Checked under ${g.rule} rules with ${g.budget}; a move that budget could not settle is marked undecided, never guessed.${stopped}`;

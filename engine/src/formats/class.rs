@@ -345,11 +345,11 @@ fn letter(c: char) -> bool {
 /// direction marks, embeddings, overrides and isolates, the byte-order mark and the like).
 fn shows(c: char) -> bool {
     !c.is_control()
+        && !super::turns_direction(c)
         && !matches!(c,
-            '\u{ad}' | '\u{600}'..='\u{605}' | '\u{61c}' | '\u{6dd}' | '\u{70f}' | '\u{180e}'
-            | '\u{200b}'..='\u{200f}' | '\u{202a}'..='\u{202e}' | '\u{2060}'..='\u{2064}'
-            | '\u{2066}'..='\u{206f}' | '\u{feff}' | '\u{fff9}'..='\u{fffb}'
-            | '\u{e0001}' | '\u{e0020}'..='\u{e007f}')
+            '\u{ad}' | '\u{600}'..='\u{605}' | '\u{6dd}' | '\u{70f}' | '\u{180e}'
+            | '\u{200b}'..='\u{200d}' | '\u{2060}'..='\u{2064}' | '\u{206a}'..='\u{206f}'
+            | '\u{feff}' | '\u{fff9}'..='\u{fffb}' | '\u{e0001}' | '\u{e0020}'..='\u{e007f}')
 }
 
 /// For reading codes across words: `before[j]`, the symbols in `words[..j]`, and `ends[s]`,

@@ -27,12 +27,17 @@ pub mod sheet;
 /// sentences, a title that starts with a right-to-left override would turn the rest of the
 /// sentence round ("Added ".thginoT ot ..."); letters of a right-to-left alphabet stay.
 pub fn plain(text: &str) -> Cow<'_, str> {
-    let bidi = |c: char| matches!(c, '\u{61c}' | '\u{200e}' | '\u{200f}' | '\u{202a}'..='\u{202e}' | '\u{2066}'..='\u{2069}');
-    if text.contains(bidi) {
-        Cow::Owned(text.chars().filter(|&c| !bidi(c)).collect())
+    if text.contains(turns_direction) {
+        Cow::Owned(text.chars().filter(|&c| !turns_direction(c)).collect())
     } else {
         Cow::Borrowed(text)
     }
+}
+
+/// Whether a character is one of UAX #9's bidirectional formatting characters (see
+/// [`plain`]).
+pub(crate) fn turns_direction(c: char) -> bool {
+    matches!(c, '\u{61c}' | '\u{200e}' | '\u{200f}' | '\u{202a}'..='\u{202e}' | '\u{2066}'..='\u{2069}')
 }
 
 #[cfg(test)]
